@@ -1,0 +1,32 @@
+/**
+ * The route table. Pages load lazily; each feature adds its entries here (one object per route).
+ */
+import { createBrowserRouter, type RouteObject } from "react-router-dom";
+import { AppLayout } from "../components/layouts/app-layout";
+import { RouteError } from "./routes/route-error";
+import { HomePage } from "./routes/home";
+import { NotFoundPage } from "./routes/not-found";
+import { ComingSoon } from "./routes/coming-soon";
+import { paths } from "../config/paths";
+import { queryClient } from "../lib/query-client";
+import { getSessionQueryOptions } from "../features/auth/api/get-session";
+
+const routes: RouteObject[] = [
+  {
+    element: <AppLayout />,
+    errorElement: <RouteError />,
+    loader: () => queryClient.ensureQueryData(getSessionQueryOptions()),
+    children: [
+      { path: paths.home.path, element: <HomePage /> },
+      // --- feature routes (keep one entry per line group, sorted by feature) ---
+      { path: paths.catalogue.path, element: <ComingSoon title="Catalogue" what="Search and filter published networks and download bundles." /> },
+      { path: paths.deposit.path, element: <ComingSoon title="Deposit" what="Submit networks with validated metadata." /> },
+      { path: paths.myDeposits.path, element: <ComingSoon title="My deposits" what="Your drafts and submissions with their states." /> },
+      { path: paths.reviewQueue.path, element: <ComingSoon title="Review queue" what="Submissions awaiting a curator's decision." /> },
+      { path: paths.pipeline.path, element: <ComingSoon title="Metrics pipeline" what="Start and watch metric batches." /> },
+      { path: "*", element: <NotFoundPage /> },
+    ],
+  },
+];
+
+export const router = createBrowserRouter(routes);

@@ -1,0 +1,17 @@
+/** Every client route path in one typed place. `href` builds a link, `path` is the router pattern. */
+export const paths = {
+  home: { path: "/", href: () => "/" },
+  catalogue: { path: "/catalogue", href: () => "/catalogue" },
+  deposit: { path: "/deposit", href: () => "/deposit" },
+  myDeposits: { path: "/my-deposits", href: () => "/my-deposits" },
+  reviewQueue: { path: "/review", href: () => "/review" },
+  pipeline: { path: "/admin/pipeline", href: () => "/admin/pipeline" },
+  users: { path: "/admin/users", href: () => "/admin/users" },
+  outbox: { path: "/admin/outbox", href: () => "/admin/outbox" },
+  signIn: { path: "/sign-in", href: (next?: string) => (next ? `/sign-in?next=${encodeURIComponent(next)}` : "/sign-in") },
+  signUp: { path: "/sign-up", href: () => "/sign-up" },
+  verifyEmail: { path: "/verify-email", href: () => "/verify-email" },
+  forgotPassword: { path: "/forgot-password", href: () => "/forgot-password" },
+  resetPassword: { path: "/reset-password", href: () => "/reset-password" },
+  account: { path: "/account", href: () => "/account" },
+} as const;

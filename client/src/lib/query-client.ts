@@ -1,0 +1,12 @@
+import { QueryClient } from "@tanstack/react-query";
+import { ApiClientError } from "./api-client";
+
+export const queryClient = new QueryClient({
+  defaultOptions: {
+    queries: {
+      staleTime: 30_000,
+      retry: (count, err) => !(err instanceof ApiClientError && err.status < 500) && count < 2,
+      refetchOnWindowFocus: false,
+    },
+  },
+});

@@ -1,0 +1,55 @@
+/**
+ * The product process started by `npm start` (after scripts/start.sh has prepared the database and built
+ * the client): migrates, seeds the demo scenario once, starts the local mail catcher and the web server
+ * (which also runs a metrics worker), prints the URL and the demo sign-ins. SIGINT/SIGTERM stop it cleanly.
+ */
+import { join } from "node:path";
+import { config } from "../server/src/config/env";
+import { migrateUp } from "../server/src/db/migrator";
+import { initModels } from "../server/src/models";
+import { DEMO_ACCOUNTS, seedDemoAccounts } from "../server/src/db/seeders/demo-accounts";
+import { MailCatcher, setCurrentMailCatcher } from "../server/src/lib/mail-catcher";
+import { shutdownServerResources, startServer } from "../server/src/index";
+import { ROOT_DIR } from "../server/src/app";
+import { startupTasks, shutdownTasks } from "../server/src/startup";
+
+const cfg = config();
+const say = (msg: string) => console.log(`\x1b[1;32m[tanglebank]\x1b[0m ${msg}`);
+
+const applied = await migrateUp(cfg.databaseUrl);
+say(applied.length ? `Applied migrations: ${applied.join(", ")}` : "Database schema is up to date.");
+initModels();
+const created = await seedDemoAccounts();
+if (created) say(`Created ${created} demo accounts.`);
+
+const catcher = new MailCatcher(join(ROOT_DIR, ".data", "outbox.jsonl"));
+const mailPort = await catcher.listen(cfg.mailCatcherPort);
+setCurrentMailCatcher(catcher);
+say(`Local mail catcher (SMTP) on 127.0.0.1:${mailPort}`);
+
+const { url, close } = await startServer();
+for (const task of startupTasks) await task({ log: say });
+
+console.log(`
+  Tanglebank is running at ${url}
+
+  Demo sign-ins (password for all: ${DEMO_ACCOUNTS[0].password})
+${DEMO_ACCOUNTS.map((a) => `    ${a.role.padEnd(10)} ${a.email.padEnd(32)} ${a.displayName}`).join("\n")}
+
+  Mail sent by the app is caught locally: sign in as the admin and open Outbox.
+  Press Ctrl-C to stop.
+`);
+
+let stopping = false;
+async function stop(signal: string) {
+  if (stopping) return;
+  stopping = true;
+  say(`${signal}: stopping…`);
+  for (const task of shutdownTasks) await task().catch(() => undefined);
+  await close();
+  await catcher.close();
+  await shutdownServerResources();
+  process.exit(0);
+}
+process.on("SIGINT", () => void stop("SIGINT"));
+process.on("SIGTERM", () => void stop("SIGTERM"));

@@ -1,0 +1,117 @@
+/**
+ * createApp() builds the Express app (exported for supertest); index.ts only listens.
+ */
+import { existsSync, readFileSync } from "node:fs";
+import { dirname, join } from "node:path";
+import { fileURLToPath } from "node:url";
+import express, { type Express } from "express";
+import helmet from "helmet";
+import session from "express-session";
+import connectPgSimple from "connect-pg-simple";
+import pg from "pg";
+import { pinoHttp } from "pino-http";
+import { config } from "./config/env";
+import { initModels } from "./models";
+import { authenticate } from "./middlewares/authenticate";
+import { csrfProtection } from "./middlewares/csrf";
+import { apiNotFound, errorHandler } from "./middlewares/error-handler";
+import { apiRouter } from "./api";
+import { logger } from "./lib/logger";
+
+export const ROOT_DIR = join(dirname(fileURLToPath(import.meta.url)), "..", "..");
+export const CLIENT_DIST = join(ROOT_DIR, "client", "dist");
+export const SCHEMAS_DIR = join(ROOT_DIR, "schemas");
+
+/** Server-side renderers for specific client routes (e.g. JSON-LD on dataset pages); return null to skip. */
+export type HtmlRenderer = (path: string, indexHtml: string) => Promise<string | null>;
+export const htmlRenderers: HtmlRenderer[] = [];
+
+let sessionPool: pg.Pool | undefined;
+export async function closeSessionPool(): Promise<void> {
+  const p = sessionPool;
+  sessionPool = undefined;
+  await p?.end();
+}
+
+export function createApp(): Express {
+  const cfg = config();
+  initModels();
+  const app = express();
+  app.disable("x-powered-by");
+  app.set("trust proxy", "loopback");
+
+  app.use(
+    helmet({
+      contentSecurityPolicy: {
+        useDefaults: false,
+        directives: {
+          defaultSrc: ["'self'"],
+          scriptSrc: ["'self'"],
+          styleSrc: ["'self'", "'unsafe-inline'"],
+          imgSrc: ["'self'", "data:", "blob:"],
+          fontSrc: ["'self'"],
+          connectSrc: ["'self'"],
+          objectSrc: ["'none'"],
+          frameAncestors: ["'none'"],
+          baseUri: ["'self'"],
+          formAction: ["'self'"],
+        },
+      },
+      crossOriginEmbedderPolicy: false,
+    }),
+  );
+  app.use(pinoHttp({ logger, autoLogging: { ignore: (req) => req.url === "/api/v1/health" } }));
+
+  sessionPool ??= new pg.Pool({ connectionString: cfg.databaseUrl, max: 5 });
+  const PgStore = connectPgSimple(session);
+  const sessionMw = session({
+    store: new PgStore({ pool: sessionPool, tableName: "session", createTableIfMissing: false, pruneSessionInterval: 15 * 60 }),
+    name: "tb.sid",
+    secret: cfg.sessionSecret,
+    resave: false,
+    saveUninitialized: false,
+    rolling: true,
+    cookie: { httpOnly: true, sameSite: "lax", secure: cfg.publicUrl.startsWith("https://"), maxAge: 14 * 24 * 3600 * 1000 },
+  });
+
+  // Public JSON Schemas at stable URLs for depositors who prepare metadata by script.
+  app.use("/schemas", express.static(SCHEMAS_DIR, { index: false, extensions: ["json"], fallthrough: true }));
+
+  const api = express.Router();
+  api.use(express.json({ limit: "2mb" }));
+  api.use((req, res, next) => (req.headers.authorization ? next() : sessionMw(req, res, next)));
+  api.use(authenticate);
+  api.use(csrfProtection);
+  api.use(apiRouter());
+  api.use(apiNotFound);
+  app.use("/api/v1", api);
+  app.use("/api", apiNotFound);
+
+  // The built client, with the single-page-app fallback.
+  if (existsSync(CLIENT_DIST)) {
+    app.use(express.static(CLIENT_DIST, { index: false, maxAge: "1h", setHeaders: (res, p) => { if (p.includes("/assets/")) res.setHeader("Cache-Control", "public, max-age=31536000, immutable"); } }));
+  }
+  app.get(/.*/, async (req, res, next) => {
+    const indexPath = join(CLIENT_DIST, "index.html");
+    if (!existsSync(indexPath)) {
+      res.status(503).type("text").send("The client is not built yet: run `npm run build`.");
+      return;
+    }
+    try {
+      const html = readFileSync(indexPath, "utf8");
+      for (const render of htmlRenderers) {
+        const out = await render(req.path, html);
+        if (out !== null) {
+          res.type("html").send(out);
+          return;
+        }
+      }
+      res.type("html").send(html);
+    } catch (err) {
+      next(err);
+    }
+  });
+
+  app.use(errorHandler);
+  return app;
+}

@@ -1,0 +1,50 @@
+/**
+ * Migrations with Umzug. Run in their own Sequelize instance (see stack notes: the app's instance must
+ * read type OIDs after extensions exist). The app migrates on start, never `sync()`.
+ */
+import { readdirSync } from "node:fs";
+import { dirname, join } from "node:path";
+import { fileURLToPath, pathToFileURL } from "node:url";
+import type { QueryInterface, Sequelize } from "sequelize";
+import { SequelizeStorage, Umzug } from "umzug";
+import { createSequelize } from "./sequelize";
+
+export interface MigrationContext {
+  queryInterface: QueryInterface;
+  sequelize: Sequelize;
+}
+export type MigrationFn = (ctx: MigrationContext) => Promise<void>;
+
+const migrationsDir = join(dirname(fileURLToPath(import.meta.url)), "migrations");
+
+export function createMigrator(seq: Sequelize) {
+  const files = readdirSync(migrationsDir)
+    .filter((f) => /^\d{8}-\d{4}-[a-z0-9-]+\.ts$/.test(f))
+    .sort();
+  return new Umzug<MigrationContext>({
+    migrations: files.map((f) => {
+      const path = join(migrationsDir, f);
+      const load = async () => (await import(pathToFileURL(path).href)) as { up: MigrationFn; down: MigrationFn };
+      return {
+        name: f.replace(/\.ts$/, ""),
+        up: async ({ context }) => (await load()).up(context),
+        down: async ({ context }) => (await load()).down(context),
+      };
+    }),
+    context: { queryInterface: seq.getQueryInterface(), sequelize: seq },
+    storage: new SequelizeStorage({ sequelize: seq }),
+    logger: undefined,
+  });
+}
+
+/** Applies all pending migrations to the database at `url`, using a private connection. */
+export async function migrateUp(url: string): Promise<string[]> {
+  const seq = createSequelize(url, { pool: 2 });
+  try {
+    await seq.query("CREATE EXTENSION IF NOT EXISTS hstore; CREATE EXTENSION IF NOT EXISTS pg_trgm;");
+    const done = await createMigrator(seq).up();
+    return done.map((m) => m.name);
+  } finally {
+    await seq.close();
+  }
+}

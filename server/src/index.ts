@@ -1,0 +1,31 @@
+/** Starts the HTTP server (the app itself is built in app.ts). */
+import type { Server } from "node:http";
+import { createApp, closeSessionPool } from "./app";
+import { config } from "./config/env";
+import { closeSequelize } from "./db/sequelize";
+
+export async function startServer(port = config().port, host = config().host): Promise<{ server: Server; url: string; close: () => Promise<void> }> {
+  const app = createApp();
+  const server = await new Promise<Server>((resolve, reject) => {
+    const s = app.listen(port, host, () => resolve(s));
+    s.once("error", reject);
+  });
+  const addr = server.address();
+  const actualPort = typeof addr === "object" && addr ? addr.port : port;
+  return {
+    server,
+    url: `http://${host}:${actualPort}`,
+    close: () => new Promise<void>((resolve) => server.close(() => resolve())),
+  };
+}
+
+export async function shutdownServerResources(): Promise<void> {
+  await closeSessionPool();
+  await closeSequelize();
+}
+
+const isMain = process.argv[1] && import.meta.url === new URL(`file://${process.argv[1]}`).href;
+if (isMain) {
+  const { url } = await startServer();
+  console.log(`Tanglebank listening on ${url}`);
+}

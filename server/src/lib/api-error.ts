@@ -1,0 +1,41 @@
+/** A typed error that services throw; the error handler maps it to `{ code, message, details }`. */
+export interface ErrorDetail {
+  /** JSON pointer (e.g. "/creators/0/name") or a field name. */
+  path?: string;
+  message: string;
+  file?: string;
+  row?: number;
+  column?: number;
+  [key: string]: unknown;
+}
+
+export class ApiError extends Error {
+  constructor(
+    public readonly status: number,
+    public readonly code: string,
+    message: string,
+    public readonly details?: ErrorDetail[] | Record<string, unknown>,
+  ) {
+    super(message);
+    this.name = "ApiError";
+  }
+
+  static badRequest(message: string, details?: ApiError["details"]) {
+    return new ApiError(400, "bad_request", message, details);
+  }
+  static unauthorized(message = "Sign in to do this.") {
+    return new ApiError(401, "unauthorized", message);
+  }
+  static forbidden(message = "Your role does not allow this.") {
+    return new ApiError(403, "forbidden", message);
+  }
+  static notFound(message = "Not found.") {
+    return new ApiError(404, "not_found", message);
+  }
+  static conflict(message: string, details?: ApiError["details"]) {
+    return new ApiError(409, "conflict", message, details);
+  }
+  static unprocessable(message: string, details?: ApiError["details"]) {
+    return new ApiError(422, "validation_failed", message, details);
+  }
+}

@@ -1,0 +1,51 @@
+import type { ErrorRequestHandler, RequestHandler } from "express";
+import { UniqueConstraintError, ValidationError as SequelizeValidationError } from "sequelize";
+import { MulterError } from "multer";
+import { ApiError } from "../lib/api-error";
+import { config } from "../config/env";
+
+/** JSON 404 for unknown API routes. */
+export const apiNotFound: RequestHandler = (req, res) => {
+  res.status(404).json({ code: "not_found", message: `No API route ${req.method} ${req.originalUrl}` });
+};
+
+/**
+ * The one error pipeline. Mapping table:
+ * ApiError → its status; malformed JSON → 400; multer limits → 413/400; unique constraint → 409;
+ * Sequelize validation → 422; anything else → 500 without detail in production.
+ */
+export const errorHandler: ErrorRequestHandler = (err, req, res, _next) => {
+  if (res.headersSent) {
+    res.destroy();
+    return;
+  }
+  if (err instanceof ApiError) {
+    res.status(err.status).json({ code: err.code, message: err.message, ...(err.details ? { details: err.details } : {}) });
+    return;
+  }
+  const e = err as { type?: string; status?: number; message?: string };
+  if (e.type === "entity.parse.failed") {
+    res.status(400).json({ code: "malformed_json", message: "The request body is not valid JSON." });
+    return;
+  }
+  if (e.type === "entity.too.large") {
+    res.status(413).json({ code: "too_large", message: "The request body is too large." });
+    return;
+  }
+  if (err instanceof MulterError) {
+    const status = err.code === "LIMIT_FILE_SIZE" || err.code === "LIMIT_FILE_COUNT" ? 413 : 400;
+    res.status(status).json({ code: "upload_rejected", message: `Upload rejected: ${err.message}`, details: [{ path: err.field, message: err.message }] });
+    return;
+  }
+  if (err instanceof UniqueConstraintError) {
+    res.status(409).json({ code: "conflict", message: "This already exists.", details: err.errors.map((x) => ({ path: x.path ?? undefined, message: x.message })) });
+    return;
+  }
+  if (err instanceof SequelizeValidationError) {
+    res.status(422).json({ code: "validation_failed", message: "Invalid data.", details: err.errors.map((x) => ({ path: x.path ?? undefined, message: x.message })) });
+    return;
+  }
+  req.log?.error({ err }, "unhandled error");
+  const production = config().nodeEnv === "production";
+  res.status(500).json({ code: "internal", message: production ? "Something went wrong on our side." : String(e.message ?? err) });
+};

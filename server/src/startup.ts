@@ -1,0 +1,9 @@
+/**
+ * Tasks run by `npm start` after the server listens (e.g. seeding the demo scenario, starting a metrics
+ * worker) and before it stops. Features register theirs here, one line each.
+ */
+export type StartupTask = (ctx: { log: (msg: string) => void }) => Promise<void>;
+export type ShutdownTask = () => Promise<void>;
+
+export const startupTasks: StartupTask[] = [];
+export const shutdownTasks: ShutdownTask[] = [];

@@ -1,0 +1,30 @@
+import "express-session";
+import type { Role } from "./models/user.model";
+
+export interface AuthUser {
+  id: number;
+  email: string;
+  displayName: string;
+  role: Role;
+  emailVerified: boolean;
+}
+
+declare module "express-session" {
+  interface SessionData {
+    userId?: number;
+    csrfToken?: string;
+  }
+}
+
+declare global {
+  namespace Express {
+    interface Request {
+      /** The signed-in user (session) or the token's owner (Bearer); undefined for a visitor. */
+      user?: AuthUser;
+      /** How the request was authenticated. */
+      authVia?: "session" | "token";
+      /** The API token's id when authenticated by Bearer token. */
+      apiTokenId?: number;
+    }
+  }
+}
