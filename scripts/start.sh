@@ -12,18 +12,22 @@ PGHOME="$ROOT/.pg"
 pg_up "$PGHOME" "$TB_DB_PORT"
 pg_createdb "$TB_DB_PORT" "$TB_DB_NAME"
 
-stop_all() {
-  trap - INT TERM EXIT
-  [ -n "${APP_PID:-}" ] && kill -TERM "$APP_PID" 2>/dev/null && wait "$APP_PID" 2>/dev/null
+# Ctrl-C reaches the whole foreground process group: the app stops itself cleanly, then the EXIT trap
+# stops PostgreSQL. A SIGTERM sent to this script alone is forwarded to the app.
+APP_PID=""
+on_exit() {
+  trap - EXIT
   log "Stopping PostgreSQL…"
   pg_down "$PGHOME"
   log "Stopped."
 }
-trap stop_all INT TERM EXIT
+trap on_exit EXIT
+trap '[ -n "$APP_PID" ] && kill -TERM "$APP_PID" 2>/dev/null' TERM
+trap '' INT   # the app handles Ctrl-C itself; this script waits for it
 
 log "Building the client…"
 npx vite build --logLevel warn || die "client build failed"
 
-npx tsx scripts/run.ts &
+node --import tsx scripts/run.ts &
 APP_PID=$!
-wait "$APP_PID"
+while kill -0 "$APP_PID" 2>/dev/null; do wait "$APP_PID" || true; done

@@ -1,0 +1,136 @@
+/**
+ * The contract between the server and the client for datasets, versions, networks and their metrics.
+ * Field names of the metadata follow the JSON Schemas in /schemas (study.schema.json, network.schema.json),
+ * which say for each property which open-standard term it follows (DataCite, Darwin Core, schema.org).
+ */
+export type VersionState = "draft" | "submitted" | "changes_requested" | "published" | "declined" | "withdrawn";
+export type Licence = "CC0-1.0" | "CC-BY-4.0";
+export type InteractionType = "pollination" | "seed-dispersal" | "host-parasitoid" | "predator-prey" | "herbivory" | "other";
+export type WeightMeaning = "binary" | "visit-count" | "interaction-frequency" | "biomass" | "other";
+/** How far public coordinates are generalised (degrees), for sensitive sites. */
+export type CoordinateGeneralisation = "exact" | "0.01" | "0.1" | "1";
+
+export interface Creator {
+  name: string;
+  orcid?: string;
+  affiliation?: string;
+}
+
+/** Study-level metadata (one per version). `contactEmail` is never shown publicly. */
+export interface StudyMetadata {
+  title: string;
+  description: string;
+  creators: Creator[];
+  publication?: { citation: string; doi?: string };
+  licence: Licence;
+  keywords: string[];
+  funding?: string;
+  contactEmail: string;
+}
+
+export interface Locality {
+  placeName: string;
+  /** ISO 3166-1 alpha-2 */
+  countryCode: string;
+  /** WGS84 decimal degrees (Darwin Core decimalLatitude / decimalLongitude). */
+  decimalLatitude: number;
+  decimalLongitude: number;
+  /** Darwin Core coordinatePrecision, decimal degrees. */
+  coordinatePrecision?: number;
+  /** metres above sea level */
+  elevation?: number;
+  generalisation: CoordinateGeneralisation;
+}
+
+/** Network-level metadata. */
+export interface NetworkMetadata {
+  name: string;
+  interactionType: InteractionType;
+  weightMeaning: WeightMeaning;
+  /** Bipartite: names of the two levels, e.g. "plants" (rows) / "pollinators" (columns). */
+  rowLevel?: string;
+  colLevel?: string;
+  /** Directed one-mode networks: what a link from row to column means, e.g. "row eats column". */
+  directionMeaning?: string;
+  locality: Locality;
+  habitat: string;
+  /** ISO dates YYYY-MM-DD */
+  startDate: string;
+  endDate: string;
+  samplingProtocol: string;
+  samplingEffort?: { value: number; unit: string };
+  taxonomicResolution?: string;
+}
+
+export type MetricsStatus = "none" | "queued" | "running" | "succeeded" | "failed";
+
+/** The current metrics of a network (latest successful run of the current pipeline settings). */
+export interface NetworkMetricsSummary {
+  status: MetricsStatus;
+  runId?: number;
+  settingsHash?: string;
+  objective?: "newman" | "newman-directed" | "barber";
+  Q?: number | null;
+  modules?: number | null;
+  nullModel?: string | null;
+  nullN?: number | null;
+  nullMean?: number | null;
+  nullSd?: number | null;
+  z?: number | null;
+  qRel?: number | null;
+  deltaQ?: number | null;
+  p?: number | null;
+  zUnstable?: boolean;
+  nodf?: number | null;
+  algorithm?: { name: string; version: string; seed: number; parameters?: Record<string, unknown> };
+  startedAt?: string | null;
+  finishedAt?: string | null;
+  durationMs?: number | null;
+  error?: string | null;
+}
+
+export interface NetworkSummary {
+  id: number;
+  /** e.g. "TB-000042/v2/3" (null before the first publication) */
+  ref: string | null;
+  position: number;
+  originalName: string;
+  format: "matrix" | "edgelist";
+  kind: "bipartite" | "unipartite";
+  directed: boolean;
+  weighted: boolean;
+  nNodes: number;
+  nRows: number | null;
+  nCols: number | null;
+  nLinks: number;
+  totalWeight: number;
+  connectance: number | null;
+  sha256: string;
+  size: number;
+  metadata: NetworkMetadata;
+  warnings: Array<{ code: string; message: string; row?: number; column?: number }>;
+  metrics: NetworkMetricsSummary | null;
+}
+
+export interface VersionSummary {
+  number: number;
+  state: VersionState;
+  submittedAt: string | null;
+  publishedAt: string | null;
+  withdrawnAt: string | null;
+  networkCount: number;
+}
+
+export interface DatasetDetail {
+  id: number;
+  accession: string | null;
+  /** The version shown */
+  version: VersionSummary;
+  /** The highest published version number, if any */
+  latestPublishedVersion: number | null;
+  owner: { id: number; displayName: string };
+  metadata: StudyMetadata;
+  versions: VersionSummary[];
+  networks: NetworkSummary[];
+  withdrawal: { at: string; reason: string } | null;
+}
