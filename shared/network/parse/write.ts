@@ -1,0 +1,59 @@
+/**
+ * CSV writers for downloads and bundles. Both round-trip through `parseNetworkText`:
+ * - `networkToMatrixCsv`: incidence matrix (bipartite) or square adjacency matrix (one-mode; an undirected
+ *   network is written symmetric, a self-loop once on the diagonal). The corner cell is empty; absent cells
+ *   are written as 0. Every node, isolated ones included, survives the round trip, in the same order.
+ * - `networkToEdgeListCsv`: header `source,target` (plus `weight` when weighted); one line per stored
+ *   link, an undirected link once (source ≤ target in node order). Isolated nodes cannot be written in an
+ *   edge list, and node order becomes order of first appearance.
+ * Labels holding the delimiter, a quote, a line break or outer spaces are quoted (RFC 4180). Numbers use
+ * JavaScript's shortest round-trip form. Lines end with "\n".
+ */
+import type { Network } from "../types";
+
+export interface CsvWriteOptions {
+  /** Field delimiter (default ","). */
+  delimiter?: "," | "\t" | ";";
+}
+
+function quote(s: string, d: string): string {
+  if (s.includes(d) || s.includes('"') || s.includes("\n") || s.includes("\r") || s !== s.trim()) {
+    return `"${s.replace(/"/g, '""')}"`;
+  }
+  return s;
+}
+
+export function networkToMatrixCsv(net: Network, options: CsvWriteOptions = {}): string {
+  const d = options.delimiter ?? ",";
+  const I = net.rowLabels.length;
+  const J = net.kind === "bipartite" ? net.colLabels.length : I;
+  const cols = net.kind === "bipartite" ? net.colLabels : net.rowLabels;
+  const lines: string[] = [];
+  lines.push(["", ...cols.map((c) => quote(c, d))].join(d));
+  const cells: string[] = new Array(J + 1);
+  for (let i = 0; i < I; i++) {
+    cells[0] = quote(net.rowLabels[i], d);
+    for (let j = 1; j <= J; j++) cells[j] = "0";
+    for (let p = net.rowPtr[i]; p < net.rowPtr[i + 1]; p++) cells[net.colIdx[p] + 1] = String(net.weights[p]);
+    lines.push(cells.join(d));
+  }
+  return lines.join("\n") + "\n";
+}
+
+export function networkToEdgeListCsv(net: Network, options: CsvWriteOptions = {}): string {
+  const d = options.delimiter ?? ",";
+  const I = net.rowLabels.length;
+  const cols = net.kind === "bipartite" ? net.colLabels : net.rowLabels;
+  const undirected = net.kind === "unipartite" && !net.directed;
+  const lines: string[] = [net.weighted ? ["source", "target", "weight"].join(d) : ["source", "target"].join(d)];
+  for (let i = 0; i < I; i++) {
+    for (let p = net.rowPtr[i]; p < net.rowPtr[i + 1]; p++) {
+      const j = net.colIdx[p];
+      if (undirected && j < i) continue;
+      const parts = [quote(net.rowLabels[i], d), quote(cols[j], d)];
+      if (net.weighted) parts.push(String(net.weights[p]));
+      lines.push(parts.join(d));
+    }
+  }
+  return lines.join("\n") + "\n";
+}
