@@ -26,20 +26,20 @@ export function erdosRenyiNull(net: Network, rng: Rng): Network {
   if (net.kind === "bipartite") {
     const J = net.colLabels.length;
     const L = net.rowPtr[I];
-    const cells = sampleCells(I, J, L, rng, () => rng.nextInt(I) * J + rng.nextInt(J), null);
-    return cellsToNetwork(net, I, J, cells, false);
+    const cells = sampleCells(I, J, L, () => rng.nextInt(I) * J + rng.nextInt(J), null);
+    return cellsToNetwork(net, I, J, cells);
   }
   const S = I;
   if (net.directed) {
     const L = net.rowPtr[S];
-    const cells = sampleCells(S, S, L, rng, () => rng.nextInt(S) * S + rng.nextInt(S), null);
-    return cellsToNetwork(net, S, S, cells, false);
+    const cells = sampleCells(S, S, L, () => rng.nextInt(S) * S + rng.nextInt(S), null);
+    return cellsToNetwork(net, S, S, cells);
   }
   const m = basicMetrics(net);
   const loops = m.selfLoops;
   const pairs = m.links - loops;
   // Off-diagonal pairs keyed by i*S + j with i < j.
-  const pairCells = sampleCells(S, S, pairs, rng, () => {
+  const pairCells = sampleCells(S, S, pairs, () => {
     let i: number, j: number;
     do {
       i = rng.nextInt(S);
@@ -47,7 +47,7 @@ export function erdosRenyiNull(net: Network, rng: Rng): Network {
     } while (i === j);
     return i < j ? i * S + j : j * S + i;
   }, (key) => Math.floor(key / S) < key % S, (S * (S - 1)) / 2);
-  const loopCells = sampleCells(S, S, loops, rng, () => {
+  const loopCells = sampleCells(S, S, loops, () => {
     const i = rng.nextInt(S);
     return i * S + i;
   }, (key) => Math.floor(key / S) === key % S, S);
@@ -59,7 +59,7 @@ export function erdosRenyiNull(net: Network, rng: Rng): Network {
   }
   for (const k of loopCells) all.push(k);
   const sorted = Float64Array.from(all).sort();
-  return cellsToNetwork(net, S, S, sorted, true);
+  return cellsToNetwork(net, S, S, sorted);
 }
 
 /**
@@ -70,7 +70,6 @@ function sampleCells(
   rows: number,
   cols: number,
   count: number,
-  rng: Rng,
   draw: () => number,
   isCandidate: ((key: number) => boolean) | null,
   candidates = rows * cols,
@@ -78,7 +77,6 @@ function sampleCells(
   if (count > candidates) {
     throw new NetworkEngineError("bad-network", `Cannot place ${count} links in ${candidates} possible cells`);
   }
-  void rng;
   const total = rows * cols;
   const out = new Float64Array(count);
   if (count === 0) return out;
@@ -128,7 +126,7 @@ function sampleCells(
   return out;
 }
 
-function cellsToNetwork(net: Network, rows: number, cols: number, cells: Float64Array, _sym: boolean): Network {
+function cellsToNetwork(net: Network, rows: number, cols: number, cells: Float64Array): Network {
   const rowPtr = new Uint32Array(rows + 1);
   const colIdx = new Uint32Array(cells.length);
   for (let p = 0; p < cells.length; p++) {
