@@ -1,0 +1,250 @@
+/**
+ * Command-line analysis of one network file, with the same engine and defaults as the web pipeline:
+ *
+ *   npm run -s analyze -- FILE [--kind bipartite|unipartite] [--directed] [--format auto|matrix|edgelist]
+ *                          [--restarts N] [--nulls N] [--null-model er|curveball|patefield] [--seed N]
+ *                          [--annealing auto|on|off] [--objective newman|newman-directed|barber] [--json]
+ *
+ * Without --json: a readable summary. With --json: one JSON object on stdout (shared/network/analyze.ts
+ * describes every field). Exit codes: 0 done; 1 the file cannot be read or parsed (the message names
+ * file, row and column); 2 bad options.
+ *
+ * Kind when --kind is not given (stated on stderr, and in the JSON as `kindDetection`):
+ * - with --directed: a one-mode (unipartite) network;
+ * - a matrix is one-mode when it is square and its column names are its row names (in any order),
+ *   otherwise bipartite (rows × columns);
+ * - an edge list is bipartite (source = row node, target = column node) when no label is used both as a
+ *   source and as a target, otherwise one-mode.
+ */
+import { readFileSync } from "node:fs";
+import { parseArgs } from "node:util";
+import { analyzeNetwork, ANALYZE_DEFAULTS, type AnalysisResult } from "../shared/network/analyze";
+import { NetworkEngineError } from "../shared/network/errors";
+import { objectiveLabel } from "../shared/network/modularity/quality";
+import { nullModelLabel, type NullModelName } from "../shared/network/null-models/index";
+import type { AnnealingMode } from "../shared/network/optimizer/optimize";
+import type { OptimizerObjective } from "../shared/network/optimizer/quality-graph";
+import { NetworkParseError, parseNetworkText, type ParseResult } from "../shared/network/parse/index";
+import type { NetworkKind } from "../shared/network/types";
+
+const USAGE = `usage: npm run -s analyze -- FILE [--kind bipartite|unipartite] [--directed]
+         [--format auto|matrix|edgelist] [--restarts N] [--nulls N] [--null-model er|curveball|patefield]
+         [--seed N] [--annealing auto|on|off] [--objective newman|newman-directed|barber] [--json]`;
+
+class OptionError extends Error {}
+
+function intOption(name: string, raw: string | undefined, fallback: number, min: number, max: number): number {
+  if (raw === undefined) return fallback;
+  if (!/^\d+$/.test(raw.trim())) throw new OptionError(`--${name} must be a whole number, got "${raw}"`);
+  const v = Number(raw);
+  if (v < min || v > max) throw new OptionError(`--${name} must be from ${min} to ${max}, got ${v}`);
+  return v;
+}
+
+function oneOf<T extends string>(name: string, raw: string | undefined, allowed: readonly T[]): T | undefined {
+  if (raw === undefined) return undefined;
+  if (!(allowed as readonly string[]).includes(raw)) {
+    throw new OptionError(`--${name} must be one of ${allowed.join(", ")}, got "${raw}"`);
+  }
+  return raw as T;
+}
+
+function readOptions(argv: string[]) {
+  let parsed;
+  try {
+    parsed = parseArgs({
+      args: argv,
+      allowPositionals: true,
+      options: {
+        kind: { type: "string" },
+        directed: { type: "boolean", default: false },
+        format: { type: "string" },
+        restarts: { type: "string" },
+        nulls: { type: "string" },
+        "null-model": { type: "string" },
+        seed: { type: "string" },
+        annealing: { type: "string" },
+        objective: { type: "string" },
+        json: { type: "boolean", default: false },
+        help: { type: "boolean", short: "h", default: false },
+      },
+    });
+  } catch (err) {
+    throw new OptionError((err as Error).message);
+  }
+  const { values, positionals } = parsed;
+  if (values.help) return null;
+  if (positionals.length !== 1) {
+    throw new OptionError(positionals.length === 0 ? "no input file given" : `one input file expected, got ${positionals.length}`);
+  }
+  const kind = oneOf<NetworkKind>("kind", values.kind, ["bipartite", "unipartite"]);
+  if (kind === "bipartite" && values.directed) {
+    throw new OptionError("--directed applies to one-mode networks; a bipartite network has no direction");
+  }
+  return {
+    file: positionals[0],
+    kind,
+    directed: values.directed === true,
+    format: oneOf("format", values.format, ["auto", "matrix", "edgelist"] as const) ?? "auto",
+    restarts: intOption("restarts", values.restarts, ANALYZE_DEFAULTS.restarts, 1, 100000),
+    nulls: intOption("nulls", values.nulls, ANALYZE_DEFAULTS.nulls, 0, 100000),
+    nullModel: oneOf<NullModelName>("null-model", values["null-model"], ["er", "curveball", "patefield"]),
+    seed: intOption("seed", values.seed, ANALYZE_DEFAULTS.seed, 0, 0xffffffff),
+    annealing: oneOf<AnnealingMode>("annealing", values.annealing, ["auto", "on", "off"]) ?? ANALYZE_DEFAULTS.annealing,
+    objective: oneOf<OptimizerObjective>("objective", values.objective, ["newman", "newman-directed", "barber"]),
+    json: values.json === true,
+  };
+}
+
+/** Parses the file, choosing the kind when it was not given (see the file header). */
+function parseWithKind(
+  bytes: Uint8Array,
+  opts: { file: string; kind?: NetworkKind; directed: boolean; format: "auto" | "matrix" | "edgelist" },
+): { parsed: ParseResult; detection: string | null } {
+  const base = { fileName: opts.file, format: opts.format };
+  if (opts.kind) return { parsed: parseNetworkText(bytes, { ...base, kind: opts.kind, directed: opts.directed }), detection: null };
+  if (opts.directed) {
+    return {
+      parsed: parseNetworkText(bytes, { ...base, kind: "unipartite", directed: true }),
+      detection: "one-mode (unipartite), because --directed was given",
+    };
+  }
+  let asBipartite: ParseResult;
+  try {
+    asBipartite = parseNetworkText(bytes, { ...base, kind: "bipartite" });
+  } catch (err) {
+    if (err instanceof NetworkParseError && err.code === "self-loop-bipartite") {
+      return {
+        parsed: parseNetworkText(bytes, { ...base, kind: "unipartite" }),
+        detection: "one-mode (unipartite), because a link joins a node to itself",
+      };
+    }
+    throw err;
+  }
+  const net = asBipartite.network;
+  const rows = new Set(net.rowLabels);
+  if (asBipartite.format === "matrix") {
+    const square = net.rowLabels.length === net.colLabels.length && net.colLabels.every((l) => rows.has(l));
+    if (!square) return { parsed: asBipartite, detection: "bipartite, because the matrix is not square with the same names on both sides" };
+    return {
+      parsed: parseNetworkText(bytes, { ...base, kind: "unipartite" }),
+      detection: "one-mode (unipartite, undirected), because the matrix is square with the same names on both sides; use --directed for a food web or --kind bipartite to override",
+    };
+  }
+  const shared = net.colLabels.some((l) => rows.has(l));
+  if (!shared) return { parsed: asBipartite, detection: "bipartite (source = row node, target = column node), because no label is both a source and a target" };
+  return {
+    parsed: parseNetworkText(bytes, { ...base, kind: "unipartite" }),
+    detection: "one-mode (unipartite, undirected), because some labels are both sources and targets; use --directed or --kind to override",
+  };
+}
+
+function fmt(x: number | null | undefined, digits = 4): string {
+  if (x === null || x === undefined) return "undefined";
+  return Number.isInteger(x) ? String(x) : x.toFixed(digits);
+}
+
+function summary(file: string, r: AnalysisResult, detection: string | null, warnings: string[]): string {
+  const lines: string[] = [];
+  lines.push(`${file}`);
+  if (detection) lines.push(`  kind: ${detection}`);
+  for (const w of warnings) lines.push(`  warning: ${w}`);
+  const kind = r.kind === "bipartite" ? "bipartite" : r.directed ? "one-mode, directed" : "one-mode, undirected";
+  lines.push(`  network: ${kind}${r.weighted ? ", weighted" : ", binary"}`);
+  lines.push(
+    `  nodes ${r.nodes}` + (r.rows !== null ? ` (rows ${r.rows}, columns ${r.cols})` : "") +
+      `, links ${r.links}, total weight ${fmt(r.totalWeight)}, connectance ${fmt(r.connectance)}`,
+  );
+  const m = r.modularity;
+  lines.push(`  modularity: ${objectiveLabel(m.objective)}`);
+  if (m.Q === null) lines.push(`    Q undefined: ${m.undefinedReason}`);
+  else {
+    lines.push(`    Q = ${fmt(m.Q, 6)} with ${m.modules} modules`);
+    lines.push(
+      `    ${m.restarts.n} restarts: min ${fmt(m.restarts.min, 6)}, median ${fmt(m.restarts.median, 6)}, max ${fmt(m.restarts.max, 6)}; ` +
+        `${Math.round((m.restarts.bestShare ?? 0) * 100)} % reached the best`,
+    );
+  }
+  if (r.null) {
+    const n = r.null;
+    lines.push(`  significance: ${n.n} null networks, ${nullModelLabel(n.model)}`);
+    lines.push(`    null Q mean ${fmt(n.mean, 6)}, sd ${fmt(n.sd, 6)}; z = ${fmt(n.z, 2)}, Q_rel = ${fmt(n.qRel, 3)}, ΔQ = ${fmt(n.deltaQ, 6)}, p = ${fmt(n.p, 4)}`);
+    if (n.unstable) lines.push(`    caution: ${n.unstableReason}`);
+  } else if (r.nullSkippedReason) lines.push(`  significance: ${r.nullSkippedReason}`);
+  if (r.roles) {
+    const c = r.roles.counts;
+    lines.push(`  node roles (z > ${r.roles.thresholds.z}, P > ${r.roles.thresholds.p}): ${c.peripheral} peripherals, ${c.connector} connectors, ${c["module-hub"]} module hubs, ${c["network-hub"]} network hubs`);
+  }
+  lines.push(`  NODF ${fmt(r.nodf, 2)}` + (r.nodf !== null ? ` (rows ${fmt(r.nodfRows, 2)}, columns ${fmt(r.nodfCols, 2)})` : ""));
+  lines.push(`  ${r.algorithm.name}, ${r.algorithm.version}, seed ${r.algorithm.seed}; ${r.elapsedMs} ms`);
+  lines.push("  Raw Q depends on size, connectance and sampling effort: compare networks by z or Q_rel. Modularity maxima are degenerate: partitions of near-equal Q can differ.");
+  return lines.join("\n");
+}
+
+function main(argv: string[]): number {
+  let opts;
+  try {
+    opts = readOptions(argv);
+  } catch (err) {
+    if (err instanceof OptionError) {
+      process.stderr.write(`analyze: ${err.message}\n${USAGE}\n`);
+      return 2;
+    }
+    throw err;
+  }
+  if (opts === null) {
+    process.stdout.write(`${USAGE}\n`);
+    return 0;
+  }
+  let bytes: Uint8Array;
+  try {
+    bytes = readFileSync(opts.file);
+  } catch (err) {
+    process.stderr.write(`analyze: cannot read ${opts.file}: ${(err as Error).message}\n`);
+    return 1;
+  }
+  let parsed: ParseResult;
+  let detection: string | null;
+  try {
+    ({ parsed, detection } = parseWithKind(bytes, opts));
+  } catch (err) {
+    if (err instanceof NetworkParseError) {
+      process.stderr.write(`analyze: ${err.message}\n`);
+      return 1;
+    }
+    throw err;
+  }
+  let result: AnalysisResult;
+  try {
+    result = analyzeNetwork(parsed.network, {
+      objective: opts.objective,
+      restarts: opts.restarts,
+      nulls: opts.nulls,
+      nullModel: opts.nullModel,
+      seed: opts.seed,
+      annealing: opts.annealing,
+    });
+  } catch (err) {
+    if (err instanceof NetworkEngineError || err instanceof RangeError) {
+      process.stderr.write(`analyze: ${opts.file}: ${err.message}\n`);
+      return err instanceof NetworkEngineError && err.code !== "bad-option" ? 1 : 2;
+    }
+    throw err;
+  }
+  const warnings = parsed.warnings.map((w) => w.message);
+  if (opts.json) {
+    const out = {
+      file: opts.file,
+      format: parsed.format,
+      ...(detection ? { kindDetection: detection } : {}),
+      warnings,
+      ...result,
+    };
+    process.stdout.write(`${JSON.stringify(out)}\n`);
+  } else {
+    process.stdout.write(`${summary(opts.file, result, detection, warnings)}\n`);
+  }
+  return 0;
+}
+
+process.exitCode = main(process.argv.slice(2));

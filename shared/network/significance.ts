@@ -1,0 +1,122 @@
+/**
+ * Significance of optimized modularity against null models.
+ *
+ * Each null replicate r is drawn from its own generator, createRng(deriveSeed(seed, NULL_STREAM, r)),
+ * by `generateNull` (null-models/), and optimized with the same optimizer and effort as the observed
+ * network (same objective, restarts and annealing mode; the optimizer's seed is
+ * deriveSeed(seed, NULL_STREAM, r, OPTIMIZER_STREAM)). A replicate depends only on (network, settings,
+ * seed, r), so replicates can be spread over worker threads in any order or chunking and give exactly the
+ * numbers of a single-threaded run. Optimizing nulls with less effort than the observed network would
+ * bias z upwards (../shared/science.md).
+ *
+ * Summary of N null values Q_1..Q_N against the observed Q:
+ *   mean, sd (sample, n − 1), z = (Q − mean)/sd, ΔQ = Q − mean, Q_rel = (Q − mean)/mean
+ *   (relative modularity), one-sided p = (1 + #{Q_null ≥ Q}) / (N + 1) (the "+1" counts the observed
+ *   network as one draw, so p is never 0; North, Curtis & Sham 2002, Am J Hum Genet 71:439,
+ *   doi:10.1086/341527 — from memory).
+ * `unstable` flags a z that should not be trusted, with the reason:
+ *   - fewer than 2 replicates (sd undefined);
+ *   - sd ≈ 0 (sd ≤ 1e-9 · max(1, |mean|)): z is null — a small or dense network has (almost) only one
+ *     possible randomisation;
+ *   - few distinct null values: fewer than min(10, ⌈N/2⌉) distinct Q_null (to 1e-9), the discrete
+ *     distribution of a small, dense matrix, where z's normal reading fails.
+ * Q_rel is null when the null mean is 0; z null when sd is 0 or undefined. A Q_null counts as ≥ Q when
+ * it is within 1e-10·max(1, |Q|) of Q (ties of the same partition value computed on different arrays).
+ */
+import { generateNull, type NullModelName } from "./null-models/index";
+import { optimizeModularity, type AnnealingMode } from "./optimizer/optimize";
+import type { OptimizerObjective } from "./optimizer/quality-graph";
+import { createRng, deriveSeed } from "./random";
+import type { Network } from "./types";
+
+/** Seed-path element of the null replicates ("null"). */
+export const NULL_STREAM = 0x6e756c6c;
+/** Seed-path element of the optimizer run on a null replicate ("opt"). */
+export const OPTIMIZER_STREAM = 0x6f7074;
+
+export interface NullReplicateSettings {
+  model: NullModelName;
+  seed: number;
+  replicate: number;
+  restarts?: number;
+  objective?: OptimizerObjective;
+  annealing?: AnnealingMode;
+}
+
+/** The null network of replicate `replicate` (exposed for inspection and tests). */
+export function nullReplicateNetwork(net: Network, model: NullModelName, seed: number, replicate: number): Network {
+  if (!Number.isInteger(replicate) || replicate < 0) {
+    throw new RangeError(`replicate must be a non-negative integer, got ${replicate}`);
+  }
+  return generateNull(model, net, createRng(deriveSeed(seed, NULL_STREAM, replicate)));
+}
+
+/**
+ * Best Q of null replicate `replicate`, optimized like the observed network. Returns null when the null
+ * network's modularity is undefined (it has no links; cannot happen for the engine's models, which keep L
+ * or the totals).
+ */
+export function nullReplicateQ(net: Network, settings: NullReplicateSettings): number | null {
+  const { model, seed, replicate } = settings;
+  const nullNet = nullReplicateNetwork(net, model, seed, replicate);
+  const res = optimizeModularity(nullNet, {
+    objective: settings.objective,
+    restarts: settings.restarts,
+    annealing: settings.annealing,
+    seed: deriveSeed(seed, NULL_STREAM, replicate, OPTIMIZER_STREAM),
+  });
+  return res.Q;
+}
+
+export interface NullSummary {
+  n: number;
+  mean: number | null;
+  sd: number | null;
+  z: number | null;
+  qRel: number | null;
+  deltaQ: number | null;
+  p: number | null;
+  unstable: boolean;
+  unstableReason?: string;
+}
+
+export function summarizeNulls(observedQ: number, nullQs: readonly number[]): NullSummary {
+  const n = nullQs.length;
+  if (!Number.isFinite(observedQ)) throw new RangeError(`observed Q must be a finite number, got ${observedQ}`);
+  for (const q of nullQs) if (!Number.isFinite(q)) throw new RangeError(`null Q values must be finite numbers, got ${q}`);
+  if (n === 0) {
+    return { n, mean: null, sd: null, z: null, qRel: null, deltaQ: null, p: null, unstable: true, unstableReason: "no null replicates" };
+  }
+  let sum = 0;
+  for (const q of nullQs) sum += q;
+  const mean = sum / n;
+  let ss = 0;
+  for (const q of nullQs) ss += (q - mean) * (q - mean);
+  const sd = n >= 2 ? Math.sqrt(ss / (n - 1)) : null;
+  const tieTol = 1e-10 * Math.max(1, Math.abs(observedQ));
+  let atLeast = 0;
+  for (const q of nullQs) if (q >= observedQ - tieTol) atLeast++;
+  const p = (1 + atLeast) / (n + 1);
+  const deltaQ = observedQ - mean;
+  const qRel = mean !== 0 ? deltaQ / mean : null;
+
+  const sorted = [...nullQs].sort((x, y) => x - y);
+  let distinct = 1;
+  for (let i = 1; i < n; i++) if (sorted[i] - sorted[i - 1] > 1e-9 * Math.max(1, Math.abs(sorted[i]))) distinct++;
+
+  let z: number | null = null;
+  let unstableReason: string | undefined;
+  if (sd === null) unstableReason = "fewer than 2 null replicates: sd and z are undefined";
+  else if (sd <= 1e-9 * Math.max(1, Math.abs(mean))) {
+    unstableReason = "the null Q values have (almost) no spread (sd ≈ 0), so z is undefined; the network may allow very few randomisations";
+  } else {
+    z = deltaQ / sd;
+    const minDistinct = Math.min(10, Math.ceil(n / 2));
+    if (distinct < minDistinct) {
+      unstableReason = `only ${distinct} distinct null Q values among ${n}: a small or dense network allows few randomisations, so z is unreliable`;
+    }
+  }
+  const out: NullSummary = { n, mean, sd, z, qRel, deltaQ, p, unstable: unstableReason !== undefined };
+  if (unstableReason) out.unstableReason = unstableReason;
+  return out;
+}
