@@ -121,24 +121,57 @@ export function parseNetworkText(text: string | Uint8Array, options: ParseOption
   const delimiter = detectDelimiter(str);
   const decimalComma = delimiter === ";";
   const sink = new RecordSink(options, file, delimiter, decimalComma, maxCells);
-  try {
-    csvParse(str, {
-      delimiter,
-      relax_column_count: true,
-      skip_empty_lines: true,
-      bom: false,
-      on_record: (record: string[], ctx: CsvContext) => {
-        sink.record(record, ctx.lines);
-        return null;
-      },
-    });
-  } catch (err) {
-    if (err instanceof NetworkParseError) throw err;
-    const e = err as { message?: string; lines?: number; code?: string };
-    throw new NetworkParseError("bad-csv", { file, row: typeof e.lines === "number" ? e.lines : null, column: null },
-      `the file is not valid ${delimiterName(delimiter)}-separated text: ${e.message ?? String(err)}`);
+  // The reader is fed about 1 MB of whole records at a time: its browser build turns its input into bytes
+  // through a plain array, so one call on a 30 MB text would hold hundreds of MB at once.
+  for (const [chunk, lineOffset] of recordChunks(str, CHUNK_CHARS)) {
+    try {
+      csvParse(chunk, {
+        delimiter,
+        relax_column_count: true,
+        skip_empty_lines: true,
+        bom: false,
+        on_record: (record: string[], ctx: CsvContext) => {
+          sink.record(record, lineOffset + ctx.lines);
+          return null;
+        },
+      });
+    } catch (err) {
+      if (err instanceof NetworkParseError) throw err;
+      const e = err as { message?: string; lines?: number; code?: string };
+      const row = typeof e.lines === "number" ? lineOffset + e.lines : null;
+      const msg = (e.message ?? String(err)).replace(/\s*at line \d+/g, "");
+      throw new NetworkParseError("bad-csv", { file, row, column: null },
+        `the file is not valid ${delimiterName(delimiter)}-separated text: ${msg}`);
+    }
   }
   return sink.finish();
+}
+
+const CHUNK_CHARS = 1 << 20;
+
+/**
+ * Splits the text into pieces of about `target` characters that end just after a line break outside
+ * double quotes (so no record is cut), with the number of lines before each piece.
+ */
+function* recordChunks(text: string, target: number): Generator<[string, number]> {
+  let start = 0;
+  let lines = 0;
+  let quoted = false;
+  let linesInPiece = 0;
+  for (let k = 0; k < text.length; k++) {
+    const c = text.charCodeAt(k);
+    if (c === 34) quoted = !quoted;
+    else if (c === 10) {
+      linesInPiece++;
+      if (!quoted && k + 1 - start >= target) {
+        yield [text.slice(start, k + 1), lines];
+        lines += linesInPiece;
+        linesInPiece = 0;
+        start = k + 1;
+      }
+    }
+  }
+  if (start < text.length) yield [text.slice(start), lines];
 }
 
 /** Receives one CSV record at a time and builds the network. */
