@@ -10,7 +10,10 @@
  *   P(x) = C(id, x) · C(ie − id, ia − x) / C(ie, ia),  max(0, ia + id − ie) ≤ x ≤ min(ia, id),
  * sampled by inversion starting at the mode and stepping outward alternately up and down (the search of
  * AS 159), with probabilities from log-factorials and the ratio recurrences. The last column of a row and
- * the last row take what remains. Rows and columns with total 0 stay empty.
+ * the last row take what remains. Rows and columns with total 0 stay empty. A row whose total is small
+ * compared with the number of columns is drawn instead unit by unit from the urn of remaining column units
+ * (without replacement, via a Fenwick tree): this is the same conditional law (multivariate
+ * hypergeometric) that AS 159 decomposes cell by cell, at O(total · log J) cost instead of O(J).
  *
  * Variants (our decisions, README): bipartite incidence matrices and directed one-mode adjacency matrices
  * (seen as an S × S table: out- and in-strengths kept; cannibal cells may change) are supported; an
@@ -88,12 +91,37 @@ export function patefieldNull(net: Network, rng: Rng, options: PatefieldOptions 
     nnz++;
   };
 
+  const tree = new Fenwick(jwork);
+  const hits = new Float64Array(nc);
+  const touched: number[] = [];
+  const logNc = Math.max(1, Math.ceil(Math.log2(nc + 1)));
   let remaining = total; // Σ jwork
   let r = 0;
   for (let i = 0; i < I; i++) {
     if (r < rows.length && rows[r] === i) {
       if (r === rows.length - 1) {
         for (let m = 0; m < nc; m++) if (jwork[m] > 0) push(cols[m], jwork[m]);
+      } else if (rowTot[i] * logNc < URN_FACTOR * nc && remaining <= 4294967296) {
+        // Small row total: draw its units one by one without replacement from the urn of remaining
+        // column units (Fenwick tree over jwork) — the same multivariate hypergeometric law.
+        let ia = rowTot[i];
+        let pool = remaining;
+        while (ia > 0) {
+          const m = tree.find(rng.nextInt(pool));
+          if (hits[m] === 0) touched.push(m);
+          hits[m]++;
+          tree.add(m, -1);
+          jwork[m]--;
+          pool--;
+          ia--;
+        }
+        touched.sort((x, y) => x - y);
+        for (const m of touched) {
+          push(cols[m], hits[m]);
+          hits[m] = 0;
+        }
+        touched.length = 0;
+        remaining -= rowTot[i];
       } else {
         let ia = rowTot[i];
         let ie = remaining;
@@ -106,6 +134,7 @@ export function patefieldNull(net: Network, rng: Rng, options: PatefieldOptions 
           if (x > 0) {
             push(cols[m], x);
             jwork[m] -= x;
+            tree.add(m, -x);
             ia -= x;
           }
         }
@@ -128,6 +157,45 @@ export function patefieldNull(net: Network, rng: Rng, options: PatefieldOptions 
     colIdx: outCol.slice(0, nnz),
     weights: w,
   };
+}
+
+/** Rows whose total × log2(columns) is below this many times the column count use the urn draw. */
+const URN_FACTOR = 4;
+
+/** Fenwick (binary indexed) tree over non-negative integer counts: point update, search by prefix sum. */
+class Fenwick {
+  private readonly t: Float64Array;
+  private readonly n: number;
+  private readonly top: number;
+  constructor(values: Float64Array) {
+    this.n = values.length;
+    this.t = new Float64Array(this.n + 1);
+    for (let k = 0; k < this.n; k++) {
+      const i = k + 1;
+      this.t[i] += values[k];
+      const parent = i + (i & -i);
+      if (parent <= this.n) this.t[parent] += this.t[i];
+    }
+    let top = 1;
+    while (top * 2 <= this.n) top *= 2;
+    this.top = top;
+  }
+  add(k: number, delta: number): void {
+    for (let i = k + 1; i <= this.n; i += i & -i) this.t[i] += delta;
+  }
+  /** Index k of the unit numbered u (0-based): the smallest k with prefix sum through k greater than u. */
+  find(u: number): number {
+    let pos = 0;
+    let rest = u;
+    for (let step = this.top; step > 0; step >>= 1) {
+      const next = pos + step;
+      if (next <= this.n && this.t[next] <= rest) {
+        pos = next;
+        rest -= this.t[next];
+      }
+    }
+    return pos;
+  }
 }
 
 /** ln(n!) for n = 0..min(n, 2^22) from a table; larger n from Stirling's series (relative error < 1e-15). */

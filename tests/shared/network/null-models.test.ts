@@ -139,6 +139,26 @@ describe("Patefield null model (Patefield 1981, AS 159)", () => {
     counts.forEach((c, k) => expect(Math.abs(c - N * expected[k])).toBeLessThan(5 * Math.sqrt(N * expected[k] * (1 - expected[k]))));
   });
 
+  it("cell-by-cell path (large totals): margins (50,50)/(50,50) give x11 hypergeometric, mean 25, P(25) = C(50,25)²/C(100,50)", () => {
+    const net = bipartite([[25, 25], [25, 25]]);
+    const N = 4000;
+    let sum = 0;
+    let at25 = 0;
+    for (let r = 0; r < N; r++) {
+      const x = dense(patefieldNull(net, createRng(deriveSeed(14, r))))[0][0];
+      sum += x;
+      if (x === 25) at25++;
+    }
+    // Hypergeometric variance n·K·(N−K)·(N−n)/(N²(N−1)) = 50·50·50·50/(100²·99).
+    const variance = (50 * 50 * 50 * 50) / (100 * 100 * 99);
+    expect(Math.abs(sum / N - 25)).toBeLessThan(5 * Math.sqrt(variance / N));
+    let logC = 0; // ln C(50,25)² − ln C(100,50)
+    for (let k = 1; k <= 25; k++) logC += 2 * Math.log((25 + k) / k);
+    for (let k = 1; k <= 50; k++) logC -= Math.log((50 + k) / k);
+    const p25 = Math.exp(logC);
+    expect(Math.abs(at25 - N * p25)).toBeLessThan(5 * Math.sqrt(N * p25 * (1 - p25)));
+  });
+
   it("refuses non-integer weights unless rounding is allowed, and undirected one-mode networks", () => {
     const net = bipartite([[1.5, 2], [0, 3.2]]);
     expect(() => patefieldNull(net, createRng(1))).toThrow(/integer weights/);
