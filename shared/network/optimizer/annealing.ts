@@ -80,7 +80,6 @@ export function anneal(g: QualityGraph, initial: Int32Array, rng: Rng, options: 
   const result0 = { membership: memb.slice(), Q: graphQuality(g, memb), temperatures: 0 };
   if (nActive < 2) return result0;
 
-  const nw = new Float64Array(n); // weight from a node or module to each module
   const side = new Int8Array(n);
   const members = new Int32Array(n);
 
@@ -153,7 +152,6 @@ export function anneal(g: QualityGraph, initial: Int32Array, rng: Rng, options: 
   }
 
   for (; temps < maxTemperatures; temps++) {
-    let acceptedWorse = 0;
     const improvedBefore = bestQ;
     for (let round = 0; round < nCollective; round++) {
       for (let s = 0; s < singlePerCollective; s++) {
@@ -164,7 +162,6 @@ export function anneal(g: QualityGraph, initial: Int32Array, rng: Rng, options: 
         if (accept(dq)) {
           moveNode(v, t);
           q += dq;
-          if (dq < 0) acceptedWorse++;
           if (q > bestQ + tol) {
             bestQ = q;
             best.set(memb);
@@ -195,7 +192,6 @@ export function anneal(g: QualityGraph, initial: Int32Array, rng: Rng, options: 
           modSize[c2] = 0;
           empty[nEmpty++] = c2;
           q += dq;
-          if (dq < 0) acceptedWorse++;
           if (q > bestQ + tol) {
             bestQ = q;
             best.set(memb);
@@ -278,7 +274,6 @@ export function anneal(g: QualityGraph, initial: Int32Array, rng: Rng, options: 
           modB[c2] = B1;
           modSize[c2] = n1;
           q += dq;
-          if (dq < 0) acceptedWorse++;
           if (q > bestQ + tol) {
             bestQ = q;
             best.set(memb);

@@ -29,8 +29,14 @@ import { graphQuality, renumber, type QualityGraph } from "./quality-graph";
 
 /** Randomness of the refinement step (θ of the paper; 0.01 is the authors' default). */
 export const REFINEMENT_THETA = 0.01;
-/** Safety cap on whole passes per run (each pass can only raise Q; it stops earlier when Q is stable). */
-export const MAX_PASSES = 50;
+/**
+ * Cap on whole passes per run. A pass starts from the previous pass's partition and can only raise Q;
+ * a run stops at the first pass that does not. Structured networks settle within a few passes; on random
+ * graphs (e.g. null replicates) each pass still adds a little (20,000-node random graph: Q 0.260 after
+ * one pass — the same as a Louvain run —, 0.306 after 10, 0.309 after 20, 0.312 after 50), at ~65 ms a
+ * pass there, so 20 passes bound the cost of a restart.
+ */
+export const MAX_PASSES = 20;
 
 /** Scratch arrays sized for the largest level (the input graph); reused across levels and passes. */
 interface Workspace {
@@ -168,7 +174,6 @@ export function moveNodesFast(g: QualityGraph, memb: Int32Array, rng: Rng, ws: W
     // An empty module has gain 0.
     if (modSize[cur] > 0 && 0 > bestGain + eps && nEmpty > 0) {
       best = empty[--nEmpty];
-      bestGain = 0;
     }
 
     modA[best] += av;

@@ -28,7 +28,7 @@ import type { Network, Partition } from "../types";
 import { createRng, deriveSeed } from "../random";
 import { ENGINE_VERSION } from "../version";
 import { anneal, ANNEALING_DEFAULTS } from "./annealing";
-import { createWorkspace, leiden, REFINEMENT_THETA } from "./leiden";
+import { createWorkspace, leiden, MAX_PASSES, REFINEMENT_THETA } from "./leiden";
 import {
   buildQualityGraph,
   graphQuality,
@@ -51,6 +51,8 @@ export interface OptimizeOptions {
   restarts?: number;
   seed?: number;
   annealing?: AnnealingMode;
+  /** Called after each restart with its number and Q (progress reports, benchmarks). */
+  onRestart?: (restart: number, Q: number) => void;
 }
 
 export interface RestartSpread {
@@ -81,6 +83,7 @@ export interface ModularityResult {
       annealing: AnnealingMode;
       annealed: boolean;
       refinementTheta: number;
+      maxPasses: number;
       annealingF: number;
       annealingCooling: number;
       annealingMaxNodes: number;
@@ -128,6 +131,7 @@ export function optimizeModularity(net: Network, options: OptimizeOptions = {}):
       annealing,
       annealed,
       refinementTheta: REFINEMENT_THETA,
+      maxPasses: MAX_PASSES,
       annealingF: ANNEALING_DEFAULTS.f,
       annealingCooling: ANNEALING_DEFAULTS.cooling,
       annealingMaxNodes: ANNEALING_MAX_NODES,
@@ -155,6 +159,7 @@ export function optimizeModularity(net: Network, options: OptimizeOptions = {}):
   for (let r = 0; r < restarts; r++) {
     const res = leiden(g, createRng(deriveSeed(seed, r)), undefined, ws);
     qs.push(res.Q);
+    options.onRestart?.(r, res.Q);
     if (res.Q > bestQ + 1e-12) {
       bestQ = res.Q;
       best = res.membership;
@@ -172,10 +177,7 @@ export function optimizeModularity(net: Network, options: OptimizeOptions = {}):
     const rng = createRng(deriveSeed(seed, ANNEALING_STREAM));
     const annealed = anneal(g, memb, rng);
     const polished = leiden(g, rng, annealed.membership, ws);
-    if (polished.Q > bestQ + 1e-12) {
-      memb = polished.membership;
-      bestQ = polished.Q;
-    }
+    if (polished.Q > bestQ + 1e-12) memb = polished.membership;
   }
   memb = memb.slice();
   splitDisconnected(g, memb);
