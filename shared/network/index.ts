@@ -12,3 +12,4 @@ export * from "./modularity/quality";
 export * from "./null-models/index";
 export * from "./roles/roles";
 export * from "./nestedness/nodf";
+export * from "./optimizer/index";
