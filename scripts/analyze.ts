@@ -159,7 +159,9 @@ function summary(file: string, r: AnalysisResult, detection: string | null, warn
   lines.push(`  modularity: ${objectiveLabel(m.objective)}`);
   if (m.Q === null) lines.push(`    Q undefined: ${m.undefinedReason}`);
   else {
-    lines.push(`    Q = ${fmt(m.Q, 6)} with ${m.modules} modules`);
+    const lone =
+      r.isolated === 1 ? " (1 of them a single node without links)" : r.isolated > 1 ? ` (${r.isolated} of them single nodes without links)` : "";
+    lines.push(`    Q = ${fmt(m.Q, 6)} with ${m.modules} ${m.modules === 1 ? "module" : "modules"}${lone}`);
     lines.push(
       `    ${m.restarts.n} restarts: min ${fmt(m.restarts.min, 6)}, median ${fmt(m.restarts.median, 6)}, max ${fmt(m.restarts.max, 6)}; ` +
         `${Math.round((m.restarts.bestShare ?? 0) * 100)} % reached the best`,
