@@ -3,7 +3,7 @@
  *
  * Each null replicate r is drawn from its own generator, createRng(deriveSeed(seed, NULL_STREAM, r)),
  * by `generateNull` (null-models/), and optimized with the same optimizer and effort as the observed
- * network (same objective, restarts and annealing mode; the optimizer's seed is
+ * network (same objective, restarts and annealing — "auto" decided on the observed network; the optimizer's seed is
  * deriveSeed(seed, NULL_STREAM, r, OPTIMIZER_STREAM)). A replicate depends only on (network, settings,
  * seed, r), so replicates can be spread over worker threads in any order or chunking and give exactly the
  * numbers of a single-threaded run. Optimizing nulls with less effort than the observed network would
@@ -24,7 +24,7 @@
  * it is within 1e-10·max(1, |Q|) of Q (ties of the same partition value computed on different arrays).
  */
 import { generateNull, type NullModelName } from "./null-models/index";
-import { optimizeModularity, type AnnealingMode } from "./optimizer/optimize";
+import { annealingApplies, optimizeModularity, type AnnealingMode } from "./optimizer/optimize";
 import type { OptimizerObjective } from "./optimizer/quality-graph";
 import { createRng, deriveSeed } from "./random";
 import type { Network } from "./types";
@@ -62,7 +62,9 @@ export function nullReplicateQ(net: Network, settings: NullReplicateSettings): n
   const res = optimizeModularity(nullNet, {
     objective: settings.objective,
     restarts: settings.restarts,
-    annealing: settings.annealing,
+    // "auto" is decided on the observed network, so a null with a different number of linked nodes
+    // gets the same treatment as the observed one.
+    annealing: annealingApplies(net, settings.annealing ?? "auto") ? "on" : "off",
     seed: deriveSeed(seed, NULL_STREAM, replicate, OPTIMIZER_STREAM),
   });
   return res.Q;

@@ -5,6 +5,7 @@
  */
 export {
   optimizeModularity,
+  annealingApplies,
   defaultOptimizerObjective,
   OPTIMIZER_NAME,
   DEFAULT_RESTARTS,

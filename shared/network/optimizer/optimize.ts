@@ -114,6 +114,30 @@ function median(xs: number[]): number {
   return s.length % 2 ? s[h] : (s[h - 1] + s[h]) / 2;
 }
 
+/** Nodes with at least one link (a self-loop counts). */
+function linkedNodes(net: Network): number {
+  const R = net.rowLabels.length;
+  const n = net.kind === "bipartite" ? R + net.colLabels.length : R;
+  const off = net.kind === "bipartite" ? R : 0;
+  const linked = new Uint8Array(n);
+  for (let i = 0; i < R; i++) {
+    if (net.rowPtr[i + 1] > net.rowPtr[i]) linked[i] = 1;
+    for (let e = net.rowPtr[i]; e < net.rowPtr[i + 1]; e++) linked[net.colIdx[e] + off] = 1;
+  }
+  let count = 0;
+  for (let v = 0; v < n; v++) count += linked[v];
+  return count;
+}
+
+/**
+ * Whether the annealing pass runs for `net` under `mode`: always for "on", never for "off", and for
+ * "auto" when the network has at most ANNEALING_MAX_NODES linked nodes. Null replicates take the
+ * decision of the observed network, so both get the same effort.
+ */
+export function annealingApplies(net: Network, mode: AnnealingMode = "auto"): boolean {
+  return mode === "on" || (mode === "auto" && linkedNodes(net) <= ANNEALING_MAX_NODES);
+}
+
 export function optimizeModularity(net: Network, options: OptimizeOptions = {}): ModularityResult {
   const objective = options.objective ?? defaultOptimizerObjective(net);
   const restarts = options.restarts ?? DEFAULT_RESTARTS;
@@ -166,13 +190,16 @@ export function optimizeModularity(net: Network, options: OptimizeOptions = {}):
     }
   }
   let memb = best!;
-  const qMax = Math.max(...qs);
+  let qMax = -Infinity;
+  let qMin = Infinity;
+  for (const q of qs) {
+    if (q > qMax) qMax = q;
+    if (q < qMin) qMin = q;
+  }
   const tolShare = 1e-10;
   const bestShare = qs.filter((q) => q >= qMax - tolShare).length / qs.length;
 
-  let activeNodes = 0;
-  for (let v = 0; v < g.n; v++) if (g.ptr[v + 1] > g.ptr[v]) activeNodes++;
-  const doAnneal = annealing === "on" || (annealing === "auto" && activeNodes <= ANNEALING_MAX_NODES);
+  const doAnneal = annealingApplies(net, annealing);
   if (doAnneal) {
     const rng = createRng(deriveSeed(seed, ANNEALING_STREAM));
     const annealed = anneal(g, memb, rng);
@@ -187,7 +214,7 @@ export function optimizeModularity(net: Network, options: OptimizeOptions = {}):
     Q: graphQuality(g, memb),
     modules,
     partition: memb,
-    restarts: { n: restarts, qs, min: Math.min(...qs), median: median(qs), max: qMax, bestShare },
+    restarts: { n: restarts, qs, min: qMin, median: median(qs), max: qMax, bestShare },
     algorithm: algorithm(doAnneal),
   };
 }
