@@ -229,7 +229,9 @@ function main(argv: string[]): number {
   } catch (err) {
     if (err instanceof NetworkEngineError || err instanceof RangeError) {
       process.stderr.write(`analyze: ${opts.file}: ${err.message}\n`);
-      return err instanceof NetworkEngineError && err.code !== "bad-option" ? 1 : 2;
+      // An option the data cannot take (e.g. Patefield on an undirected network) is a usage error (2);
+      // a defect of the data itself is an input error (1).
+      return err instanceof NetworkEngineError && (err.code === "no-links" || err.code === "bad-network") ? 1 : 2;
     }
     throw err;
   }

@@ -93,6 +93,11 @@ describe("npm run analyze", () => {
     expect(analyze([karate, "--null-model", "shuffle"])).toMatchObject({ code: 2, stderr: expect.stringContaining("--null-model") });
     expect(analyze([karate, "--kind", "bipartite", "--directed"])).toMatchObject({ code: 2 });
     expect(analyze([karate, "--frobnicate"])).toMatchObject({ code: 2 });
+    // An option the data cannot take: Patefield keeps totals of a bipartite or directed matrix only.
+    expect(analyze([karate, "--null-model", "patefield", "--nulls", "2"])).toMatchObject({
+      code: 2,
+      stderr: expect.stringContaining("undirected"),
+    });
     expect(analyze([join(tmp, "nope.csv")])).toMatchObject({ code: 1, stderr: expect.stringContaining("cannot read") });
   });
 });
