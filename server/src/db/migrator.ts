@@ -39,10 +39,14 @@ export function createMigrator(seq: Sequelize) {
 
 /** Applies all pending migrations to the database at `url`, using a private connection. */
 export async function migrateUp(url: string): Promise<string[]> {
-  const seq = createSequelize(url, { pool: 2 });
+  // One connection, so the advisory lock below guards every statement: two processes (e.g. two test
+  // projects, or a web server and a worker) starting together migrate one after the other.
+  const seq = createSequelize(url, { pool: 1 });
   try {
+    await seq.query("SELECT pg_advisory_lock(727364001)");
     await seq.query("CREATE EXTENSION IF NOT EXISTS hstore; CREATE EXTENSION IF NOT EXISTS pg_trgm;");
     const done = await createMigrator(seq).up();
+    await seq.query("SELECT pg_advisory_unlock(727364001)");
     return done.map((m) => m.name);
   } finally {
     await seq.close();
