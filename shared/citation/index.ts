@@ -1,0 +1,137 @@
+/**
+ * Citations of a published dataset version: plain text, BibTeX and RIS. Pure functions of the study
+ * metadata, the accession, the version number, the publication year and the page URL.
+ *
+ * Author names: a creator's `name` is one string. "Family, Given" is read as written; otherwise the last
+ * word is taken as the family name ("Rowan Hale" → Hale, Rowan). Text citations use "Family G." initials.
+ * The formats follow DataCite's recommended data citation (Creator (Year): Title. Version. Publisher.
+ * Identifier), BibTeX's @misc entry (the type every BibTeX style knows) and the RIS tag list (TY DATA).
+ */
+import type { Creator, StudyMetadata } from "../types/dataset";
+
+export const PUBLISHER = "Tanglebank";
+
+export interface CitationInput {
+  metadata: Pick<StudyMetadata, "title" | "creators"> & Partial<Pick<StudyMetadata, "keywords" | "licence" | "description" | "publication">>;
+  accession: string;
+  version: number;
+  year: number;
+  url: string;
+}
+
+export interface PersonName {
+  family: string;
+  given: string;
+}
+
+export function splitName(name: string): PersonName {
+  const n = name.replace(/\s+/g, " ").trim();
+  const comma = n.indexOf(",");
+  if (comma >= 0) return { family: n.slice(0, comma).trim(), given: n.slice(comma + 1).trim() };
+  const parts = n.split(" ");
+  if (parts.length === 1) return { family: parts[0], given: "" };
+  return { family: parts[parts.length - 1], given: parts.slice(0, -1).join(" ") };
+}
+
+function initials(given: string): string {
+  return given
+    .split(/[\s]+/)
+    .filter(Boolean)
+    .map((g) => g.split("-").map((p) => (p[0] ? p[0].toUpperCase() : "")).join("-"))
+    .join("");
+}
+
+function textAuthor(c: Creator): string {
+  const { family, given } = splitName(c.name);
+  const ini = initials(given);
+  return ini ? `${family} ${ini}` : family;
+}
+
+function oneLine(s: string): string {
+  return s.replace(/\s+/g, " ").trim();
+}
+
+/** e.g. "Hale R, Okafor I (2025) Pollinators of the Verrin Hills. Version 2. Tanglebank. TB-000042. https://…" */
+export function formatCitationText(input: CitationInput): string {
+  const authors = input.metadata.creators.map(textAuthor).join(", ") || PUBLISHER;
+  const title = oneLine(input.metadata.title).replace(/[.]+$/, "");
+  return `${authors} (${input.year}) ${title}. Version ${input.version}. ${PUBLISHER}. ${input.accession}. ${input.url}`;
+}
+
+const BIBTEX_SPECIAL: Record<string, string> = {
+  "\\": "\\textbackslash{}",
+  "{": "\\{",
+  "}": "\\}",
+  "%": "\\%",
+  "&": "\\&",
+  $: "\\$",
+  "#": "\\#",
+  _: "\\_",
+  "~": "\\textasciitilde{}",
+  "^": "\\textasciicircum{}",
+};
+
+/** Escapes characters BibTeX/LaTeX treat specially; Unicode letters stay as they are (UTF-8 .bib files). */
+export function escapeBibTeX(s: string): string {
+  return oneLine(s).replace(/[\\{}%&$#_~^]/g, (ch) => BIBTEX_SPECIAL[ch]);
+}
+
+/** A citation key made of safe characters only, e.g. "TB-000042-v2". */
+export function bibTeXKey(accession: string, version: number): string {
+  return `${accession.replace(/[^A-Za-z0-9-]/g, "")}-v${version}`;
+}
+
+/** One BibTeX @misc entry. */
+export function toBibTeX(input: CitationInput): string {
+  const authors = input.metadata.creators
+    .map((c) => {
+      const { family, given } = splitName(c.name);
+      return given ? `${escapeBibTeX(family)}, ${escapeBibTeX(given)}` : `{${escapeBibTeX(family)}}`;
+    })
+    .join(" and ");
+  const fields: Array<[string, string]> = [
+    ["author", authors || `{${PUBLISHER}}`],
+    // double braces keep the title's capitals as written
+    ["title", `{${escapeBibTeX(input.metadata.title)}}`],
+    ["year", String(input.year)],
+    ["publisher", PUBLISHER],
+    ["howpublished", `${PUBLISHER}, accession ${escapeBibTeX(input.accession)}`],
+    ["version", String(input.version)],
+    ["url", input.url],
+    ["note", `Dataset ${escapeBibTeX(input.accession)}, version ${input.version}`],
+  ];
+  if (input.metadata.keywords?.length) fields.push(["keywords", input.metadata.keywords.map(escapeBibTeX).join(", ")]);
+  if (input.metadata.licence) fields.push(["copyright", input.metadata.licence]);
+  const body = fields.map(([k, v]) => `  ${k} = {${v}}`).join(",\n");
+  return `@misc{${bibTeXKey(input.accession, input.version)},\n${body}\n}\n`;
+}
+
+function risLine(tag: string, value: string): string {
+  return `${tag}  - ${oneLine(value)}`;
+}
+
+/** One RIS record (TY DATA), CRLF line ends as the format asks. */
+export function toRIS(input: CitationInput): string {
+  const lines: string[] = [risLine("TY", "DATA")];
+  for (const c of input.metadata.creators) {
+    const { family, given } = splitName(c.name);
+    lines.push(risLine("AU", given ? `${family}, ${given}` : family));
+  }
+  lines.push(risLine("TI", input.metadata.title));
+  lines.push(risLine("PY", String(input.year)));
+  lines.push(risLine("PB", PUBLISHER));
+  lines.push(risLine("ET", `Version ${input.version}`));
+  lines.push(risLine("ID", `${input.accession}-v${input.version}`));
+  lines.push(risLine("AN", input.accession));
+  lines.push(risLine("UR", input.url));
+  for (const k of input.metadata.keywords ?? []) lines.push(risLine("KW", k));
+  if (input.metadata.description) lines.push(risLine("AB", input.metadata.description));
+  if (input.metadata.licence) lines.push(risLine("N1", `Licence: ${input.metadata.licence}`));
+  lines.push("ER  - ");
+  return lines.join("\r\n") + "\r\n";
+}
+
+/** SPDX licence page for a licence id. */
+export function licenceUrl(licence: string): string {
+  return `https://spdx.org/licenses/${licence}.html`;
+}

@@ -1,0 +1,115 @@
+/**
+ * Citation formatting, checked by reading the output back with independent, widely used parsers:
+ * BibTeX with @retorquere/bibtex-parser (the parser of Better BibTeX for Zotero) and RIS with
+ * citation-js (@citation-js/core + @citation-js/plugin-ris). The metadata below is invented (demo only).
+ */
+import { describe, expect, it } from "vitest";
+import { parse as parseBibTeX } from "@retorquere/bibtex-parser";
+import { Cite } from "@citation-js/core";
+import "@citation-js/plugin-ris";
+import { formatCitationText, splitName, toBibTeX, toRIS, escapeBibTeX, type CitationInput } from "../../shared/citation";
+
+const input: CitationInput = {
+  metadata: {
+    title: "Flower visitors of the Verrin Hills: 50% of links & {modules}_2019",
+    creators: [{ name: "Rowan Hale", orcid: "0000-0002-1825-0097" }, { name: "Okafor, Inès Adaeze" }, { name: "van der Strand, Pavel" }],
+    keywords: ["pollination", "modularity"],
+    licence: "CC-BY-4.0",
+    description: "Invented demo data.\nTwo lines.",
+  },
+  accession: "TB-000042",
+  version: 2,
+  year: 2025,
+  url: "https://tanglebank.test/datasets/TB-000042/v/2",
+};
+
+interface CslName {
+  family?: string;
+  given?: string;
+}
+interface CslItem {
+  type: string;
+  title: string;
+  author: CslName[];
+  issued: { "date-parts": number[][] };
+  URL: string;
+  publisher?: string;
+  keyword?: string;
+}
+
+describe("splitName", () => {
+  it("reads 'Family, Given' as written and otherwise takes the last word as family name", () => {
+    expect(splitName("Okafor, Inès Adaeze")).toEqual({ family: "Okafor", given: "Inès Adaeze" });
+    expect(splitName("  Rowan   Hale ")).toEqual({ family: "Hale", given: "Rowan" });
+    expect(splitName("Plato")).toEqual({ family: "Plato", given: "" });
+  });
+});
+
+describe("formatCitationText", () => {
+  it("lists authors with initials, year, title, version, publisher, accession and URL", () => {
+    expect(formatCitationText(input)).toBe(
+      "Hale R, Okafor IA, van der Strand P (2025) Flower visitors of the Verrin Hills: 50% of links & {modules}_2019. Version 2. Tanglebank. TB-000042. https://tanglebank.test/datasets/TB-000042/v/2",
+    );
+  });
+});
+
+describe("toBibTeX", () => {
+  it("escapes LaTeX specials", () => {
+    expect(escapeBibTeX("a & b_c {d} 50% #1 $x")).toBe("a \\& b\\_c \\{d\\} 50\\% \\#1 \\$x");
+  });
+
+  it("produces an entry that a BibTeX parser reads back without errors and with the same fields", () => {
+    const bib = toBibTeX(input);
+    // sentenceCase: false reads titles as written (the default re-cases English titles the way Zotero wants)
+    const parsed = parseBibTeX(bib, { sentenceCase: false });
+    expect(parsed.errors).toEqual([]);
+    expect(parsed.entries).toHaveLength(1);
+    const e = parsed.entries[0];
+    expect(e.type).toBe("misc");
+    expect(e.key).toBe("TB-000042-v2");
+    expect(e.fields.title).toBe("Flower visitors of the Verrin Hills: 50% of links & {modules}_2019");
+    expect(e.fields.year).toBe("2025");
+    expect(e.fields.url).toBe(input.url);
+    const authors = e.fields.author as Array<{ lastName: string; firstName?: string; prefix?: string }>;
+    // BibTeX reads "van der" as the von part of the family name
+    expect(authors.map((a) => [a.prefix ? `${a.prefix} ${a.lastName}` : a.lastName, a.firstName])).toEqual([
+      ["Hale", "Rowan"],
+      ["Okafor", "Inès Adaeze"],
+      ["van der Strand", "Pavel"],
+    ]);
+  });
+
+  it("keeps a broken title from breaking the entry (unbalanced braces are escaped)", () => {
+    const bib = toBibTeX({ ...input, metadata: { ...input.metadata, title: "Half {open" } });
+    // sentenceCase: false reads titles as written (the default re-cases English titles the way Zotero wants)
+    const parsed = parseBibTeX(bib, { sentenceCase: false });
+    expect(parsed.errors).toEqual([]);
+    expect(parsed.entries[0].fields.title).toBe("Half {open");
+  });
+});
+
+describe("toRIS", () => {
+  it("produces a record that citation-js reads as a dataset with authors, title, year and URL", () => {
+    const ris = toRIS(input);
+    expect(ris.startsWith("TY  - DATA\r\n")).toBe(true);
+    expect(ris.endsWith("ER  - \r\n")).toBe(true);
+    const items = new Cite(ris).data as CslItem[];
+    expect(items).toHaveLength(1);
+    const it0 = items[0];
+    expect(it0.type).toBe("dataset");
+    expect(it0.title).toBe(input.metadata.title);
+    expect(it0.author.map((a) => [a.family, a.given])).toEqual([
+      ["Hale", "Rowan"],
+      ["Okafor", "Inès Adaeze"],
+      ["van der Strand", "Pavel"],
+    ]);
+    expect(it0.issued["date-parts"][0][0]).toBe(2025);
+    expect(it0.URL).toBe(input.url);
+    expect(it0.publisher).toBe("Tanglebank");
+  });
+
+  it("puts a multi-line description on one line so the record stays valid", () => {
+    const ris = toRIS(input);
+    expect(ris).toContain("AB  - Invented demo data. Two lines.\r\n");
+  });
+});
