@@ -8,6 +8,8 @@ export class MetricBatch extends Model<InferAttributes<MetricBatch>, InferCreati
   declare status: CreationOptional<"running" | "finished" | "cancelled">;
   declare total: CreationOptional<number>;
   declare force: CreationOptional<boolean>;
+  /** Networks left out because a successful run with the same settings existed. */
+  declare skipped: CreationOptional<number>;
   declare startedBy: CreationOptional<number | null>;
   declare finishedAt: CreationOptional<Date | null>;
   declare createdAt: CreationOptional<Date>;
@@ -23,6 +25,7 @@ export function initMetricBatch(sequelize: Sequelize): void {
       status: { type: DataTypes.TEXT, allowNull: false, defaultValue: "running" },
       total: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 0 },
       force: { type: DataTypes.BOOLEAN, allowNull: false, defaultValue: false },
+      skipped: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 0 },
       startedBy: { type: DataTypes.INTEGER },
       finishedAt: { type: DataTypes.DATE },
       createdAt: DataTypes.DATE,

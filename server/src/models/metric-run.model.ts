@@ -1,6 +1,7 @@
 import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes, type Sequelize } from "sequelize";
 
-export type MetricRunStatus = "queued" | "running" | "succeeded" | "failed";
+/** "superseded": an older success replaced by a forced recompute with the same settings (kept for the record). */
+export type MetricRunStatus = "queued" | "running" | "succeeded" | "failed" | "superseded";
 
 /** One computation over one network, with full provenance; headline results are copied into columns. */
 export class MetricRun extends Model<InferAttributes<MetricRun>, InferCreationAttributes<MetricRun>> {
