@@ -12,3 +12,24 @@ export interface SessionInfo {
   user: SessionUser | null;
   csrfToken: string;
 }
+
+/** The signed-in person's own profile (GET/PATCH /api/v1/account). */
+export interface AccountProfile extends SessionUser {
+  affiliation: string | null;
+  orcid: string | null;
+  createdAt: string;
+}
+
+/** One row of the admin's user list (GET /api/v1/users). */
+export interface UserSummary {
+  id: number;
+  email: string;
+  displayName: string;
+  affiliation: string | null;
+  role: Role;
+  emailVerified: boolean;
+  createdAt: string;
+}
+
+/** Error codes of one-time links (verification, password reset), turned into messages by the pages. */
+export type OneTimeLinkErrorCode = "link_invalid" | "link_expired" | "link_used";

@@ -8,7 +8,7 @@ import { initModels } from "../../server/src/models";
 export async function resetDatabase(): Promise<void> {
   initModels();
   const [rows] = (await sequelize().query(
-    `SELECT tablename FROM pg_tables WHERE schemaname = 'public' AND tablename <> 'SequelizeMeta'`,
+    `SELECT tablename FROM pg_tables WHERE schemaname = 'public' AND tablename NOT IN ('SequelizeMeta', 'sequelize_meta')`,
   )) as [Array<{ tablename: string }>, unknown];
   if (rows.length) {
     await sequelize().query(`TRUNCATE ${rows.map((r) => `"${r.tablename}"`).join(", ")} RESTART IDENTITY CASCADE`);

@@ -1,0 +1,64 @@
+import type { Request, Response } from "express";
+import { csrfToken } from "../../middlewares/csrf";
+import { toAuthUser } from "../../middlewares/authenticate";
+import * as v from "./auth.validation";
+import * as service from "./auth.service";
+
+const regenerate = (req: Request) => new Promise<void>((resolve, reject) => req.session.regenerate((err) => (err ? reject(err) : resolve())));
+const save = (req: Request) => new Promise<void>((resolve, reject) => req.session.save((err) => (err ? reject(err) : resolve())));
+const destroy = (req: Request) => new Promise<void>((resolve, reject) => req.session.destroy((err) => (err ? reject(err) : resolve())));
+
+export function session(req: Request, res: Response) {
+  res.json({ user: req.user ?? null, csrfToken: req.session ? csrfToken(req) : "" });
+}
+
+export async function signUp(req: Request, res: Response) {
+  const input = v.validateSignUp(req.body);
+  const user = await service.signUp(input);
+  res.status(201).json({
+    user: toAuthUser(user),
+    message: `Account created. We sent a confirmation link to ${user.email}; open it, then sign in.`,
+  });
+}
+
+export async function signIn(req: Request, res: Response) {
+  const { email, password } = v.validateSignIn(req.body);
+  const user = await service.checkCredentials(email, password);
+  // A new session id at sign-in (no session fixation) with a fresh CSRF token.
+  await regenerate(req);
+  req.session.userId = user.id;
+  const token = csrfToken(req);
+  await save(req);
+  res.json({ user: toAuthUser(user), csrfToken: token });
+}
+
+export async function signOut(req: Request, res: Response) {
+  if (req.session) await destroy(req);
+  res.clearCookie("tb.sid", { path: "/" });
+  res.status(204).end();
+}
+
+export async function verifyEmail(req: Request, res: Response) {
+  const { token } = v.validateTokenOnly(req.body);
+  const user = await service.verifyEmail(token);
+  res.json({ user: { email: user.email, emailVerified: true }, message: "Your e-mail address is confirmed." });
+}
+
+/** A new confirmation link: for the signed-in account, or for the address given (always 202). */
+export async function resendVerification(req: Request, res: Response) {
+  const email = req.user ? req.user.email : v.validateEmailOnly(req.body).email;
+  await service.resendVerification(email);
+  res.status(202).json({ message: "If an unconfirmed account uses this address, a new confirmation link is on its way." });
+}
+
+export async function requestPasswordReset(req: Request, res: Response) {
+  const { email } = v.validateEmailOnly(req.body);
+  await service.requestPasswordReset(email);
+  res.status(202).json({ message: "If an account uses this address, a link to choose a new password is on its way. It works for one hour." });
+}
+
+export async function confirmPasswordReset(req: Request, res: Response) {
+  const { token, password } = v.validateResetConfirm(req.body);
+  const user = await service.resetPassword(token, password);
+  res.json({ user: { email: user.email }, message: "Your new password is set. Sign in with it." });
+}

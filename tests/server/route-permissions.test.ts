@@ -1,0 +1,70 @@
+/**
+ * Every protected route, signed out and with each lower role. Add a line per protected route to ROUTES:
+ * the test signs in as each role and checks 401 for a visitor and 403 for every role below `min`
+ * (and that `min` itself gets past the permission check: neither 401 nor 403).
+ * Paths may contain ids that do not exist: permission is checked before the entity is loaded.
+ */
+import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { createApp } from "../../server/src/app";
+import { shutdownServerResources } from "../../server/src/index";
+import { resetRateLimits } from "../../server/src/middlewares/rate-limit";
+import { setCurrentMailCatcher } from "../../server/src/lib/mail-catcher";
+import { resetDatabase } from "../setup/db";
+import { agentFor, createUser, type SignedInAgent } from "./support/accounts";
+
+type Min = "depositor" | "curator" | "admin";
+interface ProtectedRoute {
+  method: "get" | "post" | "put" | "patch" | "delete";
+  path: string;
+  min: Min;
+  body?: Record<string, unknown>;
+}
+
+const ROUTES: ProtectedRoute[] = [
+  // accounts
+  { method: "get", path: "/api/v1/account", min: "depositor" },
+  { method: "patch", path: "/api/v1/account", min: "depositor", body: {} },
+  { method: "put", path: "/api/v1/account/password", min: "depositor", body: {} },
+  { method: "get", path: "/api/v1/users", min: "admin" },
+  { method: "patch", path: "/api/v1/users/1/role", min: "admin", body: { role: "depositor" } },
+  { method: "get", path: "/api/v1/outbox", min: "admin" },
+  { method: "get", path: "/api/v1/outbox/1", min: "admin" },
+  // --- other features: add your routes below ---
+];
+
+const ORDER: Min[] = ["depositor", "curator", "admin"];
+const agents: Partial<Record<Min | "visitor", SignedInAgent>> = {};
+const app = createApp();
+
+beforeAll(async () => {
+  await resetDatabase();
+  await resetRateLimits();
+  setCurrentMailCatcher(undefined);
+  agents.visitor = await agentFor(app);
+  for (const role of ORDER) {
+    const u = await createUser({ role, email: `${role}@permissions.test` });
+    agents[role] = await agentFor(app, u.email);
+  }
+});
+afterAll(shutdownServerResources);
+
+function call(who: SignedInAgent, r: ProtectedRoute) {
+  const req = who.agent[r.method](r.path);
+  return r.method === "get" ? req : req.set("x-csrf-token", who.csrf).send(r.body ?? {});
+}
+
+describe("route permissions", () => {
+  it.each(ROUTES.map((r) => [`${r.method.toUpperCase()} ${r.path} (${r.min})`, r] as const))("%s", async (_name, r) => {
+    const visitor = await call(agents.visitor!, r);
+    expect(visitor.status, "visitor").toBe(401);
+    for (const role of ORDER) {
+      const res = await call(agents[role]!, r);
+      if (ORDER.indexOf(role) < ORDER.indexOf(r.min)) {
+        expect(res.status, role).toBe(403);
+        expect(res.body.code, role).toBe("forbidden");
+      } else {
+        expect([401, 403], `${role} must pass the permission check`).not.toContain(res.status);
+      }
+    }
+  });
+});
