@@ -7,3 +7,7 @@ export type ShutdownTask = () => Promise<void>;
 
 export const startupTasks: StartupTask[] = [];
 export const shutdownTasks: ShutdownTask[] = [];
+
+import { startMetricsWorkerTask, stopMetricsWorkerTask } from "./jobs/startup";
+startupTasks.push(startMetricsWorkerTask);
+shutdownTasks.unshift(stopMetricsWorkerTask);

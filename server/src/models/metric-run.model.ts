@@ -15,6 +15,8 @@ export class MetricRun extends Model<InferAttributes<MetricRun>, InferCreationAt
   declare algorithmVersion: CreationOptional<string | null>;
   declare seed: CreationOptional<number | null>;
   declare attempts: CreationOptional<number>;
+  /** Recompute even when a successful run with the same settings exists. */
+  declare force: CreationOptional<boolean>;
   declare startedAt: CreationOptional<Date | null>;
   declare finishedAt: CreationOptional<Date | null>;
   declare durationMs: CreationOptional<number | null>;
@@ -46,6 +48,7 @@ export function initMetricRun(sequelize: Sequelize): void {
       algorithmVersion: { type: DataTypes.TEXT },
       seed: { type: DataTypes.BIGINT, get() { const v = this.getDataValue("seed"); return v === null || v === undefined ? null : Number(v); } },
       attempts: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 0 },
+      force: { type: DataTypes.BOOLEAN, allowNull: false, defaultValue: false },
       startedAt: { type: DataTypes.DATE },
       finishedAt: { type: DataTypes.DATE },
       durationMs: { type: DataTypes.INTEGER },

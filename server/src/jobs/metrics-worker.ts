@@ -1,0 +1,297 @@
+/**
+ * The metrics worker: takes "network-metrics" jobs from the queue and computes one metric run each.
+ *
+ * A job, for run R of network N with settings S (hash H):
+ *   1. R already finished (succeeded, superseded or failed) → nothing to do (a duplicate or retried job).
+ *      A success for (N, H) exists and R is not forced → R is marked superseded without computing.
+ *   2. R → running (attempts + 1).
+ *   3. Observed phase (one task on the thread pool): the analysis without nulls; Q, modules, NODF and
+ *      provenance are written to R at once, so pages show the observed figures while nulls are computed.
+ *      A retried job reuses stored observed results (they depend only on network, settings and seed).
+ *   4. Null phase: replicates 0..n−1 in chunks over the pool's threads; results equal a single-threaded run.
+ *   5. One transaction: R locked; if still running, a forced R marks the older success superseded, and R
+ *      becomes succeeded with the full analysis (partition, null Qs, roles) and its headline columns. The
+ *      unique index "one success per (network, settings hash)" makes a duplicate success impossible.
+ * A job that throws is retried by the queue (RETRY_LIMIT); on its last attempt the run is marked failed with
+ * the error, and the batch goes on. A worker killed mid-job leaves R "running"; the queue expires the job
+ * and retries it on another worker; and the sweeper re-sends runs whose job disappeared, failing a run for
+ * good after MAX_ATTEMPTS starts.
+ *
+ * Edge-less networks: the engine's answer (Q null with its reason, no significance test) is stored as a
+ * success: it is the network's correct result, not a failure of the pipeline.
+ */
+import { QueryTypes } from "sequelize";
+import type PgBoss from "pg-boss";
+import type { AnalysisResult } from "../../../shared/network/analyze";
+import type { PipelineSettings } from "../../../shared/types/pipeline";
+import { sequelize } from "../db/sequelize";
+import { logger } from "../lib/logger";
+import { chunkReplicates, combineAnalysis, type ObservedResult } from "./compute";
+import { closePool, poolThreads, runNulls, runObserved } from "./pool";
+import { getBoss, METRICS_QUEUE, RETRY_LIMIT, sendRunJobs, stopQueue, type MetricsJobData } from "./queue";
+import { validateSettings } from "./settings";
+
+/** Starts of one run (job attempts, including those of killed workers) before it is failed for good. */
+export const MAX_ATTEMPTS = RETRY_LIMIT + 2;
+
+interface RunState {
+  id: number;
+  network_id: number;
+  batch_id: number | null;
+  settings: PipelineSettings;
+  settings_hash: string;
+  status: string;
+  force: boolean;
+  attempts: number;
+  started_at: Date | null;
+  results: { phase?: string; observed?: ObservedResult } | null;
+}
+
+async function loadRun(runId: number): Promise<RunState | undefined> {
+  const [row] = await sequelize().query<RunState>(
+    `SELECT id, network_id, batch_id, settings, settings_hash, status, force, attempts, started_at, results
+       FROM metric_runs WHERE id = :runId`,
+    { replacements: { runId }, type: QueryTypes.SELECT },
+  );
+  return row;
+}
+
+/** Marks the batch finished when none of its runs is waiting or running. */
+export async function finishBatchIfDone(batchId: number | null): Promise<void> {
+  if (!batchId) return;
+  await sequelize().query(
+    `UPDATE metric_batches b SET status = 'finished', finished_at = now(), updated_at = now()
+      WHERE b.id = :batchId AND b.status = 'running'
+        AND NOT EXISTS (SELECT 1 FROM metric_runs r WHERE r.batch_id = b.id AND r.status IN ('queued', 'running'))`,
+    { replacements: { batchId } },
+  );
+}
+
+export async function markRunFailed(runId: number, message: string): Promise<void> {
+  const [rows] = (await sequelize().query(
+    `UPDATE metric_runs SET status = 'failed', error = :message, finished_at = now(),
+            duration_ms = CASE WHEN started_at IS NULL THEN NULL ELSE (EXTRACT(EPOCH FROM (now() - started_at)) * 1000)::int END,
+            updated_at = now()
+      WHERE id = :runId AND status IN ('queued', 'running') RETURNING batch_id`,
+    { replacements: { runId, message: message.slice(0, 4000) } },
+  )) as [Array<{ batch_id: number | null }>, unknown];
+  if (rows[0]) await finishBatchIfDone(rows[0].batch_id);
+}
+
+function errorMessage(err: unknown): string {
+  if (err instanceof Error) return `${err.name}: ${err.message}`;
+  return String(err);
+}
+
+/** Computes one run (steps 1–5 above). Throws when the computation fails. */
+export async function processRun(runId: number): Promise<void> {
+  const run = await loadRun(runId);
+  if (!run || !["queued", "running"].includes(run.status)) return;
+  const hash = run.settings_hash.trim();
+  if (!run.force) {
+    const [other] = await sequelize().query<{ id: number }>(
+      `SELECT id FROM metric_runs WHERE network_id = :net AND settings_hash = :hash AND status = 'succeeded'`,
+      { replacements: { net: run.network_id, hash }, type: QueryTypes.SELECT },
+    );
+    if (other) {
+      await sequelize().query(
+        `UPDATE metric_runs SET status = 'superseded', error = :note, finished_at = now(), updated_at = now()
+          WHERE id = :runId AND status IN ('queued', 'running')`,
+        { replacements: { runId, note: `not computed: run ${other.id} already holds the result for these settings` } },
+      );
+      await finishBatchIfDone(run.batch_id);
+      return;
+    }
+  }
+  const { settings } = validateSettings(run.settings);
+  if (!settings) throw new Error(`run ${runId} has invalid settings`);
+
+  const [started] = (await sequelize().query(
+    `UPDATE metric_runs SET status = 'running', attempts = attempts + 1, started_at = COALESCE(started_at, now()),
+            error = NULL, updated_at = now()
+      WHERE id = :runId AND status IN ('queued', 'running') RETURNING attempts, started_at`,
+    { replacements: { runId } },
+  )) as [Array<{ attempts: number; started_at: Date }>, unknown];
+  if (!started) return;
+  const t0 = Date.now();
+
+  const [net] = await sequelize().query<{ canonical: unknown }>(`SELECT canonical FROM networks WHERE id = :id`, {
+    replacements: { id: run.network_id },
+    type: QueryTypes.SELECT,
+  });
+  if (!net) throw new Error(`network ${run.network_id} no longer exists`);
+
+  let observed = run.results?.phase === "observed" ? run.results.observed : undefined;
+  if (!observed) {
+    observed = await runObserved({ canonical: net.canonical, settings });
+    const a = observed.analysis;
+    await sequelize().query(
+      `UPDATE metric_runs SET results = CAST(:results AS jsonb), objective = :objective, q = :q, modules = :modules,
+              nodf = :nodf, algorithm_name = :algName, algorithm_version = :algVersion, seed = :seed, updated_at = now()
+        WHERE id = :runId AND status = 'running'`,
+      {
+        replacements: {
+          runId,
+          results: JSON.stringify({ phase: "observed", observed }),
+          objective: a.modularity.objective,
+          q: a.modularity.Q,
+          modules: a.modularity.modules,
+          nodf: a.nodf,
+          algName: a.algorithm.name,
+          algVersion: a.algorithm.version,
+          seed: a.algorithm.seed,
+        },
+      },
+    );
+  }
+
+  let nullQs: Array<number | null> = [];
+  if (settings.nulls > 0 && observed.analysis.modularity.Q !== null) {
+    // About four chunks per thread: short tasks keep every thread busy until the end of the job.
+    const chunks = chunkReplicates(settings.nulls, poolThreads() * 4);
+    const parts = await Promise.all(
+      chunks.map((replicates) =>
+        runNulls({ canonical: net.canonical, settings, nullModel: observed.nullModel, objective: observed.analysis.modularity.objective, replicates }),
+      ),
+    );
+    nullQs = parts.flat();
+  }
+  const analysis = combineAnalysis(observed, settings.nulls, nullQs, Date.now() - t0);
+  await writeSuccess(run, hash, analysis, nullQs);
+}
+
+async function writeSuccess(run: RunState, hash: string, analysis: AnalysisResult, nullQs: Array<number | null>): Promise<void> {
+  const n = analysis.null ?? null;
+  try {
+    await sequelize().transaction(async (transaction) => {
+      const [locked] = await sequelize().query<{ status: string }>(`SELECT status FROM metric_runs WHERE id = :id FOR UPDATE`, {
+        replacements: { id: run.id },
+        type: QueryTypes.SELECT,
+        transaction,
+      });
+      if (!locked || locked.status !== "running") return; // finished elsewhere meanwhile
+      if (run.force) {
+        await sequelize().query(
+          `UPDATE metric_runs SET status = 'superseded', updated_at = now()
+            WHERE network_id = :net AND settings_hash = :hash AND status = 'succeeded' AND id <> :id`,
+          { replacements: { net: run.network_id, hash, id: run.id }, transaction },
+        );
+      }
+      await sequelize().query(
+        `UPDATE metric_runs SET status = 'succeeded', finished_at = now(),
+                duration_ms = (EXTRACT(EPOCH FROM (now() - started_at)) * 1000)::int,
+                results = CAST(:results AS jsonb), objective = :objective, q = :q, modules = :modules, nodf = :nodf,
+                null_mean = :nullMean, null_sd = :nullSd, z = :z, q_rel = :qRel, p = :p,
+                algorithm_name = :algName, algorithm_version = :algVersion, seed = :seed, error = NULL, updated_at = now()
+          WHERE id = :id`,
+        {
+          replacements: {
+            id: run.id,
+            results: JSON.stringify({ phase: "complete", analysis, nullQs }),
+            objective: analysis.modularity.objective,
+            q: analysis.modularity.Q,
+            modules: analysis.modularity.modules,
+            nodf: analysis.nodf,
+            nullMean: n?.mean ?? null,
+            nullSd: n?.sd ?? null,
+            z: n?.z ?? null,
+            qRel: n?.qRel ?? null,
+            p: n?.p ?? null,
+            algName: analysis.algorithm.name,
+            algVersion: analysis.algorithm.version,
+            seed: analysis.algorithm.seed,
+          },
+          transaction,
+        },
+      );
+    });
+  } catch (err) {
+    // Another run of the same network and settings succeeded first (unique index): keep that one.
+    if ((err as { name?: string }).name === "SequelizeUniqueConstraintError") {
+      await sequelize().query(
+        `UPDATE metric_runs SET status = 'superseded', error = 'another run with these settings succeeded first',
+                finished_at = now(), updated_at = now() WHERE id = :id AND status = 'running'`,
+        { replacements: { id: run.id } },
+      );
+    } else throw err;
+  }
+  await finishBatchIfDone(run.batch_id);
+}
+
+/** The pg-boss handler: one job at a time; failure on the last attempt is recorded, not thrown. */
+export async function handleJob(job: PgBoss.JobWithMetadata<MetricsJobData>): Promise<void> {
+  const runId = Number(job.data?.runId);
+  if (!Number.isInteger(runId)) return;
+  try {
+    await processRun(runId);
+  } catch (err) {
+    const message = errorMessage(err);
+    const run = await loadRun(runId);
+    const lastAttempt = job.retryCount >= job.retryLimit || (run?.attempts ?? 0) >= MAX_ATTEMPTS;
+    logger.warn({ runId, attempt: job.retryCount + 1, lastAttempt, err: message }, "metrics job failed");
+    if (lastAttempt) await markRunFailed(runId, message);
+    else throw err;
+  }
+}
+
+/**
+ * Runs that should have a job but have none (never sent, or lost with a killed worker after the queue gave
+ * up): re-sent, or failed for good after MAX_ATTEMPTS starts.
+ */
+export async function sweepOrphanRuns(): Promise<{ resent: number; failed: number }> {
+  const orphans = await sequelize().query<{ id: number; network_id: number; settings_hash: string; attempts: number }>(
+    `SELECT r.id, r.network_id, r.settings_hash, r.attempts FROM metric_runs r
+      WHERE r.status IN ('queued', 'running')
+        AND NOT EXISTS (SELECT 1 FROM pgboss.job j WHERE j.name = :queue AND j.state IN ('created', 'retry', 'active')
+                          AND (j.data->>'runId')::int = r.id)
+      ORDER BY r.id`,
+    { replacements: { queue: METRICS_QUEUE }, type: QueryTypes.SELECT },
+  );
+  let failed = 0;
+  const resend: Array<{ id: number; networkId: number; settingsHash: string }> = [];
+  for (const r of orphans) {
+    if (r.attempts >= MAX_ATTEMPTS) {
+      await markRunFailed(r.id, `the job was started ${r.attempts} times and never finished (worker stopped or timed out)`);
+      failed++;
+    } else resend.push({ id: r.id, networkId: r.network_id, settingsHash: r.settings_hash });
+  }
+  await sendRunJobs(resend);
+  return { resent: resend.length, failed };
+}
+
+let workerIds: string[] = [];
+let sweepTimer: NodeJS.Timeout | undefined;
+
+/**
+ * Starts working the queue in this process: `concurrency` jobs at a time (default 2: while one job runs its
+ * single-threaded observed phase, another one's null replicates keep the other threads busy).
+ */
+export async function startMetricsWorker(opts: { concurrency?: number; pollingIntervalSeconds?: number } = {}): Promise<void> {
+  const boss = await getBoss();
+  const concurrency = opts.concurrency ?? Number(process.env.TB_METRICS_CONCURRENCY ?? 2);
+  const pollingIntervalSeconds = opts.pollingIntervalSeconds ?? Number(process.env.TB_METRICS_POLL_SECONDS ?? 1);
+  for (let i = 0; i < concurrency; i++) {
+    workerIds.push(
+      await boss.work<MetricsJobData>(METRICS_QUEUE, { batchSize: 1, includeMetadata: true, pollingIntervalSeconds }, async (jobs) => {
+        for (const job of jobs) await handleJob(job);
+      }),
+    );
+  }
+  const sweep = () =>
+    sweepOrphanRuns().then(
+      (r) => r.resent + r.failed > 0 && logger.info(r, "metrics sweeper"),
+      (err: unknown) => logger.warn({ err }, "metrics sweeper failed"),
+    );
+  await sweep();
+  sweepTimer = setInterval(() => void sweep(), 60_000);
+  sweepTimer.unref();
+}
+
+/** Stops taking jobs, lets running ones finish (up to `timeoutMs`), then closes the queue and the pool. */
+export async function stopMetricsWorker(opts: { timeoutMs?: number } = {}): Promise<void> {
+  if (sweepTimer) clearInterval(sweepTimer);
+  sweepTimer = undefined;
+  workerIds = [];
+  await stopQueue({ graceful: true, timeoutMs: opts.timeoutMs ?? 30_000 });
+  await closePool();
+}

@@ -1,0 +1,81 @@
+/**
+ * The metrics job queue: pg-boss in the application's database (schema "pgboss"). One queue,
+ * "network-metrics", with the "stately" policy: per singleton key (network id + settings hash) at most one
+ * job waits and one runs. A job carries only its metric_runs id; the run row holds network, settings and
+ * state, so a job is idempotent and the sweeper (metrics-worker.ts) can re-send a run whose job was lost.
+ *
+ * Timeouts: a job not finished after TB_METRICS_JOB_EXPIRE_SECONDS (default 3600) is expired by pg-boss's
+ * maintenance (every TB_METRICS_MAINTENANCE_SECONDS, default 60) and retried, up to RETRY_LIMIT times —
+ * this is how the job of a killed worker gets done by another one.
+ */
+import PgBoss from "pg-boss";
+import { config } from "../config/env";
+import { logger } from "../lib/logger";
+
+export const METRICS_QUEUE = "network-metrics";
+export const RETRY_LIMIT = 2;
+
+export interface MetricsJobData {
+  runId: number;
+}
+
+function envInt(name: string, fallback: number): number {
+  const n = Number(process.env[name]);
+  return process.env[name] && Number.isInteger(n) && n > 0 ? n : fallback;
+}
+
+export function jobOptions() {
+  return {
+    retryLimit: RETRY_LIMIT,
+    retryDelay: envInt("TB_METRICS_RETRY_DELAY_SECONDS", 5),
+    expireInSeconds: envInt("TB_METRICS_JOB_EXPIRE_SECONDS", 3600),
+  };
+}
+
+let boss: PgBoss | undefined;
+let starting: Promise<PgBoss> | undefined;
+
+/** The process's pg-boss instance, started (schema created) on first use. */
+export function getBoss(): Promise<PgBoss> {
+  if (boss) return Promise.resolve(boss);
+  starting ??= (async () => {
+    const b = new PgBoss({
+      connectionString: config().databaseUrl,
+      max: 4,
+      schedule: false,
+      maintenanceIntervalSeconds: envInt("TB_METRICS_MAINTENANCE_SECONDS", 60),
+    });
+    b.on("error", (err) => logger.error({ err }, "metrics queue error"));
+    await b.start();
+    await b.createQueue(METRICS_QUEUE, { name: METRICS_QUEUE, policy: "stately", ...jobOptions() });
+    boss = b;
+    return b;
+  })();
+  const p = starting;
+  p.catch(() => {
+    if (starting === p) starting = undefined;
+  });
+  return p;
+}
+
+export function singletonKey(networkId: number, hash: string): string {
+  return `${networkId}:${hash.trim()}`;
+}
+
+/** Sends one job per run (duplicates of a waiting job with the same key are dropped by the queue). */
+export async function sendRunJobs(runs: Array<{ id: number; networkId: number; settingsHash: string }>): Promise<void> {
+  if (!runs.length) return;
+  const b = await getBoss();
+  const opts = jobOptions();
+  for (const r of runs) {
+    await b.send(METRICS_QUEUE, { runId: r.id } satisfies MetricsJobData, { ...opts, singletonKey: singletonKey(r.networkId, r.settingsHash) });
+  }
+}
+
+/** Stops the queue (waits up to `timeoutMs` for running handlers when graceful). */
+export async function stopQueue(opts: { graceful?: boolean; timeoutMs?: number } = {}): Promise<void> {
+  const b = boss ?? (starting ? await starting.catch(() => undefined) : undefined);
+  boss = undefined;
+  starting = undefined;
+  if (b) await b.stop({ graceful: opts.graceful ?? true, timeout: opts.timeoutMs ?? 30_000, wait: true });
+}

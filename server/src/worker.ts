@@ -1,0 +1,28 @@
+/**
+ * A standalone metrics worker (`npm run worker`): connects to the database in DATABASE_URL and works the
+ * metrics queue with a worker-thread pool sized to this machine's cores. Start as many as you like, on any
+ * machine that reaches the database. SIGINT/SIGTERM: finish the running jobs (up to 60 s), then exit.
+ */
+import { config } from "./config/env";
+import { migrateUp } from "./db/migrator";
+import { closeSequelize } from "./db/sequelize";
+import { startMetricsWorker, stopMetricsWorker } from "./jobs/metrics-worker";
+import { poolThreads } from "./jobs/pool";
+import { initModels } from "./models";
+
+await migrateUp(config().databaseUrl);
+initModels();
+await startMetricsWorker();
+console.log(`Tanglebank metrics worker started (pid ${process.pid}, ${poolThreads()} threads)`);
+
+let stopping = false;
+async function stop(signal: string) {
+  if (stopping) return;
+  stopping = true;
+  console.log(`${signal}: finishing running metrics jobs…`);
+  await stopMetricsWorker({ timeoutMs: 60_000 }).catch((err: unknown) => console.error(err));
+  await closeSequelize();
+  process.exit(0);
+}
+process.on("SIGINT", () => void stop("SIGINT"));
+process.on("SIGTERM", () => void stop("SIGTERM"));

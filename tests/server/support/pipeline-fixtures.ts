@@ -1,0 +1,88 @@
+/**
+ * Published networks for metrics pipeline tests, created directly through the models (the publishing
+ * service is exercised by its own tests). Networks are parsed by the engine from small matrices.
+ */
+import { createHash } from "node:crypto";
+import { parseNetworkText, serializeNetwork, basicMetrics } from "../../../shared/network/index";
+import { Dataset, DatasetVersion, Network, StoredFile, User } from "../../../server/src/models";
+
+let counter = 0;
+
+export async function makeOwner(): Promise<User> {
+  counter++;
+  return User.create({
+    email: `owner${counter}-${Date.now()}@example.test`,
+    passwordHash: "x",
+    displayName: `Owner ${counter}`,
+    role: "depositor",
+  } as Parameters<typeof User.create>[0]);
+}
+
+/** A bipartite binary matrix as CSV text (first row: column labels; first column: row labels). */
+export function matrixCsv(m: number[][]): string {
+  const head = ["", ...m[0].map((_, j) => `c${j + 1}`)].join(",");
+  return [head, ...m.map((row, i) => [`r${i + 1}`, ...row].join(","))].join("\n") + "\n";
+}
+
+/** Creates a published dataset version holding one network per matrix; returns the network ids. */
+export async function publishMatrices(matrices: number[][][], owner?: User): Promise<{ datasetId: number; accession: string; networkIds: number[] }> {
+  const user = owner ?? (await makeOwner());
+  counter++;
+  const accession = `TB-${String(100000 + counter).slice(-6)}`;
+  const ds = await Dataset.create({ ownerId: user.id, accession } as Parameters<typeof Dataset.create>[0]);
+  const v = await DatasetVersion.create({ datasetId: ds.id, number: 1, state: "published", publishedAt: new Date(), metadata: { title: "Test" } } as Parameters<typeof DatasetVersion.create>[0]);
+  const networkIds: number[] = [];
+  for (let i = 0; i < matrices.length; i++) {
+    networkIds.push(await createNetwork(v.id, i + 1, matrixCsv(matrices[i])));
+  }
+  return { datasetId: ds.id, accession, networkIds };
+}
+
+export async function createNetwork(versionId: number, position: number, csv: string, canonicalOverride?: unknown): Promise<number> {
+  const bytes = Buffer.from(csv);
+  const sha256 = createHash("sha256").update(bytes).update(String(Math.random())).digest("hex");
+  const file = await StoredFile.create({ sha256, size: bytes.length, bytes } as Parameters<typeof StoredFile.create>[0]);
+  const { network } = parseNetworkText(csv, { fileName: `n${position}.csv`, kind: "bipartite" });
+  const b = basicMetrics(network);
+  const n = await Network.create({
+    versionId,
+    position,
+    fileId: file.id,
+    originalName: `n${position}.csv`,
+    format: "matrix",
+    kind: "bipartite",
+    directed: false,
+    weighted: false,
+    metadata: { name: `Network ${position}` },
+    canonical: canonicalOverride ?? serializeNetwork(network),
+    nNodes: b.nodes,
+    nRows: b.rows,
+    nCols: b.cols,
+    nLinks: b.links,
+    totalWeight: b.totalWeight,
+    connectance: b.connectance,
+  });
+  return n.id;
+}
+
+/** A seeded random 0/1 matrix with every row and column linked. */
+export function randomMatrix(seed: number, rows: number, cols: number, p: number): number[][] {
+  let s = seed >>> 0 || 1;
+  const rnd = () => {
+    s ^= s << 13;
+    s >>>= 0;
+    s ^= s >>> 17;
+    s ^= s << 5;
+    s >>>= 0;
+    return s / 4294967296;
+  };
+  const m = Array.from({ length: rows }, () => Array.from({ length: cols }, () => (rnd() < p ? 1 : 0)));
+  for (let i = 0; i < rows; i++) m[i][i % cols] = 1;
+  for (let j = 0; j < cols; j++) m[j % rows][j] = 1;
+  return m;
+}
+
+/** Removes every metrics job from the queue schema (between test files; resetDatabase keeps other schemas). */
+export async function clearQueue(query: (sql: string) => Promise<unknown>): Promise<void> {
+  await query(`DO $$ BEGIN IF to_regclass('pgboss.job') IS NOT NULL THEN DELETE FROM pgboss.job; END IF; END $$`);
+}
