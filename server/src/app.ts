@@ -17,6 +17,7 @@ import { csrfProtection } from "./middlewares/csrf";
 import { apiNotFound, errorHandler } from "./middlewares/error-handler";
 import { apiRouter } from "./api";
 import { logger } from "./lib/logger";
+import { datasetHtmlRenderer } from "./api/network-views/dataset-html";
 
 export const ROOT_DIR = join(dirname(fileURLToPath(import.meta.url)), "..", "..");
 export const CLIENT_DIST = join(ROOT_DIR, "client", "dist");
@@ -24,7 +25,7 @@ export const SCHEMAS_DIR = join(ROOT_DIR, "schemas");
 
 /** Server-side renderers for specific client routes (e.g. JSON-LD on dataset pages); return null to skip. */
 export type HtmlRenderer = (path: string, indexHtml: string) => Promise<string | null>;
-export const htmlRenderers: HtmlRenderer[] = [];
+export const htmlRenderers: HtmlRenderer[] = [datasetHtmlRenderer];
 
 let sessionPool: pg.Pool | undefined;
 export async function closeSessionPool(): Promise<void> {

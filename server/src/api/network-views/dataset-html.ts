@@ -1,0 +1,166 @@
+/**
+ * Server-side HTML for dataset addresses (/datasets/TB-000042, /datasets/TB-000042/v/2, and the network
+ * views below them), so that a crawler that runs no script sees what the page is: a schema.org/Dataset
+ * JSON-LD block (https://schema.org/Dataset; Google's dataset guidelines list the same properties) and
+ * descriptive meta tags. A withdrawn version gets a tombstone description and `noindex`; drafts and
+ * unknown accessions get the plain app shell (the app then shows its 404).
+ *
+ * The JSON-LD is data (`type="application/ld+json"`), never executed, so the CSP's script-src 'self'
+ * holds. It is serialised with `<`, `>`, `&` and U+2028/9 escaped as \uXXXX so that no value can close
+ * the script element.
+ */
+import type { HtmlRenderer } from "../../app";
+import type { NetworkMetadata, StudyMetadata } from "../../../../shared/types/dataset";
+import { licenceUrl } from "../../../../shared/citation";
+import { escapeHtml } from "../../emails/mailer";
+import { config } from "../../config/env";
+import { ApiError } from "../../lib/api-error";
+import { Network } from "../../models";
+import { citationFor, GoneError, resolveVersion, versionUrl } from "./network-views.access";
+import { publicLocality } from "./public-locality";
+
+const PATH_RE = /^\/datasets\/(TB-\d{6})(?:\/v\/(\d{1,6}))?(?:\/networks\/\d{1,6})?\/?$/;
+
+/** JSON safe inside <script>: no "<", ">" or "&" can appear literally. */
+export function jsonForScript(value: unknown): string {
+  return JSON.stringify(value)
+    .replace(/</g, "\\u003c")
+    .replace(/>/g, "\\u003e")
+    .replace(/&/g, "\\u0026")
+    .replace(/\u2028/g, "\\u2028")
+    .replace(/\u2029/g, "\\u2029");
+}
+
+function orcidUrl(orcid: string): string {
+  return orcid.startsWith("http") ? orcid : `https://orcid.org/${orcid}`;
+}
+
+function shorten(s: string, n = 300): string {
+  const t = s.replace(/\s+/g, " ").trim();
+  return t.length <= n ? t : `${t.slice(0, n - 1).trimEnd()}…`;
+}
+
+export async function buildDatasetJsonLd(accession: string, versionNumber: number | undefined) {
+  const { version } = await resolveVersion(accession, versionNumber, undefined);
+  const md = version.metadata as unknown as StudyMetadata;
+  const networks = await Network.findAll({ where: { versionId: version.id }, order: [["position", "ASC"]] });
+  const url = versionUrl(accession, version.number);
+  const base = config().publicUrl;
+  const citation = citationFor(accession, version);
+
+  const places = new Map<string, Record<string, unknown>>();
+  let start: string | null = null;
+  let end: string | null = null;
+  for (const n of networks) {
+    const nm = n.metadata as unknown as NetworkMetadata;
+    if (nm.locality) {
+      const loc = publicLocality(nm.locality);
+      const key = `${loc.placeName}|${loc.decimalLatitude}|${loc.decimalLongitude}`;
+      if (!places.has(key)) {
+        places.set(key, {
+          "@type": "Place",
+          name: [loc.placeName, loc.countryCode].filter(Boolean).join(", "),
+          ...(loc.decimalLatitude !== null && loc.decimalLongitude !== null
+            ? {
+                geo: {
+                  "@type": "GeoCoordinates",
+                  latitude: loc.decimalLatitude,
+                  longitude: loc.decimalLongitude,
+                  ...(loc.elevation !== undefined ? { elevation: loc.elevation } : {}),
+                },
+              }
+            : {}),
+        });
+      }
+    }
+    if (nm.startDate && (!start || nm.startDate < start)) start = nm.startDate;
+    if (nm.endDate && (!end || nm.endDate > end)) end = nm.endDate;
+  }
+
+  const creators = (md.creators ?? []).map((c) => ({
+    "@type": "Person",
+    name: c.name,
+    ...(c.affiliation ? { affiliation: { "@type": "Organization", name: c.affiliation } } : {}),
+    ...(c.orcid ? { sameAs: orcidUrl(c.orcid) } : {}),
+  }));
+
+  const ld: Record<string, unknown> = {
+    "@context": "https://schema.org/",
+    "@type": "Dataset",
+    "@id": url,
+    name: md.title,
+    description: md.description && md.description.length >= 50 ? md.description : `${md.description ?? ""} Interaction network data in Tanglebank (${accession}, version ${version.number}).`.trim(),
+    url,
+    identifier: [accession, `${accession}/v${version.number}`, url],
+    version: String(version.number),
+    creator: creators,
+    license: licenceUrl(md.licence),
+    citation: md.publication?.citation
+      ? [citation, md.publication.doi ? `${md.publication.citation} https://doi.org/${md.publication.doi}` : md.publication.citation]
+      : citation,
+    keywords: md.keywords ?? [],
+    isAccessibleForFree: true,
+    publisher: { "@type": "Organization", name: "Tanglebank", url: base },
+    ...(version.publishedAt ? { datePublished: version.publishedAt.toISOString().slice(0, 10) } : {}),
+    ...(places.size ? { spatialCoverage: [...places.values()] } : {}),
+    ...(start || end ? { temporalCoverage: `${start ?? ".."}/${end ?? ".."}` } : {}),
+    ...(md.funding ? { funder: { "@type": "Organization", name: md.funding } } : {}),
+    distribution: networks.map((n) => {
+      const ref = `${accession}/v${version.number}/${n.position}`;
+      return {
+        "@type": "DataDownload",
+        name: `${(n.metadata as unknown as NetworkMetadata).name ?? `Network ${n.position}`} (${ref}), CSV`,
+        encodingFormat: "text/csv",
+        contentUrl: `${base}/api/v1/networks/${ref}?format=csv`,
+      };
+    }),
+  };
+  return { ld, md, version, url, citation };
+}
+
+function injectHead(html: string, head: string, title: string): string {
+  // our description replaces the app shell's generic one
+  let out = html.replace(/<meta\s+name="description"[^>]*>\s*/i, "");
+  out = out.replace(/<title>[\s\S]*?<\/title>/i, `<title>${escapeHtml(title)}</title>`);
+  if (!/<title>/i.test(out)) out = out.replace(/<head>/i, `<head><title>${escapeHtml(title)}</title>`);
+  return out.replace(/<\/head>/i, `${head}\n</head>`);
+}
+
+function metaTags(title: string, description: string, url: string, extra = ""): string {
+  const t = escapeHtml(title);
+  const d = escapeHtml(description);
+  return [
+    `<meta name="description" content="${d}">`,
+    `<meta property="og:type" content="website">`,
+    `<meta property="og:title" content="${t}">`,
+    `<meta property="og:description" content="${d}">`,
+    `<meta property="og:url" content="${escapeHtml(url)}">`,
+    `<link rel="canonical" href="${escapeHtml(url)}">`,
+    extra,
+  ]
+    .filter(Boolean)
+    .join("\n");
+}
+
+export const datasetHtmlRenderer: HtmlRenderer = async (path, indexHtml) => {
+  const m = PATH_RE.exec(path);
+  if (!m) return null;
+  const accession = m[1];
+  const versionNumber = m[2] ? Number(m[2]) : undefined;
+  try {
+    const { ld, md, version, url } = await buildDatasetJsonLd(accession, versionNumber);
+    const title = `${md.title} (${accession} v${version.number}) · Tanglebank`;
+    const head = metaTags(title, shorten(md.description ?? md.title), url) + `\n<script type="application/ld+json">${jsonForScript(ld)}</script>`;
+    return injectHead(indexHtml, head, title);
+  } catch (err) {
+    if (err instanceof GoneError) {
+      const t = err.tombstone;
+      const title = `Withdrawn: ${t.accession} v${t.version} · Tanglebank`;
+      const desc = `This dataset version was withdrawn on ${t.withdrawnAt.slice(0, 10)}. Reason: ${t.reason} Cite as: ${t.citation}`;
+      return injectHead(indexHtml, metaTags(title, shorten(desc), versionUrl(t.accession, t.version), `<meta name="robots" content="noindex">`), title);
+    }
+    if (err instanceof ApiError && err.status === 404) return null;
+    throw err;
+  }
+};
+

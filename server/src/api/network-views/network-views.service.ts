@@ -1,0 +1,249 @@
+/**
+ * The network view: one network's cells, labels, partition, module table, null Q values, node roles and
+ * provenance, read from `networks.canonical` and the run that `getCurrentMetrics` names as current.
+ *
+ * The run's `results` hold the engine's `analyzeNetwork` output under `analysis` (older rows: at the top
+ * level); null Q values under `nullQs` (or `analysis.nullQs`) when the pipeline kept them.
+ */
+import type { CanonicalNetworkJson } from "../../../../shared/network/parse/serialize";
+import type { AnalysisResult } from "../../../../shared/network/analyze";
+import type { NetworkMetadata, NetworkMetricsSummary, StudyMetadata } from "../../../../shared/types/dataset";
+import type { AuditEntry, ModuleRow, NetworkCompareRow, NetworkView, RoleRow } from "../../../../shared/types/network-view";
+import { getCurrentMetrics } from "../../jobs/metrics-read";
+import { ApiError } from "../../lib/api-error";
+import { AuditLog, Dataset, MetricRun, Network, StoredFile, User } from "../../models";
+import type { AuthUser } from "../../types";
+import { resolveVersion } from "./network-views.access";
+import { publicLocality } from "./public-locality";
+
+interface RunResults {
+  analysis?: AnalysisResult;
+  nullQs?: unknown;
+}
+
+function analysisOf(results: Record<string, unknown> | null | undefined): { analysis: AnalysisResult | null; nullQs: number[] | null } {
+  if (!results) return { analysis: null, nullQs: null };
+  const r = results as RunResults & Partial<AnalysisResult>;
+  const analysis = (r.analysis ?? (r.modularity ? (r as AnalysisResult) : null)) as AnalysisResult | null;
+  const raw = r.nullQs ?? (analysis as (AnalysisResult & { nullQs?: unknown }) | null)?.nullQs;
+  const nullQs = Array.isArray(raw) && raw.every((q) => typeof q === "number") ? (raw as number[]) : null;
+  return { analysis, nullQs };
+}
+
+/** The engine's node labels (analyze.ts): a bipartite column sharing a row's label is "label (column)". */
+function engineLabels(rows: string[], cols: string[] | null): { rowKeys: string[]; colKeys: string[] } {
+  if (!cols) return { rowKeys: rows, colKeys: rows };
+  const rowSet = new Set(rows);
+  return { rowKeys: rows, colKeys: cols.map((l) => (rowSet.has(l) ? `${l} (column)` : l)) };
+}
+
+export function moduleTable(c: CanonicalNetworkJson, rowModules: number[], colModules: number[]): ModuleRow[] {
+  const bip = c.kind === "bipartite";
+  const byModule = new Map<number, ModuleRow>();
+  const get = (m: number): ModuleRow => {
+    let r = byModule.get(m);
+    if (!r) byModule.set(m, (r = { module: m, rows: 0, cols: bip ? 0 : null, linksInside: 0, weightInside: 0 }));
+    return r;
+  };
+  rowModules.forEach((m) => get(m).rows++);
+  if (bip) colModules.forEach((m) => (get(m).cols = (get(m).cols ?? 0) + 1));
+  const undirectedOneMode = !bip && !c.directed;
+  for (let i = 0; i < c.rows.length; i++) {
+    for (let p = c.ptr[i]; p < c.ptr[i + 1]; p++) {
+      const j = c.idx[p];
+      // an undirected link is stored in both directions: count it once (j ≥ i)
+      if (undirectedOneMode && j < i) continue;
+      if (rowModules[i] !== colModules[j]) continue;
+      const row = get(rowModules[i]);
+      row.linksInside++;
+      row.weightInside += c.w ? c.w[p] : 1;
+    }
+  }
+  return [...byModule.values()].sort((a, b) => a.module - b.module);
+}
+
+function rolesOf(analysis: AnalysisResult | null): { roles: RoleRow[] | null; thresholds: { z: number; p: number } | null } {
+  if (!analysis?.roles) return { roles: null, thresholds: null };
+  return {
+    roles: analysis.roles.nodes.map((n) => ({ label: n.label, level: n.level, module: n.module, degree: n.degree, z: n.z, P: n.participation, role: n.role })),
+    thresholds: analysis.roles.thresholds,
+  };
+}
+
+async function currentRun(networkId: number): Promise<{ summary: NetworkMetricsSummary; run: MetricRun | null }> {
+  const summary = (await getCurrentMetrics([networkId])).get(networkId) ?? { status: "none" as const };
+  const run = summary.runId ? await MetricRun.findByPk(summary.runId) : null;
+  return { summary, run };
+}
+
+export async function getNetworkView(accession: string, versionNumber: number, position: number, user: AuthUser | undefined): Promise<NetworkView> {
+  const { version, latestPublishedVersion } = await resolveVersion(accession, versionNumber, user);
+  const net = await Network.unscoped().findOne({ where: { versionId: version.id, position } });
+  if (!net) throw ApiError.notFound(`${accession} v${version.number} has no network ${position}.`);
+  const file = await StoredFile.findByPk(net.fileId);
+  const c = net.canonical as CanonicalNetworkJson;
+  const { summary, run } = await currentRun(net.id);
+  const { analysis, nullQs } = analysisOf(run?.results);
+  const partition = analysis?.modularity?.partition ?? null;
+
+  const rows = c.rows;
+  const cols = c.cols ?? c.rows;
+  let rowModules: number[] | null = null;
+  let colModules: number[] | null = null;
+  let modules: ModuleRow[] = [];
+  if (partition) {
+    const { rowKeys, colKeys } = engineLabels(c.rows, c.cols);
+    rowModules = rowKeys.map((k) => partition[k] ?? -1);
+    colModules = c.cols ? colKeys.map((k) => partition[k] ?? -1) : rowModules;
+    if (rowModules.includes(-1) || colModules.includes(-1)) {
+      // the run does not belong to this canonical form (should not happen): show no partition rather than a wrong one
+      rowModules = colModules = null;
+    } else {
+      modules = moduleTable(c, rowModules, colModules);
+    }
+  }
+  const { roles, thresholds } = rolesOf(analysis);
+  const study = version.metadata as unknown as StudyMetadata;
+  const md = net.metadata as unknown as NetworkMetadata;
+  return {
+    ref: `${accession}/v${version.number}/${position}`,
+    accession,
+    version: version.number,
+    versionState: version.state,
+    latestPublishedVersion,
+    position,
+    datasetTitle: study.title,
+    licence: study.licence,
+    metadata: { ...md, locality: publicLocality(md.locality) },
+    kind: net.kind,
+    directed: net.directed,
+    weighted: net.weighted,
+    nNodes: net.nNodes,
+    nRows: net.nRows,
+    nCols: net.nCols,
+    nLinks: net.nLinks,
+    totalWeight: net.totalWeight,
+    connectance: net.connectance,
+    rowLabels: rows,
+    colLabels: cols,
+    cells: { ptr: c.ptr, idx: c.idx, w: c.w },
+    metrics: summary,
+    partition,
+    rowModules,
+    colModules,
+    modules,
+    nullQs,
+    roles,
+    roleThresholds: thresholds,
+    provenance: {
+      runId: run?.id ?? null,
+      settingsHash: run?.settingsHash?.trim() ?? null,
+      algorithm: analysis?.algorithm ?? summary.algorithm ?? null,
+      restarts: analysis?.modularity?.restarts
+        ? {
+            n: analysis.modularity.restarts.n,
+            min: analysis.modularity.restarts.min,
+            median: analysis.modularity.restarts.median,
+            max: analysis.modularity.restarts.max,
+            bestShare: analysis.modularity.restarts.bestShare,
+          }
+        : null,
+      startedAt: run?.startedAt?.toISOString() ?? null,
+      finishedAt: run?.finishedAt?.toISOString() ?? null,
+      durationMs: run?.durationMs ?? null,
+      file: { name: net.originalName, sha256: file?.sha256 ?? "", size: file?.size ?? 0, format: net.format },
+    },
+  };
+}
+
+/** Partition as CSV rows `node,level,module` (bipartite level row/column; one-mode "node"). */
+export function partitionCsv(view: NetworkView): string {
+  if (!view.rowModules || !view.colModules) throw ApiError.notFound(`${view.ref} has no partition yet (metrics status: ${view.metrics.status}).`);
+  const esc = (s: string) => (/[",\r\n]/.test(s) || /^\s|\s$/.test(s) ? `"${s.replace(/"/g, '""')}"` : s);
+  const lines = ["node,level,module"];
+  const bip = view.kind === "bipartite";
+  view.rowLabels.forEach((l, i) => lines.push(`${esc(l)},${bip ? "row" : "node"},${view.rowModules![i]}`));
+  if (bip) view.colLabels.forEach((l, j) => lines.push(`${esc(l)},column,${view.colModules![j]}`));
+  return lines.join("\r\n") + "\r\n";
+}
+
+export function partitionJson(view: NetworkView) {
+  if (!view.partition || !view.rowModules || !view.colModules) {
+    throw ApiError.notFound(`${view.ref} has no partition yet (metrics status: ${view.metrics.status}).`);
+  }
+  return {
+    ref: view.ref,
+    objective: view.metrics.objective ?? null,
+    Q: view.metrics.Q ?? null,
+    modules: view.metrics.modules ?? null,
+    algorithm: view.provenance.algorithm,
+    runId: view.provenance.runId,
+    rows: view.rowLabels.map((label, i) => ({ label, module: view.rowModules![i] })),
+    ...(view.kind === "bipartite" ? { columns: view.colLabels.map((label, j) => ({ label, module: view.colModules![j] })) } : {}),
+  };
+}
+
+const REF_RE = /^(TB-\d{6})\/v(\d{1,6})\/(\d{1,6})$/;
+export const MAX_COMPARE = 60;
+
+/** Light rows for the compare view; every ref must name a published network (else 404 naming it). */
+export async function getCompareRows(refs: string[], user: AuthUser | undefined): Promise<NetworkCompareRow[]> {
+  if (!refs.length) return [];
+  if (refs.length > MAX_COMPARE) throw ApiError.badRequest(`At most ${MAX_COMPARE} networks can be compared at once; got ${refs.length}.`, [{ path: "refs", message: "too many" }]);
+  const bad = refs.filter((r) => !REF_RE.test(r));
+  if (bad.length) {
+    throw ApiError.badRequest("Network references look like TB-000042/v2/3.", bad.map((r) => ({ path: "refs", message: `not a network reference: ${r}` })));
+  }
+  const found: Array<{ ref: string; net: Network; title: string }> = [];
+  for (const ref of refs) {
+    const [, acc, v, pos] = REF_RE.exec(ref)!;
+    const { version } = await resolveVersion(acc, Number(v), user);
+    const net = await Network.findOne({ where: { versionId: version.id, position: Number(pos) } });
+    if (!net) throw ApiError.notFound(`No network ${ref}.`);
+    found.push({ ref, net, title: (version.metadata as unknown as StudyMetadata).title });
+  }
+  const metrics = await getCurrentMetrics(found.map((f) => f.net.id));
+  return found.map(({ ref, net, title }) => {
+    const md = net.metadata as unknown as NetworkMetadata;
+    return {
+      ref,
+      datasetTitle: title,
+      name: md.name ?? `Network ${net.position}`,
+      interactionType: md.interactionType ?? "other",
+      kind: net.kind,
+      directed: net.directed,
+      weighted: net.weighted,
+      nNodes: net.nNodes,
+      nRows: net.nRows,
+      nCols: net.nCols,
+      nLinks: net.nLinks,
+      connectance: net.connectance,
+      metrics: metrics.get(net.id) ?? { status: "none" },
+    };
+  });
+}
+
+/** The audit history of a dataset, newest first (curators only: checked by the route). */
+export async function getHistory(accession: string): Promise<AuditEntry[]> {
+  const dataset = await Dataset.findOne({ where: { accession } });
+  if (!dataset) throw ApiError.notFound(`No dataset ${accession}.`);
+  const rows = await AuditLog.findAll({
+    where: { datasetId: dataset.id },
+    include: [{ model: User, as: "actor", attributes: ["id", "displayName"] }],
+    order: [["createdAt", "DESC"], ["id", "DESC"]],
+    limit: 500,
+  });
+  return rows.map((r) => {
+    const actor = (r as AuditLog & { actor?: User | null }).actor;
+    return {
+      id: Number(r.id),
+      at: r.createdAt.toISOString(),
+      action: r.action,
+      entityType: r.entityType,
+      entityId: r.entityId,
+      actor: actor ? { id: actor.id, displayName: actor.displayName } : null,
+      details: r.details,
+    };
+  });
+}
+

@@ -1,0 +1,112 @@
+/**
+ * The contract of `GET /api/v1/network-views/:accession/:version/:position`: exactly what the network view
+ * plots (matrix ordered by module, null distribution, roles) plus the metrics summary and provenance.
+ */
+import type { NetworkMetadata, NetworkMetricsSummary, VersionState } from "./dataset";
+
+export interface ModuleRow {
+  module: number;
+  /** Bipartite: row nodes in the module; one-mode: nodes in the module. */
+  rows: number;
+  /** Bipartite: column nodes in the module; one-mode: null. */
+  cols: number | null;
+  /** Links (non-zero cells) with both ends in the module; an undirected one-mode link counts once. */
+  linksInside: number;
+  /** Sum of their weights. */
+  weightInside: number;
+}
+
+export interface RoleRow {
+  label: string;
+  level: "row" | "col" | null;
+  module: number;
+  degree: number;
+  z: number | null;
+  P: number | null;
+  role: "peripheral" | "connector" | "module-hub" | "network-hub" | null;
+}
+
+export interface NetworkView {
+  /** e.g. "TB-000042/v2/3" */
+  ref: string;
+  accession: string;
+  version: number;
+  versionState: VersionState;
+  latestPublishedVersion: number | null;
+  position: number;
+  datasetTitle: string;
+  licence: string;
+  metadata: NetworkMetadata;
+  kind: "bipartite" | "unipartite";
+  directed: boolean;
+  weighted: boolean;
+  nNodes: number;
+  nRows: number | null;
+  nCols: number | null;
+  nLinks: number;
+  totalWeight: number;
+  connectance: number | null;
+  rowLabels: string[];
+  /** One-mode networks: the same as rowLabels. */
+  colLabels: string[];
+  /** Non-zero cells in compressed sparse rows (the engine's canonical form): row i holds idx/w[ptr[i]..ptr[i+1]). */
+  cells: { ptr: number[]; idx: number[]; w: number[] | null };
+  metrics: NetworkMetricsSummary;
+  /** Node label → module (the engine's labels: a bipartite column sharing a row's label is "label (column)"). */
+  partition: Record<string, number> | null;
+  /** Module of every row and column, in label order (null without a partition). */
+  rowModules: number[] | null;
+  colModules: number[] | null;
+  modules: ModuleRow[];
+  /** Q of each null replicate, when the pipeline kept them. */
+  nullQs: number[] | null;
+  roles: RoleRow[] | null;
+  roleThresholds: { z: number; p: number } | null;
+  provenance: {
+    runId: number | null;
+    settingsHash: string | null;
+    algorithm: { name: string; version: string; seed: number; parameters?: Record<string, unknown> } | null;
+    restarts: { n: number; min: number | null; median: number | null; max: number | null; bestShare: number | null } | null;
+    startedAt: string | null;
+    finishedAt: string | null;
+    durationMs: number | null;
+    file: { name: string; sha256: string; size: number; format: "matrix" | "edgelist" };
+  };
+}
+
+/** One light row per network for the compare view: `GET /api/v1/network-views/summaries?refs=…`. */
+export interface NetworkCompareRow {
+  ref: string;
+  datasetTitle: string;
+  name: string;
+  interactionType: string;
+  kind: "bipartite" | "unipartite";
+  directed: boolean;
+  weighted: boolean;
+  nNodes: number;
+  nRows: number | null;
+  nCols: number | null;
+  nLinks: number;
+  connectance: number | null;
+  metrics: NetworkMetricsSummary;
+}
+
+/** `GET /api/v1/network-views/history/:accession` (curators). */
+export interface AuditEntry {
+  id: number;
+  at: string;
+  action: string;
+  entityType: string;
+  entityId: string;
+  actor: { id: number; displayName: string } | null;
+  details: Record<string, unknown>;
+}
+
+/** Body of a 410 answer for a withdrawn version. */
+export interface Tombstone {
+  accession: string;
+  version: number;
+  citation: string;
+  reason: string;
+  withdrawnAt: string;
+}

@@ -1,0 +1,186 @@
+/**
+ * Inserts datasets straight through the models, as publishing and the metrics pipeline would leave them:
+ * dataset + version (any state) + stored file + parsed network + a succeeded metric run whose results are
+ * the engine's real `analyzeNetwork` output (computed here with small effort) plus the null Q values.
+ * The pipeline settings are set to that effort so the run is the "current" one for getCurrentMetrics.
+ * Metadata is invented (demo only); network data comes from files in tests/fixtures.
+ */
+import { createHash } from "node:crypto";
+import { readFileSync } from "node:fs";
+import { join } from "node:path";
+import { analyzeNetwork, nullReplicateQ, parseNetworkText, serializeNetwork, basicMetrics } from "../../../shared/network/index";
+import { defaultNullModel } from "../../../shared/network/analyze";
+import type { NetworkMetadata, StudyMetadata, VersionState } from "../../../shared/types/dataset";
+import type { PipelineSettings } from "../../../shared/types/pipeline";
+import { hashPassword } from "../../../server/src/lib/passwords";
+import { AuditLog, Dataset, DatasetVersion, MetricRun, Network, StoredFile, User } from "../../../server/src/models";
+import type { Role } from "../../../server/src/models/user.model";
+import { setPipelineSettings, settingsHash, DEFAULT_PIPELINE_SETTINGS } from "../../../server/src/jobs/settings";
+
+export const FIXTURE_PASSWORD = "moss-and-lichen-42";
+export const FIXTURE_SETTINGS: PipelineSettings = { ...DEFAULT_PIPELINE_SETTINGS, restarts: 4, nulls: 30, seed: 7 };
+
+let userCounter = 0;
+export async function fixtureUser(role: Role = "depositor", displayName?: string): Promise<User> {
+  userCounter++;
+  return User.create({
+    email: `fixture${userCounter}-${Date.now()}@example.test`,
+    displayName: displayName ?? `Fixture Person ${userCounter}`,
+    passwordHash: await hashPassword(FIXTURE_PASSWORD),
+    role,
+    emailVerifiedAt: new Date(),
+  });
+}
+
+export const DAVIS_CSV = readFileSync(join(process.cwd(), "tests", "fixtures", "davis-southern-women.csv"), "utf8");
+
+export interface FixtureNetwork {
+  text: string;
+  fileName?: string;
+  kind?: "bipartite" | "unipartite";
+  directed?: boolean;
+  metadata?: Partial<NetworkMetadata>;
+  /** false: no metric run; "queued": a queued run only. */
+  metrics?: boolean | "queued";
+}
+
+export interface FixtureOptions {
+  owner?: User;
+  state?: VersionState;
+  accession?: string | null;
+  study?: Partial<StudyMetadata>;
+  networks?: FixtureNetwork[];
+  /** Version number (the dataset may already exist: pass `dataset`). */
+  number?: number;
+  dataset?: Dataset;
+  withdrawalReason?: string;
+  publishedAt?: Date;
+}
+
+export const STUDY: StudyMetadata = {
+  title: "Flower visitors of the Verrin Hills meadows",
+  description: "Plant–pollinator interactions observed along transects in upland meadows of the Verrin Hills, 2021 season (invented demo data).",
+  creators: [
+    { name: "Rowan Hale", orcid: "0000-0002-1825-0097", affiliation: "Northmoor Field Station" },
+    { name: "Okafor, Inès", affiliation: "Northmoor Field Station" },
+  ],
+  publication: { citation: "Hale R, Okafor I (2022) Meadow modules. Journal of Invented Ecology 1:1–10.", doi: "10.5555/tb.demo.1" },
+  licence: "CC-BY-4.0",
+  keywords: ["pollination", "meadow", "modularity"],
+  contactEmail: "rowan.hale@northmoor.test",
+};
+
+export const NETWORK_MD: NetworkMetadata = {
+  name: "Upper meadow",
+  interactionType: "pollination",
+  weightMeaning: "binary",
+  rowLevel: "plants",
+  colLevel: "pollinators",
+  locality: { placeName: "Verrin Hills", countryCode: "NO", decimalLatitude: 61.23456, decimalLongitude: 8.98765, elevation: 900, generalisation: "0.1" },
+  habitat: "upland meadow",
+  startDate: "2021-06-01",
+  endDate: "2021-08-31",
+  samplingProtocol: "transect walks",
+  samplingEffort: { value: 120, unit: "observation hours" },
+};
+
+/** The engine's analysis as the pipeline would store it: `{ analysis, nullQs }`. */
+export function analysisFor(text: string, kind: "bipartite" | "unipartite" = "bipartite", directed = false, fileName = "net.csv") {
+  const { network } = parseNetworkText(text, { fileName, kind, directed });
+  const s = FIXTURE_SETTINGS;
+  // the engine's default objective by kind (analyze.ts)
+  const objective = network.kind === "bipartite" ? "barber" : network.directed ? "newman-directed" : "newman";
+  const nullModel = defaultNullModel(network);
+  const nullQs: number[] = [];
+  for (let r = 0; r < s.nulls; r++) {
+    const q = nullReplicateQ(network, { model: nullModel, seed: s.seed, replicate: r, restarts: s.restarts, objective, annealing: "auto" });
+    if (q !== null) nullQs.push(q);
+  }
+  const analysis = analyzeNetwork(network, { restarts: s.restarts, seed: s.seed, nulls: nullQs.length, nullQs, nullModel });
+  return { network, analysis, nullQs };
+}
+
+let accessionCounter = 0;
+
+export async function createFixtureDataset(opts: FixtureOptions = {}) {
+  await setPipelineSettings(FIXTURE_SETTINGS);
+  const hash = settingsHash(FIXTURE_SETTINGS);
+  const owner = opts.owner ?? (await fixtureUser("depositor", "Rowan Hale"));
+  const state = opts.state ?? "published";
+  let dataset = opts.dataset;
+  if (!dataset) {
+    accessionCounter++;
+    const accession = opts.accession === undefined ? `TB-${String(900000 + accessionCounter).padStart(6, "0")}` : opts.accession;
+    dataset = await Dataset.create({ ownerId: owner.id, accession });
+  }
+  const publishedAt = opts.publishedAt ?? new Date("2025-03-14T10:00:00Z");
+  const version = await DatasetVersion.create({
+    datasetId: dataset.id,
+    number: opts.number ?? 1,
+    state,
+    metadata: { ...STUDY, ...opts.study } as unknown as Record<string, unknown>,
+    publishedAt: state === "published" || state === "withdrawn" ? publishedAt : null,
+    withdrawnAt: state === "withdrawn" ? new Date("2025-05-01T09:00:00Z") : null,
+    withdrawalReason: state === "withdrawn" ? (opts.withdrawalReason ?? "The depositor found duplicated transects.") : null,
+  });
+  const networks: Network[] = [];
+  const specs = opts.networks ?? [{ text: DAVIS_CSV, fileName: "davis.csv" }];
+  for (let k = 0; k < specs.length; k++) {
+    const spec = specs[k];
+    const kind = spec.kind ?? "bipartite";
+    const bytes = Buffer.from(spec.text, "utf8");
+    const sha256 = createHash("sha256").update(bytes).digest("hex");
+    const file = (await StoredFile.findOne({ where: { sha256 } })) ?? (await StoredFile.create({ sha256, size: bytes.length, bytes }));
+    const { network } = parseNetworkText(spec.text, { fileName: spec.fileName ?? "net.csv", kind, directed: spec.directed ?? false });
+    const b = basicMetrics(network);
+    const net = await Network.create({
+      versionId: version.id,
+      position: k + 1,
+      fileId: file.id,
+      originalName: spec.fileName ?? "net.csv",
+      format: "matrix",
+      kind,
+      directed: network.directed,
+      weighted: network.weighted,
+      metadata: { ...NETWORK_MD, ...spec.metadata } as unknown as Record<string, unknown>,
+      canonical: serializeNetwork(network),
+      nNodes: b.nodes,
+      nRows: b.rows,
+      nCols: b.cols,
+      nLinks: b.links,
+      totalWeight: b.totalWeight,
+      connectance: b.connectance,
+    });
+    networks.push(net);
+    const wantMetrics = spec.metrics ?? true;
+    if (wantMetrics === "queued") {
+      await MetricRun.create({ networkId: net.id, settings: FIXTURE_SETTINGS as unknown as Record<string, unknown>, settingsHash: hash, status: "queued" });
+    } else if (wantMetrics) {
+      const { analysis, nullQs } = analysisFor(spec.text, kind, spec.directed ?? false, spec.fileName);
+      await MetricRun.create({
+        networkId: net.id,
+        settings: FIXTURE_SETTINGS as unknown as Record<string, unknown>,
+        settingsHash: hash,
+        status: "succeeded",
+        algorithmName: analysis.algorithm.name,
+        algorithmVersion: analysis.algorithm.version,
+        seed: analysis.algorithm.seed,
+        startedAt: new Date("2025-03-14T10:01:00Z"),
+        finishedAt: new Date("2025-03-14T10:01:05Z"),
+        durationMs: analysis.elapsedMs,
+        results: { analysis, nullQs } as unknown as Record<string, unknown>,
+        objective: analysis.modularity.objective,
+        q: analysis.modularity.Q,
+        modules: analysis.modularity.modules,
+        nullMean: analysis.null?.mean ?? null,
+        nullSd: analysis.null?.sd ?? null,
+        z: analysis.null?.z ?? null,
+        qRel: analysis.null?.qRel ?? null,
+        p: analysis.null?.p ?? null,
+        nodf: analysis.nodf,
+      });
+    }
+  }
+  await AuditLog.create({ actorId: owner.id, action: "version.submitted", entityType: "dataset_version", entityId: String(version.id), datasetId: dataset.id, details: { number: version.number } });
+  return { owner, dataset, version, networks, accession: dataset.accession! };
+}
