@@ -3,7 +3,6 @@ import { Router } from "express";
 import { healthRouter } from "./health/health.routes";
 import { authRouter } from "./auth/auth.routes";
 import { networkViewsRouter } from "./network-views/network-views.routes";
-import { networkViewsRouter } from "./network-views/network-views.routes";
 import { accountRouter } from "./account/account.routes";
 import { usersRouter } from "./users/users.routes";
 import { outboxRouter } from "./outbox/outbox.routes";
@@ -12,7 +11,6 @@ export function apiRouter(): Router {
   const r = Router();
   r.use("/health", healthRouter);
   r.use("/auth", authRouter);
-  r.use("/network-views", networkViewsRouter);
   r.use("/network-views", networkViewsRouter);
   r.use("/account", accountRouter);
   r.use("/users", usersRouter);
