@@ -6,6 +6,9 @@ import { networkViewsRouter } from "./network-views/network-views.routes";
 import { accountRouter } from "./account/account.routes";
 import { usersRouter } from "./users/users.routes";
 import { outboxRouter } from "./outbox/outbox.routes";
+import { datasetsRouter } from "./datasets/datasets.routes";
+import { depositsRouter } from "./deposits/deposits.routes";
+import { reviewsRouter } from "./reviews/reviews.routes";
 
 export function apiRouter(): Router {
   const r = Router();
@@ -15,5 +18,8 @@ export function apiRouter(): Router {
   r.use("/account", accountRouter);
   r.use("/users", usersRouter);
   r.use("/outbox", outboxRouter);
+  r.use("/datasets", datasetsRouter);
+  r.use("/deposits", depositsRouter);
+  r.use("/reviews", reviewsRouter);
   return r;
 }

@@ -1,0 +1,64 @@
+import type { Request, Response } from "express";
+import type { ListResponse } from "../../../../shared/types/api";
+import { config } from "../../config/env";
+import * as s from "./deposits.service";
+import { expandUpload } from "./deposits.upload";
+import { idParam, networkChanges, uploadOptions } from "./deposits.validation";
+
+const viewer = (req: Request) => req.user!;
+
+export async function list(req: Request, res: Response) {
+  const data = await s.listMyDeposits(viewer(req));
+  const body: ListResponse<s.DepositListItem> = { data, meta: { total: data.length } };
+  res.json(body);
+}
+
+export async function create(req: Request, res: Response) {
+  res.status(201).json(await s.createDeposit(viewer(req), (req.body as { metadata?: unknown } | undefined)?.metadata ?? {}));
+}
+
+export async function show(req: Request, res: Response) {
+  res.json(await s.getDeposit(idParam(req.params.id, "deposit"), viewer(req)));
+}
+
+export async function updateMetadata(req: Request, res: Response) {
+  res.json(await s.updateStudyMetadata(idParam(req.params.id, "deposit"), viewer(req), (req.body as { metadata?: unknown } | undefined)?.metadata));
+}
+
+export async function upload(req: Request, res: Response) {
+  const cfg = config();
+  const versionId = idParam(req.params.id, "deposit");
+  const opts = uploadOptions(req.body as Record<string, unknown>);
+  const files = await expandUpload((req.files as Express.Multer.File[] | undefined) ?? [], { maxBytes: cfg.uploadMaxBytes, maxFiles: cfg.uploadMaxFiles });
+  res.status(201).json(await s.addNetworks(versionId, viewer(req), files, opts));
+}
+
+export async function updateNetwork(req: Request, res: Response) {
+  res.json(await s.updateNetwork(idParam(req.params.id, "deposit"), idParam(req.params.networkId, "network"), viewer(req), networkChanges(req.body as Record<string, unknown>)));
+}
+
+export async function deleteNetwork(req: Request, res: Response) {
+  res.json(await s.deleteNetwork(idParam(req.params.id, "deposit"), idParam(req.params.networkId, "network"), viewer(req)));
+}
+
+export async function reorder(req: Request, res: Response) {
+  res.json(await s.reorderNetworks(idParam(req.params.id, "deposit"), viewer(req), (req.body as { order?: unknown } | undefined)?.order));
+}
+
+export async function remove(req: Request, res: Response) {
+  await s.deleteDraft(idParam(req.params.id, "deposit"), viewer(req));
+  res.status(204).end();
+}
+
+export async function submit(req: Request, res: Response) {
+  res.json(await s.submitDeposit(idParam(req.params.id, "deposit"), viewer(req)));
+}
+
+export async function networkFile(req: Request, res: Response) {
+  const f = await s.getDepositNetworkFile(idParam(req.params.id, "deposit"), idParam(req.params.networkId, "network"), viewer(req));
+  res.attachment(f.name).type(/\.tsv$/i.test(f.name) ? "text/tab-separated-values" : "text/csv").send(f.bytes);
+}
+
+export async function networkCanonical(req: Request, res: Response) {
+  res.json(await s.getDepositNetworkCanonical(idParam(req.params.id, "deposit"), idParam(req.params.networkId, "network"), viewer(req)));
+}

@@ -1,0 +1,139 @@
+/**
+ * Reading an upload into network files: one or more CSV/TSV files, or one zip holding them.
+ *
+ * Zip rules (yauzl, read from memory): files may sit at the top level or inside one single top folder;
+ * deeper folders are refused ("nested folders"); names with `..`, absolute paths, drive letters or
+ * backslashes are refused (path traversal); files other than .csv/.tsv/.txt are listed as errors; macOS
+ * metadata (`__MACOSX/`, `._*`, `.DS_Store`) is skipped. The expanded size is counted while inflating, so a
+ * zip bomb stops at the upload limit instead of filling memory. Every problem names the file.
+ */
+import yauzl from "yauzl";
+import type { ErrorDetail } from "../../lib/api-error";
+import { ApiError } from "../../lib/api-error";
+
+export interface UploadedFile {
+  name: string;
+  bytes: Buffer;
+}
+
+export const NETWORK_FILE = /\.(csv|tsv|txt)$/i;
+const JUNK = /(^|\/)(__MACOSX\/|\._[^/]*$|\.DS_Store$)/;
+
+export function isZip(name: string, bytes: Buffer): boolean {
+  return /\.zip$/i.test(name) || (bytes.length >= 4 && bytes.readUInt32LE(0) === 0x04034b50);
+}
+
+function unsafeName(name: string): boolean {
+  return name.includes("\\") || name.startsWith("/") || /^[a-zA-Z]:/.test(name) || name.split("/").some((seg) => seg === "..");
+}
+
+/** Expands a zip into network files, or throws ApiError 422 listing every problem. */
+export async function readZip(zipName: string, bytes: Buffer, limits: { maxBytes: number; maxFiles: number }): Promise<UploadedFile[]> {
+  const zip = await new Promise<yauzl.ZipFile>((resolve, reject) =>
+    yauzl.fromBuffer(bytes, { lazyEntries: true, decodeStrings: true, validateEntrySizes: true, strictFileNames: false }, (err, z) => (err || !z ? reject(err) : resolve(z))),
+  ).catch((err: Error) => {
+    throw ApiError.unprocessable(`${zipName} is not a readable zip file: ${err.message}`, [{ file: zipName, message: `Not a readable zip file: ${err.message}` }]);
+  });
+  const problems: ErrorDetail[] = [];
+  const files: UploadedFile[] = [];
+  const topFolders = new Set<string>();
+  let expanded = 0;
+  let tooBig = false;
+
+  const readEntry = (entry: yauzl.Entry) =>
+    new Promise<Buffer>((resolve, reject) => {
+      zip.openReadStream(entry, (err, stream) => {
+        if (err || !stream) return reject(err ?? new Error("cannot open entry"));
+        const chunks: Buffer[] = [];
+        stream.on("data", (c: Buffer) => {
+          expanded += c.length;
+          if (expanded > limits.maxBytes) {
+            tooBig = true;
+            stream.destroy(new Error("expanded size over the limit"));
+            return;
+          }
+          chunks.push(c);
+        });
+        stream.on("error", reject);
+        stream.on("end", () => resolve(Buffer.concat(chunks)));
+      });
+    });
+
+  try {
+    await new Promise<void>((resolve, reject) => {
+      zip.on("error", reject);
+      zip.on("end", () => resolve());
+      zip.on("entry", (entry: yauzl.Entry) => {
+        const name = entry.fileName;
+        const next = () => zip.readEntry();
+        if (unsafeName(name)) {
+          problems.push({ file: `${zipName}: ${name}`, message: `Unsafe path "${name}" (absolute, "..", or backslashes); refused.` });
+          return next();
+        }
+        if (JUNK.test(name)) return next();
+        const segs = name.split("/").filter(Boolean);
+        const isDir = name.endsWith("/");
+        if (isDir) {
+          if (segs.length > 1) problems.push({ file: `${zipName}: ${name}`, message: `Nested folder "${name}": put the network files at the top of the zip or in one single folder.` });
+          else topFolders.add(segs[0]);
+          return next();
+        }
+        if (segs.length > 2) {
+          problems.push({ file: `${zipName}: ${name}`, message: `"${name}" is in a nested folder: put the network files at the top of the zip or in one single folder.` });
+          return next();
+        }
+        if (segs.length === 2) topFolders.add(segs[0]);
+        if (!NETWORK_FILE.test(name)) {
+          problems.push({ file: `${zipName}: ${name}`, message: `"${name}" is not a network file: only .csv, .tsv or .txt files (one network each) may be in the zip.` });
+          return next();
+        }
+        if (entry.uncompressedSize > limits.maxBytes || expanded + entry.uncompressedSize > limits.maxBytes) {
+          tooBig = true;
+          return reject(new Error("expanded size over the limit"));
+        }
+        readEntry(entry)
+          .then((buf) => {
+            files.push({ name: segs[segs.length - 1], bytes: buf });
+            next();
+          })
+          .catch(reject);
+      });
+      zip.readEntry();
+    });
+  } catch (err) {
+    zip.close();
+    if (tooBig) {
+      throw new ApiError(413, "upload_too_large", `${zipName} expands to more than the upload limit of ${limits.maxBytes} bytes.`, [
+        { file: zipName, message: `The files in the zip add up to more than ${limits.maxBytes} bytes when expanded.` },
+      ]);
+    }
+    const msg = (err as Error).message;
+    if (/absolute path|invalid relative path|invalid characters in fileName/.test(msg)) {
+      throw ApiError.unprocessable(`${zipName}: unsafe path in the zip; refused.`, [{ file: zipName, message: `Unsafe path in the zip (${msg}); refused.` }]);
+    }
+    throw ApiError.unprocessable(`${zipName} could not be read: ${msg}`, [{ file: zipName, message: msg }]);
+  }
+  if (topFolders.size > 1) problems.push({ file: zipName, message: `The zip has several folders (${[...topFolders].join(", ")}): use at most one folder.` });
+  if (!problems.length && !files.length) problems.push({ file: zipName, message: "The zip holds no network files." });
+  if (files.length > limits.maxFiles) problems.push({ file: zipName, message: `The zip holds ${files.length} files; at most ${limits.maxFiles} are accepted at once.` });
+  const names = new Set<string>();
+  for (const f of files) {
+    if (names.has(f.name)) problems.push({ file: `${zipName}: ${f.name}`, message: `Two files are named "${f.name}".` });
+    names.add(f.name);
+  }
+  if (problems.length) throw ApiError.unprocessable(`${zipName}: ${problems.length} problem${problems.length === 1 ? "" : "s"} in the zip.`, problems);
+  return files;
+}
+
+/** The network files of an upload: the files themselves, or the content of one zip. */
+export async function expandUpload(files: Array<{ originalname: string; buffer: Buffer }>, limits: { maxBytes: number; maxFiles: number }): Promise<UploadedFile[]> {
+  if (!files.length) throw ApiError.badRequest("No file was uploaded: send one or more CSV/TSV files, or one zip, in the field \"files\".", [{ path: "files", message: "No file." }]);
+  const zips = files.filter((f) => isZip(f.originalname, f.buffer));
+  if (zips.length) {
+    if (files.length > 1) throw ApiError.unprocessable("Upload either one zip or plain network files, not both or several zips.", files.map((f) => ({ file: f.originalname, message: isZip(f.originalname, f.buffer) ? "A zip among other files." : "A file next to a zip." })));
+    return readZip(zips[0].originalname, zips[0].buffer, limits);
+  }
+  const bad = files.filter((f) => !NETWORK_FILE.test(f.originalname));
+  if (bad.length) throw ApiError.unprocessable("Only CSV or TSV network files (.csv, .tsv, .txt) or one zip may be uploaded.", bad.map((f) => ({ file: f.originalname, message: `"${f.originalname}" is not a network file (.csv, .tsv or .txt).` })));
+  return files.map((f) => ({ name: f.originalname, bytes: f.buffer }));
+}

@@ -1,0 +1,49 @@
+/** Request checks of the deposit routes (400 with a JSON-pointer detail on bad input). */
+import type { RequestHandler } from "express";
+import multer from "multer";
+import { ApiError } from "../../lib/api-error";
+import { config } from "../../config/env";
+import type { UploadOptions } from "./deposits.service";
+
+export function idParam(raw: unknown, name = "id"): number {
+  const n = Number(raw);
+  if (!Number.isInteger(n) || n < 1) throw ApiError.notFound(`No such ${name}.`);
+  return n;
+}
+
+/**
+ * Multipart upload into memory (field "files"), with the configured size and count limits. Memory storage
+ * means an interrupted request leaves nothing behind: the database is touched only after every byte
+ * arrived and every file parsed.
+ */
+export const uploadFiles: RequestHandler = (req, res, next) => {
+  const cfg = config();
+  multer({ storage: multer.memoryStorage(), limits: { fileSize: cfg.uploadMaxBytes, files: cfg.uploadMaxFiles, fields: 20, parts: cfg.uploadMaxFiles + 20 } }).array("files", cfg.uploadMaxFiles)(req, res, next);
+};
+
+export function uploadOptions(body: Record<string, unknown> | undefined): UploadOptions {
+  const b = body ?? {};
+  const kind = b.kind ?? "bipartite";
+  if (kind !== "bipartite" && kind !== "unipartite") throw ApiError.badRequest('kind must be "bipartite" or "unipartite".', [{ path: "/kind", message: 'Choose "bipartite" or "unipartite".' }]);
+  const format = b.format ?? "auto";
+  if (format !== "auto" && format !== "matrix" && format !== "edgelist") throw ApiError.badRequest('format must be "auto", "matrix" or "edgelist".', [{ path: "/format", message: 'Choose "auto", "matrix" or "edgelist".' }]);
+  const d = b.directed;
+  const directed = d === true || d === "true" || d === "1" || d === "on";
+  if (d !== undefined && !directed && !(d === false || d === "false" || d === "0" || d === "")) throw ApiError.badRequest("directed must be true or false.", [{ path: "/directed", message: "true or false" }]);
+  if (kind === "bipartite" && directed) throw ApiError.badRequest("A bipartite network cannot be directed.", [{ path: "/directed", message: "Only one-mode networks can be directed." }]);
+  return { kind, directed, format };
+}
+
+export function networkChanges(body: Record<string, unknown> | undefined): { metadata?: unknown; kind?: UploadOptions["kind"]; directed?: boolean; format?: UploadOptions["format"] } {
+  const b = body ?? {};
+  const out: ReturnType<typeof networkChanges> = {};
+  if (b.metadata !== undefined) out.metadata = b.metadata;
+  if (b.kind !== undefined || b.directed !== undefined || b.format !== undefined) {
+    const o = uploadOptions({ kind: b.kind, directed: b.directed, format: b.format ?? "auto" });
+    if (b.kind !== undefined) out.kind = o.kind;
+    if (b.directed !== undefined) out.directed = o.directed;
+    if (b.format !== undefined) out.format = o.format;
+  }
+  if (!Object.keys(out).length) throw ApiError.badRequest("Nothing to change: send metadata, kind, directed or format.");
+  return out;
+}

@@ -1,0 +1,239 @@
+/**
+ * Curation: the review queue, the review page's data, decisions with optimistic locking, metadata
+ * corrections (audited with before/after), publishing and withdrawal.
+ *
+ * Decisions: publish, request changes (comment required), decline (reason required). A decision applies
+ * only to a `submitted` version whose `lock_version` is the one the curator saw: the conditional UPDATE
+ * makes two curators deciding at once safe (one wins; the other gets 409). A curator never decides on
+ * their own deposit (403). Publishing assigns the accession on first publication only (`TB-` + six digits
+ * from the sequence accession_seq, so never reused), freezes the version and queues the metrics of every
+ * network, all in one transaction.
+ */
+import { Op, QueryTypes } from "sequelize";
+import { ApiError, type ErrorDetail } from "../../lib/api-error";
+import { audit } from "../../lib/audit";
+import { logger } from "../../lib/logger";
+import { sequelize } from "../../db/sequelize";
+import { config } from "../../config/env";
+import { AuditLog, Dataset, DatasetVersion, Network, Review, User } from "../../models";
+import { enqueueNetworkMetrics } from "../../jobs/enqueue";
+import { sendMail } from "../../emails/mailer";
+import { reviewDecisionEmail, type DecisionKind } from "../../emails/templates/review-decision";
+import type { Viewer } from "../datasets/datasets.service";
+import { depositDetail, loadCuratorEditable, loadVisibleVersion, submissionProblems, updateNetwork, type DepositDetail } from "../deposits/deposits.service";
+
+export type Decision = "publish" | "request_changes" | "decline";
+
+export interface QueueItem {
+  versionId: number;
+  datasetId: number;
+  accession: string | null;
+  number: number;
+  title: string;
+  depositor: string;
+  ownerId: number;
+  submittedAt: string;
+  networkCount: number;
+  resubmission: boolean;
+  ownDeposit: boolean;
+}
+
+export interface HistoryEntry {
+  id: number;
+  at: string;
+  action: string;
+  actor: string | null;
+  details: Record<string, unknown>;
+}
+
+export interface ReviewDetail extends DepositDetail {
+  depositor: { id: number; displayName: string; email: string };
+  ownDeposit: boolean;
+  /** Full submission validation (what would stop publication). */
+  problems: ErrorDetail[];
+  /** Networks whose file (same SHA-256) is already published in another dataset. */
+  duplicates: Array<{ networkId: number; position: number; sha256: string; publishedAs: string[] }>;
+  history: HistoryEntry[];
+}
+
+export async function reviewQueue(viewer: Viewer): Promise<QueueItem[]> {
+  const rows = (await sequelize().query(
+    `SELECT v.id, v.dataset_id, v.number, v.metadata->>'title' AS title, v.submitted_at, d.accession, d.owner_id, u.display_name,
+            (SELECT count(*) FROM networks n WHERE n.version_id = v.id) AS networks,
+            EXISTS (SELECT 1 FROM reviews r WHERE r.version_id = v.id) AS resubmission
+       FROM dataset_versions v JOIN datasets d ON d.id = v.dataset_id JOIN users u ON u.id = d.owner_id
+      WHERE v.state = 'submitted'
+      ORDER BY v.submitted_at ASC, v.id ASC`,
+    { type: QueryTypes.SELECT },
+  )) as Array<{ id: number; dataset_id: number; number: number; title: string | null; submitted_at: Date; accession: string | null; owner_id: number; display_name: string; networks: string; resubmission: boolean }>;
+  return rows.map((r) => ({
+    versionId: r.id,
+    datasetId: r.dataset_id,
+    accession: r.accession,
+    number: r.number,
+    title: r.title ?? "(untitled)",
+    depositor: r.display_name,
+    ownerId: r.owner_id,
+    submittedAt: new Date(r.submitted_at).toISOString(),
+    networkCount: Number(r.networks),
+    resubmission: r.resubmission,
+    ownDeposit: r.owner_id === viewer.id,
+  }));
+}
+
+export async function datasetHistory(datasetId: number): Promise<HistoryEntry[]> {
+  const rows = await AuditLog.findAll({ where: { datasetId }, order: [["id", "ASC"]], include: [{ model: User, as: "actor", attributes: ["displayName"] }] });
+  return rows.map((r) => ({
+    id: Number(r.id),
+    at: new Date(r.createdAt).toISOString(),
+    action: r.action,
+    actor: (r as AuditLog & { actor?: User }).actor?.displayName ?? null,
+    details: r.details ?? {},
+  }));
+}
+
+export async function reviewDetail(versionId: number, viewer: Viewer): Promise<ReviewDetail> {
+  const { dataset, version } = await loadVisibleVersion(versionId, viewer);
+  const [base, networks, owner, history] = await Promise.all([
+    depositDetail(dataset, version, viewer),
+    Network.findAll({ where: { versionId: version.id }, order: [["position", "ASC"]] }),
+    User.findByPk(dataset.ownerId),
+    datasetHistory(dataset.id),
+  ]);
+  const dupRows = networks.length
+    ? ((await sequelize().query(
+        `SELECT n.file_id, d.accession, v.number, n.position
+           FROM networks n JOIN dataset_versions v ON v.id = n.version_id JOIN datasets d ON d.id = v.dataset_id
+          WHERE n.file_id IN (:fileIds) AND v.state = 'published' AND v.dataset_id <> :datasetId
+          ORDER BY d.accession, v.number, n.position`,
+        { replacements: { fileIds: networks.map((n) => n.fileId), datasetId: dataset.id }, type: QueryTypes.SELECT },
+      )) as Array<{ file_id: number; accession: string; number: number; position: number }>)
+    : [];
+  const duplicates = networks
+    .map((n) => ({
+      networkId: n.id,
+      position: n.position,
+      sha256: base.networks.find((x) => x.id === n.id)?.sha256 ?? "",
+      publishedAs: dupRows.filter((r) => r.file_id === n.fileId).map((r) => `${r.accession}/v${r.number}/${r.position}`),
+    }))
+    .filter((d) => d.publishedAs.length);
+  return {
+    ...base,
+    depositor: { id: owner?.id ?? dataset.ownerId, displayName: owner?.displayName ?? "", email: owner?.email ?? "" },
+    ownDeposit: dataset.ownerId === viewer.id,
+    problems: submissionProblems(version, networks),
+    duplicates,
+    history,
+  };
+}
+
+function decisionUrl(kind: DecisionKind, accession: string | null, versionId: number): string {
+  const base = config().publicUrl;
+  if (kind === "publish" || kind === "withdraw") return `${base}/datasets/${accession}`;
+  if (kind === "request_changes") return `${base}/deposit/${versionId}`;
+  return `${base}/my-deposits`;
+}
+
+async function mailDepositor(kind: DecisionKind, dataset: Dataset, version: DatasetVersion, comment: string | null): Promise<void> {
+  try {
+    const owner = await User.findByPk(dataset.ownerId);
+    if (!owner) return;
+    await sendMail(
+      owner.email,
+      reviewDecisionEmail({
+        kind,
+        title: String(version.metadata?.title ?? "(untitled)"),
+        versionNumber: version.number,
+        accession: dataset.accession ?? null,
+        comment,
+        depositor: owner.displayName,
+        url: decisionUrl(kind, dataset.accession ?? null, version.id),
+      }),
+    );
+  } catch (err) {
+    logger.warn({ err }, "could not e-mail the depositor about a decision");
+  }
+}
+
+export async function decide(versionId: number, viewer: Viewer, input: { decision: Decision; comment?: string | null; lockVersion?: number }): Promise<ReviewDetail> {
+  const comment = (input.comment ?? "").trim() || null;
+  if ((input.decision === "request_changes" || input.decision === "decline") && !comment) {
+    const what = input.decision === "decline" ? "A reason is required to decline." : "A comment is required to request changes: say what to change.";
+    throw ApiError.unprocessable(what, [{ path: "/comment", message: what }]);
+  }
+  const { dataset, version } = await loadVisibleVersion(versionId, viewer);
+  if (dataset.ownerId === viewer.id) throw ApiError.forbidden("You cannot decide on your own deposit; another curator must review it.");
+  if (version.state !== "submitted") throw ApiError.conflict(`This version is not awaiting a decision: it is ${version.state.replace("_", " ")}.`);
+  const seenLock = input.lockVersion ?? version.lockVersion;
+  const newState = input.decision === "publish" ? "published" : input.decision === "decline" ? "declined" : "changes_requested";
+
+  await sequelize().transaction(async (t) => {
+    const [rows] = (await sequelize().query(
+      `UPDATE dataset_versions SET state = :state, lock_version = lock_version + 1, updated_at = now(),
+              published_at = CASE WHEN :state = 'published' THEN now() ELSE published_at END
+        WHERE id = :id AND state = 'submitted' AND lock_version = :lock RETURNING id`,
+      { replacements: { state: newState, id: version.id, lock: seenLock }, transaction: t },
+    )) as [Array<{ id: number }>, unknown];
+    if (!rows.length) {
+      throw ApiError.conflict("Another curator decided on or edited this submission a moment ago. Reload the page to see its current state; your decision was not recorded.", [
+        { path: "/lockVersion", message: "The submission changed since you opened it." },
+      ]);
+    }
+    if (input.decision === "publish") {
+      if (!dataset.accession) {
+        const [seq] = (await sequelize().query(`SELECT nextval('accession_seq') AS n`, { type: QueryTypes.SELECT, transaction: t })) as Array<{ n: string }>;
+        const accession = `TB-${String(seq.n).padStart(6, "0")}`;
+        await dataset.update({ accession }, { transaction: t });
+      }
+      const nets = await Network.findAll({ where: { versionId: version.id }, attributes: ["id"], transaction: t });
+      await enqueueNetworkMetrics(nets.map((n) => n.id), { transaction: t });
+    }
+    await Review.create({ versionId: version.id, curatorId: viewer.id, decision: input.decision, comment }, { transaction: t });
+    await audit(
+      { actorId: viewer.id, action: `review.${input.decision}`, entityType: "dataset_version", entityId: version.id, datasetId: dataset.id, details: { from: "submitted", to: newState, comment, ...(input.decision === "publish" ? { accession: dataset.accession } : {}) } },
+      t,
+    );
+  });
+  await version.reload();
+  await mailDepositor(input.decision, dataset, version, comment);
+  return reviewDetail(versionId, viewer);
+}
+
+/** A curator corrects the study metadata of a submission (audited with before and after). */
+export async function correctStudyMetadata(versionId: number, viewer: Viewer, metadata: unknown, lockVersion?: number): Promise<ReviewDetail> {
+  if (!metadata || typeof metadata !== "object" || Array.isArray(metadata)) throw ApiError.badRequest("Study metadata must be a JSON object.", [{ path: "/metadata", message: "A JSON object." }]);
+  await sequelize().transaction(async (t) => {
+    const { dataset, version } = await loadCuratorEditable(versionId, viewer, t);
+    if (lockVersion !== undefined && lockVersion !== version.lockVersion) throw ApiError.conflict("The submission changed since you opened it; reload and correct again.");
+    const before = version.metadata;
+    await version.update({ metadata: metadata as Record<string, unknown>, lockVersion: version.lockVersion + 1 }, { transaction: t });
+    await audit({ actorId: viewer.id, action: "review.metadata.correct", entityType: "dataset_version", entityId: version.id, datasetId: dataset.id, details: { before, after: metadata } }, t);
+  });
+  return reviewDetail(versionId, viewer);
+}
+
+export async function correctNetworkMetadata(versionId: number, networkId: number, viewer: Viewer, metadata: unknown): Promise<ReviewDetail> {
+  await updateNetwork(versionId, networkId, viewer, { metadata }, true);
+  return reviewDetail(versionId, viewer);
+}
+
+/** Withdraws every published version of a dataset (curator or admin; reason required). */
+export async function withdrawDataset(accession: string, viewer: Viewer, reasonRaw: unknown): Promise<{ accession: string; reason: string; withdrawnAt: string }> {
+  const reason = typeof reasonRaw === "string" ? reasonRaw.trim() : "";
+  if (!reason) throw ApiError.unprocessable("A reason is required to withdraw a dataset.", [{ path: "/reason", message: "Say why the dataset is withdrawn; it is shown on the tombstone page." }]);
+  const result = await sequelize().transaction(async (t) => {
+    const dataset = await Dataset.findOne({ where: { accession }, transaction: t, lock: t.LOCK.UPDATE });
+    if (!dataset) throw ApiError.notFound(`No dataset ${accession}.`);
+    const published = await DatasetVersion.findAll({ where: { datasetId: dataset.id, state: "published" }, transaction: t });
+    if (!published.length) throw ApiError.conflict(`${accession} has no published version to withdraw.`);
+    const at = new Date();
+    await DatasetVersion.update(
+      { state: "withdrawn", withdrawnAt: at, withdrawalReason: reason, lockVersion: sequelize().literal("lock_version + 1") as unknown as number },
+      { where: { id: { [Op.in]: published.map((v) => v.id) } }, transaction: t },
+    );
+    await audit({ actorId: viewer.id, action: "dataset.withdraw", entityType: "dataset", entityId: dataset.id, datasetId: dataset.id, details: { accession, reason, versions: published.map((v) => v.number) } }, t);
+    return { dataset, latest: published.sort((a, b) => b.number - a.number)[0], at };
+  });
+  await mailDepositor("withdraw", result.dataset, result.latest, reason);
+  return { accession, reason, withdrawnAt: result.at.toISOString() };
+}
