@@ -1,0 +1,60 @@
+/**
+ * /api/v1/bundles — zips of many networks from a selection (`refs`) or a catalogue filter.
+ *
+ * | route            | who    | answer                                                                 |
+ * |------------------|--------|------------------------------------------------------------------------|
+ * | POST /estimate   | anyone | `{ count, estimatedBytes, limit }` (uncompressed size estimate)        |
+ * | GET /            | anyone | application/zip, streamed (query: `refs=…` or catalogue filters)       |
+ * | POST /           | anyone | application/zip, streamed (body: `{ refs: [...] }` or `{ filter }`)   |
+ * At most 5,000 networks (413 beyond); refs that are not published → 422; withdrawn never included.
+ */
+import { Router, type Request, type Response } from "express";
+import { logger } from "../../lib/logger";
+import { apiRateLimit } from "../../middlewares/api-rate-limit";
+import { BUNDLE_LIMIT, estimateBytes, parseSelection, resolveSelection, type Selection } from "./bundles.selection";
+import { writeBundle } from "./bundles.stream";
+
+export const bundlesRouter = Router();
+bundlesRouter.use(apiRateLimit);
+
+function bodyOf(req: Request): Record<string, unknown> {
+  return req.body && typeof req.body === "object" && !Array.isArray(req.body) ? (req.body as Record<string, unknown>) : {};
+}
+
+bundlesRouter.post("/estimate", async (req, res) => {
+  const sel = parseSelection(bodyOf(req));
+  const nets = await resolveSelection(sel, { enforceLimit: false });
+  res.json({ count: nets.length, estimatedBytes: estimateBytes(nets), limit: BUNDLE_LIMIT, overLimit: nets.length > BUNDLE_LIMIT });
+});
+
+async function stream(req: Request, res: Response, sel: Selection) {
+  const nets = await resolveSelection(sel);
+  const title = sel.kind === "refs" ? `selection of ${nets.length} network${nets.length === 1 ? "" : "s"}` : `${nets.length} networks matching a catalogue filter`;
+  const controller = new AbortController();
+  const onClose = () => {
+    if (!res.writableFinished) controller.abort();
+  };
+  req.on("close", onClose);
+  res.on("close", onClose);
+  const stamp = new Date().toISOString().slice(0, 19).replace(/[-:]/g, "").replace("T", "-");
+  res.status(200);
+  res.setHeader("Content-Type", "application/zip");
+  res.setHeader("Content-Disposition", `attachment; filename="tanglebank-bundle-${stamp}.zip"`);
+  res.setHeader("X-Bundle-Networks", String(nets.length));
+  res.setHeader("Cache-Control", "no-store");
+  try {
+    const { aborted } = await writeBundle(res, { networks: nets, title, signal: controller.signal });
+    if (aborted) res.destroy();
+  } catch (err) {
+    logger.error({ err }, "bundle failed while streaming");
+    res.destroy(err as Error);
+  }
+}
+
+bundlesRouter.get("/", async (req, res) => {
+  await stream(req, res, parseSelection(req.query as Record<string, unknown>));
+});
+
+bundlesRouter.post("/", async (req, res) => {
+  await stream(req, res, parseSelection(bodyOf(req)));
+});

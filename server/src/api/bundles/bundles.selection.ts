@@ -1,0 +1,142 @@
+/**
+ * What a bundle holds: explicit network references (`TB-000042/v2/3`, any published version) or every
+ * network matching a catalogue filter (latest published versions). Withdrawn and unpublished networks
+ * are never included. At most BUNDLE_LIMIT networks.
+ */
+import { QueryTypes } from "sequelize";
+import { sequelize } from "../../db/sequelize";
+import { ApiError, type ErrorDetail } from "../../lib/api-error";
+import { matchCatalogue } from "../catalogue/catalogue.service";
+import { parseCatalogueQuery, type CatalogueQuery } from "../catalogue/catalogue.validation";
+
+export const BUNDLE_LIMIT = 5000;
+export const REF_RE = /^(TB-\d{6})\/v(\d{1,6})\/(\d{1,5})$/;
+
+export type Selection = { kind: "refs"; refs: string[] } | { kind: "filter"; query: CatalogueQuery };
+
+/** Reads a selection from query parameters (GET) or a JSON body (POST): `refs` or catalogue filters. */
+export function parseSelection(input: Record<string, unknown>): Selection {
+  const { refs, filter, ...rest } = input;
+  if (refs !== undefined) {
+    const list = (Array.isArray(refs) ? refs : [refs]).flatMap((r) => String(r).split(",")).map((s) => s.trim()).filter(Boolean);
+    if (!list.length) throw ApiError.badRequest("refs is empty: list network references such as TB-000001/v1/1.", [{ path: "refs", message: "empty" }]);
+    const errors: ErrorDetail[] = [];
+    list.forEach((r, i) => {
+      if (!REF_RE.test(r)) errors.push({ path: `refs/${i}`, message: `"${r}" is not a network reference (TB-000001/v1/1).` });
+    });
+    if (errors.length) throw ApiError.badRequest("Some references are not valid.", errors.slice(0, 50));
+    if (new Set(list).size > BUNDLE_LIMIT) throw tooMany(new Set(list).size);
+    return { kind: "refs", refs: [...new Set(list)] };
+  }
+  const f = filter && typeof filter === "object" ? (filter as Record<string, unknown>) : rest;
+  const { page: _p, pageSize: _s, ...filterOnly } = f;
+  return { kind: "filter", query: { ...parseCatalogueQuery(filterOnly), page: 1, pageSize: BUNDLE_LIMIT } };
+}
+
+function tooMany(n: number): ApiError {
+  return new ApiError(413, "bundle_too_large", `A bundle holds at most ${BUNDLE_LIMIT.toLocaleString("en")} networks; this selection has ${n.toLocaleString("en")}. Narrow the filter or split the selection.`, {
+    limit: BUNDLE_LIMIT,
+    count: n,
+  });
+}
+
+export interface SelectedNetwork {
+  networkId: number;
+  ref: string;
+  accession: string;
+  version: number;
+  position: number;
+  kind: "bipartite" | "unipartite";
+  nNodes: number;
+  nRows: number | null;
+  nCols: number | null;
+  nLinks: number;
+  weighted: boolean;
+}
+
+/** The networks of a selection, in catalogue order (refs: in the order given). */
+export async function resolveSelection(sel: Selection, opts: { enforceLimit?: boolean } = {}): Promise<SelectedNetwork[]> {
+  let ids: number[];
+  if (sel.kind === "filter") {
+    const { matches } = await matchCatalogue(sel.query);
+    ids = matches.map((m) => m.networkId);
+    if (opts.enforceLimit !== false && ids.length > BUNDLE_LIMIT) throw tooMany(ids.length);
+  } else {
+    const refsOrder = new Map(sel.refs.map((r, i) => [r, i]));
+    const rows = await sequelize().query<{ ref: string; network_id: number; state: string | null }>(
+      `SELECT x.ref, n.id AS network_id, v.state
+       FROM unnest(CAST(:refs AS text[])) AS x(ref)
+       LEFT JOIN datasets d ON d.accession = split_part(x.ref, '/', 1)
+       LEFT JOIN dataset_versions v ON v.dataset_id = d.id AND v.number = CAST(substr(split_part(x.ref, '/', 2), 2) AS int)
+       LEFT JOIN networks n ON n.version_id = v.id AND n.position = CAST(split_part(x.ref, '/', 3) AS int)`,
+      { replacements: { refs: sel.refs }, type: QueryTypes.SELECT },
+    );
+    const errors: ErrorDetail[] = [];
+    for (const r of rows) {
+      if (r.state === "withdrawn") errors.push({ path: `refs/${refsOrder.get(r.ref)}`, message: `${r.ref} was withdrawn and cannot be bundled.` });
+      else if (r.state !== "published" || r.network_id === null) errors.push({ path: `refs/${refsOrder.get(r.ref)}`, message: `${r.ref} is not a published network.` });
+    }
+    if (errors.length) throw ApiError.unprocessable(`${errors.length} of the references cannot be bundled.`, errors.slice(0, 50));
+    ids = rows.map((r) => r.network_id);
+  }
+  if (!ids.length) return [];
+  const out: SelectedNetwork[] = [];
+  for (let i = 0; i < ids.length; i += 1000) {
+    const chunk = ids.slice(i, i + 1000);
+    const rows = await sequelize().query<{
+      network_id: number;
+      accession: string;
+      number: number;
+      position: number;
+      kind: "bipartite" | "unipartite";
+      n_nodes: number;
+      n_rows: number | null;
+      n_cols: number | null;
+      n_links: number;
+      weighted: boolean;
+    }>(
+      `SELECT n.id AS network_id, d.accession, v.number, n.position, n.kind, n.n_nodes, n.n_rows, n.n_cols, n.n_links, n.weighted
+       FROM networks n JOIN dataset_versions v ON v.id = n.version_id JOIN datasets d ON d.id = v.dataset_id
+       WHERE n.id IN (:ids) AND v.state = 'published'`,
+      { replacements: { ids: chunk }, type: QueryTypes.SELECT },
+    );
+    const byId = new Map(rows.map((r) => [r.network_id, r]));
+    for (const id of chunk) {
+      const r = byId.get(id);
+      if (!r) continue; // withdrawn since the catalogue was read
+      out.push({
+        networkId: r.network_id,
+        ref: `${r.accession}/v${r.number}/${r.position}`,
+        accession: r.accession,
+        version: r.number,
+        position: r.position,
+        kind: r.kind,
+        nNodes: r.n_nodes,
+        nRows: r.n_rows,
+        nCols: r.n_cols,
+        nLinks: r.n_links,
+        weighted: r.weighted,
+      });
+    }
+  }
+  return out;
+}
+
+/**
+ * Estimated size of a bundle's files before compression: each network's matrix CSV (cells of "0," plus
+ * labels, weights written longer), one metrics and one metadata line per network, and the fixed files.
+ */
+export function estimateBytes(nets: SelectedNetwork[]): number {
+  let total = 24_000; // README, datapackage header, CSV headers
+  for (const n of nets) {
+    const I = n.nRows ?? n.nNodes;
+    const J = n.nCols ?? n.nNodes;
+    total += (I + 1) * (J + 1) * 2 + (I + J) * 18 + (n.weighted ? n.nLinks * 4 : 0);
+    total += 200 + 600 + 40 * (J + 1) + 400; // metrics.csv line, networks.csv line, datapackage resource and schema, citation share
+  }
+  return total;
+}
+
+export function fileNameOf(ref: string): string {
+  return `networks/${ref.replace(/\//g, "_")}.csv`;
+}

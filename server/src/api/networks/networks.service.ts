@@ -1,0 +1,112 @@
+/**
+ * One network of a dataset version, for scripts: metadata (public coordinates), counts, current metrics,
+ * and the data as JSON (labels and links) or CSV (matrix or edge list, the engine's writers). Access as
+ * everywhere: published for everyone, withdrawn → 410, unpublished only for the owner and curators.
+ */
+import type { NetworkMetadata, NetworkMetricsSummary } from "../../../../shared/types/dataset";
+import { deserializeNetwork, networkToEdgeListCsv, networkToMatrixCsv } from "../../../../shared/network";
+import { publicLocality } from "../../../../shared/validation/coordinates";
+import { getCurrentMetrics } from "../../jobs/metrics-read";
+import { ApiError } from "../../lib/api-error";
+import { Network, StoredFile } from "../../models";
+import type { AuthUser } from "../../types";
+import { parseVersionParam, resolveVersion } from "../network-views/network-views.access";
+
+export interface NetworkRefParams {
+  accession: string;
+  version: string;
+  position: string;
+}
+
+async function findNetwork(p: NetworkRefParams, user: AuthUser | undefined, withCanonical: boolean) {
+  const versionNumber = parseVersionParam(p.version);
+  if (!/^\d{1,5}$/.test(p.position) || Number(p.position) < 1) throw ApiError.notFound(`No network "${p.position}": networks are numbered 1, 2, …`);
+  const { dataset, version, latestPublishedVersion } = await resolveVersion(p.accession, versionNumber, user);
+  const network = await Network.findOne({
+    where: { versionId: version.id, position: Number(p.position) },
+    attributes: withCanonical ? { include: ["canonical"] } : undefined,
+  });
+  if (!network) throw ApiError.notFound(`${p.accession} v${version.number} has no network ${p.position}.`);
+  return { dataset, version, network, latestPublishedVersion, ref: `${dataset.accession}/v${version.number}/${network.position}` };
+}
+
+export interface NetworkJson {
+  ref: string;
+  accession: string;
+  version: number;
+  position: number;
+  state: string;
+  latestPublishedVersion: number | null;
+  originalName: string;
+  format: string;
+  kind: string;
+  directed: boolean;
+  weighted: boolean;
+  S: number;
+  rows: number | null;
+  cols: number | null;
+  L: number;
+  totalWeight: number;
+  C: number | null;
+  sha256: string | null;
+  metadata: NetworkMetadata;
+  metrics: NetworkMetricsSummary | null;
+  links?: { data: string; metrics: string };
+  data?: { rowLabels: string[]; colLabels: string[] | null; links: Array<[string, string, number]> };
+}
+
+export async function getNetworkJson(p: NetworkRefParams, user: AuthUser | undefined, includeData: boolean, baseUrl: string): Promise<NetworkJson> {
+  const { dataset, version, network, latestPublishedVersion, ref } = await findNetwork(p, user, includeData);
+  const file = await StoredFile.findByPk(network.fileId, { attributes: ["id", "sha256"] });
+  const metrics = (await getCurrentMetrics([network.id])).get(network.id) ?? null;
+  const meta = network.metadata as unknown as NetworkMetadata;
+  const out: NetworkJson = {
+    ref,
+    accession: dataset.accession!,
+    version: version.number,
+    position: network.position,
+    state: version.state,
+    latestPublishedVersion,
+    originalName: network.originalName,
+    format: network.format,
+    kind: network.kind,
+    directed: network.directed,
+    weighted: network.weighted,
+    S: network.nNodes,
+    rows: network.nRows,
+    cols: network.nCols,
+    L: network.nLinks,
+    totalWeight: network.totalWeight,
+    C: network.connectance,
+    sha256: file?.sha256 ?? null,
+    metadata: { ...meta, locality: meta.locality ? publicLocality(meta.locality) : meta.locality },
+    metrics,
+    links: { data: `${baseUrl}/${ref}/data.csv`, metrics: `${baseUrl}/${ref}/metrics` },
+  };
+  if (includeData) {
+    const net = deserializeNetwork(network.canonical);
+    const cols = net.kind === "bipartite" ? net.colLabels : net.rowLabels;
+    const links: Array<[string, string, number]> = [];
+    const undirected = net.kind === "unipartite" && !net.directed;
+    for (let i = 0; i < net.rowLabels.length; i++) {
+      for (let q = net.rowPtr[i]; q < net.rowPtr[i + 1]; q++) {
+        const j = net.colIdx[q];
+        if (undirected && j < i) continue;
+        links.push([net.rowLabels[i], cols[j], net.weights[q]]);
+      }
+    }
+    out.data = { rowLabels: net.rowLabels, colLabels: net.kind === "bipartite" ? net.colLabels : null, links };
+  }
+  return out;
+}
+
+export async function getNetworkCsv(p: NetworkRefParams, user: AuthUser | undefined, layout: "matrix" | "edgelist"): Promise<{ ref: string; csv: string }> {
+  const { network, ref } = await findNetwork(p, user, true);
+  const net = deserializeNetwork(network.canonical);
+  return { ref, csv: layout === "edgelist" ? networkToEdgeListCsv(net) : networkToMatrixCsv(net) };
+}
+
+export async function getNetworkMetrics(p: NetworkRefParams, user: AuthUser | undefined): Promise<{ ref: string; metrics: NetworkMetricsSummary | null }> {
+  const { network, ref } = await findNetwork(p, user, false);
+  return { ref, metrics: (await getCurrentMetrics([network.id])).get(network.id) ?? null };
+}

@@ -1,0 +1,338 @@
+/**
+ * The OpenAPI 3.1 document of the public API. Written by hand from the routers; a test walks the Express
+ * router and checks that every registered route is either described here or belongs to the web client's
+ * own (non-public) resources listed in INTERNAL_PREFIXES, and that nothing described here is missing.
+ */
+import { ENGINE_VERSION } from "../../../../shared/network/version";
+import { config } from "../../config/env";
+import { CATALOGUE_PARAMS } from "../catalogue/catalogue.validation";
+import { BUNDLE_LIMIT } from "../bundles/bundles.selection";
+
+/** Resources used only by the web client (accounts, deposits, review, administration): not part of the public API. */
+export const INTERNAL_PREFIXES = ["/auth/", "/account", "/users", "/outbox", "/deposits", "/reviews", "/admin", "/pipeline", "/metrics-admin", "/network-views/history"];
+/** Exceptions inside internal prefixes that are public. */
+export const PUBLIC_EXCEPTIONS = ["/auth/session"];
+
+type Json = Record<string, unknown>;
+
+const ref = (name: string) => ({ $ref: `#/components/schemas/${name}` });
+const json = (schema: Json, description = "OK") => ({ description, content: { "application/json": { schema } } });
+const error = (description: string) => json(ref("Error"), description);
+const pathParam = (name: string, description: string, example: string) => ({ name, in: "path", required: true, description, schema: { type: "string" }, example });
+const queryParam = (name: string, description: string, schema: Json = { type: "string" }, example?: unknown) => ({ name, in: "query", required: false, description, schema, ...(example !== undefined ? { example } : {}) });
+
+const NETWORK_REF_PARAMS = [
+  pathParam("accession", "Dataset accession", "TB-000001"),
+  pathParam("version", "Version, written v1, v2, …", "v1"),
+  pathParam("position", "Network number within the version (1, 2, …)", "1"),
+];
+
+const CATALOGUE_PARAM_DOCS: Record<(typeof CATALOGUE_PARAMS)[number], [string, Json, unknown?]> = {
+  q: ["Full-text search over titles, descriptions, keywords, creators, localities and node names (every word must match; prefixes match).", { type: "string", maxLength: 200 }, "Verrin"],
+  interactionType: ["Interaction type(s): pollination, seed-dispersal, host-parasitoid, predator-prey, herbivory, other. Repeat or comma-separate.", { type: "string" }, "pollination"],
+  kind: ["bipartite or unipartite", { type: "string", enum: ["bipartite", "unipartite"] }],
+  weighted: ["true or false", { type: "boolean" }],
+  habitat: ["Habitat(s), as written in the metadata", { type: "string" }],
+  country: ["Country code(s), ISO 3166-1 alpha-2", { type: "string" }, "NO"],
+  licence: ["Licence(s): CC0-1.0, CC-BY-4.0", { type: "string" }],
+  yearMin: ["Sampling years overlap [yearMin, yearMax]", { type: "integer" }, 2019],
+  yearMax: ["See yearMin", { type: "integer" }],
+  nodesMin: ["At least this many nodes (S)", { type: "integer", minimum: 0 }],
+  nodesMax: ["At most this many nodes (S)", { type: "integer", minimum: 0 }],
+  connectanceMin: ["Connectance at least", { type: "number", minimum: 0, maximum: 1 }],
+  connectanceMax: ["Connectance at most", { type: "number", minimum: 0, maximum: 1 }],
+  qMin: ["Modularity Q at least (networks without metrics are left out)", { type: "number" }],
+  qMax: ["Modularity Q at most", { type: "number" }],
+  zMin: ["z at least (networks without z are left out)", { type: "number" }],
+  zMax: ["z at most", { type: "number" }],
+  sort: ["Sort key", { type: "string", enum: ["accession", "title", "type", "S", "C", "Q", "z", "year", "relevance"] }],
+  order: ["asc or desc (missing values always last)", { type: "string", enum: ["asc", "desc"] }],
+  page: ["Page number, from 1", { type: "integer", minimum: 1, default: 1 }],
+  pageSize: ["Rows per page (at most 200)", { type: "integer", minimum: 1, maximum: 200, default: 25 }],
+};
+
+const catalogueParameters = CATALOGUE_PARAMS.map((p) => queryParam(p, CATALOGUE_PARAM_DOCS[p][0], CATALOGUE_PARAM_DOCS[p][1], CATALOGUE_PARAM_DOCS[p][2]));
+const filterParameters = catalogueParameters.filter((p) => !["page", "pageSize", "sort", "order"].includes(p.name));
+
+const catalogueGet = (summary: string) => ({
+  tags: ["Catalogue"],
+  summary,
+  description:
+    "One row per published network (the latest published version of each dataset; withdrawn networks never). `meta.facets` counts, for each filter value, the networks that value would give with every other filter applied; range facets give the minimum and maximum among the matching networks. Raw Q is not comparable across networks of different size, connectance and sampling effort: compare z or Q_rel.",
+  parameters: catalogueParameters,
+  responses: { 200: json(ref("CataloguePage")), 400: error("A parameter is not valid (details name it)"), 429: error("Rate limit exceeded") },
+});
+
+const zip = { description: "A zip file, streamed", content: { "application/zip": { schema: { type: "string", contentEncoding: "binary" } } } };
+
+export function openapiDocument(): Json {
+  const server = `${config().publicUrl}/api/v1`;
+  return {
+    openapi: "3.1.0",
+    info: {
+      title: "Tanglebank API",
+      version: "1.0.0",
+      summary: "Read access to the Tanglebank catalogue of ecological interaction networks, their data and metrics.",
+      description: `Plain HTTP and JSON. Lists are \`{ data, meta }\`; errors are \`{ code, message, details }\` where details name the parameter or field. Reads need no account; a personal API token (Account page) sent as \`Authorization: Bearer tb_…\` raises nothing but gives you your own rate-limit budget and access to your unpublished deposits. Rate limits: ${config().apiRateLimit} requests per minute per token or per IP address, announced in the \`RateLimit\` and \`RateLimit-Policy\` headers (IETF draft 8); past the limit the answer is 429. Metrics are computed by ${ENGINE_VERSION}.`,
+      license: { name: "Data: CC0-1.0 or CC-BY-4.0 per dataset", identifier: "CC-BY-4.0" },
+    },
+    servers: [{ url: server }],
+    tags: [
+      { name: "Catalogue", description: "Search and filter published networks" },
+      { name: "Networks", description: "One network's data (CSV or JSON) and metrics" },
+      { name: "Datasets", description: "Datasets and their versions" },
+      { name: "Bundles", description: "Zips of many networks with a Frictionless Data Package" },
+      { name: "Tokens", description: "Personal API tokens (manage them signed in, from the Account page)" },
+      { name: "Service", description: "Health, session and this document" },
+    ],
+    components: {
+      securitySchemes: {
+        bearerToken: { type: "http", scheme: "bearer", description: "A personal API token, tb_ followed by 32 characters" },
+        session: { type: "apiKey", in: "cookie", name: "tb.sid", description: "The web client's session (state-changing calls also need the X-CSRF-Token header)" },
+      },
+      schemas: {
+        Error: {
+          type: "object",
+          required: ["code", "message"],
+          properties: {
+            code: { type: "string" },
+            message: { type: "string" },
+            details: { type: "array", items: { type: "object", properties: { path: { type: "string" }, message: { type: "string" }, file: { type: "string" }, row: { type: "integer" }, column: { type: "integer" } } } },
+          },
+        },
+        CatalogueRow: {
+          type: "object",
+          properties: {
+            ref: { type: "string", example: "TB-000001/v1/1" },
+            networkId: { type: "integer" },
+            accession: { type: "string" },
+            version: { type: "integer" },
+            position: { type: "integer" },
+            name: { type: "string" },
+            title: { type: "string" },
+            licence: { type: "string" },
+            interactionType: { type: ["string", "null"] },
+            kind: { type: "string", enum: ["bipartite", "unipartite"] },
+            directed: { type: "boolean" },
+            weighted: { type: "boolean" },
+            habitat: { type: ["string", "null"] },
+            country: { type: ["string", "null"] },
+            placeName: { type: ["string", "null"] },
+            startYear: { type: ["integer", "null"] },
+            endYear: { type: ["integer", "null"] },
+            S: { type: "integer", description: "nodes" },
+            rows: { type: ["integer", "null"] },
+            cols: { type: ["integer", "null"] },
+            L: { type: "integer", description: "links" },
+            C: { type: ["number", "null"], description: "connectance" },
+            Q: { type: ["number", "null"], description: "optimised modularity (current pipeline settings)" },
+            modules: { type: ["integer", "null"] },
+            z: { type: ["number", "null"] },
+            qRel: { type: ["number", "null"] },
+            p: { type: ["number", "null"] },
+            nodf: { type: ["number", "null"] },
+            metricsStatus: { type: "string", enum: ["succeeded", "none"] },
+          },
+        },
+        Facet: { type: "array", items: { type: "object", properties: { value: { type: "string" }, count: { type: "integer" } } } },
+        RangeFacet: { type: "object", properties: { min: { type: ["number", "null"] }, max: { type: ["number", "null"] } } },
+        CataloguePage: {
+          type: "object",
+          properties: {
+            data: { type: "array", items: ref("CatalogueRow") },
+            meta: {
+              type: "object",
+              properties: {
+                total: { type: "integer" },
+                page: { type: "integer" },
+                pageSize: { type: "integer" },
+                facets: {
+                  type: "object",
+                  properties: {
+                    interactionType: ref("Facet"),
+                    kind: ref("Facet"),
+                    weighted: ref("Facet"),
+                    habitat: ref("Facet"),
+                    country: ref("Facet"),
+                    licence: ref("Facet"),
+                    year: ref("RangeFacet"),
+                    nodes: ref("RangeFacet"),
+                    connectance: ref("RangeFacet"),
+                    Q: ref("RangeFacet"),
+                    z: ref("RangeFacet"),
+                  },
+                },
+              },
+            },
+          },
+        },
+        Metrics: {
+          type: ["object", "null"],
+          description: "Current metrics: the successful run of the current pipeline settings (else the queued/running/failed state).",
+          properties: {
+            status: { type: "string", enum: ["none", "queued", "running", "succeeded", "failed"] },
+            objective: { type: "string" },
+            Q: { type: ["number", "null"] },
+            modules: { type: ["integer", "null"] },
+            nullModel: { type: ["string", "null"] },
+            nullN: { type: ["integer", "null"] },
+            nullMean: { type: ["number", "null"] },
+            nullSd: { type: ["number", "null"] },
+            z: { type: ["number", "null"] },
+            qRel: { type: ["number", "null"] },
+            p: { type: ["number", "null"] },
+            nodf: { type: ["number", "null"] },
+            algorithm: { type: "object", properties: { name: { type: "string" }, version: { type: "string" }, seed: { type: "integer" } } },
+          },
+        },
+        Network: {
+          type: "object",
+          properties: {
+            ref: { type: "string" },
+            accession: { type: "string" },
+            version: { type: "integer" },
+            position: { type: "integer" },
+            latestPublishedVersion: { type: ["integer", "null"] },
+            kind: { type: "string" },
+            directed: { type: "boolean" },
+            weighted: { type: "boolean" },
+            S: { type: "integer" },
+            rows: { type: ["integer", "null"] },
+            cols: { type: ["integer", "null"] },
+            L: { type: "integer" },
+            C: { type: ["number", "null"] },
+            sha256: { type: ["string", "null"] },
+            metadata: { type: "object", description: "Network metadata (/schemas/network.schema.json); coordinates generalised for sensitive sites" },
+            metrics: ref("Metrics"),
+            data: {
+              type: "object",
+              description: "With ?include=data or data.json: node labels and links [source, target, weight]",
+              properties: { rowLabels: { type: "array", items: { type: "string" } }, colLabels: { type: ["array", "null"], items: { type: "string" } }, links: { type: "array", items: { type: "array", prefixItems: [{ type: "string" }, { type: "string" }, { type: "number" }], minItems: 3 } } },
+            },
+          },
+        },
+        Selection: {
+          type: "object",
+          description: `Either refs (explicit networks, any published version) or filter (catalogue parameters; the latest published versions). At most ${BUNDLE_LIMIT} networks.`,
+          properties: {
+            refs: { type: "array", items: { type: "string", pattern: "^TB-[0-9]{6}/v[0-9]+/[0-9]+$" }, example: ["TB-000001/v1/1", "TB-000002/v1/3"] },
+            filter: { type: "object", description: "Catalogue filter parameters, e.g. { \"interactionType\": \"pollination\", \"country\": \"NO\" }", additionalProperties: true },
+          },
+        },
+        ApiToken: {
+          type: "object",
+          properties: { id: { type: "integer" }, name: { type: "string" }, prefix: { type: "string", example: "tb_AbCd" }, createdAt: { type: "string", format: "date-time" }, lastUsedAt: { type: ["string", "null"], format: "date-time" }, revokedAt: { type: ["string", "null"], format: "date-time" } },
+        },
+      },
+    },
+    security: [{}, { bearerToken: [] }],
+    paths: {
+      "/catalogue": { get: { ...catalogueGet("Search the catalogue"), operationId: "searchCatalogue" } },
+      "/networks": { get: { ...catalogueGet("List networks (same as /catalogue)"), operationId: "listNetworks" } },
+      "/networks/{accession}/{version}/{position}": {
+        get: {
+          tags: ["Networks"],
+          operationId: "getNetwork",
+          summary: "One network: metadata, counts and current metrics (JSON), or its data as CSV with ?format=csv",
+          parameters: [...NETWORK_REF_PARAMS, queryParam("format", "json (default) or csv", { type: "string", enum: ["json", "csv"] }), queryParam("include", "data: add node labels and links", { type: "string", enum: ["data"] })],
+          responses: { 200: { description: "The network", content: { "application/json": { schema: ref("Network") }, "text/csv": { schema: { type: "string" } } } }, 404: error("No such published network"), 410: error("Withdrawn (the answer carries the reason)") },
+        },
+      },
+      "/networks/{accession}/{version}/{position}/data.csv": {
+        get: {
+          tags: ["Networks"],
+          operationId: "getNetworkCsv",
+          summary: "The network as CSV: a matrix (first column 'node'-less corner, rows × columns) or an edge list",
+          parameters: [...NETWORK_REF_PARAMS, queryParam("layout", "matrix (default, keeps isolated nodes) or edgelist", { type: "string", enum: ["matrix", "edgelist"] })],
+          responses: { 200: { description: "CSV", content: { "text/csv": { schema: { type: "string" } } } }, 404: error("Not found"), 410: error("Withdrawn") },
+        },
+      },
+      "/networks/{accession}/{version}/{position}/data.json": {
+        get: { tags: ["Networks"], operationId: "getNetworkJsonData", summary: "The network with its data (labels and links) as JSON", parameters: NETWORK_REF_PARAMS, responses: { 200: json(ref("Network")), 404: error("Not found"), 410: error("Withdrawn") } },
+      },
+      "/networks/{accession}/{version}/{position}/metrics": {
+        get: { tags: ["Networks"], operationId: "getNetworkMetrics", summary: "Current metrics of one network", parameters: NETWORK_REF_PARAMS, responses: { 200: json({ type: "object", properties: { ref: { type: "string" }, metrics: ref("Metrics") } }), 404: error("Not found"), 410: error("Withdrawn") } },
+      },
+      "/network-views/summaries": {
+        get: { tags: ["Networks"], operationId: "getNetworkSummaries", summary: "Compact summaries of several networks (for comparisons)", parameters: [queryParam("refs", "Comma-separated network references", { type: "string" }, "TB-000001/v1/1,TB-000001/v1/2")], responses: { 200: json({ type: "object" }) } },
+      },
+      "/network-views/{accession}/{version}/{position}": {
+        get: { tags: ["Networks"], operationId: "getNetworkView", summary: "Everything the network page plots: matrix order, partition, null distribution, roles", parameters: NETWORK_REF_PARAMS, responses: { 200: json({ type: "object" }), 404: error("Not found"), 410: error("Withdrawn") } },
+      },
+      "/network-views/{accession}/{version}/{position}/partition.csv": {
+        get: { tags: ["Networks"], operationId: "getPartitionCsv", summary: "The best partition: node, level, module (CSV)", parameters: NETWORK_REF_PARAMS, responses: { 200: { description: "CSV", content: { "text/csv": { schema: { type: "string" } } } }, 404: error("Not found") } },
+      },
+      "/network-views/{accession}/{version}/{position}/partition.json": {
+        get: { tags: ["Networks"], operationId: "getPartitionJson", summary: "The best partition as JSON", parameters: NETWORK_REF_PARAMS, responses: { 200: json({ type: "object" }), 404: error("Not found") } },
+      },
+      "/datasets/{accession}": {
+        get: { tags: ["Datasets"], operationId: "getDataset", summary: "A dataset: its latest published version (or ?version=N), networks and metrics", parameters: [pathParam("accession", "Accession", "TB-000001"), queryParam("version", "Version number", { type: "integer" })], responses: { 200: json({ type: "object", description: "DatasetDetail" }), 404: error("Not found"), 410: error("Withdrawn: the tombstone") } },
+      },
+      "/datasets/{accession}/versions/{n}": {
+        get: { tags: ["Datasets"], operationId: "getDatasetVersion", summary: "One version of a dataset", parameters: [pathParam("accession", "Accession", "TB-000001"), pathParam("n", "Version number", "1")], responses: { 200: json({ type: "object", description: "DatasetDetail" }), 404: error("Not found"), 410: error("Withdrawn") } },
+      },
+      "/datasets/{accession}/versions/{n}/networks/{pos}/file": {
+        get: { tags: ["Datasets"], operationId: "getOriginalFile", summary: "The network's file exactly as deposited", parameters: [pathParam("accession", "Accession", "TB-000001"), pathParam("n", "Version number", "1"), pathParam("pos", "Network number", "1")], responses: { 200: { description: "The original bytes" }, 404: error("Not found"), 410: error("Withdrawn") } },
+      },
+      "/datasets/{accession}/versions": {
+        post: { tags: ["Datasets"], operationId: "startNewVersion", summary: "Start a new version (owner): a draft copied from the latest", security: [{ session: [] }, { bearerToken: [] }], parameters: [pathParam("accession", "Accession", "TB-000001")], responses: { 201: json({ type: "object" }), 401: error("Sign in"), 403: error("Not the owner") } },
+      },
+      "/datasets/{accession}/withdraw": {
+        post: { tags: ["Datasets"], operationId: "withdrawDataset", summary: "Withdraw a published version (curators), with a reason", security: [{ session: [] }, { bearerToken: [] }], parameters: [pathParam("accession", "Accession", "TB-000001")], requestBody: { content: { "application/json": { schema: { type: "object", properties: { reason: { type: "string" } }, required: ["reason"] } } } }, responses: { 200: json({ type: "object" }), 403: error("Curators only") } },
+      },
+      "/bundles/estimate": {
+        post: {
+          tags: ["Bundles"],
+          operationId: "estimateBundle",
+          summary: "How many networks a selection holds and the estimated (uncompressed) size of its bundle",
+          requestBody: { content: { "application/json": { schema: ref("Selection") } } },
+          responses: { 200: json({ type: "object", properties: { count: { type: "integer" }, estimatedBytes: { type: "integer" }, limit: { type: "integer" }, overLimit: { type: "boolean" } } }), 400: error("Bad selection"), 422: error("Some references are not published networks") },
+        },
+      },
+      "/bundles": {
+        get: {
+          tags: ["Bundles"],
+          operationId: "downloadBundle",
+          summary: "Download a bundle (zip) of a selection (refs) or of every network matching catalogue filters",
+          description: `The zip holds datapackage.json (Frictionless Data Package with a Table Schema per CSV), networks/ACCESSION_vN_POS.csv (matrices), metrics.csv, networks.csv (public coordinates), CITATIONS.bib and README.txt (how every metric was computed). At most ${BUNDLE_LIMIT} networks (413 beyond).`,
+          parameters: [queryParam("refs", "Comma-separated network references; without it, the catalogue filters below select the networks", { type: "string" }, "TB-000001/v1/1,TB-000001/v1/2"), ...filterParameters],
+          responses: { 200: zip, 400: error("Bad selection"), 413: error(`More than ${BUNDLE_LIMIT} networks`), 422: error("Some references are not published networks") },
+        },
+        post: {
+          tags: ["Bundles"],
+          operationId: "downloadBundlePost",
+          summary: "Download a bundle, the selection in a JSON body (for long lists of references)",
+          requestBody: { content: { "application/json": { schema: ref("Selection") } } },
+          responses: { 200: zip, 400: error("Bad selection"), 413: error(`More than ${BUNDLE_LIMIT} networks`), 422: error("Some references are not published networks") },
+        },
+      },
+      "/tokens": {
+        get: { tags: ["Tokens"], operationId: "listTokens", summary: "Your API tokens (prefix, name, created, last used, revoked)", security: [{ session: [] }, { bearerToken: [] }], responses: { 200: json({ type: "object", properties: { data: { type: "array", items: ref("ApiToken") } } }), 401: error("Sign in") } },
+        post: {
+          tags: ["Tokens"],
+          operationId: "createToken",
+          summary: "Create a token (signed in through the browser); the secret is shown once",
+          security: [{ session: [] }],
+          requestBody: { content: { "application/json": { schema: { type: "object", required: ["name"], properties: { name: { type: "string", maxLength: 80 } } } } } },
+          responses: { 201: json({ type: "object", properties: { token: ref("ApiToken"), secret: { type: "string", example: "tb_…" } } }), 401: error("Sign in"), 403: error("Not with a token"), 422: error("Name missing") },
+        },
+      },
+      "/tokens/{id}": {
+        delete: { tags: ["Tokens"], operationId: "revokeToken", summary: "Revoke one of your tokens", security: [{ session: [] }], parameters: [pathParam("id", "Token id", "1")], responses: { 200: json({ type: "object", properties: { token: ref("ApiToken") } }), 404: error("Not your token") } },
+      },
+      "/health": { get: { tags: ["Service"], operationId: "health", summary: "Whether the service and its database answer", responses: { 200: json({ type: "object" }), 503: json({ type: "object" }, "Degraded") } } },
+      "/auth/session": { get: { tags: ["Service"], operationId: "getSession", summary: "The signed-in user (or null) and the CSRF token for state-changing browser calls", responses: { 200: json({ type: "object", properties: { user: { type: ["object", "null"] }, csrfToken: { type: "string" } } }) } } },
+      "/openapi.json": { get: { tags: ["Service"], operationId: "openapi", summary: "This document", responses: { 200: json({ type: "object" }) } } },
+    },
+  };
+}
+
+/** "/networks/:accession/:version/:position" → "/networks/{accession}/{version}/{position}" */
+export function toOpenApiPath(expressPath: string): string {
+  return expressPath.replace(/:([A-Za-z_][A-Za-z0-9_]*)/g, "{$1}");
+}
+
+export function isInternal(path: string): boolean {
+  if (PUBLIC_EXCEPTIONS.includes(path)) return false;
+  return INTERNAL_PREFIXES.some((p) => (p.endsWith("/") ? path.startsWith(p) : path === p || path.startsWith(p + "/")));
+}
