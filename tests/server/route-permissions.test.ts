@@ -30,6 +30,17 @@ const ROUTES: ProtectedRoute[] = [
   { method: "get", path: "/api/v1/outbox", min: "admin" },
   { method: "get", path: "/api/v1/outbox/1", min: "admin" },
   // --- other features: add your routes below ---
+  // metrics pipeline (admin); bodies are invalid on purpose, so an admin gets 400/404 and nothing is queued
+  { method: "get", path: "/api/v1/pipeline/settings", min: "admin" },
+  { method: "put", path: "/api/v1/pipeline/settings", min: "admin", body: { restarts: 0 } },
+  { method: "get", path: "/api/v1/pipeline/batches", min: "admin" },
+  { method: "post", path: "/api/v1/pipeline/batches", min: "admin", body: { force: "yes" } },
+  { method: "get", path: "/api/v1/pipeline/batches/current", min: "admin" },
+  { method: "get", path: "/api/v1/pipeline/batches/999999", min: "admin" },
+  { method: "get", path: "/api/v1/pipeline/batches/999999/failures", min: "admin" },
+  { method: "post", path: "/api/v1/pipeline/batches/999999/retry", min: "admin" },
+  { method: "get", path: "/api/v1/pipeline/runs", min: "admin" },
+  { method: "get", path: "/api/v1/pipeline/networks/999999", min: "admin" },
 ];
 
 const ORDER: Min[] = ["depositor", "curator", "admin"];

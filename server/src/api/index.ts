@@ -14,6 +14,7 @@ import { openapiRouter } from "./openapi/openapi.routes";
 import { datasetsRouter } from "./datasets/datasets.routes";
 import { depositsRouter } from "./deposits/deposits.routes";
 import { reviewsRouter } from "./reviews/reviews.routes";
+import { pipelineRouter } from "./pipeline/pipeline.routes";
 
 export function apiRouter(): Router {
   const r = Router();
@@ -31,5 +32,6 @@ export function apiRouter(): Router {
   r.use("/datasets", datasetsRouter);
   r.use("/deposits", depositsRouter);
   r.use("/reviews", reviewsRouter);
+  r.use("/pipeline", pipelineRouter);
   return r;
 }

@@ -15,7 +15,7 @@ export async function makeOwner(): Promise<User> {
     passwordHash: "x",
     displayName: `Owner ${counter}`,
     role: "depositor",
-  } as Parameters<typeof User.create>[0]);
+  });
 }
 
 /** A bipartite binary matrix as CSV text (first row: column labels; first column: row labels). */
@@ -24,24 +24,38 @@ export function matrixCsv(m: number[][]): string {
   return [head, ...m.map((row, i) => [`r${i + 1}`, ...row].join(","))].join("\n") + "\n";
 }
 
-/** Creates a published dataset version holding one network per matrix; returns the network ids. */
-export async function publishMatrices(matrices: number[][][], owner?: User): Promise<{ datasetId: number; accession: string; networkIds: number[] }> {
-  const user = owner ?? (await makeOwner());
+/**
+ * Creates a published dataset version (or, with state "submitted", one awaiting a curator's decision and
+ * without accession) holding one network per matrix; returns the ids.
+ */
+export async function publishMatrices(
+  matrices: number[][][],
+  opts: { owner?: User; state?: "published" | "submitted" } = {},
+): Promise<{ datasetId: number; versionId: number; accession: string | null; networkIds: number[] }> {
+  const user = opts.owner ?? (await makeOwner());
+  const state = opts.state ?? "published";
   counter++;
-  const accession = `TB-${String(100000 + counter).slice(-6)}`;
-  const ds = await Dataset.create({ ownerId: user.id, accession } as Parameters<typeof Dataset.create>[0]);
-  const v = await DatasetVersion.create({ datasetId: ds.id, number: 1, state: "published", publishedAt: new Date(), metadata: { title: "Test" } } as Parameters<typeof DatasetVersion.create>[0]);
+  const accession = state === "published" ? `TB-${String(900000 + counter).slice(-6)}` : null;
+  const ds = await Dataset.create({ ownerId: user.id, accession });
+  const v = await DatasetVersion.create({
+    datasetId: ds.id,
+    number: 1,
+    state,
+    publishedAt: state === "published" ? new Date() : null,
+    submittedAt: new Date(),
+    metadata: { title: "Test" },
+  });
   const networkIds: number[] = [];
   for (let i = 0; i < matrices.length; i++) {
     networkIds.push(await createNetwork(v.id, i + 1, matrixCsv(matrices[i])));
   }
-  return { datasetId: ds.id, accession, networkIds };
+  return { datasetId: ds.id, versionId: v.id, accession, networkIds };
 }
 
 export async function createNetwork(versionId: number, position: number, csv: string, canonicalOverride?: unknown): Promise<number> {
   const bytes = Buffer.from(csv);
   const sha256 = createHash("sha256").update(bytes).update(String(Math.random())).digest("hex");
-  const file = await StoredFile.create({ sha256, size: bytes.length, bytes } as Parameters<typeof StoredFile.create>[0]);
+  const file = await StoredFile.create({ sha256, size: bytes.length, bytes });
   const { network } = parseNetworkText(csv, { fileName: `n${position}.csv`, kind: "bipartite" });
   const b = basicMetrics(network);
   const n = await Network.create({

@@ -1,0 +1,47 @@
+import type { Request, Response } from "express";
+import { getPipelineSettings } from "../../jobs/settings";
+import * as service from "./pipeline.service";
+import * as v from "./pipeline.validation";
+
+export async function getSettings(_req: Request, res: Response) {
+  res.json(await service.readSettings());
+}
+
+export async function putSettings(req: Request, res: Response) {
+  const settings = v.parseSettings(req.body, await getPipelineSettings());
+  res.json(await service.updateSettings(req.user!.id, settings));
+}
+
+export async function listBatches(req: Request, res: Response) {
+  const { page, pageSize } = v.parsePage(req.query as Record<string, unknown>);
+  res.json(await service.listBatches(page, pageSize));
+}
+
+export async function currentBatch(_req: Request, res: Response) {
+  res.json({ batch: await service.currentBatch() });
+}
+
+export async function startBatch(req: Request, res: Response) {
+  const { settings, force } = v.parseBatchStart(req.body, await getPipelineSettings());
+  res.status(201).json(await service.startBatch(req.user!.id, settings, force));
+}
+
+export async function getBatch(req: Request, res: Response) {
+  res.json(await service.getBatch(v.parseId(req.params.id, "batch")));
+}
+
+export async function batchFailures(req: Request, res: Response) {
+  res.json(await service.batchFailures(v.parseId(req.params.id, "batch")));
+}
+
+export async function retryFailed(req: Request, res: Response) {
+  res.json(await service.retryFailed(req.user!.id, v.parseId(req.params.id, "batch")));
+}
+
+export async function listRuns(req: Request, res: Response) {
+  res.json(await service.listRuns(v.parseRunQuery(req.query as Record<string, unknown>)));
+}
+
+export async function networkMetrics(req: Request, res: Response) {
+  res.json(await service.networkMetrics(v.parseId(req.params.id, "network")));
+}

@@ -1,0 +1,18 @@
+/** Admin: the metrics pipeline (settings, batches, progress, failures, retries, runs per network). */
+import { Router } from "express";
+import { requireRole } from "../../middlewares/require-role";
+import * as c from "./pipeline.controller";
+
+export const pipelineRouter = Router();
+const admin = requireRole("admin");
+
+pipelineRouter.get("/settings", admin, c.getSettings);
+pipelineRouter.put("/settings", admin, c.putSettings);
+pipelineRouter.get("/batches", admin, c.listBatches);
+pipelineRouter.post("/batches", admin, c.startBatch);
+pipelineRouter.get("/batches/current", admin, c.currentBatch);
+pipelineRouter.get("/batches/:id", admin, c.getBatch);
+pipelineRouter.get("/batches/:id/failures", admin, c.batchFailures);
+pipelineRouter.post("/batches/:id/retry", admin, c.retryFailed);
+pipelineRouter.get("/runs", admin, c.listRuns);
+pipelineRouter.get("/networks/:id", admin, c.networkMetrics);
