@@ -8,6 +8,7 @@ export const paths = {
   pipeline: { path: "/admin/pipeline", href: () => "/admin/pipeline" },
   users: { path: "/admin/users", href: () => "/admin/users" },
   outbox: { path: "/admin/outbox", href: () => "/admin/outbox" },
+  outboxMessage: { path: "/admin/outbox/:id", href: (id: number) => `/admin/outbox/${id}` },
   signIn: { path: "/sign-in", href: (next?: string) => (next ? `/sign-in?next=${encodeURIComponent(next)}` : "/sign-in") },
   signUp: { path: "/sign-up", href: () => "/sign-up" },
   verifyEmail: { path: "/verify-email", href: () => "/verify-email" },

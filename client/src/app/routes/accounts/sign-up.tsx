@@ -1,0 +1,5 @@
+import { SignUpForm } from "../../../features/auth/components/sign-up-form";
+
+export function Component() {
+  return <SignUpForm />;
+}
