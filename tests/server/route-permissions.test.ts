@@ -41,6 +41,27 @@ const ROUTES: ProtectedRoute[] = [
   { method: "post", path: "/api/v1/pipeline/batches/999999/retry", min: "admin" },
   { method: "get", path: "/api/v1/pipeline/runs", min: "admin" },
   { method: "get", path: "/api/v1/pipeline/networks/999999", min: "admin" },
+  // deposits (owner; ids that do not exist answer 404 after the permission check)
+  { method: "get", path: "/api/v1/deposits", min: "depositor" },
+  { method: "post", path: "/api/v1/deposits", min: "depositor", body: { metadata: [] } },
+  { method: "get", path: "/api/v1/deposits/999999", min: "depositor" },
+  { method: "delete", path: "/api/v1/deposits/999999", min: "depositor" },
+  { method: "put", path: "/api/v1/deposits/999999/metadata", min: "depositor", body: { metadata: {} } },
+  { method: "post", path: "/api/v1/deposits/999999/networks", min: "depositor" },
+  { method: "put", path: "/api/v1/deposits/999999/networks/order", min: "depositor", body: { order: [] } },
+  { method: "patch", path: "/api/v1/deposits/999999/networks/1", min: "depositor", body: { metadata: {} } },
+  { method: "delete", path: "/api/v1/deposits/999999/networks/1", min: "depositor" },
+  { method: "get", path: "/api/v1/deposits/999999/networks/1/file", min: "depositor" },
+  { method: "get", path: "/api/v1/deposits/999999/networks/1/canonical", min: "depositor" },
+  { method: "post", path: "/api/v1/deposits/999999/submit", min: "depositor" },
+  { method: "post", path: "/api/v1/datasets/TB-999999/versions", min: "depositor" },
+  // curation
+  { method: "get", path: "/api/v1/reviews", min: "curator" },
+  { method: "get", path: "/api/v1/reviews/999999", min: "curator" },
+  { method: "post", path: "/api/v1/reviews/999999/decision", min: "curator", body: { decision: "publish" } },
+  { method: "put", path: "/api/v1/reviews/999999/metadata", min: "curator", body: { metadata: {} } },
+  { method: "patch", path: "/api/v1/reviews/999999/networks/1", min: "curator", body: { metadata: {} } },
+  { method: "post", path: "/api/v1/datasets/TB-999999/withdraw", min: "curator", body: { reason: "test" } },
 ];
 
 const ORDER: Min[] = ["depositor", "curator", "admin"];
