@@ -30,6 +30,10 @@ const ROUTES: ProtectedRoute[] = [
   { method: "get", path: "/api/v1/outbox", min: "admin" },
   { method: "get", path: "/api/v1/outbox/1", min: "admin" },
   // --- other features: add your routes below ---
+  // personal API tokens (signed in; revoking a token id that does not exist answers 404 after the check)
+  { method: "get", path: "/api/v1/tokens", min: "depositor" },
+  { method: "post", path: "/api/v1/tokens", min: "depositor", body: { name: "" } },
+  { method: "delete", path: "/api/v1/tokens/999999", min: "depositor" },
   // metrics pipeline (admin); bodies are invalid on purpose, so an admin gets 400/404 and nothing is queued
   { method: "get", path: "/api/v1/pipeline/settings", min: "admin" },
   { method: "put", path: "/api/v1/pipeline/settings", min: "admin", body: { restarts: 0 } },

@@ -127,19 +127,37 @@ export async function writeBundle(out: Writable, opts: BundleOptions): Promise<{
     processed++;
     poke();
   });
-  let failure: Error | null = null;
+  let failure = null as Error | null;
+  let stop: () => void = () => undefined;
+  const stopped = new Promise<void>((r) => (stop = r));
   archive.on("error", (err: Error) => {
     failure = err;
     poke();
+    stop();
   });
   signal.addEventListener("abort", () => {
     archive.abort();
     poke();
+    stop();
   });
   const waitFor = async (n: number) => {
     while (processed < n && !signal.aborted && !failure) await new Promise<void>((r) => (wake = r));
   };
   archive.pipe(out);
+  /** A stream entry from an async generator; a failure (e.g. the database) aborts the whole bundle. */
+  const fromGenerator = (gen: AsyncGenerator<string>) =>
+    Readable.from(
+      (async function* () {
+        try {
+          yield* gen;
+        } catch (err) {
+          failure = err as Error;
+          archive.abort();
+          poke();
+          stop();
+        }
+      })(),
+    );
 
   const ids = networks.map((n) => n.networkId);
   const settings = await getPipelineSettings();
@@ -157,7 +175,7 @@ export async function writeBundle(out: Writable, opts: BundleOptions): Promise<{
   // 2. datapackage.json, streamed: one resource per network CSV (its Table Schema lists the columns)
   async function* datapackage() {
     const lic = await sequelize().query<{ licence: string | null }>(
-      `SELECT DISTINCT v.metadata ->> 'licence' AS licence FROM networks n JOIN dataset_versions v ON v.id = n.version_id WHERE n.id = ANY(CAST(:ids AS int[]))`,
+      `SELECT DISTINCT v.metadata ->> 'licence' AS licence FROM networks n JOIN dataset_versions v ON v.id = n.version_id WHERE n.id IN (:ids)`,
       { replacements: { ids }, type: QueryTypes.SELECT },
     );
     const licences = lic.map((l) => l.licence ?? "unknown").sort();
@@ -184,7 +202,7 @@ export async function writeBundle(out: Writable, opts: BundleOptions): Promise<{
         `SELECT n.id AS network_id, n.canonical -> 'rows' AS rows, n.canonical -> 'cols' AS cols,
                 v.metadata ->> 'licence' AS licence, v.metadata ->> 'title' AS title, d.accession, v.number
          FROM networks n JOIN dataset_versions v ON v.id = n.version_id JOIN datasets d ON d.id = v.dataset_id
-         WHERE n.id = ANY(CAST(:ids AS int[])) AND v.state = 'published'`,
+         WHERE n.id IN (:ids) AND v.state = 'published'`,
         { replacements: { ids: ids.slice(i, i + BATCH * 2) }, type: QueryTypes.SELECT },
       );
       const byId = new Map(rows.map((r) => [r.network_id, r]));
@@ -218,14 +236,14 @@ export async function writeBundle(out: Writable, opts: BundleOptions): Promise<{
     }
     yield "\n  ]\n}\n";
   }
-  add(Readable.from(datapackage()), "datapackage.json");
+  add(fromGenerator(datapackage()), "datapackage.json");
 
   // 3. One matrix CSV per network, in batches (each batch appended once the archive consumed the last)
   for (let i = 0; i < ids.length && !signal.aborted && !failure; i += BATCH) {
     const batch = networks.slice(i, i + BATCH);
     const rows = await sequelize().query<{ network_id: number; canonical: unknown }>(
       `SELECT n.id AS network_id, n.canonical FROM networks n JOIN dataset_versions v ON v.id = n.version_id
-       WHERE n.id = ANY(CAST(:ids AS int[])) AND v.state = 'published'`,
+       WHERE n.id IN (:ids) AND v.state = 'published'`,
       { replacements: { ids: batch.map((b) => b.networkId) }, type: QueryTypes.SELECT },
     );
     const byId = new Map(rows.map((r) => [r.network_id, r.canonical]));
@@ -253,8 +271,8 @@ export async function writeBundle(out: Writable, opts: BundleOptions): Promise<{
       if (lines.length) yield lines.join("\n") + "\n";
     }
   }
-  if (!signal.aborted) add(Readable.from(table(METRICS_FIELDS)), "metrics.csv");
-  if (!signal.aborted) add(Readable.from(table(NETWORK_FIELDS)), "networks.csv");
+  if (!signal.aborted) add(fromGenerator(table(METRICS_FIELDS)), "metrics.csv");
+  if (!signal.aborted) add(fromGenerator(table(NETWORK_FIELDS)), "networks.csv");
 
   // 5. CITATIONS.bib: one entry per dataset version
   async function* citations() {
@@ -263,7 +281,7 @@ export async function writeBundle(out: Writable, opts: BundleOptions): Promise<{
       const chunk = versions.slice(i, i + 500);
       const rows = await sequelize().query<{ accession: string; number: number; metadata: StudyMetadata; published_at: Date | null }>(
         `SELECT d.accession, v.number, v.metadata, v.published_at FROM dataset_versions v JOIN datasets d ON d.id = v.dataset_id
-         WHERE (d.accession || '/' || v.number) = ANY(CAST(:keys AS text[])) ORDER BY d.accession, v.number`,
+         WHERE (d.accession || '/' || v.number) IN (:keys) ORDER BY d.accession, v.number`,
         { replacements: { keys: chunk }, type: QueryTypes.SELECT },
       );
       yield rows
@@ -279,10 +297,11 @@ export async function writeBundle(out: Writable, opts: BundleOptions): Promise<{
         .join("\n");
     }
   }
-  if (!signal.aborted) add(Readable.from(citations()), "CITATIONS.bib");
+  if (!signal.aborted) add(fromGenerator(citations()), "CITATIONS.bib");
 
+  if (failure) throw failure;
   if (signal.aborted) return { aborted: true, bytes: archive.pointer() };
-  await archive.finalize();
+  await Promise.race([archive.finalize(), stopped]);
   if (failure) throw failure;
   return { aborted: signal.aborted, bytes: archive.pointer() };
 }

@@ -1,0 +1,192 @@
+/**
+ * Bundles: the zip is opened with yauzl (an independent zip reader) and checked: every datapackage
+ * resource exists in the zip, every network CSV parses back (engine parser) to the stored network,
+ * metrics.csv rows equal the database, withdrawn networks are absent, coordinates are generalised, limits
+ * and bad references are refused, and the estimate counts what the bundle holds.
+ */
+import request from "supertest";
+import yauzl from "yauzl";
+import { parse as parseCsv } from "csv-parse/sync";
+import { QueryTypes } from "sequelize";
+import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { createApp } from "../../server/src/app";
+import { shutdownServerResources } from "../../server/src/index";
+import { sequelize } from "../../server/src/db/sequelize";
+import { catalogueStore } from "../../server/src/api/catalogue/catalogue.store";
+import { deserializeNetwork, parseNetworkText, serializeNetwork } from "../../shared/network/index";
+import { resetDatabase } from "../setup/db";
+import { publishDataset, type PublishedFixture } from "./support/catalogue-fixtures";
+
+const app = createApp();
+let a: PublishedFixture;
+let b: PublishedFixture;
+let withdrawn: PublishedFixture;
+
+beforeAll(async () => {
+  await resetDatabase();
+  catalogueStore.reset();
+  a = await publishDataset({
+    study: { title: "Heath visitors", licence: "CC0-1.0" },
+    networks: [
+      { seed: 1, rows: 5, cols: 6, metrics: { q: 0.41, z: 2.5, qRel: 0.3, p: 0.01, nodf: 40.5 } },
+      { seed: 2, rows: 4, cols: 4, weighted: true, metrics: { q: 0.33, z: 1.2, qRel: 0.1, p: 0.2 } },
+      { seed: 3, rows: 6, kind: "unipartite", metrics: null },
+    ],
+  });
+  b = await publishDataset({
+    study: { title: "Coastal dispersal", licence: "CC-BY-4.0" },
+    networks: [{ seed: 4, rows: 7, cols: 5, meta: { interactionType: "seed-dispersal", locality: { placeName: "Tallow Coast", countryCode: "SE", decimalLatitude: 57.6789, decimalLongitude: 11.2345, generalisation: "1" } }, metrics: { q: 0.5, z: 3.3 } }],
+  });
+  withdrawn = await publishDataset({ state: "withdrawn", study: { title: "Withdrawn" }, networks: [{ seed: 5, metrics: { q: 0.2, z: 0.1 } }] });
+});
+afterAll(shutdownServerResources);
+
+function binaryParser(res: request.Response, cb: (err: Error | null, body: Buffer) => void) {
+  const chunks: Buffer[] = [];
+  res.on("data", (c: Buffer) => chunks.push(c));
+  res.on("end", () => cb(null, Buffer.concat(chunks)));
+}
+
+async function unzip(buf: Buffer): Promise<Map<string, string>> {
+  return new Promise((resolve, reject) => {
+    yauzl.fromBuffer(buf, { lazyEntries: true }, (err, zip) => {
+      if (err || !zip) return reject(err);
+      const out = new Map<string, string>();
+      zip.on("entry", (entry: yauzl.Entry) => {
+        zip.openReadStream(entry, (e, stream) => {
+          if (e || !stream) return reject(e);
+          const parts: Buffer[] = [];
+          stream.on("data", (c: Buffer) => parts.push(c));
+          stream.on("end", () => {
+            out.set(entry.fileName, Buffer.concat(parts).toString("utf8"));
+            zip.readEntry();
+          });
+        });
+      });
+      zip.on("end", () => resolve(out));
+      zip.on("error", reject);
+      zip.readEntry();
+    });
+  });
+}
+
+async function download(query: Record<string, string>): Promise<Map<string, string>> {
+  const res = await request(app).get("/api/v1/bundles").query(query).buffer(true).parse(binaryParser);
+  expect(res.status, res.status !== 200 ? JSON.stringify(res.body) : "").toBe(200);
+  expect(res.headers["content-type"]).toBe("application/zip");
+  return unzip(res.body as Buffer);
+}
+
+describe("bundle contents", () => {
+  it("a filter bundle holds every datapackage resource, CSVs equal to the stored networks and metrics equal to the database", async () => {
+    const files = await download({});
+    const names = [...files.keys()].sort();
+    const dp = JSON.parse(files.get("datapackage.json")!);
+    expect(dp.profile).toBe("tabular-data-package");
+    expect(dp.licenses.map((l: { name: string }) => l.name).sort()).toEqual(["CC-BY-4.0", "CC0-1.0"]);
+    const paths = dp.resources.map((r: { path: string }) => r.path);
+    for (const p of paths) expect(names).toContain(p);
+    for (const r of dp.resources) {
+      expect(r.format).toBe("csv");
+      expect(r.mediatype).toBe("text/csv");
+      expect(r.licenses.length).toBeGreaterThan(0);
+      expect(r.sources.length).toBeGreaterThan(0);
+      // the Table Schema names exactly the CSV's header
+      const header = parseCsv(files.get(r.path)!, { to_line: 1 })[0] as string[];
+      expect(r.schema.fields.map((f: { name: string }) => f.name)).toEqual(header);
+    }
+    expect(names).toEqual(
+      ["CITATIONS.bib", "README.txt", "datapackage.json", "metrics.csv", "networks.csv", ...[...a.networkIds.map((_, i) => `networks/${a.accession}_v1_${i + 1}.csv`), `networks/${b.accession}_v1_1.csv`]].sort(),
+    );
+    // withdrawn: absent everywhere
+    for (const content of files.values()) expect(content).not.toContain(withdrawn.accession);
+
+    // each network CSV parses back to the stored canonical network
+    const stored = await sequelize().query<{ id: number; canonical: unknown; accession: string; position: number; kind: "bipartite" | "unipartite"; directed: boolean }>(
+      `SELECT n.id, n.canonical, d.accession, n.position, n.kind, n.directed FROM networks n JOIN dataset_versions v ON v.id = n.version_id JOIN datasets d ON d.id = v.dataset_id WHERE v.state = 'published'`,
+      { type: QueryTypes.SELECT },
+    );
+    for (const s of stored) {
+      const text = files.get(`networks/${s.accession}_v1_${s.position}.csv`)!;
+      const { network } = parseNetworkText(text, { fileName: "x.csv", kind: s.kind, directed: s.directed });
+      expect(serializeNetwork(network)).toEqual(serializeNetwork(deserializeNetwork(s.canonical)));
+    }
+
+    // metrics.csv equals the database (current runs)
+    const metrics = parseCsv(files.get("metrics.csv")!, { columns: true }) as Array<Record<string, string>>;
+    const db = await sequelize().query<{ accession: string; position: number; n_nodes: number; n_links: number; connectance: number; q: number | null; z: number | null; q_rel: number | null; p: number | null; nodf: number | null }>(
+      `SELECT d.accession, n.position, n.n_nodes, n.n_links, n.connectance, r.q, r.z, r.q_rel, r.p, r.nodf
+       FROM networks n JOIN dataset_versions v ON v.id = n.version_id JOIN datasets d ON d.id = v.dataset_id
+       LEFT JOIN metric_runs r ON r.network_id = n.id AND r.status = 'succeeded'
+       WHERE v.state = 'published' ORDER BY d.accession, n.position`,
+      { type: QueryTypes.SELECT },
+    );
+    expect(metrics.length).toBe(db.length);
+    const num = (s: string) => (s === "" ? null : Number(s));
+    db.forEach((row, i) => {
+      const m = metrics[i];
+      expect([m.accession, Number(m.network)]).toEqual([row.accession, row.position]);
+      expect(Number(m.S)).toBe(row.n_nodes);
+      expect(Number(m.L)).toBe(row.n_links);
+      expect(Number(m.C)).toBeCloseTo(row.connectance, 12);
+      expect(num(m.Q)).toBe(row.q);
+      expect(num(m.z)).toBe(row.z);
+      expect(num(m.Q_rel)).toBe(row.q_rel);
+      expect(num(m.p)).toBe(row.p);
+      expect(num(m.NODF)).toBe(row.nodf);
+    });
+    expect(Object.keys(metrics[0])).toEqual(expect.arrayContaining(["accession", "version", "network", "kind", "S", "I", "J", "L", "C", "Q", "modules", "null_mean", "null_sd", "z", "Q_rel", "p", "NODF", "algorithm", "seed"]));
+
+    // networks.csv: public coordinates only (1° grid for the coastal site)
+    const nets = parseCsv(files.get("networks.csv")!, { columns: true }) as Array<Record<string, string>>;
+    const coast = nets.find((n) => n.accession === b.accession)!;
+    expect([Number(coast.decimal_latitude), Number(coast.decimal_longitude)]).toEqual([58, 11]);
+    expect(files.get("networks.csv")).not.toContain("57.6789");
+
+    expect(files.get("CITATIONS.bib")).toContain(`@misc{${a.accession}-v1`);
+    expect(files.get("README.txt")).toMatch(/Raw Q is not comparable/);
+    expect(files.get("README.txt")).toMatch(/null replicates/);
+  });
+
+  it("a selection bundle holds exactly the chosen networks; a filter bundle only the matching ones", async () => {
+    const files = await download({ refs: `${b.accession}/v1/1,${a.accession}/v1/2` });
+    expect([...files.keys()].filter((n) => n.startsWith("networks/")).sort()).toEqual([`networks/${a.accession}_v1_2.csv`, `networks/${b.accession}_v1_1.csv`].sort());
+    const metrics = parseCsv(files.get("metrics.csv")!, { columns: true }) as Array<Record<string, string>>;
+    expect(metrics.map((m) => `${m.accession}/v${m.version}/${m.network}`)).toEqual([`${b.accession}/v1/1`, `${a.accession}/v1/2`]);
+    const filtered = await download({ interactionType: "seed-dispersal" });
+    expect([...filtered.keys()].filter((n) => n.startsWith("networks/"))).toEqual([`networks/${b.accession}_v1_1.csv`]);
+  });
+
+  it("refuses withdrawn and unknown references, bad references and too many networks", async () => {
+    const res = await request(app).get("/api/v1/bundles").query({ refs: `${withdrawn.accession}/v1/1,TB-999999/v1/1` });
+    expect(res.status).toBe(422);
+    expect(res.body.details).toEqual([
+      { path: "refs/0", message: `${withdrawn.accession}/v1/1 was withdrawn and cannot be bundled.` },
+      { path: "refs/1", message: "TB-999999/v1/1 is not a published network." },
+    ]);
+    const bad = await request(app).get("/api/v1/bundles").query({ refs: "TB-1/v1" });
+    expect(bad.status).toBe(400);
+    expect(bad.body.details[0].path).toBe("refs/0");
+    const many = Array.from({ length: 5001 }, (_, i) => `TB-000001/v1/${i + 1}`);
+    const agent = request.agent(app);
+    const s = await agent.get("/api/v1/auth/session");
+    const big2 = await agent.post("/api/v1/bundles").set("x-csrf-token", s.body.csrfToken).send({ refs: many });
+    expect(big2.status).toBe(413);
+    expect(big2.body.code).toBe("bundle_too_large");
+  });
+
+  it("estimates count and size before download", async () => {
+    const agent = request.agent(app);
+    const s = await agent.get("/api/v1/auth/session");
+    const est = await agent.post("/api/v1/bundles/estimate").set("x-csrf-token", s.body.csrfToken).send({ filter: { country: "NO" } });
+    expect(est.status).toBe(200);
+    expect(est.body.count).toBe(3);
+    const res = await request(app).get("/api/v1/bundles").query({ country: "NO" }).buffer(true).parse(binaryParser);
+    const files = await unzip(res.body as Buffer);
+    let total = 0;
+    for (const c of files.values()) total += Buffer.byteLength(c);
+    // the estimate is of the uncompressed files: within a factor of 3 of the truth on small networks
+    expect(est.body.estimatedBytes).toBeGreaterThan(total / 3);
+    expect(est.body.estimatedBytes).toBeLessThan(total * 3);
+  });
+});
