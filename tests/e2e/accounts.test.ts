@@ -88,7 +88,6 @@ describe("accounts in the browser", () => {
 
     await subject.click();
     await page.getByRole("heading", { name: "Confirm your e-mail address for Tanglebank" }).waitFor();
-    expect(await page.getByText(`To${""}`).count()).toBeGreaterThan(0);
     const link = page.locator("pre a[href*='/verify-email?token=']");
     const href = await link.getAttribute("href");
     expect(href).toMatch(new RegExp(`^${stack.url}/verify-email\\?token=[A-Za-z0-9_-]{40,}$`));
