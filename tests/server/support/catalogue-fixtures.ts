@@ -25,7 +25,7 @@ export async function makeUser(role: "depositor" | "curator" | "admin" = "deposi
     displayName: `Catalogue user ${counter}`,
     role,
     emailVerifiedAt: new Date(),
-  } as Parameters<typeof User.create>[0]);
+  });
 }
 
 export interface FixtureMetrics {
@@ -134,7 +134,7 @@ export async function publishDataset(opts: {
   } else {
     const [[row]] = (await sequelize().query(`SELECT nextval('accession_seq') AS n`)) as [[{ n: string }], unknown];
     accession = `TB-${String(row.n).padStart(6, "0")}`;
-    const ds = await Dataset.create({ ownerId: owner.id, accession } as Parameters<typeof Dataset.create>[0]);
+    const ds = await Dataset.create({ ownerId: owner.id, accession });
     datasetId = ds.id;
   }
   const state = opts.state ?? "published";
@@ -147,14 +147,14 @@ export async function publishDataset(opts: {
     publishedAt: state === "published" || state === "withdrawn" ? new Date() : null,
     withdrawnAt: state === "withdrawn" ? new Date() : null,
     withdrawalReason: state === "withdrawn" ? "Test withdrawal" : null,
-  } as Parameters<typeof DatasetVersion.create>[0]);
+  });
   const networkIds: number[] = [];
   for (let i = 0; i < opts.networks.length; i++) {
     const spec = opts.networks[i];
     const csv = fixtureCsv(spec);
     const bytes = Buffer.from(csv);
     const sha256 = createHash("sha256").update(bytes).update(`${datasetId}/${number}/${i}/${Math.random()}`).digest("hex");
-    const file = await StoredFile.create({ sha256, size: bytes.length, bytes } as Parameters<typeof StoredFile.create>[0]);
+    const file = await StoredFile.create({ sha256, size: bytes.length, bytes });
     const kind = spec.kind ?? "bipartite";
     const { network } = parseNetworkText(csv, { fileName: `n${i + 1}.csv`, kind, directed: kind === "unipartite" });
     const b = basicMetrics(network);
@@ -204,5 +204,5 @@ export async function addRun(networkId: number, m: FixtureMetrics): Promise<Metr
     qRel: m.qRel ?? null,
     p: m.p ?? null,
     nodf: m.nodf ?? null,
-  } as Parameters<typeof MetricRun.create>[0]);
+  });
 }
