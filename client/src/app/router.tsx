@@ -23,7 +23,7 @@ const routes: RouteObject[] = [
       { path: paths.deposit.path, element: <ComingSoon title="Deposit" what="Submit networks with validated metadata." /> },
       { path: paths.myDeposits.path, element: <ComingSoon title="My deposits" what="Your drafts and submissions with their states." /> },
       { path: paths.reviewQueue.path, element: <ComingSoon title="Review queue" what="Submissions awaiting a curator's decision." /> },
-      { path: paths.pipeline.path, element: <ComingSoon title="Metrics pipeline" what="Start and watch metric batches." /> },
+      { path: paths.pipeline.path, lazy: () => import("./routes/admin/pipeline") },
       // accounts
       { path: paths.signIn.path, lazy: () => import("./routes/accounts/sign-in") },
       { path: paths.signUp.path, lazy: () => import("./routes/accounts/sign-up") },

@@ -1,0 +1,12 @@
+/** Query keys of the metrics pipeline feature, general to specific. */
+export const pipelineKeys = {
+  all: ["pipeline"] as const,
+  settings: () => [...pipelineKeys.all, "settings"] as const,
+  batches: () => [...pipelineKeys.all, "batches"] as const,
+  batchList: (page: number) => [...pipelineKeys.batches(), "list", page] as const,
+  currentBatch: () => [...pipelineKeys.batches(), "current"] as const,
+  failures: (batchId: number) => [...pipelineKeys.batches(), batchId, "failures"] as const,
+};
+
+/** While a batch runs, its progress is polled this often. */
+export const PROGRESS_POLL_MS = 2000;

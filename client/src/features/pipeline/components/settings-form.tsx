@@ -1,0 +1,95 @@
+import { useEffect, useState } from "react";
+import { Alert, Button, SelectField, TextField, fieldErrorsOf } from "../../../components/ui/form";
+import type { PipelineSettings } from "../../../../../shared/types/pipeline";
+import { usePipelineSettings } from "../api/get-pipeline-settings";
+import { useStartBatch } from "../api/start-batch";
+import { useUpdatePipelineSettings } from "../api/update-pipeline-settings";
+
+const OBJECTIVES = [
+  { value: "auto", label: "Automatic (Barber for bipartite, Leicht–Newman for directed, Newman–Girvan otherwise)" },
+  { value: "barber", label: "Barber's bipartite modularity" },
+  { value: "newman", label: "Newman–Girvan" },
+  { value: "newman-directed", label: "Leicht–Newman (directed)" },
+];
+const NULL_MODELS = [
+  { value: "auto", label: "Automatic (Patefield for integer counts, Erdős–Rényi otherwise)" },
+  { value: "er", label: "Erdős–Rényi (same size and connectance)" },
+  { value: "curveball", label: "Curveball (fixed degrees)" },
+  { value: "patefield", label: "Patefield (fixed row and column totals)" },
+];
+const ANNEALING = [
+  { value: "auto", label: "Automatic (small networks only)" },
+  { value: "on", label: "Always" },
+  { value: "off", label: "Never" },
+];
+
+/** The pipeline settings: save them as current, or start a batch over every published network with them. */
+export function PipelineSettingsForm({ batchRunning }: { batchRunning: boolean }) {
+  const current = usePipelineSettings();
+  const save = useUpdatePipelineSettings();
+  const start = useStartBatch();
+  const [s, setS] = useState<PipelineSettings | null>(null);
+  const [force, setForce] = useState(false);
+  const [notice, setNotice] = useState<string | null>(null);
+  useEffect(() => {
+    if (current.data && !s) setS(current.data.settings);
+  }, [current.data, s]);
+
+  if (current.error) return <Alert tone="error">{current.error.message}</Alert>;
+  if (!s || !current.data) return <p className="text-stone-700">Loading settings…</p>;
+  const errors = { ...fieldErrorsOf(save.error), ...Object.fromEntries(Object.entries(fieldErrorsOf(start.error)).map(([k, v]) => [k.replace(/^settings\//, ""), v])) };
+  const num = (k: "restarts" | "nulls" | "seed") => (e: React.ChangeEvent<HTMLInputElement>) => setS({ ...s, [k]: e.target.value === "" ? NaN : Number(e.target.value) });
+  const d = current.data.defaults;
+
+  return (
+    <section aria-labelledby="settings-heading" className="rounded-lg bg-white p-6 shadow-sm ring-1 ring-stone-200">
+      <h2 id="settings-heading" className="text-lg font-bold text-moss-700">
+        Settings
+      </h2>
+      <p className="mt-1 text-sm text-stone-700">
+        The catalogue shows, for each network, the result of the current settings. Results of earlier settings are kept. Engine:{" "}
+        <span className="font-mono">{current.data.engineVersion}</span>; settings hash <span className="font-mono">{current.data.settingsHash.slice(0, 12)}</span>.
+      </p>
+      <form
+        className="mt-4 grid gap-4 sm:grid-cols-2"
+        onSubmit={(e) => {
+          e.preventDefault();
+          setNotice(null);
+          const submitter = (e.nativeEvent as SubmitEvent).submitter as HTMLButtonElement | null;
+          if (submitter?.value === "save") {
+            save.mutate(s, { onSuccess: () => setNotice("Settings saved. Start a batch to compute every network with them.") });
+          } else {
+            start.mutate({ settings: s, force }, { onSuccess: (b) => setNotice(`Batch #${b.id} started: ${b.total} networks queued, ${b.skipped} already up to date.`) });
+          }
+        }}
+      >
+        <SelectField label="Modularity objective" name="objective" value={s.objective} options={OBJECTIVES} onChange={(e) => setS({ ...s, objective: e.target.value as PipelineSettings["objective"] })} />
+        <SelectField label="Null model" name="nullModel" value={s.nullModel} options={NULL_MODELS} onChange={(e) => setS({ ...s, nullModel: e.target.value as PipelineSettings["nullModel"] })} />
+        <TextField label="Optimizer restarts" name="restarts" type="number" min={1} max={1000} required value={Number.isNaN(s.restarts) ? "" : s.restarts} onChange={num("restarts")} hint={`Default ${d.restarts}. Null replicates get the same effort.`} error={errors.restarts} />
+        <TextField label="Null replicates" name="nulls" type="number" min={0} max={10000} required value={Number.isNaN(s.nulls) ? "" : s.nulls} onChange={num("nulls")} hint={`Default ${d.nulls}; 0 skips z, Q_rel and p.`} error={errors.nulls} />
+        <TextField label="Seed" name="seed" type="number" min={0} required value={Number.isNaN(s.seed) ? "" : s.seed} onChange={num("seed")} hint="The same seed gives the same results on any machine." error={errors.seed} />
+        <SelectField label="Simulated annealing refinement" name="annealing" value={s.annealing} options={ANNEALING} onChange={(e) => setS({ ...s, annealing: e.target.value as PipelineSettings["annealing"] })} />
+        <div className="sm:col-span-2">
+          <label className="inline-flex items-center gap-2 text-sm text-stone-800">
+            <input type="checkbox" checked={force} onChange={(e) => setForce(e.target.checked)} className="h-4 w-4 accent-moss-700" />
+            Recompute networks that already have a result for these settings
+          </label>
+        </div>
+        <div className="flex flex-wrap gap-3 sm:col-span-2">
+          <Button value="start" busy={start.isPending} disabled={batchRunning}>
+            Recompute all published networks
+          </Button>
+          <Button value="save" variant="secondary" busy={save.isPending}>
+            Save settings only
+          </Button>
+        </div>
+        {batchRunning && <p className="text-sm text-stone-700 sm:col-span-2">A batch is running; start the next one when it has finished.</p>}
+      </form>
+      <div className="mt-4 space-y-2">
+        {notice && <Alert tone="success">{notice}</Alert>}
+        {save.error && <Alert tone="error" title="The settings were not saved">{save.error.message}</Alert>}
+        {start.error && <Alert tone="error" title="The batch was not started">{start.error.message}</Alert>}
+      </div>
+    </section>
+  );
+}
