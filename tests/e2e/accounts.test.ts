@@ -132,7 +132,11 @@ describe("accounts in the browser", () => {
     await page.getByText("Your profile is saved.").waitFor();
     await screenshot(page, "accounts-account-saved");
 
-    // A visitor who opens a lower-role page as depositor sees "Not allowed".
+    // The sign-in page knows who is signed in.
+    await page.goto(stack.url + "/sign-in");
+    await page.getByRole("heading", { name: "You are signed in" }).waitFor();
+
+    // A depositor who opens an admin page sees "Not allowed".
     await page.goto(stack.url + "/admin/users");
     await page.getByRole("heading", { name: "Not allowed" }).waitFor();
 

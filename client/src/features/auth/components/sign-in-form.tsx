@@ -2,6 +2,7 @@ import { Link, useNavigate, useSearchParams } from "react-router-dom";
 import { Alert, Button, fieldErrorsOf, TextField } from "../../../components/ui/form";
 import { paths } from "../../../config/paths";
 import { useSignIn } from "../api/sign-in";
+import { useSession } from "../api/get-session";
 import { safeNext } from "../utils/links";
 import { AuthPanel } from "./auth-panel";
 
@@ -11,6 +12,19 @@ export function SignInForm() {
   const navigate = useNavigate();
   const signIn = useSignIn();
   const errors = fieldErrorsOf(signIn.error);
+  const current = useSession().data?.user;
+  if (current && !signIn.isPending && !signIn.isSuccess) {
+    return (
+      <AuthPanel title="You are signed in">
+        <p className="text-stone-700">
+          You are signed in as <span className="font-semibold">{current.displayName}</span> ({current.email}). To use another account, sign out first.
+        </p>
+        <p className="mt-6">
+          <Link className="rounded bg-moss-700 px-4 py-2 font-semibold text-white hover:bg-moss-600" to={next}>Continue</Link>
+        </p>
+      </AuthPanel>
+    );
+  }
   return (
     <AuthPanel
       title="Sign in"
