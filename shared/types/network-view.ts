@@ -110,3 +110,17 @@ export interface Tombstone {
   reason: string;
   withdrawnAt: string;
 }
+
+/** One catalogue network on the coverage map: `GET /api/v1/network-views/map?<catalogue filters>`. */
+export interface MapPointRow {
+  ref: string;
+  name: string;
+  title: string;
+  interactionType: string;
+  placeName: string | null;
+  countryCode: string | null;
+  /** public (generalised) coordinates */
+  latitude: number;
+  longitude: number;
+  nNodes: number;
+}

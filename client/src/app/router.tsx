@@ -34,6 +34,12 @@ const routes: RouteObject[] = [
       { path: paths.users.path, lazy: () => import("./routes/admin/users") },
       { path: paths.outbox.path, lazy: () => import("./routes/admin/outbox") },
       { path: paths.outboxMessage.path, lazy: () => import("./routes/admin/outbox-message") },
+      // dataset pages, network views, compare, coverage map
+      { path: paths.dataset.path, lazy: () => import("./routes/datasets/dataset") },
+      { path: paths.datasetVersion.path, lazy: () => import("./routes/datasets/dataset") },
+      { path: paths.networkView.path, lazy: () => import("./routes/datasets/network-view") },
+      { path: paths.compare.path, lazy: () => import("./routes/compare") },
+      { path: paths.coverageMap.path, lazy: () => import("./routes/coverage-map") },
       { path: "*", element: <NotFoundPage /> },
     ],
   },

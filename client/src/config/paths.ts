@@ -15,4 +15,10 @@ export const paths = {
   forgotPassword: { path: "/forgot-password", href: () => "/forgot-password" },
   resetPassword: { path: "/reset-password", href: () => "/reset-password" },
   account: { path: "/account", href: () => "/account" },
+  // dataset pages, network views, compare, coverage map
+  dataset: { path: "/datasets/:accession", href: (accession: string) => `/datasets/${accession}` },
+  datasetVersion: { path: "/datasets/:accession/v/:n", href: (accession: string, n: number) => `/datasets/${accession}/v/${n}` },
+  networkView: { path: "/datasets/:accession/v/:n/networks/:pos", href: (accession: string, n: number, pos: number) => `/datasets/${accession}/v/${n}/networks/${pos}` },
+  compare: { path: "/compare", href: (refs?: string[]) => (refs?.length ? `/compare?refs=${refs.join(",")}` : "/compare") },
+  coverageMap: { path: "/map", href: () => "/map" },
 } as const;

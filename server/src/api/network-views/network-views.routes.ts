@@ -6,6 +6,7 @@
  * | route                                         | who                  | answer                           |
  * |-----------------------------------------------|----------------------|----------------------------------|
  * | GET /summaries?refs=TB-…/v1/1,…               | anyone               | NetworkCompareRow[]              |
+ * | GET /map?<catalogue filters>                  | anyone               | MapPointRow[] (public coordinates) |
  * | GET /history/:accession                       | curator              | AuditEntry[]                     |
  * | GET /:accession/:version/:position            | anyone (see above)   | NetworkView                      |
  * | GET /:accession/:version/:position/partition.csv  | anyone (see above) | node,level,module             |
@@ -14,7 +15,7 @@
 import { Router, type Request, type Response, type NextFunction } from "express";
 import { requireRole } from "../../middlewares/require-role";
 import { GoneError } from "./network-views.access";
-import { getCompareRows, getHistory, getNetworkView, partitionCsv, partitionJson } from "./network-views.service";
+import { getCompareRows, getHistory, getMapPoints, getNetworkView, partitionCsv, partitionJson } from "./network-views.service";
 import { parseAccession, parsePosition, parseRefs, parseVersion } from "./network-views.validation";
 
 export const networkViewsRouter = Router();
@@ -25,6 +26,11 @@ async function view(req: Request) {
 
 networkViewsRouter.get("/summaries", async (req, res) => {
   res.json({ data: await getCompareRows(parseRefs(req.query.refs), req.user) });
+});
+
+networkViewsRouter.get("/map", async (req, res) => {
+  res.set("Cache-Control", "no-cache");
+  res.json(await getMapPoints(req.query as Record<string, unknown>));
 });
 
 networkViewsRouter.get("/history/:accession", requireRole("curator"), async (req, res) => {

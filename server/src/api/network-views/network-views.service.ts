@@ -8,12 +8,14 @@
 import type { CanonicalNetworkJson } from "../../../../shared/network/parse/serialize";
 import type { AnalysisResult } from "../../../../shared/network/analyze";
 import type { NetworkMetadata, NetworkMetricsSummary, StudyMetadata } from "../../../../shared/types/dataset";
-import type { AuditEntry, ModuleRow, NetworkCompareRow, NetworkView, RoleRow } from "../../../../shared/types/network-view";
+import type { AuditEntry, MapPointRow, ModuleRow, NetworkCompareRow, NetworkView, RoleRow } from "../../../../shared/types/network-view";
 import { getCurrentMetrics } from "../../jobs/metrics-read";
 import { ApiError } from "../../lib/api-error";
 import { AuditLog, Dataset, MetricRun, Network, StoredFile, User } from "../../models";
 import type { AuthUser } from "../../types";
 import { resolveVersion } from "./network-views.access";
+import { matchCatalogue } from "../catalogue/catalogue.service";
+import { parseCatalogueQuery } from "../catalogue/catalogue.validation";
 import { publicLocality } from "./public-locality";
 
 interface RunResults {
@@ -247,3 +249,29 @@ export async function getHistory(accession: string): Promise<AuditEntry[]> {
   });
 }
 
+
+/**
+ * Every catalogue network matching the catalogue's own filters (the same parser and matcher as
+ * GET /api/v1/catalogue), with its public (generalised) coordinates, for the coverage map. The catalogue
+ * rows do not carry coordinates, and paging through them 200 at a time would be slow for a map.
+ */
+export async function getMapPoints(rawQuery: Record<string, unknown>): Promise<{ data: MapPointRow[]; meta: { total: number; placed: number } }> {
+  const q = parseCatalogueQuery({ ...rawQuery, page: "1", pageSize: "1" });
+  const { matches } = await matchCatalogue(q);
+  const data: MapPointRow[] = [];
+  for (const e of matches) {
+    if (e.latitude === null || e.longitude === null) continue;
+    data.push({
+      ref: e.ref,
+      name: e.name,
+      title: e.title,
+      interactionType: e.interactionType ?? "other",
+      placeName: e.placeName,
+      countryCode: e.countryCode,
+      latitude: e.latitude,
+      longitude: e.longitude,
+      nNodes: e.nNodes,
+    });
+  }
+  return { data, meta: { total: matches.length, placed: data.length } };
+}

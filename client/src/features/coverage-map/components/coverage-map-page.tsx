@@ -1,0 +1,136 @@
+/**
+ * /map — every catalogue network matching the filters in the URL (the catalogue's own parameters) on the
+ * shipped world outline, so that geographic gaps show at a glance.
+ */
+import { useMemo } from "react";
+import { Link, useNavigate, useSearchParams } from "react-router-dom";
+import { paths } from "../../../config/paths";
+import { ChartFigure } from "../../../components/charts/chart-figure";
+import { Legend } from "../../../components/charts/legend";
+import { WorldMap, type MapPoint } from "../../../components/charts/world-map";
+import { interactionTypeColour, interactionTypeLabel } from "../../../components/charts/theme";
+import { useMapPoints } from "../api/get-map-points";
+
+const FILTER_NAMES: Record<string, string> = {
+  q: "search",
+  interactionType: "interaction type",
+  kind: "kind",
+  weighted: "weighted",
+  habitat: "habitat",
+  country: "country",
+  licence: "licence",
+  yearMin: "from year",
+  yearMax: "to year",
+  nodesMin: "min nodes",
+  nodesMax: "max nodes",
+  connectanceMin: "min C",
+  connectanceMax: "max C",
+  qMin: "min Q",
+  qMax: "max Q",
+  zMin: "min z",
+  zMax: "max z",
+};
+
+export function CoverageMapPage() {
+  const [params, setParams] = useSearchParams();
+  const navigate = useNavigate();
+  const filters = useMemo(() => {
+    const p = new URLSearchParams();
+    for (const [k, v] of params) if (k in FILTER_NAMES && v) p.append(k, v);
+    return p;
+  }, [params]);
+  const query = filters.toString();
+  const q = useMapPoints(query);
+  const rows = q.data?.data ?? [];
+  const points: MapPoint[] = rows.map((r) => {
+    const [acc, v, pos] = r.ref.split("/");
+    return {
+      id: r.ref,
+      latitude: r.latitude,
+      longitude: r.longitude,
+      colour: interactionTypeColour[r.interactionType] ?? "#000",
+      title: `${r.ref} ${r.name} — ${r.placeName ?? ""}${r.countryCode ? `, ${r.countryCode}` : ""} (${interactionTypeLabel[r.interactionType] ?? r.interactionType}, ${r.nNodes} nodes)`,
+      href: paths.networkView.href(acc, Number(v.slice(1)), Number(pos)),
+    };
+  });
+  const types = [...new Set(rows.map((r) => r.interactionType))].sort();
+  const byCountry = new Map<string, number>();
+  for (const r of rows) byCountry.set(r.countryCode ?? "—", (byCountry.get(r.countryCode ?? "—") ?? 0) + 1);
+  const lat = { north: rows.filter((r) => r.latitude > 23.5).length, tropics: rows.filter((r) => Math.abs(r.latitude) <= 23.5).length, south: rows.filter((r) => r.latitude < -23.5).length };
+  const current = params.get("interactionType") ?? "";
+
+  return (
+    <div className="space-y-6">
+      <header>
+        <h1 className="text-2xl font-bold text-moss-700">Coverage map</h1>
+        <p className="mt-1 max-w-3xl text-stone-700">Where the catalogue's networks were sampled. Empty regions are gaps in the record. Coordinates of sensitive sites are generalised.</p>
+      </header>
+      <section aria-labelledby="filters-h" className="rounded-lg bg-white p-4 ring-1 ring-stone-200">
+        <h2 id="filters-h" className="font-bold text-moss-700">
+          Filters
+        </h2>
+        <div className="mt-2 flex flex-wrap items-end gap-4">
+          <div>
+            <label htmlFor="map-type" className="block text-sm font-semibold text-stone-800">
+              Interaction type
+            </label>
+            <select
+              id="map-type"
+              className="mt-1 rounded border border-stone-400 px-2 py-1"
+              value={current}
+              onChange={(e) => {
+                const p = new URLSearchParams(params);
+                if (e.target.value) p.set("interactionType", e.target.value);
+                else p.delete("interactionType");
+                setParams(p);
+              }}
+            >
+              <option value="">All types</option>
+              {Object.entries(interactionTypeLabel).map(([k, l]) => (
+                <option key={k} value={k}>
+                  {l}
+                </option>
+              ))}
+            </select>
+          </div>
+          <ul className="flex flex-wrap gap-2 text-sm" aria-label="Active filters">
+            {[...filters].map(([k, v]) => (
+              <li key={`${k}=${v}`} className="rounded-full bg-moss-50 px-3 py-0.5 ring-1 ring-moss-200">
+                {FILTER_NAMES[k]}: {v}
+              </li>
+            ))}
+            {[...filters].length === 0 && <li className="text-stone-700">No filters: the whole catalogue.</li>}
+          </ul>
+          <Link className="text-sm font-semibold text-moss-700 underline" to={`${paths.catalogue.href()}${query ? `?${query}` : ""}`}>
+            Refine these filters in the catalogue
+          </Link>
+        </div>
+      </section>
+      {q.isError && (
+        <p role="alert" className="rounded border border-red-300 bg-red-50 p-3 text-red-900">
+          {q.error.message}
+        </p>
+      )}
+      <ChartFigure
+        id="coverage"
+        title={q.data ? `${q.data.meta.placed} of ${q.data.meta.total} matching networks placed` : "Loading networks…"}
+        caption={
+          q.data
+            ? `${lat.north} networks north of the Tropic of Cancer, ${lat.tropics} in the tropics, ${lat.south} south of the Tropic of Capricorn; by country: ${[...byCountry.entries()]
+                .sort((a, b) => b[1] - a[1])
+                .map(([c, n]) => `${c} ${n}`)
+                .join(", ") || "none"}. Select a point to open its network.`
+            : ""
+        }
+        table={{
+          caption: "Networks on the map",
+          columns: ["network", "place", "country", "latitude", "longitude", "type"],
+          rows: rows.map((r) => [r.ref, r.placeName ?? "", r.countryCode ?? "", r.latitude, r.longitude, interactionTypeLabel[r.interactionType] ?? r.interactionType]),
+        }}
+      >
+        <WorldMap points={points} label={`World map with ${points.length} sampled networks`} onPointActivate={(p) => p.href && navigate(p.href)} />
+        <Legend title="Interaction type" items={types.map((t) => ({ label: interactionTypeLabel[t] ?? t, colour: interactionTypeColour[t] ?? "#000" }))} />
+      </ChartFigure>
+    </div>
+  );
+}

@@ -1,0 +1,159 @@
+/**
+ * The interaction matrix ordered by module on a canvas, module blocks outlined. The image is built in a
+ * Web Worker (utils/matrix.worker.ts) and painted once; `data-rendered="true"` marks the finished drawing
+ * (the benchmark waits for it). Row and column labels are drawn when cells are large enough to read them.
+ */
+import { useEffect, useRef, useState } from "react";
+import type { NetworkView } from "../../../../../shared/types/network-view";
+import type { MatrixImage } from "../utils/matrix-layout";
+import { ChartFigure } from "../../../components/charts/chart-figure";
+import { Legend } from "../../../components/charts/legend";
+import { chartTheme } from "../../../components/charts/theme";
+
+const MAX_W = 960;
+const MAX_H = 720;
+let nextId = 1;
+
+export function MatrixCanvas({ view }: { view: NetworkView }) {
+  const canvasRef = useRef<HTMLCanvasElement>(null);
+  const [img, setImg] = useState<MatrixImage | null>(null);
+  const [error, setError] = useState<string | null>(null);
+  const [hover, setHover] = useState<string>("");
+  const rowLevel = view.metadata.rowLevel ?? (view.kind === "bipartite" ? "rows" : "nodes");
+  const colLevel = view.metadata.colLevel ?? (view.kind === "bipartite" ? "columns" : "nodes");
+  const square = view.kind !== "bipartite";
+  const nRows = view.rowLabels.length;
+  const nCols = view.colLabels.length;
+
+  useEffect(() => {
+    const id = nextId++;
+    const worker = new Worker(new URL("../utils/matrix.worker.ts", import.meta.url), { type: "module" });
+    worker.onmessage = (e: MessageEvent<MatrixImage & { id: number }>) => {
+      if (e.data.id === id) setImg(e.data);
+      worker.terminate();
+    };
+    worker.onerror = (e) => {
+      setError(`The matrix could not be drawn: ${e.message}`);
+      worker.terminate();
+    };
+    worker.postMessage({
+      id,
+      nRows,
+      nCols,
+      ptr: Int32Array.from(view.cells.ptr),
+      idx: Int32Array.from(view.cells.idx),
+      rowModules: view.rowModules ? Int32Array.from(view.rowModules) : null,
+      colModules: view.colModules ? Int32Array.from(view.colModules) : null,
+      square,
+      maxW: MAX_W,
+      maxH: MAX_H,
+    });
+    return () => worker.terminate();
+  }, [view, nRows, nCols, square]);
+
+  const labelled = img !== null && img.cell >= 10;
+  const left = labelled ? 130 : 0;
+  const top = labelled ? 110 : 0;
+
+  useEffect(() => {
+    const canvas = canvasRef.current;
+    if (!img || !canvas) return;
+    canvas.width = img.width + left + 2;
+    canvas.height = img.height + top + 2;
+    const ctx = canvas.getContext("2d")!;
+    ctx.fillStyle = "#ffffff";
+    ctx.fillRect(0, 0, canvas.width, canvas.height);
+    ctx.putImageData(new ImageData(new Uint8ClampedArray(img.pixels), img.width, img.height), left + 1, top + 1);
+    ctx.strokeStyle = "#a8a29e";
+    ctx.lineWidth = 1;
+    ctx.strokeRect(left + 0.5, top + 0.5, img.width + 1, img.height + 1);
+    const sx = img.width / nCols;
+    const sy = img.height / nRows;
+    ctx.strokeStyle = chartTheme.accent;
+    ctx.lineWidth = 2;
+    for (const b of img.blocks) {
+      if (b.rowEnd <= b.rowStart || b.colEnd <= b.colStart) continue;
+      const x0 = left + 1 + Math.floor(b.colStart * sx);
+      const x1 = left + 1 + Math.ceil(b.colEnd * sx);
+      const y0 = top + 1 + Math.floor(b.rowStart * sy);
+      const y1 = top + 1 + Math.ceil(b.rowEnd * sy);
+      ctx.strokeRect(x0, y0, Math.max(1, x1 - x0), Math.max(1, y1 - y0));
+    }
+    if (labelled) {
+      ctx.fillStyle = chartTheme.text;
+      ctx.font = `11px ${chartTheme.font}`;
+      ctx.textAlign = "right";
+      ctx.textBaseline = "middle";
+      img.rowOrder.forEach((orig, pos) => ctx.fillText(view.rowLabels[orig].slice(0, 20), left - 4, top + 1 + (pos + 0.5) * img.cell));
+      ctx.save();
+      ctx.textAlign = "left";
+      img.colOrder.forEach((orig, pos) => {
+        ctx.save();
+        ctx.translate(left + 1 + (pos + 0.5) * img.cell, top - 4);
+        ctx.rotate(-Math.PI / 3);
+        ctx.fillText(view.colLabels[orig].slice(0, 20), 0, 0);
+        ctx.restore();
+      });
+      ctx.restore();
+    }
+    canvas.dataset.rendered = "true";
+  }, [img, left, top, labelled, nCols, nRows, view]);
+
+  function onMove(e: React.MouseEvent<HTMLCanvasElement>) {
+    const canvas = canvasRef.current;
+    if (!img || !canvas) return;
+    const r = canvas.getBoundingClientRect();
+    const px = ((e.clientX - r.left) * canvas.width) / r.width - left - 1;
+    const py = ((e.clientY - r.top) * canvas.height) / r.height - top - 1;
+    if (px < 0 || py < 0 || px >= img.width || py >= img.height) return setHover("");
+    const cp = Math.floor((px / img.width) * nCols);
+    const rp = Math.floor((py / img.height) * nRows);
+    const i = img.rowOrder[rp];
+    const j = img.colOrder[cp];
+    let w = 0;
+    for (let p = view.cells.ptr[i]; p < view.cells.ptr[i + 1]; p++) if (view.cells.idx[p] === j) w = view.cells.w ? view.cells.w[p] : 1;
+    const mod = (m: number[] | null, k: number) => (m ? ` (module ${m[k] + 1})` : "");
+    setHover(`${view.rowLabels[i]}${mod(view.rowModules, i)} × ${view.colLabels[j]}${mod(view.colModules, j)}: ${img.cell ? w : w ? "linked" : "no link here"}${img.cell ? "" : " (one pixel covers several cells)"}`);
+  }
+
+  const nModules = img?.blocks.length ?? 0;
+  const insideShare = img && view.nLinks ? img.insideLinks / (square && !view.directed ? 2 * view.nLinks : view.nLinks) : null;
+  return (
+    <ChartFigure
+      id="matrix"
+      title="Interaction matrix ordered by module"
+      caption={
+        <>
+          {nRows} {rowLevel} (rows) × {nCols} {colLevel} (columns), {view.nLinks} links.{" "}
+          {view.rowModules
+            ? `Rows and columns are sorted by module and then by decreasing degree; the ${nModules} module blocks are outlined in gold. ${insideShare !== null ? `${(insideShare * 100).toFixed(1)} % of links fall inside modules.` : ""}`
+            : "No partition yet: rows and columns are sorted by decreasing degree."}
+          {img && !img.cell && ` The picture is ${img.width} × ${img.height} pixels: each pixel stands for several cells, darker where more of them are filled.`}
+        </>
+      }
+    >
+      {error && <p role="alert" className="text-red-800">{error}</p>}
+      {!img && !error && <p className="text-stone-700">Drawing the matrix…</p>}
+      <div className="overflow-auto">
+        <canvas
+          ref={canvasRef}
+          data-testid="matrix-canvas"
+          role="img"
+          aria-label={`Interaction matrix, ${nRows} by ${nCols}, ordered by module`}
+          className="max-w-full"
+          style={{ imageRendering: img && !img.cell ? "pixelated" : "auto", display: img ? "block" : "none" }}
+          onMouseMove={onMove}
+          onMouseLeave={() => setHover("")}
+        />
+      </div>
+      <p className="mt-1 min-h-5 text-sm text-stone-700">{hover}</p>
+      <Legend
+        items={[
+          { label: "Link inside a module", colour: "#1f4d3a", shape: "square" },
+          { label: "Link between modules", colour: "#78716c", shape: "square" },
+          { label: "Module block", colour: chartTheme.accent, shape: "line" },
+        ]}
+      />
+    </ChartFigure>
+  );
+}
