@@ -60,9 +60,10 @@ async function takeLinkToken(raw: string, purpose: UserTokenPurpose, transaction
   return token;
 }
 
+/** Stores a new confirmation token and hands the mail to SMTP without waiting for it (a slow mail server must not hold up the answer). */
 export async function sendVerificationEmail(user: User): Promise<void> {
   const raw = await issueLinkToken(user.id, "verify-email", VERIFY_TTL_HOURS * 3600 * 1000);
-  await deliver(user.email, accountVerifyEmail({ displayName: user.displayName, url: linkUrl("verify-email", raw), validHours: VERIFY_TTL_HOURS }));
+  void deliver(user.email, accountVerifyEmail({ displayName: user.displayName, url: linkUrl("verify-email", raw), validHours: VERIFY_TTL_HOURS }));
 }
 
 export async function signUp(input: { email: string; displayName: string; password: string }): Promise<User> {
