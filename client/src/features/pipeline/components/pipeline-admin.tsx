@@ -1,5 +1,8 @@
+import { useEffect } from "react";
+import { useQueryClient } from "@tanstack/react-query";
 import { Alert } from "../../../components/ui/form";
 import { useCurrentBatch } from "../api/get-current-batch";
+import { pipelineKeys } from "../api/keys";
 import { BatchHistory } from "./batch-history";
 import { BatchProgressCard } from "./batch-progress";
 import { PipelineSettingsForm } from "./settings-form";
@@ -9,6 +12,12 @@ export function PipelineAdmin() {
   const current = useCurrentBatch();
   const batch = current.data?.batch ?? null;
   const running = batch?.status === "running";
+  const qc = useQueryClient();
+  // When a batch changes state (e.g. finishes), refresh its history row and failures once more.
+  const stateKey = batch ? `${batch.id}:${batch.status}` : "";
+  useEffect(() => {
+    if (stateKey) void qc.invalidateQueries({ queryKey: pipelineKeys.batches(), refetchType: "active", exact: false, predicate: (q) => q.queryKey[2] !== "current" });
+  }, [stateKey, qc]);
   return (
     <div className="space-y-6">
       <div>

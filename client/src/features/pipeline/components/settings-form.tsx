@@ -6,13 +6,13 @@ import { useStartBatch } from "../api/start-batch";
 import { useUpdatePipelineSettings } from "../api/update-pipeline-settings";
 
 const OBJECTIVES = [
-  { value: "auto", label: "Automatic (Barber for bipartite, Leicht–Newman for directed, Newman–Girvan otherwise)" },
+  { value: "auto", label: "Automatic, by network kind" },
   { value: "barber", label: "Barber's bipartite modularity" },
   { value: "newman", label: "Newman–Girvan" },
   { value: "newman-directed", label: "Leicht–Newman (directed)" },
 ];
 const NULL_MODELS = [
-  { value: "auto", label: "Automatic (Patefield for integer counts, Erdős–Rényi otherwise)" },
+  { value: "auto", label: "Automatic, by data type" },
   { value: "er", label: "Erdős–Rényi (same size and connectance)" },
   { value: "curveball", label: "Curveball (fixed degrees)" },
   { value: "patefield", label: "Patefield (fixed row and column totals)" },
@@ -65,6 +65,10 @@ export function PipelineSettingsForm({ batchRunning }: { batchRunning: boolean }
       >
         <SelectField label="Modularity objective" name="objective" value={s.objective} options={OBJECTIVES} onChange={(e) => setS({ ...s, objective: e.target.value as PipelineSettings["objective"] })} />
         <SelectField label="Null model" name="nullModel" value={s.nullModel} options={NULL_MODELS} onChange={(e) => setS({ ...s, nullModel: e.target.value as PipelineSettings["nullModel"] })} />
+        <p className="text-sm text-stone-600 sm:col-span-2">
+          Automatic objective: Barber's bipartite Q for bipartite networks, Leicht–Newman for directed food webs, Newman–Girvan otherwise. Automatic null
+          model: Patefield (fixed totals) for integer interaction counts, Erdős–Rényi (same size and connectance) otherwise.
+        </p>
         <TextField label="Optimizer restarts" name="restarts" type="number" min={1} max={1000} required value={Number.isNaN(s.restarts) ? "" : s.restarts} onChange={num("restarts")} hint={`Default ${d.restarts}. Null replicates get the same effort.`} error={errors.restarts} />
         <TextField label="Null replicates" name="nulls" type="number" min={0} max={10000} required value={Number.isNaN(s.nulls) ? "" : s.nulls} onChange={num("nulls")} hint={`Default ${d.nulls}; 0 skips z, Q_rel and p.`} error={errors.nulls} />
         <TextField label="Seed" name="seed" type="number" min={0} required value={Number.isNaN(s.seed) ? "" : s.seed} onChange={num("seed")} hint="The same seed gives the same results on any machine." error={errors.seed} />
