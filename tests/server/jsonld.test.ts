@@ -79,9 +79,10 @@ describe("dataset page HTML", () => {
     ]);
     expect(html).not.toContain("61.23456");
     const dist = ld.distribution as Array<Record<string, unknown>>;
-    expect(dist).toHaveLength(1);
+    expect(dist).toHaveLength(2);
     expect(dist[0]).toMatchObject({ "@type": "DataDownload", encodingFormat: "text/csv" });
-    expect(String(dist[0].contentUrl)).toContain("TB-000001/v1/1");
+    expect(String(dist[0].contentUrl)).toMatch(/\/api\/v1\/networks\/TB-000001\/v1\/1\/data\.csv$/);
+    expect(String(dist[1].contentUrl)).toMatch(/\/api\/v1\/datasets\/TB-000001\/versions\/1\/networks\/1\/file$/);
 
     expect(html).toContain("<title>Flower visitors of the Verrin Hills meadows (TB-000001 v1) · Tanglebank</title>");
     expect(meta(html!, "property", "og:title")).toBe("Flower visitors of the Verrin Hills meadows (TB-000001 v1) · Tanglebank");
@@ -100,6 +101,12 @@ describe("dataset page HTML", () => {
       expect(ld.name).toBe("Flower visitors of the Verrin Hills meadows");
       // the app itself still loads
       expect(res.text).toContain('<div id="root">');
+    }
+    // the advertised downloads answer
+    const ld = jsonLdBlocks((await request(app).get("/datasets/TB-000001")).text)[0] as { distribution: Array<{ contentUrl: string }> };
+    for (const d of ld.distribution) {
+      const res = await request(app).get(new URL(d.contentUrl).pathname);
+      expect(res.status, d.contentUrl).toBe(200);
     }
   });
 

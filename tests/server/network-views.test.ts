@@ -169,6 +169,22 @@ describe("GET /api/v1/network-views/summaries", () => {
   });
 });
 
+describe("GET /api/v1/network-views/map", () => {
+  it("places every catalogue network matching the catalogue's filters, with generalised coordinates", async () => {
+    const all = await request(app).get("/api/v1/network-views/map");
+    expect(all.status).toBe(200);
+    const refs = all.body.data.map((r: { ref: string }) => r.ref).sort();
+    // published: TB-000001 (v1) and TB-000010; the withdrawn TB-000003 and the draft never appear
+    expect(refs).toEqual(["TB-000001/v1/1", "TB-000010/v1/1"]);
+    expect(all.body.meta).toEqual({ total: 2, placed: 2 });
+    expect(all.body.data[0]).toMatchObject({ latitude: 61.2, longitude: 9, countryCode: "NO", interactionType: "pollination" });
+    const none = await request(app).get("/api/v1/network-views/map").query({ interactionType: "seed-dispersal" });
+    expect(none.body.data).toEqual([]);
+    const bad = await request(app).get("/api/v1/network-views/map").query({ colour: "red" });
+    expect(bad.status).toBe(400);
+  });
+});
+
 describe("GET /api/v1/network-views/history/:accession", () => {
   it("lists the audit log for curators only", async () => {
     expect((await request(app).get("/api/v1/network-views/history/TB-000001")).status).toBe(401);

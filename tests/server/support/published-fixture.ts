@@ -33,6 +33,7 @@ export async function fixtureUser(role: Role = "depositor", displayName?: string
 }
 
 export const DAVIS_CSV = readFileSync(join(process.cwd(), "tests", "fixtures", "davis-southern-women.csv"), "utf8");
+export const KARATE_CSV = readFileSync(join(process.cwd(), "tests", "fixtures", "karate.edgelist.csv"), "utf8");
 
 export interface FixtureNetwork {
   text: string;
@@ -131,14 +132,14 @@ export async function createFixtureDataset(opts: FixtureOptions = {}) {
     const bytes = Buffer.from(spec.text, "utf8");
     const sha256 = createHash("sha256").update(bytes).digest("hex");
     const file = (await StoredFile.findOne({ where: { sha256 } })) ?? (await StoredFile.create({ sha256, size: bytes.length, bytes }));
-    const { network } = parseNetworkText(spec.text, { fileName: spec.fileName ?? "net.csv", kind, directed: spec.directed ?? false });
+    const { network, format } = parseNetworkText(spec.text, { fileName: spec.fileName ?? "net.csv", kind, directed: spec.directed ?? false });
     const b = basicMetrics(network);
     const net = await Network.create({
       versionId: version.id,
       position: k + 1,
       fileId: file.id,
       originalName: spec.fileName ?? "net.csv",
-      format: "matrix",
+      format: format === "edgelist" ? "edgelist" : "matrix",
       kind,
       directed: network.directed,
       weighted: network.weighted,

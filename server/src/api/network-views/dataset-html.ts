@@ -105,14 +105,18 @@ export async function buildDatasetJsonLd(accession: string, versionNumber: numbe
     ...(places.size ? { spatialCoverage: [...places.values()] } : {}),
     ...(start || end ? { temporalCoverage: `${start ?? ".."}/${end ?? ".."}` } : {}),
     ...(md.funding ? { funder: { "@type": "Organization", name: md.funding } } : {}),
-    distribution: networks.map((n) => {
+    distribution: networks.flatMap((n) => {
       const ref = `${accession}/v${version.number}/${n.position}`;
-      return {
-        "@type": "DataDownload",
-        name: `${(n.metadata as unknown as NetworkMetadata).name ?? `Network ${n.position}`} (${ref}), CSV`,
-        encodingFormat: "text/csv",
-        contentUrl: `${base}/api/v1/networks/${ref}?format=csv`,
-      };
+      const name = (n.metadata as unknown as NetworkMetadata).name ?? `Network ${n.position}`;
+      return [
+        { "@type": "DataDownload", name: `${name} (${ref}), matrix CSV`, encodingFormat: "text/csv", contentUrl: `${base}/api/v1/networks/${ref}/data.csv` },
+        {
+          "@type": "DataDownload",
+          name: `${name} (${ref}), original file ${n.originalName}`,
+          encodingFormat: "text/csv",
+          contentUrl: `${base}/api/v1/datasets/${accession}/versions/${version.number}/networks/${n.position}/file`,
+        },
+      ];
     }),
   };
   return { ld, md, version, url, citation };
