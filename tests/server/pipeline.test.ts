@@ -77,11 +77,26 @@ describe("metrics pipeline", () => {
       const run = await MetricRun.findByPk(m.runId!);
       const stored = (run!.results as { analysis: typeof single }).analysis;
       expect({ ...stored, elapsedMs: 0 }).toEqual({ ...single, elapsedMs: 0 });
-      expect(run!.attempts).toBe(1);
+      // One start of the observed job and one of the nulls job.
+      expect(run!.attempts).toBe(2);
     }
     // Publishing again (e.g. a repeated hand-over) does not recompute an existing result.
     await enqueueNetworkMetrics(networkIds);
     expect(await MetricRun.count()).toBe(2);
+  });
+
+  it("computes the observed figures of every queued network before any null replicates", async () => {
+    await setPipelineSettings({ ...LIGHT, nulls: 40 });
+    const { networkIds } = await publishMatrices([3, 4, 5, 6, 7].map((k) => randomMatrix(60 + k, 8 + k, 9, 0.3)));
+    await enqueueNetworkMetrics(networkIds);
+    const runs = await waitFor(async () => {
+      const rs = await MetricRun.findAll({ where: { networkId: networkIds } });
+      return rs.some((r) => r.status === "succeeded") && rs;
+    }, "the first network to finish");
+    // When the first network has its null figures, all five show their observed Q already.
+    expect(runs.filter((r) => r.q !== null)).toHaveLength(5);
+    await waitFor(async () => (await MetricRun.count({ where: { networkId: networkIds, status: "succeeded" } })) === 5, "all five");
+    await setPipelineSettings(LIGHT);
   });
 
   it("a settings change computes a new run and keeps the old one", async () => {

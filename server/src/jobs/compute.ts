@@ -94,9 +94,7 @@ export function combineAnalysis(observed: ObservedResult, nulls: number, nullQs:
       out.null = { model: observed.nullModel, ...summarizeNulls(a.modularity.Q, qs) };
     }
   }
-  // Same key order as analyzeNetwork (null parts after nodf/roles/algorithm).
-  const { elapsedMs: e, ...rest } = out;
-  return { ...rest, elapsedMs: e };
+  return out; // same key order as analyzeNetwork's object (null parts after elapsedMs)
 }
 
 export function runTask(task: MetricsTask): ObservedResult | Array<number | null> {

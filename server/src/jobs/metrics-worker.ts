@@ -8,6 +8,8 @@
  *   3. Observed phase (one task on the thread pool): the analysis without nulls; Q, modules, NODF and
  *      provenance are written to R at once, so pages show the observed figures while nulls are computed.
  *      A retried job reuses stored observed results (they depend only on network, settings and seed).
+ *      The "observed" job ends here and queues the run's "nulls" job at a lower priority, so all queued
+ *      networks get their observed figures before null replicates are computed for any of them.
  *   4. Null phase: replicates 0..n−1 in chunks over the pool's threads; results equal a single-threaded run.
  *   5. One transaction: R locked; if still running, a forced R marks the older success superseded, and R
  *      becomes succeeded with the full analysis (partition, null Qs, roles) and its headline columns. The
@@ -28,11 +30,14 @@ import { sequelize } from "../db/sequelize";
 import { logger } from "../lib/logger";
 import { chunkReplicates, combineAnalysis, type ObservedResult } from "./compute";
 import { closePool, poolThreads, runNulls, runObserved } from "./pool";
-import { getBoss, METRICS_QUEUE, RETRY_LIMIT, sendRunJobs, stopQueue, type MetricsJobData } from "./queue";
+import { getBoss, METRICS_QUEUE, RETRY_LIMIT, sendRunJobs, stopQueue, type MetricsJobData, type MetricsPhase } from "./queue";
 import { validateSettings } from "./settings";
 
-/** Starts of one run (job attempts, including those of killed workers) before it is failed for good. */
-export const MAX_ATTEMPTS = RETRY_LIMIT + 2;
+/**
+ * Job starts of one run (both phases, retries, and starts lost with killed workers) before the sweeper
+ * fails it for good.
+ */
+export const MAX_ATTEMPTS = 2 * (RETRY_LIMIT + 1) + 2;
 
 interface RunState {
   id: number;
@@ -83,8 +88,11 @@ function errorMessage(err: unknown): string {
   return String(err);
 }
 
-/** Computes one run (steps 1–5 above). Throws when the computation fails. */
-export async function processRun(runId: number): Promise<void> {
+/**
+ * Computes one run (steps 1–5 above). With phase "observed", stops after step 3 and queues the run's
+ * "nulls" job (lower priority) when null replicates remain. Throws when the computation fails.
+ */
+export async function processRun(runId: number, phase: MetricsPhase = "nulls"): Promise<void> {
   const run = await loadRun(runId);
   if (!run || !["queued", "running"].includes(run.status)) return;
   const hash = run.settings_hash.trim();
@@ -145,8 +153,13 @@ export async function processRun(runId: number): Promise<void> {
     );
   }
 
+  const needsNulls = settings.nulls > 0 && observed.analysis.modularity.Q !== null;
+  if (phase === "observed" && needsNulls) {
+    await sendRunJobs([{ id: run.id, networkId: run.network_id, settingsHash: hash, phase: "nulls" }]);
+    return;
+  }
   let nullQs: Array<number | null> = [];
-  if (settings.nulls > 0 && observed.analysis.modularity.Q !== null) {
+  if (needsNulls) {
     // About four chunks per thread: short tasks keep every thread busy until the end of the job.
     const chunks = chunkReplicates(settings.nulls, poolThreads() * 4);
     const parts = await Promise.all(
@@ -223,7 +236,7 @@ export async function handleJob(job: PgBoss.JobWithMetadata<MetricsJobData>): Pr
   const runId = Number(job.data?.runId);
   if (!Number.isInteger(runId)) return;
   try {
-    await processRun(runId);
+    await processRun(runId, job.data.phase === "observed" ? "observed" : "nulls");
   } catch (err) {
     const message = errorMessage(err);
     const run = await loadRun(runId);
@@ -239,8 +252,8 @@ export async function handleJob(job: PgBoss.JobWithMetadata<MetricsJobData>): Pr
  * up): re-sent, or failed for good after MAX_ATTEMPTS starts.
  */
 export async function sweepOrphanRuns(): Promise<{ resent: number; failed: number }> {
-  const orphans = await sequelize().query<{ id: number; network_id: number; settings_hash: string; attempts: number }>(
-    `SELECT r.id, r.network_id, r.settings_hash, r.attempts FROM metric_runs r
+  const orphans = await sequelize().query<{ id: number; network_id: number; settings_hash: string; attempts: number; observed: boolean }>(
+    `SELECT r.id, r.network_id, r.settings_hash, r.attempts, (r.results->>'phase' = 'observed') IS TRUE AS observed FROM metric_runs r
       WHERE r.status IN ('queued', 'running')
         AND NOT EXISTS (SELECT 1 FROM pgboss.job j WHERE j.name = :queue AND j.state IN ('created', 'retry', 'active')
                           AND (j.data->>'runId')::int = r.id)
@@ -248,12 +261,12 @@ export async function sweepOrphanRuns(): Promise<{ resent: number; failed: numbe
     { replacements: { queue: METRICS_QUEUE }, type: QueryTypes.SELECT },
   );
   let failed = 0;
-  const resend: Array<{ id: number; networkId: number; settingsHash: string }> = [];
+  const resend: Array<{ id: number; networkId: number; settingsHash: string; phase: MetricsPhase }> = [];
   for (const r of orphans) {
     if (r.attempts >= MAX_ATTEMPTS) {
       await markRunFailed(r.id, `the job was started ${r.attempts} times and never finished (worker stopped or timed out)`);
       failed++;
-    } else resend.push({ id: r.id, networkId: r.network_id, settingsHash: r.settings_hash });
+    } else resend.push({ id: r.id, networkId: r.network_id, settingsHash: r.settings_hash, phase: r.observed ? "nulls" : "observed" });
   }
   await sendRunJobs(resend);
   return { resent: resend.length, failed };

@@ -15,9 +15,19 @@ import { logger } from "../lib/logger";
 export const METRICS_QUEUE = "network-metrics";
 export const RETRY_LIMIT = 2;
 
+/**
+ * "observed": compute the observed figures, write them, then queue the "nulls" job of the same run.
+ * "nulls": compute the null replicates (and the observed figures first, if missing) and finish the run.
+ * Observed jobs have the higher priority, so every queued network shows S, L, C and Q before any null
+ * replicates are computed (a newcomer's first `npm start` shows the observed figures within a minute).
+ */
+export type MetricsPhase = "observed" | "nulls";
 export interface MetricsJobData {
   runId: number;
+  phase?: MetricsPhase;
 }
+
+export const PHASE_PRIORITY: Record<MetricsPhase, number> = { observed: 10, nulls: 0 };
 
 function envInt(name: string, fallback: number): number {
   const n = Number(process.env[name]);
@@ -63,12 +73,17 @@ export function singletonKey(networkId: number, hash: string): string {
 }
 
 /** Sends one job per run (duplicates of a waiting job with the same key are dropped by the queue). */
-export async function sendRunJobs(runs: Array<{ id: number; networkId: number; settingsHash: string }>): Promise<void> {
+export async function sendRunJobs(runs: Array<{ id: number; networkId: number; settingsHash: string; phase?: MetricsPhase }>): Promise<void> {
   if (!runs.length) return;
   const b = await getBoss();
   const opts = jobOptions();
   for (const r of runs) {
-    await b.send(METRICS_QUEUE, { runId: r.id } satisfies MetricsJobData, { ...opts, singletonKey: singletonKey(r.networkId, r.settingsHash) });
+    const phase = r.phase ?? "observed";
+    await b.send(METRICS_QUEUE, { runId: r.id, phase } satisfies MetricsJobData, {
+      ...opts,
+      priority: PHASE_PRIORITY[phase],
+      singletonKey: singletonKey(r.networkId, r.settingsHash),
+    });
   }
 }
 
