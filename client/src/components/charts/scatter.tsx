@@ -57,7 +57,7 @@ export const Scatter = forwardRef<SVGSVGElement, ScatterProps>(function Scatter(
   const [x0, x1] = x.range();
   const [y0, y1] = y.range();
   return (
-    <svg ref={ref} xmlns="http://www.w3.org/2000/svg" viewBox={`0 0 ${width} ${height}`} className="h-auto w-full" role="img" aria-label={label}>
+    <svg ref={ref} xmlns="http://www.w3.org/2000/svg" viewBox={`0 0 ${width} ${height}`} className="h-auto w-full" role={focusable ? "group" : "img"} aria-label={label}>
       {title && <title>{title}</title>}
       <rect x={0} y={0} width={width} height={height} fill="#ffffff" />
       <GridY scale={y} x0={x0} x1={x1} />

@@ -45,12 +45,14 @@ export function WorldMap({ points, width = 960, label, radius = 4, onPointActiva
     };
   }, []);
   const height = Math.round(width * 0.487);
+  // with links inside, the map is a group of links (an image may not contain interactive parts)
+  const interactive = points.some((p) => p.href) || !!onPointActivate;
   const { path, projection } = useMemo(() => {
     const projection = geoEqualEarth().fitSize([width, height], { type: "Sphere" });
     return { projection, path: geoPath(projection) };
   }, [width, height]);
   return (
-    <svg viewBox={`0 0 ${width} ${height}`} className="h-auto w-full" role="img" aria-label={label} data-map-ready={outline ? "true" : "false"}>
+    <svg viewBox={`0 0 ${width} ${height}`} className="h-auto w-full" role={interactive ? "group" : "img"} aria-label={label} data-map-ready={outline ? "true" : "false"}>
       <path d={path({ type: "Sphere" }) ?? ""} fill="#eaf2f7" stroke="#a8a29e" />
       <path d={path(geoGraticule10()) ?? ""} fill="none" stroke="#d6d3d1" strokeWidth={0.5} />
       {outline && (

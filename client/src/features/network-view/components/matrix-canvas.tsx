@@ -3,7 +3,7 @@
  * Web Worker (utils/matrix.worker.ts) and painted once; `data-rendered="true"` marks the finished drawing
  * (the benchmark waits for it). Row and column labels are drawn when cells are large enough to read them.
  */
-import { useEffect, useRef, useState } from "react";
+import { useEffect, useMemo, useRef, useState } from "react";
 import type { NetworkView } from "../../../../../shared/types/network-view";
 import type { MatrixImage } from "../utils/matrix-layout";
 import { ChartFigure } from "../../../components/charts/chart-figure";
@@ -52,8 +52,15 @@ export function MatrixCanvas({ view }: { view: NetworkView }) {
   }, [view, nRows, nCols, square]);
 
   const labelled = img !== null && img.cell >= 10;
-  const left = labelled ? 130 : 0;
-  const top = labelled ? 110 : 0;
+  // margins fit the longest (cut to 20 characters) row label and the rotated column labels
+  const { left, top } = useMemo(() => {
+    if (!labelled) return { left: 0, top: 0 };
+    const ctx = document.createElement("canvas").getContext("2d");
+    if (!ctx) return { left: 130, top: 110 };
+    ctx.font = `11px ${chartTheme.font}`;
+    const widest = (labels: string[]) => labels.reduce((w, l) => Math.max(w, ctx.measureText(l.slice(0, 20)).width), 0);
+    return { left: Math.ceil(widest(view.rowLabels)) + 10, top: Math.ceil(widest(view.colLabels) * Math.sin(Math.PI / 3)) + 12 };
+  }, [labelled, view]);
 
   useEffect(() => {
     const canvas = canvasRef.current;

@@ -1,0 +1,194 @@
+/**
+ * Browser journey over the public pages of published data: a dataset page (citation, locator map, networks,
+ * versions, newer-version notice), a network view with each plot (matrix, null histogram, roles), the
+ * compare view (Q/z toggle, CSV and SVG export), the coverage map and a withdrawn dataset's tombstone.
+ * Screenshots go to test-artifacts/screenshots; axe must find no serious or critical violation.
+ * Data: Davis Southern Women and Zachary's karate club (tests/fixtures/README.md); metadata invented.
+ */
+import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { readFileSync } from "node:fs";
+import { AxeBuilder } from "@axe-core/playwright";
+import type { Page } from "playwright-core";
+import { startStack, type TestStack } from "../server/support/stack";
+import { openBrowser, screenshot, signInViaApi, type BrowserSession } from "./support/browser";
+import { resetDatabase } from "../setup/db";
+import { createFixtureDataset, DAVIS_CSV, KARATE_CSV, fixtureUser, FIXTURE_PASSWORD } from "../server/support/published-fixture";
+
+let stack: TestStack;
+let browser: BrowserSession;
+let curatorEmail: string;
+
+async function axeCheck(page: Page) {
+  const axe = await new AxeBuilder({ page }).withTags(["wcag2a", "wcag2aa"]).analyze();
+  const bad = axe.violations.filter((v) => v.impact === "serious" || v.impact === "critical");
+  expect(bad.map((v) => `${v.id}: ${v.nodes.map((n) => n.target.join(" ")).join(", ")}`)).toEqual([]);
+}
+
+beforeAll(async () => {
+  await resetDatabase();
+  stack = await startStack();
+  const first = await createFixtureDataset({
+    accession: "TB-000001",
+    networks: [
+      { text: DAVIS_CSV, fileName: "upper-meadow.csv" },
+      {
+        text: KARATE_CSV,
+        fileName: "club.csv",
+        kind: "unipartite",
+        metadata: { name: "Lower meadow (one-mode)", interactionType: "other", rowLevel: undefined, colLevel: undefined },
+      },
+    ],
+  });
+  await createFixtureDataset({
+    dataset: first.dataset,
+    owner: first.owner,
+    number: 2,
+    publishedAt: new Date("2025-09-01T10:00:00Z"),
+    study: { description: "Second version with corrected plant names (invented demo data). Plant–pollinator interactions in upland meadows." },
+    networks: [{ text: DAVIS_CSV, fileName: "upper-meadow.csv" }],
+  });
+  await createFixtureDataset({
+    accession: "TB-000002",
+    study: { title: "Fruit eaters of the Tallow Coast", creators: [{ name: "Ines Okafor" }], licence: "CC0-1.0" },
+    networks: [
+      {
+        text: DAVIS_CSV,
+        fileName: "coast.csv",
+        metadata: {
+          name: "Coastal scrub",
+          interactionType: "seed-dispersal",
+          rowLevel: "plants",
+          colLevel: "frugivores",
+          locality: { placeName: "Tallow Coast", countryCode: "CL", decimalLatitude: -41.47, decimalLongitude: -72.94, generalisation: "0.1" },
+        },
+      },
+    ],
+  });
+  await createFixtureDataset({ accession: "TB-000003", state: "withdrawn", withdrawalReason: "The depositor found duplicated transects." });
+  curatorEmail = (await fixtureUser("curator", "Curator Brand")).email;
+  browser = await openBrowser();
+});
+afterAll(async () => {
+  await browser?.close();
+  await stack?.stop();
+});
+
+describe("dataset pages", () => {
+  it("shows a dataset page with citation, networks, locator map and versions; keyboard downloads BibTeX", async () => {
+    const { page } = browser;
+    await page.goto(`${stack.url}/datasets/TB-000001`);
+    await page.getByRole("heading", { level: 1, name: "Flower visitors of the Verrin Hills meadows" }).waitFor();
+    await page.getByText("TB-000001 · version 2").waitFor();
+    await page.locator('svg[data-map-ready="true"]').waitFor();
+    expect(await page.getByTestId("citation-text").textContent()).toMatch(/^Hale R, Okafor I \(2025\) Flower visitors of the Verrin Hills meadows\. Version 2\. Tanglebank\. TB-000001\./);
+    expect(await page.getByRole("link", { name: /ORCID 0000-0002-1825-0097/ }).getAttribute("href")).toBe("https://orcid.org/0000-0002-1825-0097");
+    expect(await page.getByRole("link", { name: "doi:10.5555/tb.demo.1" }).getAttribute("href")).toBe("https://doi.org/10.5555/tb.demo.1");
+    await page.getByText("61.2° N, 9° E").first().waitFor();
+    await screenshot(page, "dataset-page");
+    await axeCheck(page);
+
+    // keyboard: focus the BibTeX button and press Enter
+    const bib = page.getByRole("button", { name: "Download BibTeX" });
+    await bib.focus();
+    const [download] = await Promise.all([page.waitForEvent("download"), page.keyboard.press("Enter")]);
+    expect(download.suggestedFilename()).toBe("TB-000001-v2.bib");
+    const text = readFileSync((await download.path())!, "utf8");
+    expect(text).toMatch(/^@misc\{TB-000001-v2,/);
+  });
+
+  it("tells readers of an old version that a newer one exists, and shows curators the audit history", async () => {
+    const { page } = browser;
+    await page.goto(`${stack.url}/datasets/TB-000001/v/1`);
+    await page.getByRole("note").getByText("A newer version of this dataset exists").waitFor();
+    await page.getByRole("heading", { name: /Networks \(2\)/ }).waitFor();
+    expect(await page.getByRole("heading", { name: /Audit history/ }).count()).toBe(0);
+    await signInViaApi(page, stack.url, curatorEmail, FIXTURE_PASSWORD);
+    await page.goto(`${stack.url}/datasets/TB-000001/v/1`);
+    await page.getByRole("heading", { name: /Audit history/ }).waitFor();
+    await page.getByRole("cell", { name: "version.submitted" }).first().waitFor();
+    await screenshot(page, "dataset-page-old-version-curator");
+    await axeCheck(page);
+    await page.request.post(`${stack.url}/api/v1/auth/sign-out`, {
+      headers: { "x-csrf-token": ((await (await page.request.get(`${stack.url}/api/v1/auth/session`)).json()) as { csrfToken: string }).csrfToken },
+    });
+  });
+
+  it("shows a tombstone for a withdrawn dataset", async () => {
+    const { page } = browser;
+    await page.goto(`${stack.url}/datasets/TB-000003`);
+    await page.getByRole("heading", { name: "TB-000003 was withdrawn" }).waitFor();
+    await page.getByText("The depositor found duplicated transects.").waitFor();
+    await screenshot(page, "dataset-tombstone");
+    await axeCheck(page);
+  });
+});
+
+describe("network view", () => {
+  it("draws the matrix ordered by module, the null histogram with the observed Q and the roles plot", async () => {
+    const { page } = browser;
+    await page.goto(`${stack.url}/datasets/TB-000001/v/2/networks/1`);
+    await page.getByRole("heading", { level: 1, name: "Upper meadow" }).waitFor();
+    await page.locator('canvas[data-rendered="true"]').waitFor();
+    // the canvas really holds ink: some pixels are moss-coloured (links inside modules)
+    const inked = await page.evaluate(() => {
+      const c = document.querySelector("canvas") as HTMLCanvasElement;
+      const d = c.getContext("2d")!.getImageData(0, 0, c.width, c.height).data;
+      let moss = 0;
+      for (let k = 0; k < d.length; k += 4) if (d[k] === 31 && d[k + 1] === 77 && d[k + 2] === 58) moss++;
+      return moss;
+    });
+    expect(inked).toBeGreaterThan(100);
+    await page.getByRole("img", { name: /Histogram of 30 null modularity values/ }).waitFor();
+    await page.getByRole("img", { name: /Roles plot of \d+ nodes/ }).waitFor();
+    await page.getByText("Barber's bipartite modularity Q_B").waitFor();
+    await page.getByText(/compare networks by z or Q/).first().waitFor();
+    await page.getByRole("heading", { name: "Modules" }).waitFor();
+    expect(await page.getByRole("link", { name: "Partition (CSV)" }).getAttribute("href")).toBe("/api/v1/network-views/TB-000001/v2/1/partition.csv");
+    await screenshot(page, "network-view");
+    await axeCheck(page);
+  });
+
+  it("draws a one-mode network too", async () => {
+    const { page } = browser;
+    await page.goto(`${stack.url}/datasets/TB-000001/v/1/networks/2`);
+    await page.locator('canvas[data-rendered="true"]').waitFor();
+    await page.getByText("Newman–Girvan modularity Q").waitFor();
+    await screenshot(page, "network-view-one-mode");
+  });
+});
+
+describe("compare view and coverage map", () => {
+  it("plots networks side by side, toggles Q/z by keyboard and exports CSV and SVG", async () => {
+    const { page } = browser;
+    await page.goto(`${stack.url}/compare?refs=TB-000001/v2/1,TB-000001/v1/2,TB-000002/v1/1`);
+    await page.getByRole("group", { name: "Scatter plot of Q against connectance" }).waitFor();
+    await page.getByRole("group", { name: "Scatter plot of Q against network size" }).waitFor();
+    expect(await page.locator("svg circle[tabindex='0']").count()).toBe(6);
+    await screenshot(page, "compare-q");
+    await axeCheck(page);
+    await page.getByRole("radio", { name: /z-score/ }).focus();
+    await page.keyboard.press("Space");
+    await page.getByRole("group", { name: "Scatter plot of z against connectance" }).waitFor();
+    const [csv] = await Promise.all([page.waitForEvent("download"), page.getByRole("button", { name: "Export table (CSV)" }).click()]);
+    const csvText = readFileSync((await csv.path())!, "utf8");
+    expect(csvText.split("\r\n")[0]).toMatch(/^ref,dataset,network,interaction_type/);
+    expect(csvText.trim().split("\r\n")).toHaveLength(4);
+    const [svg] = await Promise.all([page.waitForEvent("download"), page.getByRole("button", { name: "Export chart vs C (SVG)" }).click()]);
+    const svgText = readFileSync((await svg.path())!, "utf8");
+    expect(svgText).toMatch(/^<\?xml[^>]*>\n<svg[^>]*xmlns="http:\/\/www\.w3\.org\/2000\/svg"/);
+    expect((svgText.match(/<circle/g) ?? []).length).toBe(3);
+    await screenshot(page, "compare-z");
+    await axeCheck(page);
+  });
+
+  it("places catalogue networks on the world outline", async () => {
+    const { page } = browser;
+    await page.goto(`${stack.url}/map`);
+    await page.locator('svg[data-map-ready="true"]').waitFor();
+    await page.getByRole("heading", { name: /2 of 2 matching networks placed/ }).waitFor();
+    await screenshot(page, "coverage-map");
+    await axeCheck(page);
+    await page.goto(`${stack.url}/map?interactionType=seed-dispersal`);
+    await page.getByRole("heading", { name: /1 of 1 matching networks placed/ }).waitFor();
+  });
+});
