@@ -20,9 +20,12 @@ const routes: RouteObject[] = [
       { path: paths.home.path, element: <HomePage /> },
       // --- feature routes (keep one entry per line group, sorted by feature) ---
       { path: paths.catalogue.path, element: <ComingSoon title="Catalogue" what="Search and filter published networks and download bundles." /> },
-      { path: paths.deposit.path, element: <ComingSoon title="Deposit" what="Submit networks with validated metadata." /> },
-      { path: paths.myDeposits.path, element: <ComingSoon title="My deposits" what="Your drafts and submissions with their states." /> },
-      { path: paths.reviewQueue.path, element: <ComingSoon title="Review queue" what="Submissions awaiting a curator's decision." /> },
+      // deposit and curation
+      { path: paths.deposit.path, lazy: () => import("./routes/deposit/deposit") },
+      { path: paths.depositResume.path, lazy: () => import("./routes/deposit/deposit") },
+      { path: paths.myDeposits.path, lazy: () => import("./routes/deposit/my-deposits") },
+      { path: paths.reviewQueue.path, lazy: () => import("./routes/review/queue") },
+      { path: paths.review.path, lazy: () => import("./routes/review/review") },
       { path: paths.pipeline.path, lazy: () => import("./routes/admin/pipeline") },
       // accounts
       { path: paths.signIn.path, lazy: () => import("./routes/accounts/sign-in") },

@@ -1,0 +1,12 @@
+import { useParams } from "react-router-dom";
+import { ReviewPage } from "../../../features/review/components/review-page";
+import { RequireUser } from "../deposit/require-user";
+
+export function Component() {
+  const { versionId } = useParams();
+  return (
+    <RequireUser min="curator">
+      <ReviewPage key={versionId} versionId={Number(versionId)} />
+    </RequireUser>
+  );
+}

@@ -1,0 +1,39 @@
+/**
+ * The deposit's write endpoints (one function each) and a hook that runs one and refreshes the caches.
+ * POST /deposits, PUT /deposits/:id/metadata, POST /deposits/:id/networks (multipart), PATCH and DELETE
+ * /deposits/:id/networks/:nid, PUT /deposits/:id/networks/order, POST /deposits/:id/submit,
+ * DELETE /deposits/:id, POST /datasets/:accession/versions.
+ */
+import { useMutation, useQueryClient } from "@tanstack/react-query";
+import { apiFetch } from "../../../lib/api-client";
+import { depositKeys, type DepositDetail } from "./types";
+
+export const createDeposit = (metadata: unknown) => apiFetch<DepositDetail>("/deposits", { method: "POST", json: { metadata } });
+export const updateStudyMetadata = (id: number, metadata: unknown) => apiFetch<DepositDetail>(`/deposits/${id}/metadata`, { method: "PUT", json: { metadata } });
+export const uploadNetworks = (id: number, files: File[], opts: { kind: string; directed: boolean }) => {
+  const form = new FormData();
+  form.set("kind", opts.kind);
+  form.set("directed", String(opts.directed));
+  for (const f of files) form.append("files", f, f.name);
+  return apiFetch<{ networks: Array<{ id: number; position: number; originalName: string }>; deposit: DepositDetail }>(`/deposits/${id}/networks`, { method: "POST", body: form });
+};
+export const updateNetwork = (id: number, networkId: number, changes: { metadata?: unknown; kind?: string; directed?: boolean }) =>
+  apiFetch<DepositDetail>(`/deposits/${id}/networks/${networkId}`, { method: "PATCH", json: changes });
+export const deleteNetwork = (id: number, networkId: number) => apiFetch<DepositDetail>(`/deposits/${id}/networks/${networkId}`, { method: "DELETE" });
+export const reorderNetworks = (id: number, order: number[]) => apiFetch<DepositDetail>(`/deposits/${id}/networks/order`, { method: "PUT", json: { order } });
+export const submitDeposit = (id: number) => apiFetch<DepositDetail>(`/deposits/${id}/submit`, { method: "POST", json: {} });
+export const deleteDeposit = (id: number) => apiFetch<void>(`/deposits/${id}`, { method: "DELETE" });
+export const startNewVersion = (accession: string) => apiFetch<DepositDetail>(`/datasets/${encodeURIComponent(accession)}/versions`, { method: "POST", json: {} });
+
+/** Runs a deposit write; the returned detail replaces the cached one; the list is refreshed. */
+export function useDepositMutation<A>(fn: (a: A) => Promise<DepositDetail | { deposit: DepositDetail } | void>) {
+  const qc = useQueryClient();
+  return useMutation({
+    mutationFn: fn,
+    onSuccess: (res) => {
+      const d = res && "deposit" in res ? res.deposit : (res as DepositDetail | undefined);
+      if (d && "versionId" in d) qc.setQueryData(depositKeys.detail(d.versionId), d);
+      void qc.invalidateQueries({ queryKey: depositKeys.lists() });
+    },
+  });
+}

@@ -1,0 +1,85 @@
+/** One uploaded network of a deposit: summary, matrix picture, warnings, metadata form, order and delete. */
+import { useEffect, useState } from "react";
+import type { NetworkSummary } from "../../../../../shared/types/dataset";
+import { MatrixPreview, matrixFromCanonical } from "../../../components/network/matrix-preview";
+import { NetworkForm, type NetworkDraft } from "../../../components/metadata/network-form";
+import { networkErrors, prune, visibleErrors } from "../../../components/metadata/validate";
+import { Alert, Button } from "../../../components/ui/form";
+import { useNetworkCanonical } from "../api/get-network-canonical";
+import { deleteNetwork, updateNetwork, useDepositMutation } from "../api/mutations";
+
+export function NetworkSummaryLine({ n }: { n: NetworkSummary }) {
+  return (
+    <p className="text-sm text-stone-700">
+      {n.originalName} · {n.format === "matrix" ? "matrix" : "edge list"} · {n.kind}
+      {n.directed ? ", directed" : ""} · {n.nRows !== null ? `${n.nRows} × ${n.nCols}` : `${n.nNodes} nodes`} · {n.nLinks} links · connectance {n.connectance === null ? "—" : n.connectance.toFixed(3)}
+      {n.weighted ? " · weighted" : ""}
+    </p>
+  );
+}
+
+export function NetworkPicture({ versionId, n }: { versionId: number; n: NetworkSummary }) {
+  const { data } = useNetworkCanonical(versionId, n.id);
+  if (!data) return <div className="h-[120px] w-[120px] animate-pulse rounded bg-stone-100" aria-hidden="true" />;
+  return <MatrixPreview matrix={matrixFromCanonical(data)} label={`Matrix picture of network ${n.position}, ${n.originalName}`} size={120} />;
+}
+
+export function NetworkCard({ versionId, n, count, editable, showAll, onMove }: { versionId: number; n: NetworkSummary; count: number; editable: boolean; showAll: boolean; onMove: (dir: -1 | 1) => void }) {
+  const [draft, setDraft] = useState<NetworkDraft>(n.metadata as NetworkDraft);
+  const [saved, setSaved] = useState(false);
+  useEffect(() => setDraft(n.metadata as NetworkDraft), [n.id, n.metadata]);
+  const save = useDepositMutation((meta: unknown) => updateNetwork(versionId, n.id, { metadata: meta }));
+  const del = useDepositMutation(() => deleteNetwork(versionId, n.id));
+  const errors = visibleErrors(networkErrors(draft, { kind: n.kind, directed: n.directed }), draft, showAll);
+  return (
+    <li className="rounded-lg bg-white p-5 shadow-sm ring-1 ring-stone-200">
+      <div className="flex flex-wrap items-start gap-4">
+        <NetworkPicture versionId={versionId} n={n} />
+        <div className="min-w-0 flex-1">
+          <h3 className="text-lg font-bold text-moss-700">
+            Network {n.position}: {draft.name || n.originalName}
+          </h3>
+          <NetworkSummaryLine n={n} />
+          {n.warnings.length > 0 && (
+            <ul className="mt-1 list-disc pl-5 text-sm text-stone-800">
+              {n.warnings.map((w, i) => (
+                <li key={i}>Warning: {w.message}</li>
+              ))}
+            </ul>
+          )}
+        </div>
+        {editable && (
+          <div className="flex gap-2">
+            <button type="button" disabled={n.position === 1} onClick={() => onMove(-1)} className="rounded border border-stone-400 px-2 py-1 text-sm disabled:opacity-40">
+              Move up<span className="sr-only"> network {n.position}</span>
+            </button>
+            <button type="button" disabled={n.position === count} onClick={() => onMove(1)} className="rounded border border-stone-400 px-2 py-1 text-sm disabled:opacity-40">
+              Move down<span className="sr-only"> network {n.position}</span>
+            </button>
+            <button type="button" onClick={() => { if (window.confirm(`Remove network ${n.position} (${n.originalName}) from this deposit?`)) del.mutate(undefined); }} className="rounded border border-red-800 px-2 py-1 text-sm text-red-800">
+              Remove<span className="sr-only"> network {n.position}</span>
+            </button>
+          </div>
+        )}
+      </div>
+      <form
+        className="mt-4"
+        aria-label={`Metadata of network ${n.position}`}
+        onSubmit={(e) => {
+          e.preventDefault();
+          setSaved(false);
+          save.mutate(prune(draft), { onSuccess: () => setSaved(true) });
+        }}
+      >
+        <NetworkForm value={draft} onChange={(v) => { setDraft(v); setSaved(false); }} errors={errors} kind={n.kind} directed={n.directed} disabled={!editable} />
+        {editable && (
+          <div className="mt-4 flex items-center gap-3">
+            <Button busy={save.isPending}>Save network {n.position}</Button>
+            {saved && <span role="status" className="text-sm font-semibold text-moss-700">Saved.</span>}
+          </div>
+        )}
+        {save.error && <div className="mt-3"><Alert tone="error" title={save.error.message} /></div>}
+      </form>
+    </li>
+  );
+}
