@@ -11,3 +11,5 @@ export const shutdownTasks: ShutdownTask[] = [];
 import { startMetricsWorkerTask, stopMetricsWorkerTask } from "./jobs/startup";
 startupTasks.push(startMetricsWorkerTask);
 shutdownTasks.unshift(stopMetricsWorkerTask);
+import { seedDemoScenarioTask } from "./db/seeders/demo-scenario";
+startupTasks.push(seedDemoScenarioTask);

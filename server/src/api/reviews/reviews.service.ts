@@ -17,6 +17,7 @@ import { sequelize } from "../../db/sequelize";
 import { config } from "../../config/env";
 import { AuditLog, Dataset, DatasetVersion, Network, Review, User } from "../../models";
 import { enqueueNetworkMetrics } from "../../jobs/enqueue";
+import { notifyCatalogueChanged } from "../../lib/catalogue-events";
 import { sendMail } from "../../emails/mailer";
 import { reviewDecisionEmail, type DecisionKind } from "../../emails/templates/review-decision";
 import type { Viewer } from "../datasets/datasets.service";
@@ -187,6 +188,7 @@ export async function decide(versionId: number, viewer: Viewer, input: { decisio
       }
       const nets = await Network.findAll({ where: { versionId: version.id }, attributes: ["id"], transaction: t });
       await enqueueNetworkMetrics(nets.map((n) => n.id), { transaction: t });
+      await notifyCatalogueChanged(dataset.id, t);
     }
     await Review.create({ versionId: version.id, curatorId: viewer.id, decision: input.decision, comment }, { transaction: t });
     await audit(
@@ -231,6 +233,7 @@ export async function withdrawDataset(accession: string, viewer: Viewer, reasonR
       { state: "withdrawn", withdrawnAt: at, withdrawalReason: reason, lockVersion: sequelize().literal("lock_version + 1") as unknown as number },
       { where: { id: { [Op.in]: published.map((v) => v.id) } }, transaction: t },
     );
+    await notifyCatalogueChanged(dataset.id, t);
     await audit({ actorId: viewer.id, action: "dataset.withdraw", entityType: "dataset", entityId: dataset.id, datasetId: dataset.id, details: { accession, reason, versions: published.map((v) => v.number) } }, t);
     return { dataset, latest: published.sort((a, b) => b.number - a.number)[0], at };
   });
