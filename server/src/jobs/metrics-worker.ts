@@ -30,7 +30,7 @@ import { sequelize } from "../db/sequelize";
 import { logger } from "../lib/logger";
 import { chunkReplicates, combineAnalysis, type ObservedResult } from "./compute";
 import { closePool, poolThreads, runNulls, runObserved } from "./pool";
-import { getBoss, METRICS_QUEUE, RETRY_LIMIT, sendRunJobs, stopQueue, type MetricsJobData, type MetricsPhase } from "./queue";
+import { getBoss, METRICS_QUEUE, registerLocalWorker, RETRY_LIMIT, sendRunJobs, stopQueue, type MetricsJobData, type MetricsPhase } from "./queue";
 import { validateSettings } from "./settings";
 
 /**
@@ -284,11 +284,14 @@ export async function startMetricsWorker(opts: { concurrency?: number; pollingIn
   const concurrency = opts.concurrency ?? Number(process.env.TB_METRICS_CONCURRENCY ?? 2);
   const pollingIntervalSeconds = opts.pollingIntervalSeconds ?? Number(process.env.TB_METRICS_POLL_SECONDS ?? 1);
   for (let i = 0; i < concurrency; i++) {
-    workerIds.push(
-      await boss.work<MetricsJobData>(METRICS_QUEUE, { batchSize: 1, includeMetadata: true, pollingIntervalSeconds }, async (jobs) => {
-        for (const job of jobs) await handleJob(job);
-      }),
-    );
+    let id = "";
+    id = await boss.work<MetricsJobData>(METRICS_QUEUE, { batchSize: 1, includeMetadata: true, pollingIntervalSeconds }, async (jobs) => {
+      for (const job of jobs) await handleJob(job);
+      // Fetch the next job at once rather than after the polling interval.
+      if (id) boss.notifyWorker(id);
+    });
+    registerLocalWorker(id);
+    workerIds.push(id);
   }
   const sweep = () =>
     sweepOrphanRuns().then(

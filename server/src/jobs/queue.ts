@@ -43,6 +43,21 @@ export function jobOptions() {
 }
 
 let boss: PgBoss | undefined;
+/** Ids of the workers of this process (metrics-worker.ts), woken up when this process sends jobs. */
+const localWorkers = new Set<string>();
+
+export function registerLocalWorker(id: string): void {
+  localWorkers.add(id);
+}
+
+/**
+ * Wakes this process's workers so they fetch at once instead of at their next poll (pg-boss waits the
+ * polling interval between fetches, even after a short job).
+ */
+export function notifyLocalWorkers(): void {
+  if (!boss) return;
+  for (const id of localWorkers) boss.notifyWorker(id);
+}
 let starting: Promise<PgBoss> | undefined;
 
 /** The process's pg-boss instance, started (schema created) on first use. */
@@ -85,12 +100,14 @@ export async function sendRunJobs(runs: Array<{ id: number; networkId: number; s
       singletonKey: singletonKey(r.networkId, r.settingsHash),
     });
   }
+  notifyLocalWorkers();
 }
 
 /** Stops the queue (waits up to `timeoutMs` for running handlers when graceful). */
 export async function stopQueue(opts: { graceful?: boolean; timeoutMs?: number } = {}): Promise<void> {
   const b = boss ?? (starting ? await starting.catch(() => undefined) : undefined);
   boss = undefined;
+  localWorkers.clear();
   starting = undefined;
   if (b) await b.stop({ graceful: opts.graceful ?? true, timeout: opts.timeoutMs ?? 30_000, wait: true });
 }
