@@ -2,8 +2,8 @@
  * Benchmark of the network view on a 3000 × 5000 network (npm run bench:matrix). It prints figures; it is
  * not a test.
  *
- * 1. Database `tanglebank_test_benchmatrix` on the developers' test cluster (scripts/dev-db.sh), migrated
- *    and emptied.
+ * 1. Database `tanglebank_test_benchmatrix` on the developers' test cluster (scripts/dev-db.sh): its public
+ *    schema dropped and migrated afresh.
  * 2. A seeded planted-module bipartite network of 3000 rows × 5000 columns (12 modules; rows and columns
  *    dealt round-robin; each row 10–40 links, each to a column of its own module with probability 0.8,
  *    else to any column), published as TB-000001 v1 with a succeeded metric run holding the engine's real
@@ -42,13 +42,15 @@ async function main() {
     execFileSync("npx", ["vite", "build", "--logLevel", "warn"], { stdio: "inherit" });
   }
 
+  // a fresh schema every run (this database belongs to the benchmark alone)
+  const { createSequelize } = await import("../server/src/db/sequelize");
+  const admin = createSequelize(url, { pool: 1 });
+  await admin.query("DROP SCHEMA public CASCADE; CREATE SCHEMA public;");
+  await admin.close();
   const { migrateUp } = await import("../server/src/db/migrator");
   await migrateUp(url);
-  const { sequelize } = await import("../server/src/db/sequelize");
   const models = await import("../server/src/models");
   models.initModels();
-  const [tables] = (await sequelize().query(`SELECT tablename FROM pg_tables WHERE schemaname = 'public' AND tablename <> 'SequelizeMeta'`)) as [Array<{ tablename: string }>, unknown];
-  await sequelize().query(`TRUNCATE ${tables.map((t) => `"${t.tablename}"`).join(", ")} RESTART IDENTITY CASCADE`);
 
   const { createRng } = await import("../shared/network/random");
   const { parseNetworkText, serializeNetwork, basicMetrics, analyzeNetwork } = await import("../shared/network/index");

@@ -92,7 +92,8 @@ export const Scatter = forwardRef<SVGSVGElement, ScatterProps>(function Scatter(
             </circle>
           ) : (
             <circle key={p.id} cx={x(p.x)} cy={y(p.y)} r={radius} fill={p.colour} fillOpacity={0.75} stroke="#fff" strokeWidth={0.5}>
-              <title>{p.title}</title>
+              {/* tooltips for moderate sets only; large sets rely on the figure's data table */}
+              {points.length <= 2000 && <title>{p.title}</title>}
             </circle>
           ),
         )}

@@ -67,6 +67,8 @@ export function ComparePage() {
   });
   const byC = withY.filter((r) => r.connectance !== null).map(point(0));
   const byS = withY.map(point(1));
+  const coincident = (pts: ScatterPoint[]) => pts.length - new Set(pts.map((p) => `${p.x}|${p.y}`)).size;
+  const overlapNote = (pts: ScatterPoint[]) => (coincident(pts) > 0 ? ` ${coincident(pts)} point(s) sit exactly on another one (identical values); the table lists them all.` : "");
   const objectives = new Set(rows.map((r) => r.metrics.objective).filter(Boolean));
 
   return (
@@ -172,7 +174,7 @@ export function ComparePage() {
             <ChartFigure
               id="cmp-c"
               title={`${measure} against connectance`}
-              caption={`${byC.length} networks; colour shows the interaction type. Connectance uses each network's own variant (bipartite L/(I·J), directed L/S², undirected 2L/(S(S−1))).`}
+              caption={`${byC.length} networks; colour shows the interaction type. Connectance uses each network's own variant (bipartite L/(I·J), directed L/S², undirected 2L/(S(S−1))).${overlapNote(byC)}`}
               table={{ caption: `${measure} and connectance`, columns: ["network", "C", measure], rows: byC.map((p) => [p.id, fmt(p.x, 4), fmt(p.y, 3)]) }}
             >
               <Scatter ref={svgC} points={byC} xLabel="Connectance C (proportion of possible links)" yLabel={yLabel} label={`Scatter plot of ${measure} against connectance`} focusable radius={5} title={`${measure} against connectance`} />
@@ -181,7 +183,7 @@ export function ComparePage() {
             <ChartFigure
               id="cmp-s"
               title={`${measure} against size S`}
-              caption={`${byS.length} networks; S counts all nodes (I + J for bipartite networks).`}
+              caption={`${byS.length} networks; S counts all nodes (I + J for bipartite networks).${overlapNote(byS)}`}
               table={{ caption: `${measure} and size`, columns: ["network", "S", measure], rows: byS.map((p) => [p.id, p.x, fmt(p.y, 3)]) }}
             >
               <Scatter ref={svgS} points={byS} xLabel="Network size S (nodes)" yLabel={yLabel} label={`Scatter plot of ${measure} against network size`} focusable radius={5} title={`${measure} against size S`} />

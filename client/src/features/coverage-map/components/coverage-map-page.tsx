@@ -116,7 +116,7 @@ export function CoverageMapPage() {
         title={q.data ? `${q.data.meta.placed} of ${q.data.meta.total} matching networks placed` : "Loading networks…"}
         caption={
           q.data
-            ? `${lat.north} networks north of the Tropic of Cancer, ${lat.tropics} in the tropics, ${lat.south} south of the Tropic of Capricorn; by country: ${[...byCountry.entries()]
+            ? `North of the Tropic of Cancer: ${lat.north}; in the tropics: ${lat.tropics}; south of the Tropic of Capricorn: ${lat.south}. By country: ${[...byCountry.entries()]
                 .sort((a, b) => b[1] - a[1])
                 .map(([c, n]) => `${c} ${n}`)
                 .join(", ") || "none"}. Select a point to open its network.`

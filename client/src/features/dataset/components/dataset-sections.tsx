@@ -286,8 +286,7 @@ export function VersionsSection({ d }: { d: DatasetDetail }) {
               ) : (
                 <span>version {v.number}</span>
               )}{" "}
-              — {v.state.replace("_", " ")}
-              {v.publishedAt && `, published ${v.publishedAt.slice(0, 10)}`}
+              — {v.publishedAt ? `published ${v.publishedAt.slice(0, 10)}` : v.state.replace("_", " ")}
               {v.withdrawnAt && `, withdrawn ${v.withdrawnAt.slice(0, 10)}`} · {v.networkCount} network{v.networkCount === 1 ? "" : "s"}
             </li>
           ))}

@@ -1,6 +1,6 @@
 /** /datasets/:accession/v/:n/networks/:pos — one network: metrics with formulas, matrix, null distribution, roles, modules, downloads. */
 import { Link, useParams } from "react-router-dom";
-import { useEffect } from "react";
+import { startTransition, useEffect, useState } from "react";
 import { paths } from "../../../config/paths";
 import { ApiClientError } from "../../../lib/api-client";
 import { useNetworkView } from "../api/get-network-view";
@@ -19,6 +19,12 @@ export function NetworkViewPage() {
   const position = Number(params.pos);
   const q = useNetworkView(accession, version, position);
   const view = q.data;
+  // The plots below the matrix mount in a transition: React renders them in slices, so a network with
+  // thousands of nodes never holds the main thread in one long task.
+  const [plots, setPlots] = useState(false);
+  useEffect(() => {
+    if (view) startTransition(() => setPlots(true));
+  }, [view]);
   useEffect(() => {
     if (view) document.title = `${view.metadata.name ?? view.ref} (${view.ref}) · Tanglebank`;
   }, [view]);
@@ -114,11 +120,17 @@ export function NetworkViewPage() {
 
       <MetricsPanel view={view} />
       <MatrixCanvas view={view} />
-      <div className="grid gap-6 xl:grid-cols-2">
-        <NullHistogram view={view} />
-        <RolesPlot view={view} />
-      </div>
-      <ModuleTable view={view} />
+      {plots ? (
+        <>
+          <div className="grid gap-6 xl:grid-cols-2">
+            <NullHistogram view={view} />
+            <RolesPlot view={view} />
+          </div>
+          <ModuleTable view={view} />
+        </>
+      ) : (
+        <p className="text-stone-700">Drawing the plots…</p>
+      )}
     </div>
   );
 }
