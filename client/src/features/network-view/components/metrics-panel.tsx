@@ -139,7 +139,7 @@ export function MetricsPanel({ view }: { view: NetworkView }) {
         <ul className="mt-1 list-disc space-y-1 pl-5">
           <li>Raw Q depends on network size, connectance and sampling effort: compare networks by z or Q<sub>rel</sub>, not by Q.</li>
           <li>Modularity maxima are degenerate: partitions of near-equal Q can differ a lot, so read single module memberships with care.</li>
-          <li>Newman's Q of a bipartite network treated as one-mode is a different number from Barber's Q_B; the objective is named above.</li>
+          {view.kind === "bipartite" && <li>Newman's Q of a bipartite network treated as one-mode is a different number from Barber's Q_B; the objective is named above.</li>}
         </ul>
       </div>
       {prov.algorithm && (
