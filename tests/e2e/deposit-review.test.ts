@@ -177,6 +177,19 @@ describe("deposit → review → changes → publish", () => {
     expect(await axeSerious(depositor.page)).toEqual([]);
   });
 
+  it("a curator withdraws the dataset with a reason; the read API answers 410 with the tombstone", async () => {
+    const { page } = curator;
+    await page.goto(`${stack.url}/review/${versionId}`);
+    await page.getByLabel("Reason (required, shown on the tombstone page)").fill("Test withdrawal: the events matrix is not a pollination network.");
+    page.once("dialog", (d) => void d.accept());
+    await page.getByRole("button", { name: "Withdraw the dataset" }).click();
+    await page.getByText(/^Withdrawn on /).waitFor();
+    await screenshot(page, "deposit-10-withdrawn");
+    const res = await page.request.get(`${stack.url}/api/v1/datasets/TB-000001`);
+    expect(res.status()).toBe(410);
+    expect(await res.json()).toMatchObject({ accession: "TB-000001", reason: "Test withdrawal: the events matrix is not a pollination network." });
+  });
+
   it("the review queue lists submissions for curators", async () => {
     const { page } = curator;
     await page.goto(`${stack.url}/review`);

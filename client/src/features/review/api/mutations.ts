@@ -19,3 +19,15 @@ export function useReviewMutation<A>(fn: (a: A) => Promise<ReviewDetail>) {
     },
   });
 }
+
+/** POST /datasets/:accession/withdraw (curator or admin; reason required). */
+export const withdrawDataset = (accession: string, reason: string) =>
+  apiFetch<{ accession: string; reason: string; withdrawnAt: string }>(`/datasets/${encodeURIComponent(accession)}/withdraw`, { method: "POST", json: { reason } });
+
+export function useWithdrawDataset(versionId: number) {
+  const qc = useQueryClient();
+  return useMutation({
+    mutationFn: (a: { accession: string; reason: string }) => withdrawDataset(a.accession, a.reason),
+    onSuccess: () => void qc.invalidateQueries({ queryKey: reviewKeys.detail(versionId) }),
+  });
+}

@@ -14,7 +14,7 @@ import { NetworkForm, type NetworkDraft } from "../../../components/metadata/net
 import { networkErrors, prune, studyErrors } from "../../../components/metadata/validate";
 import { Alert, Button } from "../../../components/ui/form";
 import { useReview, useReviewCanonical } from "../api/get-review";
-import { correctNetwork, correctStudy, decide, useReviewMutation, type Decision } from "../api/mutations";
+import { correctNetwork, correctStudy, decide, useReviewMutation, useWithdrawDataset, type Decision } from "../api/mutations";
 import type { ReviewDetail } from "../api/types";
 
 const ACTION_LABELS: Record<string, string> = {
@@ -240,6 +240,37 @@ function DecisionForm({ r }: { r: ReviewDetail }) {
   );
 }
 
+function WithdrawForm({ r }: { r: ReviewDetail }) {
+  const [reason, setReason] = useState("");
+  const m = useWithdrawDataset(r.versionId);
+  if (r.version.state !== "published" || !r.accession) return null;
+  return (
+    <form
+      aria-labelledby="withdraw-h"
+      className="rounded-lg bg-white p-5 shadow-sm ring-1 ring-stone-200"
+      onSubmit={(e) => {
+        e.preventDefault();
+        if (window.confirm(`Withdraw ${r.accession}? Its data leave the catalogue and downloads; a tombstone page keeps the accession, the citation and your reason.`)) m.mutate({ accession: r.accession!, reason });
+      }}
+    >
+      <h2 id="withdraw-h" className="text-xl font-bold text-moss-700">
+        Withdraw {r.accession}
+      </h2>
+      <p className="mt-1 text-sm text-stone-700">Only when the data must leave the catalogue (e.g. a serious error). The accession is never reused.</p>
+      <label htmlFor="withdraw-reason" className="mt-3 block text-sm font-semibold text-stone-800">
+        Reason (required, shown on the tombstone page)
+      </label>
+      <textarea id="withdraw-reason" rows={3} value={reason} onChange={(e) => setReason(e.target.value)} aria-required="true" className="mt-1 block w-full rounded border border-stone-400 px-3 py-2 focus:border-moss-600 focus:outline-none focus:ring-2 focus:ring-moss-200" />
+      {m.error && <div className="mt-3"><Alert tone="error" title={m.error.message} /></div>}
+      <div className="mt-3">
+        <Button variant="danger" busy={m.isPending} disabled={!reason.trim()}>
+          Withdraw the dataset
+        </Button>
+      </div>
+    </form>
+  );
+}
+
 export function ReviewPage({ versionId }: { versionId: number }) {
   const { data: r, error, isPending } = useReview(versionId);
   if (isPending) return <p role="status">Loading the submission…</p>;
@@ -267,6 +298,7 @@ export function ReviewPage({ versionId }: { versionId: number }) {
       )}
       {r.version.state === "changes_requested" && last && <Alert tone="info" title={`Changes requested by ${last.curator}`}><p className="whitespace-pre-wrap">{last.comment}</p></Alert>}
       {r.version.state === "declined" && last && <Alert tone="info" title={`Declined by ${last.curator}`}><p className="whitespace-pre-wrap">{last.comment}</p></Alert>}
+      {r.version.state === "withdrawn" && r.withdrawal && <Alert tone="info" title={`Withdrawn on ${new Date(r.withdrawal.at).toLocaleDateString()}`}><p className="whitespace-pre-wrap">{r.withdrawal.reason}</p></Alert>}
       <DecisionForm r={r} />
       <StudyBlock key={`s${r.lockVersion}`} r={r} />
       <section aria-labelledby="networks-h">
@@ -275,6 +307,7 @@ export function ReviewPage({ versionId }: { versionId: number }) {
         </h2>
         <ol className="mt-3 grid gap-4">{r.networks.map((n) => <NetworkBlock key={`${n.id}-${r.lockVersion}`} r={r} n={n} />)}</ol>
       </section>
+      <WithdrawForm r={r} />
       <section aria-labelledby="history-h" className="rounded-lg bg-white p-5 shadow-sm ring-1 ring-stone-200">
         <h2 id="history-h" className="text-xl font-bold text-moss-700">
           History
