@@ -11,5 +11,8 @@ export const shutdownTasks: ShutdownTask[] = [];
 import { startMetricsWorkerTask, stopMetricsWorkerTask } from "./jobs/startup";
 startupTasks.push(startMetricsWorkerTask);
 shutdownTasks.unshift(stopMetricsWorkerTask);
+import { startCatalogueTask, stopCatalogueTask } from "./api/catalogue/catalogue.startup";
+startupTasks.push(startCatalogueTask);
+shutdownTasks.unshift(stopCatalogueTask);
 import { seedDemoScenarioTask } from "./db/seeders/demo-scenario";
 startupTasks.push(seedDemoScenarioTask);

@@ -6,6 +6,10 @@
  * for the HTTP response to drain), and the large files are streamed from async generators. A client
  * that disconnects stops the work (no further batches are read).
  */
+import { createReadStream } from "node:fs";
+import { mkdtemp, open, rm } from "node:fs/promises";
+import { tmpdir } from "node:os";
+import { join } from "node:path";
 import { Readable } from "node:stream";
 import type { Writable } from "node:stream";
 import { ZipArchive } from "archiver";
@@ -102,17 +106,24 @@ export interface BundleOptions {
   level?: number;
 }
 
-interface LightRow {
+interface CanonicalRow {
   network_id: number;
-  rows: string[];
-  cols: string[] | null;
+  canonical: unknown;
   licence: string | null;
   title: string | null;
-  accession: string;
-  number: number;
 }
 
-/** Streams the bundle into `out` (an HTTP response). Resolves when the zip is finished or aborted. */
+const licenseObj = (l: string) => ({ name: l, path: licenceUrl(l), title: l === "CC0-1.0" ? "CC0 1.0 Universal" : l === "CC-BY-4.0" ? "Creative Commons Attribution 4.0" : l });
+
+/**
+ * Streams the bundle into `out` (an HTTP response). Resolves when the zip is finished or aborted.
+ *
+ * One pass over the networks, 100 at a time (the next batch is read while the archive compresses the
+ * current one): each network's CSV is appended to the archive, and its datapackage resource, metrics row
+ * and metadata row are written to small temporary files, which become datapackage.json, metrics.csv and
+ * networks.csv at the end. So every network is read from the database once, and memory holds one or two
+ * batches whatever the bundle's size.
+ */
 export async function writeBundle(out: Writable, opts: BundleOptions): Promise<{ aborted: boolean; bytes: number }> {
   const { networks, signal } = opts;
   const archive = new ZipArchive({ zlib: { level: opts.level ?? 1 } });
@@ -135,17 +146,18 @@ export async function writeBundle(out: Writable, opts: BundleOptions): Promise<{
     poke();
     stop();
   });
-  signal.addEventListener("abort", () => {
+  const onAbort = () => {
     archive.abort();
     poke();
     stop();
-  });
+  };
+  signal.addEventListener("abort", onAbort);
   const waitFor = async (n: number) => {
     while (processed < n && !signal.aborted && !failure) await new Promise<void>((r) => (wake = r));
   };
   archive.pipe(out);
   /** A stream entry from an async generator; a failure (e.g. the database) aborts the whole bundle. */
-  const fromGenerator = (gen: AsyncGenerator<string>) =>
+  const fromGenerator = (gen: AsyncGenerator<string | Buffer>) =>
     Readable.from(
       (async function* () {
         try {
@@ -168,53 +180,57 @@ export async function writeBundle(out: Writable, opts: BundleOptions): Promise<{
     archive.append(source, { name, date: generated });
     appended++;
   };
+  const dir = await mkdtemp(join(tmpdir(), "tanglebank-bundle-"));
+  const resourcesFile = join(dir, "resources.jsonl");
+  const metricsFile = join(dir, "metrics.csv");
+  const networksFile = join(dir, "networks.csv");
+  const resources = await open(resourcesFile, "w");
+  const metricsOut = await open(metricsFile, "w");
+  const networksOut = await open(networksFile, "w");
+  try {
+    add(bundleReadme({ settings, settingsHash: settingsHash(settings), engineVersion: ENGINE_VERSION, count: networks.length, generated, publicUrl, title: opts.title }), "README.txt");
+    await metricsOut.write(METRICS_FIELDS.map((f) => f[0]).join(",") + "\n");
+    await networksOut.write(NETWORK_FIELDS.map((f) => f[0]).join(",") + "\n");
+    const licences = new Set<string>();
+    let firstResource = true;
 
-  // 1. README (how every metric was computed)
-  add(bundleReadme({ settings, settingsHash: settingsHash(settings), engineVersion: ENGINE_VERSION, count: networks.length, generated, publicUrl, title: opts.title }), "README.txt");
-
-  // 2. datapackage.json, streamed: one resource per network CSV (its Table Schema lists the columns)
-  async function* datapackage() {
-    const lic = await sequelize().query<{ licence: string | null }>(
-      `SELECT DISTINCT v.metadata ->> 'licence' AS licence FROM networks n JOIN dataset_versions v ON v.id = n.version_id WHERE n.id IN (:ids)`,
-      { replacements: { ids }, type: QueryTypes.SELECT },
-    );
-    const licences = lic.map((l) => l.licence ?? "unknown").sort();
-    const licenseObj = (l: string) => ({ name: l, path: licenceUrl(l), title: l === "CC0-1.0" ? "CC0 1.0 Universal" : l === "CC-BY-4.0" ? "Creative Commons Attribution 4.0" : l });
-    const head = {
-      profile: "tabular-data-package",
-      name: `tanglebank-bundle-${generated.toISOString().slice(0, 10)}`,
-      title: `Tanglebank bundle: ${opts.title}`,
-      description: `${networks.length} interaction networks from Tanglebank with their metadata and metrics. See README.txt for how the metrics were computed.`,
-      created: generated.toISOString(),
-      homepage: publicUrl,
-      licenses: licences.map(licenseObj),
-      sources: [{ title: "Tanglebank", path: publicUrl }],
+    const fetchBatch = (from: number) => {
+      const batchIds = ids.slice(from, from + BATCH);
+      return Promise.all([
+        sequelize().query<CanonicalRow>(
+          `SELECT n.id AS network_id, n.canonical, v.metadata ->> 'licence' AS licence, v.metadata ->> 'title' AS title
+           FROM networks n JOIN dataset_versions v ON v.id = n.version_id
+           WHERE n.id IN (:ids) AND v.state = 'published'`,
+          { replacements: { ids: batchIds }, type: QueryTypes.SELECT },
+        ),
+        loadCatalogueRows({ networkIds: batchIds, anyPublishedVersion: true }),
+      ]);
     };
-    const headJson = JSON.stringify(head, null, 2);
-    yield headJson.slice(0, -2) + ',\n  "resources": [\n';
-    const fixed = [
-      { path: "metrics.csv", name: "metrics", title: "Current metrics of every network", schema: tableSchema(METRICS_FIELDS) },
-      { path: "networks.csv", name: "networks", title: "Metadata of every network", schema: tableSchema(NETWORK_FIELDS) },
-    ].map((r) => ({ ...r, profile: "tabular-data-resource", format: "csv", mediatype: "text/csv", encoding: "utf-8", licenses: licences.map(licenseObj), sources: head.sources }));
-    yield fixed.map((r) => "    " + JSON.stringify(r)).join(",\n");
-    for (let i = 0; i < ids.length && !signal.aborted; i += BATCH * 2) {
-      const rows = await sequelize().query<LightRow>(
-        `SELECT n.id AS network_id, n.canonical -> 'rows' AS rows, n.canonical -> 'cols' AS cols,
-                v.metadata ->> 'licence' AS licence, v.metadata ->> 'title' AS title, d.accession, v.number
-         FROM networks n JOIN dataset_versions v ON v.id = n.version_id JOIN datasets d ON d.id = v.dataset_id
-         WHERE n.id IN (:ids) AND v.state = 'published'`,
-        { replacements: { ids: ids.slice(i, i + BATCH * 2) }, type: QueryTypes.SELECT },
-      );
+    let next = ids.length ? fetchBatch(0) : null;
+    for (let i = 0; next && !signal.aborted && !failure; i += BATCH) {
+      const [rows, entries] = await next;
+      next = i + BATCH < ids.length ? fetchBatch(i + BATCH) : null;
       const byId = new Map(rows.map((r) => [r.network_id, r]));
-      const parts: string[] = [];
-      for (const net of networks.slice(i, i + BATCH * 2)) {
+      const entryOf = new Map(entries.map((e) => [e.networkId, e]));
+      await waitFor(appended - BATCH);
+      if (signal.aborted || failure) break;
+      const resourceLines: string[] = [];
+      const metricLines: string[] = [];
+      const networkLines: string[] = [];
+      for (const net of networks.slice(i, i + BATCH)) {
         const r = byId.get(net.networkId);
-        if (!r) continue;
-        const cols = r.cols ?? r.rows;
+        const e = entryOf.get(net.networkId);
+        if (!r || !e) continue; // withdrawn since the selection was read
+        byId.delete(net.networkId);
+        const graph = deserializeNetwork(r.canonical);
         const path = fileNameOf(net.ref);
+        add("node" + networkToMatrixCsv(graph), path);
         const licence = r.licence ?? "unknown";
-        parts.push(
-          "    " +
+        licences.add(licence);
+        const cols = graph.kind === "bipartite" ? graph.colLabels : graph.rowLabels;
+        resourceLines.push(
+          (firstResource ? "" : ",\n") +
+            "    " +
             JSON.stringify({
               path,
               name: resourceName(path),
@@ -224,84 +240,89 @@ export async function writeBundle(out: Writable, opts: BundleOptions): Promise<{
               mediatype: "text/csv",
               encoding: "utf-8",
               licenses: [licenseObj(licence)],
-              sources: [{ title: `${r.accession} version ${r.number}`, path: `${publicUrl}/datasets/${r.accession}/v/${r.number}` }],
+              sources: [{ title: `${net.accession} version ${net.version}`, path: `${publicUrl}/datasets/${net.accession}/v/${net.version}` }],
               schema: {
-                fields: [{ name: "node", type: "string", description: net.kind === "bipartite" ? "Row (lower level) node" : "Node (row: source of a link)" }, ...cols.map((c) => ({ name: c, type: "number" }))],
+                fields: [{ name: "node", type: "string", description: graph.kind === "bipartite" ? "Row (lower level) node" : "Node (row: source of a link)" }, ...cols.map((c) => ({ name: c, type: "number" }))],
                 primaryKey: ["node"],
               },
             }),
         );
+        firstResource = false;
+        metricLines.push(METRICS_FIELDS.map((f) => csvCell(f[3](e))).join(","));
+        networkLines.push(NETWORK_FIELDS.map((f) => csvCell(f[3](e))).join(","));
       }
-      if (parts.length) yield ",\n" + parts.join(",\n");
+      if (resourceLines.length) {
+        await resources.write(resourceLines.join(""));
+        await metricsOut.write(metricLines.join("\n") + "\n");
+        await networksOut.write(networkLines.join("\n") + "\n");
+      }
     }
-    yield "\n  ]\n}\n";
-  }
-  add(fromGenerator(datapackage()), "datapackage.json");
+    if (next) await next.catch(() => undefined);
+    await Promise.all([resources.close(), metricsOut.close(), networksOut.close()]);
+    if (failure) throw failure;
+    if (signal.aborted) return { aborted: true, bytes: archive.pointer() };
 
-  // 3. One matrix CSV per network, in batches (each batch appended once the archive consumed the last)
-  for (let i = 0; i < ids.length && !signal.aborted && !failure; i += BATCH) {
-    const batch = networks.slice(i, i + BATCH);
-    const rows = await sequelize().query<{ network_id: number; canonical: unknown }>(
-      `SELECT n.id AS network_id, n.canonical FROM networks n JOIN dataset_versions v ON v.id = n.version_id
-       WHERE n.id IN (:ids) AND v.state = 'published'`,
-      { replacements: { ids: batch.map((b) => b.networkId) }, type: QueryTypes.SELECT },
+    add(createReadStream(metricsFile), "metrics.csv");
+    add(createReadStream(networksFile), "networks.csv");
+
+    // datapackage.json: header, the resources gathered above, then the two tables' resources
+    const licenceList = [...licences].sort();
+    const head = {
+      profile: "tabular-data-package",
+      name: `tanglebank-bundle-${generated.toISOString().slice(0, 10)}`,
+      title: `Tanglebank bundle: ${opts.title}`,
+      description: `${networks.length} interaction networks from Tanglebank with their metadata and metrics. See README.txt for how the metrics were computed.`,
+      created: generated.toISOString(),
+      homepage: publicUrl,
+      licenses: licenceList.map(licenseObj),
+      sources: [{ title: "Tanglebank", path: publicUrl }],
+    };
+    const tables = [
+      { path: "metrics.csv", name: "metrics", title: "Current metrics of every network", schema: tableSchema(METRICS_FIELDS) },
+      { path: "networks.csv", name: "networks", title: "Metadata of every network", schema: tableSchema(NETWORK_FIELDS) },
+    ].map((t) => ({ ...t, profile: "tabular-data-resource", format: "csv", mediatype: "text/csv", encoding: "utf-8", licenses: licenceList.map(licenseObj), sources: head.sources }));
+    add(
+      fromGenerator(
+        (async function* () {
+          yield JSON.stringify(head, null, 2).slice(0, -2) + ',\n  "resources": [\n';
+          yield tables.map((t) => "    " + JSON.stringify(t)).join(",\n") + (firstResource ? "" : ",\n");
+          for await (const chunk of createReadStream(resourcesFile)) yield chunk as Buffer;
+          yield "\n  ]\n}\n";
+        })(),
+      ),
+      "datapackage.json",
     );
-    const byId = new Map(rows.map((r) => [r.network_id, r.canonical]));
-    await waitFor(appended - BATCH / 2);
-    if (signal.aborted) break;
-    for (const net of batch) {
-      const canonical = byId.get(net.networkId);
-      if (canonical === undefined) continue;
-      byId.delete(net.networkId);
-      add("node" + networkToMatrixCsv(deserializeNetwork(canonical)), fileNameOf(net.ref));
-    }
-  }
 
-  // 4. metrics.csv and networks.csv, streamed from batches of catalogue rows
-  async function* table(fields: Array<[string, string, string, (e: CatalogueEntry) => unknown]>) {
-    yield fields.map((f) => f[0]).join(",") + "\n";
-    for (let i = 0; i < ids.length && !signal.aborted; i += BATCH * 5) {
-      const rows = await loadCatalogueRows({ networkIds: ids.slice(i, i + BATCH * 5), anyPublishedVersion: true });
-      const byId = new Map(rows.map((r) => [r.networkId, r]));
-      const lines: string[] = [];
-      for (const id of ids.slice(i, i + BATCH * 5)) {
-        const e = byId.get(id);
-        if (e) lines.push(fields.map((f) => csvCell(f[3](e))).join(","));
+    // CITATIONS.bib: one entry per dataset version
+    async function* citations() {
+      const versions = [...new Set(networks.map((n) => `${n.accession}/${n.version}`))];
+      for (let i = 0; i < versions.length && !signal.aborted; i += 500) {
+        const rows = await sequelize().query<{ accession: string; number: number; metadata: StudyMetadata; published_at: Date | null }>(
+          `SELECT d.accession, v.number, v.metadata, v.published_at FROM dataset_versions v JOIN datasets d ON d.id = v.dataset_id
+           WHERE (d.accession || '/' || v.number) IN (:keys) ORDER BY d.accession, v.number`,
+          { replacements: { keys: versions.slice(i, i + 500) }, type: QueryTypes.SELECT },
+        );
+        yield rows
+          .map((r) =>
+            toBibTeX({
+              metadata: { ...r.metadata, title: r.metadata.title ?? r.accession, creators: Array.isArray(r.metadata.creators) ? r.metadata.creators : [] },
+              accession: r.accession,
+              version: r.number,
+              year: (r.published_at ? new Date(r.published_at) : generated).getUTCFullYear(),
+              url: `${publicUrl}/datasets/${r.accession}/v/${r.number}`,
+            }),
+          )
+          .join("\n");
       }
-      if (lines.length) yield lines.join("\n") + "\n";
     }
-  }
-  if (!signal.aborted) add(fromGenerator(table(METRICS_FIELDS)), "metrics.csv");
-  if (!signal.aborted) add(fromGenerator(table(NETWORK_FIELDS)), "networks.csv");
+    add(fromGenerator(citations()), "CITATIONS.bib");
 
-  // 5. CITATIONS.bib: one entry per dataset version
-  async function* citations() {
-    const versions = [...new Set(networks.map((n) => `${n.accession}/${n.version}`))];
-    for (let i = 0; i < versions.length && !signal.aborted; i += 500) {
-      const chunk = versions.slice(i, i + 500);
-      const rows = await sequelize().query<{ accession: string; number: number; metadata: StudyMetadata; published_at: Date | null }>(
-        `SELECT d.accession, v.number, v.metadata, v.published_at FROM dataset_versions v JOIN datasets d ON d.id = v.dataset_id
-         WHERE (d.accession || '/' || v.number) IN (:keys) ORDER BY d.accession, v.number`,
-        { replacements: { keys: chunk }, type: QueryTypes.SELECT },
-      );
-      yield rows
-        .map((r) =>
-          toBibTeX({
-            metadata: { ...r.metadata, title: r.metadata.title ?? r.accession, creators: Array.isArray(r.metadata.creators) ? r.metadata.creators : [] },
-            accession: r.accession,
-            version: r.number,
-            year: (r.published_at ? new Date(r.published_at) : generated).getUTCFullYear(),
-            url: `${publicUrl}/datasets/${r.accession}/v/${r.number}`,
-          }),
-        )
-        .join("\n");
-    }
+    await Promise.race([archive.finalize(), stopped]);
+    if (failure) throw failure;
+    return { aborted: signal.aborted, bytes: archive.pointer() };
+  } finally {
+    signal.removeEventListener("abort", onAbort);
+    await Promise.all([resources.close(), metricsOut.close(), networksOut.close()]).catch(() => undefined);
+    await rm(dir, { recursive: true, force: true }).catch(() => undefined);
   }
-  if (!signal.aborted) add(fromGenerator(citations()), "CITATIONS.bib");
-
-  if (failure) throw failure;
-  if (signal.aborted) return { aborted: true, bytes: archive.pointer() };
-  await Promise.race([archive.finalize(), stopped]);
-  if (failure) throw failure;
-  return { aborted: signal.aborted, bytes: archive.pointer() };
 }

@@ -119,12 +119,6 @@ function categoryValue(e: CatalogueEntry, f: Categorical): string | null {
   }
 }
 
-function inRange(v: number | null, r: Range): boolean {
-  if (r.min === undefined && r.max === undefined) return true;
-  if (v === null) return false;
-  return (r.min === undefined || v >= r.min) && (r.max === undefined || v <= r.max);
-}
-
 function rangeValue(e: CatalogueEntry, f: RangeName): number | null {
   switch (f) {
     case "nodes":
@@ -140,28 +134,50 @@ function rangeValue(e: CatalogueEntry, f: RangeName): number | null {
   }
 }
 
-/** Whether a network's sampling years overlap the requested year range. */
-function yearMatches(e: CatalogueEntry, r: Range): boolean {
-  if (r.min === undefined && r.max === undefined) return true;
-  if (e.startYear === null) return false;
-  const end = e.endYear ?? e.startYear;
-  return (r.max === undefined || e.startYear <= r.max) && (r.min === undefined || end >= r.min);
+/**
+ * The catalogue as columns (built once per catalogue snapshot): categorical values as small integer
+ * codes (0 = missing), numbers as Float64Arrays (NaN = missing). One pass over typed arrays then filters
+ * and counts 10,000 networks in well under a millisecond.
+ */
+interface Columns {
+  ids: Int32Array;
+  values: string[][];
+  codes: Uint16Array[];
+  nums: Float64Array[];
+  endYear: Float64Array;
 }
+const columnCache = new WeakMap<CatalogueEntry[], Columns>();
 
-/** Bit i set = the entry fails filter i (categorical filters first, then ranges, then search). */
-function failMask(e: CatalogueEntry, q: CatalogueQuery, sets: Array<Set<string> | null>, hits: Map<number, number> | null): number {
-  let mask = 0;
-  for (let i = 0; i < CATEGORICAL.length; i++) {
-    const s = sets[i];
-    if (s && !s.has(categoryValue(e, CATEGORICAL[i]) ?? "")) mask |= 1 << i;
+function columnsOf(all: CatalogueEntry[]): Columns {
+  const cached = columnCache.get(all);
+  if (cached) return cached;
+  const n = all.length;
+  const values = CATEGORICAL.map(() => [""]);
+  const lookup = CATEGORICAL.map(() => new Map<string, number>());
+  const codes = CATEGORICAL.map(() => new Uint16Array(n));
+  const nums = RANGES.map(() => new Float64Array(n));
+  const endYear = new Float64Array(n);
+  const ids = new Int32Array(n);
+  for (let i = 0; i < n; i++) {
+    const e = all[i];
+    ids[i] = e.networkId;
+    for (let c = 0; c < CATEGORICAL.length; c++) {
+      const v = categoryValue(e, CATEGORICAL[c]);
+      if (v === null) continue;
+      let code = lookup[c].get(v);
+      if (code === undefined) {
+        code = values[c].length;
+        values[c].push(v);
+        lookup[c].set(v, code);
+      }
+      codes[c][i] = code;
+    }
+    for (let j = 0; j < RANGES.length; j++) nums[j][i] = rangeValue(e, RANGES[j]) ?? NaN;
+    endYear[i] = e.endYear ?? e.startYear ?? NaN;
   }
-  for (let j = 0; j < RANGES.length; j++) {
-    const name = RANGES[j];
-    const ok = name === "year" ? yearMatches(e, q.year) : inRange(rangeValue(e, name), q[name]);
-    if (!ok) mask |= 1 << (CATEGORICAL.length + j);
-  }
-  if (hits && !hits.has(e.networkId)) mask |= 1 << (CATEGORICAL.length + RANGES.length);
-  return mask;
+  const cols = { ids, values, codes, nums, endYear };
+  columnCache.set(all, cols);
+  return cols;
 }
 
 function sortValue(e: CatalogueEntry, key: SortKey, hits: Map<number, number> | null): string | number | null {
@@ -192,45 +208,90 @@ export interface MatchResult {
   facets: CatalogueFacets;
 }
 
+const YEAR = RANGES.indexOf("year");
+const SEARCH_BIT = 1 << (CATEGORICAL.length + RANGES.length);
+
 /** Every entry matching the query, in the requested order, with facet counts. */
 export async function matchCatalogue(q: CatalogueQuery): Promise<MatchResult> {
   const all = await catalogueStore.entries();
   const hits = q.q ? await searchIndex.search(q.q) : null;
-  const sets: Array<Set<string> | null> = CATEGORICAL.map((f) => {
+  const cols = columnsOf(all);
+  // allowed[c][code] = 1 when the reader chose that value (null: no filter on c)
+  const allowed = CATEGORICAL.map((f, c) => {
     const v = q[f];
-    return v ? new Set(v.map(String)) : null;
+    if (!v) return null;
+    const a = new Uint8Array(cols.values[c].length);
+    const chosen = new Set(v.map(String));
+    cols.values[c].forEach((value, code) => {
+      if (code > 0 && chosen.has(value)) a[code] = 1;
+    });
+    return a;
   });
-  const counts = CATEGORICAL.map(() => new Map<string, number>());
-  const ranges = RANGES.map(() => ({ min: Infinity, max: -Infinity }));
-  const matches: CatalogueEntry[] = [];
-  for (const e of all) {
-    const mask = failMask(e, q, sets, hits);
-    if (mask === 0) {
-      matches.push(e);
-      for (let j = 0; j < RANGES.length; j++) {
-        const v = RANGES[j] === "year" ? e.startYear : rangeValue(e, RANGES[j]);
-        if (v !== null) {
-          if (v < ranges[j].min) ranges[j].min = v;
-          const hi = RANGES[j] === "year" ? (e.endYear ?? v) : v;
-          if (hi > ranges[j].max) ranges[j].max = hi;
-        }
-      }
-    }
-    for (let i = 0; i < CATEGORICAL.length; i++) {
-      if ((mask & ~(1 << i)) !== 0) continue;
-      const v = categoryValue(e, CATEGORICAL[i]);
-      if (v === null) continue;
-      counts[i].set(v, (counts[i].get(v) ?? 0) + 1);
+  const ranges: Range[] = RANGES.map((r) => q[r]);
+  const active = ranges.map((r) => r.min !== undefined || r.max !== undefined);
+  const lo = ranges.map((r) => r.min ?? -Infinity);
+  const hi = ranges.map((r) => r.max ?? Infinity);
+  const counts = CATEGORICAL.map((_, c) => new Int32Array(cols.values[c].length));
+  const rmin = RANGES.map(() => Infinity);
+  const rmax = RANGES.map(() => -Infinity);
+  const matchIdx: number[] = [];
+  const n = all.length;
+  // Column by column (tight, monomorphic loops): bit set = the network fails that filter.
+  const mask = new Int32Array(n);
+  for (let c = 0; c < CATEGORICAL.length; c++) {
+    const a = allowed[c];
+    if (a === null) continue;
+    const codes = cols.codes[c];
+    const bit = 1 << c;
+    for (let i = 0; i < n; i++) if (a[codes[i]] !== 1) mask[i] |= bit;
+  }
+  for (let j = 0; j < RANGES.length; j++) {
+    if (!active[j]) continue;
+    const v = cols.nums[j];
+    const bit = 1 << (CATEGORICAL.length + j);
+    const l = lo[j];
+    const h = hi[j];
+    // year: the sampling years [start, end] overlap the range; missing values (NaN) never match a range
+    if (j === YEAR) {
+      const end = cols.endYear;
+      for (let i = 0; i < n; i++) if (!(v[i] <= h && end[i] >= l)) mask[i] |= bit;
+    } else {
+      for (let i = 0; i < n; i++) if (!(v[i] >= l && v[i] <= h)) mask[i] |= bit;
     }
   }
-  // Values chosen by the reader stay listed even when the other filters leave none of them.
-  const facetList = (i: number): FacetValue[] => {
-    for (const v of sets[i] ?? []) if (!counts[i].has(v)) counts[i].set(v, 0);
-    return [...counts[i].entries()]
-      .map(([value, count]) => ({ value, count }))
-      .sort((a, b) => b.count - a.count || (a.value < b.value ? -1 : 1));
+  if (hits !== null) {
+    const ids = cols.ids;
+    for (let i = 0; i < n; i++) if (!hits.has(ids[i])) mask[i] |= SEARCH_BIT;
+  }
+  const CAT_BITS = 1 << CATEGORICAL.length;
+  for (let i = 0; i < n; i++) {
+    const m = mask[i];
+    if (m === 0) {
+      matchIdx.push(i);
+      for (let c = 0; c < CATEGORICAL.length; c++) counts[c][cols.codes[c][i]]++;
+      for (let j = 0; j < RANGES.length; j++) {
+        const v = cols.nums[j][i];
+        if (v !== v) continue; // NaN
+        if (v < rmin[j]) rmin[j] = v;
+        const top = j === YEAR ? cols.endYear[i] : v;
+        if (top > rmax[j]) rmax[j] = top;
+      }
+    } else if ((m & (m - 1)) === 0 && m < CAT_BITS) {
+      // fails exactly one categorical filter: counts for that facet only
+      const c = 31 - Math.clz32(m);
+      counts[c][cols.codes[c][i]]++;
+    }
+  }
+  const facetList = (c: number): FacetValue[] => {
+    const out: FacetValue[] = [];
+    for (let code = 1; code < counts[c].length; code++) {
+      // values chosen by the reader stay listed even when the other filters leave none of them
+      if (counts[c][code] > 0 || allowed[c]?.[code] === 1) out.push({ value: cols.values[c][code], count: counts[c][code] });
+    }
+    for (const v of q[CATEGORICAL[c]] ?? []) if (!out.some((f) => f.value === String(v))) out.push({ value: String(v), count: 0 });
+    return out.sort((a, b) => b.count - a.count || (a.value < b.value ? -1 : 1));
   };
-  const rf = (j: number): RangeFacet => (ranges[j].min === Infinity ? { min: null, max: null } : { min: ranges[j].min, max: ranges[j].max });
+  const rf = (j: number): RangeFacet => (rmin[j] === Infinity ? { min: null, max: null } : { min: rmin[j], max: rmax[j] });
   const facets: CatalogueFacets = {
     interactionType: facetList(0),
     kind: facetList(1),
@@ -244,29 +305,44 @@ export async function matchCatalogue(q: CatalogueQuery): Promise<MatchResult> {
     Q: rf(3),
     z: rf(4),
   };
+  const matches = matchIdx.map((i) => all[i]);
 
   if (q.sort !== "accession" || q.order === "desc") {
     const dir = q.order === "desc" ? -1 : 1;
-    const base = new Map(matches.map((e, i) => [e.networkId, i]));
-    const keyed = matches.map((e) => ({ e, k: sortValue(e, q.sort, hits) }));
+    const keyed = matches.map((e, pos) => ({ e, pos, k: sortValue(e, q.sort, hits) }));
     keyed.sort((a, b) => {
       // Missing values always last, whatever the direction; ties keep accession order.
       if (a.k === null && b.k !== null) return 1;
       if (b.k === null && a.k !== null) return -1;
       if (a.k !== null && b.k !== null && a.k !== b.k) return (a.k < b.k ? -1 : 1) * dir;
-      const d = base.get(a.e.networkId)! - base.get(b.e.networkId)!;
-      return q.sort === "accession" ? d * dir : d;
+      return q.sort === "accession" ? (a.pos - b.pos) * dir : a.pos - b.pos;
     });
     return { matches: keyed.map((x) => x.e), facets };
   }
   return { matches, facets };
 }
 
+/** Recent pages, keyed by the query and valid while the catalogue and search index are unchanged. */
+const pageCache = new Map<string, { all: CatalogueEntry[]; generation: number; body: unknown }>();
+const PAGE_CACHE_LIMIT = 200;
+
 export async function searchCatalogue(q: CatalogueQuery) {
+  const all = await catalogueStore.entries();
+  const key = JSON.stringify(q);
+  const hit = pageCache.get(key);
+  if (hit && hit.all === all && hit.generation === searchIndex.generation) {
+    pageCache.delete(key);
+    pageCache.set(key, hit);
+    return hit.body;
+  }
+  const generation = searchIndex.generation;
   const { matches, facets } = await matchCatalogue(q);
   const start = (q.page - 1) * q.pageSize;
-  return {
+  const body = {
     data: matches.slice(start, start + q.pageSize).map(toRow),
     meta: { total: matches.length, page: q.page, pageSize: q.pageSize, facets },
   };
+  pageCache.set(key, { all, generation, body });
+  if (pageCache.size > PAGE_CACHE_LIMIT) pageCache.delete(pageCache.keys().next().value!);
+  return body;
 }
