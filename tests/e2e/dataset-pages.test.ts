@@ -138,6 +138,11 @@ describe("network view", () => {
       return moss;
     });
     expect(inked).toBeGreaterThan(100);
+    // by keyboard: focus the matrix and move along the first row
+    await page.getByTestId("matrix-canvas").focus();
+    await page.keyboard.press("ArrowRight");
+    await page.keyboard.press("ArrowRight");
+    await page.getByText(/^Evelyn Jefferson \(module \d+\) × E\d+ \(module \d+\): [01]$/).waitFor();
     await page.getByRole("img", { name: /Histogram of 30 null modularity values/ }).waitFor();
     await page.getByRole("img", { name: /Roles plot of \d+ nodes/ }).waitFor();
     await page.getByText("Barber's bipartite modularity Q_B").waitFor();

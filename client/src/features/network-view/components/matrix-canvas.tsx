@@ -113,8 +113,26 @@ export function MatrixCanvas({ view }: { view: NetworkView }) {
     const px = ((e.clientX - r.left) * canvas.width) / r.width - left - 1;
     const py = ((e.clientY - r.top) * canvas.height) / r.height - top - 1;
     if (px < 0 || py < 0 || px >= img.width || py >= img.height) return setHover("");
-    const cp = Math.floor((px / img.width) * nCols);
-    const rp = Math.floor((py / img.height) * nRows);
+    describe(Math.floor((py / img.height) * nRows), Math.floor((px / img.width) * nCols));
+  }
+
+  // Keyboard: arrow keys move a cursor over the cells (Shift: 10 at a time), Home goes to the first cell.
+  const [cursor, setCursor] = useState<[number, number] | null>(null);
+  function onKey(e: React.KeyboardEvent<HTMLCanvasElement>) {
+    if (!img) return;
+    const step = e.shiftKey ? 10 : 1;
+    const [r0, c0] = cursor ?? [0, 0];
+    const moves: Record<string, [number, number]> = { ArrowUp: [-step, 0], ArrowDown: [step, 0], ArrowLeft: [0, -step], ArrowRight: [0, step], Home: [-r0, -c0] };
+    const m = moves[e.key];
+    if (!m) return;
+    e.preventDefault();
+    const next: [number, number] = cursor ? [Math.min(nRows - 1, Math.max(0, r0 + m[0])), Math.min(nCols - 1, Math.max(0, c0 + m[1]))] : [0, 0];
+    setCursor(next);
+    describe(next[0], next[1]);
+  }
+
+  function describe(rp: number, cp: number) {
+    if (!img) return;
     const i = img.rowOrder[rp];
     const j = img.colOrder[cp];
     let w = 0;
@@ -141,7 +159,25 @@ export function MatrixCanvas({ view }: { view: NetworkView }) {
     >
       {error && <p role="alert" className="text-red-800">{error}</p>}
       {!img && !error && <p className="text-stone-700">Drawing the matrix…</p>}
-      <div className="overflow-auto">
+      <div className="relative overflow-auto">
+        {img && cursor && canvasRef.current && (
+          <div
+            aria-hidden="true"
+            className="pointer-events-none absolute border-2 border-red-700"
+            style={(() => {
+              const c = canvasRef.current!;
+              const k = c.clientWidth / c.width;
+              const sx = img.width / nCols;
+              const sy = img.height / nRows;
+              return {
+                left: (left + 1 + cursor[1] * sx) * k - 2,
+                top: (top + 1 + cursor[0] * sy) * k - 2,
+                width: Math.max(4, sx * k + 4),
+                height: Math.max(4, sy * k + 4),
+              };
+            })()}
+          />
+        )}
         <canvas
           ref={canvasRef}
           data-testid="matrix-canvas"
@@ -149,11 +185,20 @@ export function MatrixCanvas({ view }: { view: NetworkView }) {
           aria-label={`Interaction matrix, ${nRows} by ${nCols}, ordered by module`}
           className="max-w-full"
           style={{ imageRendering: img && !img.cell ? "pixelated" : "auto", display: img ? "block" : "none" }}
+          tabIndex={0}
+          aria-describedby="matrix-help"
+          onKeyDown={onKey}
+          onBlur={() => setCursor(null)}
           onMouseMove={onMove}
           onMouseLeave={() => setHover("")}
         />
       </div>
-      <p className="mt-1 min-h-5 text-sm text-stone-700">{hover}</p>
+      <p className="mt-1 min-h-5 text-sm text-stone-700" aria-live="polite">
+        {hover}
+      </p>
+      <p id="matrix-help" className="text-xs text-stone-600">
+        Point at a cell, or focus the matrix and use the arrow keys (Shift moves 10 cells), to read its row, column, modules and value.
+      </p>
       <Legend
         items={[
           { label: "Link inside a module", colour: "#1f4d3a", shape: "square" },
