@@ -12,7 +12,7 @@ import { sequelize } from "../../server/src/db/sequelize";
 import { closeSequelize } from "../../server/src/db/sequelize";
 import { enqueueNetworkMetrics } from "../../server/src/jobs/enqueue";
 import { getCurrentMetrics } from "../../server/src/jobs/metrics-read";
-import { startMetricsWorker, stopMetricsWorker } from "../../server/src/jobs/metrics-worker";
+import { startMetricsWorker, stopMetricsWorker, sweepOrphanRuns } from "../../server/src/jobs/metrics-worker";
 import { createQueuedRuns } from "../../server/src/jobs/runs";
 import { sendRunJobs } from "../../server/src/jobs/queue";
 import { setPipelineSettings, settingsHash } from "../../server/src/jobs/settings";
@@ -97,6 +97,17 @@ describe("metrics pipeline", () => {
     expect(runs.filter((r) => r.q !== null)).toHaveLength(5);
     await waitFor(async () => (await MetricRun.count({ where: { networkId: networkIds, status: "succeeded" } })) === 5, "all five");
     await setPipelineSettings(LIGHT);
+  });
+
+  it("the sweeper queues published networks that never had a run, and re-sends runs whose job is missing", async () => {
+    const { networkIds } = await publishMatrices([randomMatrix(71, 7, 8, 0.35), randomMatrix(72, 8, 7, 0.35)]);
+    // A run row without a job (as if the process died between the commit and the send).
+    const [orphan] = (await createQueuedRuns([networkIds[1]], { settings: LIGHT })).created;
+    const swept = await sweepOrphanRuns();
+    expect(swept).toMatchObject({ resent: 1, queued: 1 });
+    await waitFor(async () => (await MetricRun.count({ where: { networkId: networkIds, status: "succeeded" } })) === 2, "both networks");
+    expect((await MetricRun.findByPk(orphan.id))!.status).toBe("succeeded");
+    expect(await MetricRun.count({ where: { networkId: networkIds } })).toBe(2);
   });
 
   it("a settings change computes a new run and keeps the old one", async () => {

@@ -29,6 +29,7 @@ import type { PipelineSettings } from "../../../shared/types/pipeline";
 import { sequelize } from "../db/sequelize";
 import { logger } from "../lib/logger";
 import { chunkReplicates, combineAnalysis, type ObservedResult } from "./compute";
+import { enqueueNetworkMetrics } from "./enqueue";
 import { closePool, poolThreads, runNulls, runObserved } from "./pool";
 import { getBoss, METRICS_QUEUE, registerLocalWorker, RETRY_LIMIT, sendRunJobs, stopQueue, type MetricsJobData, type MetricsPhase } from "./queue";
 import { validateSettings } from "./settings";
@@ -248,10 +249,25 @@ export async function handleJob(job: PgBoss.JobWithMetadata<MetricsJobData>): Pr
 }
 
 /**
- * Runs that should have a job but have none (never sent, or lost with a killed worker after the queue gave
- * up): re-sent, or failed for good after MAX_ATTEMPTS starts.
+ * Published networks that never had a metric run (e.g. published while the hand-over failed, or inserted
+ * by a script): queued with the current settings.
  */
-export async function sweepOrphanRuns(): Promise<{ resent: number; failed: number }> {
+export async function queueNeverComputed(): Promise<number> {
+  const rows = await sequelize().query<{ id: number }>(
+    `SELECT n.id FROM networks n JOIN dataset_versions v ON v.id = n.version_id
+      WHERE v.state = 'published' AND NOT EXISTS (SELECT 1 FROM metric_runs r WHERE r.network_id = n.id)
+      ORDER BY n.id LIMIT 10000`,
+    { type: QueryTypes.SELECT },
+  );
+  if (rows.length) await enqueueNetworkMetrics(rows.map((r) => r.id));
+  return rows.length;
+}
+
+/**
+ * Runs that should have a job but have none (never sent, or lost with a killed worker after the queue gave
+ * up): re-sent, or failed for good after MAX_ATTEMPTS starts. Then published networks never computed.
+ */
+export async function sweepOrphanRuns(): Promise<{ resent: number; failed: number; queued: number }> {
   const orphans = await sequelize().query<{ id: number; network_id: number; settings_hash: string; attempts: number; observed: boolean }>(
     `SELECT r.id, r.network_id, r.settings_hash, r.attempts, (r.results->>'phase' = 'observed') IS TRUE AS observed FROM metric_runs r
       WHERE r.status IN ('queued', 'running')
@@ -269,7 +285,8 @@ export async function sweepOrphanRuns(): Promise<{ resent: number; failed: numbe
     } else resend.push({ id: r.id, networkId: r.network_id, settingsHash: r.settings_hash, phase: r.observed ? "nulls" : "observed" });
   }
   await sendRunJobs(resend);
-  return { resent: resend.length, failed };
+  const queued = await queueNeverComputed();
+  return { resent: resend.length, failed, queued };
 }
 
 let workerIds: string[] = [];
@@ -295,7 +312,7 @@ export async function startMetricsWorker(opts: { concurrency?: number; pollingIn
   }
   const sweep = () =>
     sweepOrphanRuns().then(
-      (r) => r.resent + r.failed > 0 && logger.info(r, "metrics sweeper"),
+      (r) => r.resent + r.failed + r.queued > 0 && logger.info(r, "metrics sweeper"),
       (err: unknown) => logger.warn({ err }, "metrics sweeper failed"),
     );
   await sweep();
