@@ -79,7 +79,7 @@ describe("dataset pages", () => {
     await page.goto(`${stack.url}/datasets/TB-000001`);
     await page.getByRole("heading", { level: 1, name: "Flower visitors of the Verrin Hills meadows" }).waitFor();
     await page.getByText("TB-000001 · version 2").waitFor();
-    await page.locator('svg[data-map-ready="true"]').waitFor();
+    await page.locator('svg[data-map-ready="true"]').first().waitFor();
     expect(await page.getByTestId("citation-text").textContent()).toMatch(/^Hale R, Okafor I \(2025\) Flower visitors of the Verrin Hills meadows\. Version 2\. Tanglebank\. TB-000001\./);
     expect(await page.getByRole("link", { name: /ORCID 0000-0002-1825-0097/ }).getAttribute("href")).toBe("https://orcid.org/0000-0002-1825-0097");
     expect(await page.getByRole("link", { name: "doi:10.5555/tb.demo.1" }).getAttribute("href")).toBe("https://doi.org/10.5555/tb.demo.1");

@@ -128,7 +128,7 @@ export function LocalitySection({ d }: { d: DatasetDetail }) {
       <h2 id="loc-h" className={h2}>
         Where
       </h2>
-      <div className="mt-2 grid gap-4 lg:grid-cols-[1fr_22rem]">
+      <div className="mt-2 grid gap-4 lg:grid-cols-[1fr_36rem]">
         <ul className="space-y-3 text-sm">
           {sites.map((s, i) => (
             <li key={i}>
@@ -146,8 +146,14 @@ export function LocalitySection({ d }: { d: DatasetDetail }) {
             </li>
           ))}
         </ul>
-        <ChartFigure title="Locator map" caption={`${points.length} site${points.length === 1 ? "" : "s"} on a world outline (Natural Earth, Equal Earth projection).`}>
-          <WorldMap points={points} width={480} radius={6} label={`World map marking ${points.map((p) => p.title).join("; ")}`} />
+        <ChartFigure
+          title="Locator map"
+          caption={`${points.length} site${points.length === 1 ? "" : "s"}: the region (Mercator) and the world (Equal Earth), drawn from Natural Earth outlines shipped with Tanglebank.`}
+        >
+          <div className="grid grid-cols-2 gap-2">
+            <WorldMap points={points} width={320} radius={6} region={30} label={`Regional map marking ${points.map((p) => p.title).join("; ")}`} />
+            <WorldMap points={points} width={320} radius={5} label={`World map marking ${points.map((p) => p.title).join("; ")}`} />
+          </div>
         </ChartFigure>
       </div>
     </section>
