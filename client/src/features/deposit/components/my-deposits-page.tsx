@@ -47,7 +47,7 @@ function Row({ d }: { d: DepositListItem }) {
             </Button>
           )}
           {d.canStartNewVersion && d.accession && (
-            <Button type="button" variant="secondary" className="px-3 py-1.5 text-sm" busy={nv.isPending} onClick={() => nv.mutate(d.accession!, { onSuccess: (r) => r && "versionId" in r && navigate(resume.replace(String(d.versionId), String(r.versionId))) })}>
+            <Button type="button" variant="secondary" className="px-3 py-1.5 text-sm" busy={nv.isPending} onClick={() => nv.mutate(d.accession!, { onSuccess: (r) => r && "versionId" in r && navigate(paths.depositResume.href(r.versionId)) })}>
               Start version {d.number + 1}
             </Button>
           )}
