@@ -34,6 +34,8 @@ export function useDepositMutation<A>(fn: (a: A) => Promise<DepositDetail | { de
       const d = res && "deposit" in res ? res.deposit : (res as DepositDetail | undefined);
       if (d && "versionId" in d) qc.setQueryData(depositKeys.detail(d.versionId), d);
       void qc.invalidateQueries({ queryKey: depositKeys.lists() });
+      // A network read again has a new parsed form.
+      void qc.invalidateQueries({ queryKey: [...depositKeys.all, "canonical"] });
     },
   });
 }

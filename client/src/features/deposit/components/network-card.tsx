@@ -24,6 +24,34 @@ export function NetworkPicture({ versionId, n }: { versionId: number; n: Network
   return <MatrixPreview matrix={matrixFromCanonical(data)} label={`Matrix picture of network ${n.position}, ${n.originalName}`} size={120} />;
 }
 
+/** Read the stored file again as another kind of network (e.g. a food web uploaded as bipartite). */
+function ReadAs({ versionId, n }: { versionId: number; n: NetworkSummary }) {
+  const [kind, setKind] = useState(n.kind);
+  const [directed, setDirected] = useState(n.directed);
+  const m = useDepositMutation(() => updateNetwork(versionId, n.id, { kind, directed: kind === "unipartite" && directed }));
+  const changed = kind !== n.kind || (kind === "unipartite" && directed !== n.directed);
+  return (
+    <details className="mt-2 text-sm">
+      <summary className="cursor-pointer font-semibold text-moss-700">How the file is read</summary>
+      <div className="mt-2 flex flex-wrap items-center gap-4">
+        <label className="flex items-center gap-1.5">
+          <input type="radio" name={`kind-${n.id}`} checked={kind === "bipartite"} onChange={() => setKind("bipartite")} /> bipartite
+        </label>
+        <label className="flex items-center gap-1.5">
+          <input type="radio" name={`kind-${n.id}`} checked={kind === "unipartite"} onChange={() => setKind("unipartite")} /> one-mode
+        </label>
+        <label className="flex items-center gap-1.5">
+          <input type="checkbox" checked={kind === "unipartite" && directed} disabled={kind === "bipartite"} onChange={(e) => setDirected(e.target.checked)} /> directed
+        </label>
+        <Button type="button" variant="secondary" className="px-3 py-1 text-sm" disabled={!changed} busy={m.isPending} onClick={() => m.mutate(undefined)}>
+          Read the file again
+        </Button>
+      </div>
+      {m.error && <p role="alert" className="mt-1 text-red-800">{m.error.message}</p>}
+    </details>
+  );
+}
+
 export function NetworkCard({ versionId, n, count, editable, showAll, onMove }: { versionId: number; n: NetworkSummary; count: number; editable: boolean; showAll: boolean; onMove: (dir: -1 | 1) => void }) {
   const [draft, setDraft] = useState<NetworkDraft>(n.metadata as NetworkDraft);
   const [saved, setSaved] = useState(false);
@@ -40,6 +68,7 @@ export function NetworkCard({ versionId, n, count, editable, showAll, onMove }: 
             Network {n.position}: {draft.name || n.originalName}
           </h3>
           <NetworkSummaryLine n={n} />
+          {editable && <ReadAs key={`${n.kind}-${n.directed}`} versionId={versionId} n={n} />}
           {n.warnings.length > 0 && (
             <ul className="mt-1 list-disc pl-5 text-sm text-stone-800">
               {n.warnings.map((w, i) => (
