@@ -6,7 +6,6 @@ import { AppLayout } from "../components/layouts/app-layout";
 import { RouteError } from "./routes/route-error";
 import { HomePage } from "./routes/home";
 import { NotFoundPage } from "./routes/not-found";
-import { ComingSoon } from "./routes/coming-soon";
 import { paths } from "../config/paths";
 import { queryClient } from "../lib/query-client";
 import { getSessionQueryOptions } from "../features/auth/api/get-session";
@@ -19,7 +18,8 @@ const routes: RouteObject[] = [
     children: [
       { path: paths.home.path, element: <HomePage /> },
       // --- feature routes (keep one entry per line group, sorted by feature) ---
-      { path: paths.catalogue.path, element: <ComingSoon title="Catalogue" what="Search and filter published networks and download bundles." /> },
+      { path: paths.catalogue.path, lazy: () => import("./routes/catalogue") },
+      { path: paths.apiDocs.path, lazy: () => import("./routes/api-docs") },
       // deposit and curation
       { path: paths.deposit.path, lazy: () => import("./routes/deposit/deposit") },
       { path: paths.depositResume.path, lazy: () => import("./routes/deposit/deposit") },

@@ -23,4 +23,6 @@ export const paths = {
   networkView: { path: "/datasets/:accession/v/:n/networks/:pos", href: (accession: string, n: number, pos: number) => `/datasets/${accession}/v/${n}/networks/${pos}` },
   compare: { path: "/compare", href: (refs?: string[]) => (refs?.length ? `/compare?refs=${refs.join(",")}` : "/compare") },
   coverageMap: { path: "/map", href: () => "/map" },
+  // catalogue and API
+  apiDocs: { path: "/api-docs", href: () => "/api-docs" },
 } as const;

@@ -9,6 +9,7 @@ import { PasswordForm } from "../../../features/account/components/password-form
 import { EmailStatus } from "../../../features/auth/components/email-status";
 import { SignOutButton } from "../../../features/auth/components/sign-out-button";
 import { requireSignedInLoader } from "../../../features/auth/utils/require-session";
+import { ApiTokensPanel } from "../../../features/tokens/components/api-tokens-panel";
 
 export const loader = requireSignedInLoader();
 
@@ -36,6 +37,7 @@ export function Component() {
       <PasswordForm />
       <div id="account-extra" className="space-y-6">
         {/* Sections of other features (e.g. API tokens) go here. */}
+        <ApiTokensPanel />
       </div>
     </div>
   );

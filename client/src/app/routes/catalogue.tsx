@@ -1,0 +1,7 @@
+/** The Catalogue route: the catalogue page with the bundle actions (features meet here). */
+import { CataloguePage } from "../../features/catalogue/components/catalogue-page";
+import { BundleActions } from "../../features/bundles/components/bundle-actions";
+
+export function Component() {
+  return <CataloguePage actions={({ selected, filter, total }) => <BundleActions selected={selected} filter={filter} total={total} />} />;
+}

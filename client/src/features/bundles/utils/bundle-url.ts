@@ -1,0 +1,17 @@
+/** Download addresses of bundles (GET streams the zip; long selections go by POST instead). */
+export const MAX_REFS_IN_URL = 300;
+
+export function bundleUrlForFilter(filter: URLSearchParams): string {
+  const q = filter.toString();
+  return `/api/v1/bundles${q ? `?${q}` : ""}`;
+}
+
+export function bundleUrlForRefs(refs: string[]): string {
+  return `/api/v1/bundles?refs=${refs.map(encodeURIComponent).join(",")}`;
+}
+
+export function formatBytes(n: number): string {
+  if (n < 1024 * 1024) return `${Math.max(1, Math.round(n / 1024))} kB`;
+  if (n < 1024 * 1024 * 1024) return `${(n / 1024 / 1024).toFixed(n < 10 * 1024 * 1024 ? 1 : 0)} MB`;
+  return `${(n / 1024 / 1024 / 1024).toFixed(1)} GB`;
+}

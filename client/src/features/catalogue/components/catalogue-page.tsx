@@ -1,0 +1,360 @@
+/**
+ * The Catalogue: full-text search, filters with counts per value, range filters, a sortable paginated
+ * table (every setting in the URL, so a link reproduces the view), and a selection kept across pages.
+ * Actions on the selection or on everything matching (bundles) are passed in by the route.
+ */
+import { useMemo, useState, type ReactNode } from "react";
+import { Link, useSearchParams } from "react-router-dom";
+import { createColumnHelper, flexRender, getCoreRowModel, useReactTable, type SortingState } from "@tanstack/react-table";
+import { Alert, Button } from "../../../components/ui/form";
+import { paths } from "../../../config/paths";
+import { useCatalogue, type CatalogueFacets, type CatalogueRow, type FacetValue } from "../api/get-catalogue";
+import { LIST_FILTERS, PAGE_SIZE, RANGE_FILTERS, filterOnly, hasFilters, listValues, toggleValue, valueLabel, withParams, type ListFilter } from "../utils/catalogue-params";
+import { useSelection } from "../utils/selection";
+
+export interface CatalogueActionsContext {
+  /** Selected network references, across pages. */
+  selected: string[];
+  /** The current filters (no paging or sorting): "everything matching". */
+  filter: URLSearchParams;
+  /** How many networks match the filters. */
+  total: number;
+  clearSelection: () => void;
+}
+
+const FILTER_TITLES: Record<ListFilter, string> = {
+  interactionType: "Interaction type",
+  kind: "Kind",
+  weighted: "Weights",
+  habitat: "Habitat",
+  country: "Country",
+  licence: "Licence",
+};
+
+const SORT_OF_COLUMN: Record<string, string> = { ref: "accession", title: "title", interactionType: "type", S: "S", C: "C", Q: "Q", z: "z", year: "year" };
+const COLUMN_OF_SORT = Object.fromEntries(Object.entries(SORT_OF_COLUMN).map(([c, s]) => [s, c]));
+
+const fmt = (v: number | null, digits: number) => (v === null ? "—" : v.toFixed(digits));
+
+function FacetGroup({ name, values, chosen, onToggle }: { name: ListFilter; values: FacetValue[]; chosen: string[]; onToggle: (v: string) => void }) {
+  const [all, setAll] = useState(false);
+  const shown = all ? values : values.slice(0, 8);
+  if (!values.length) return null;
+  return (
+    <fieldset className="border-t border-stone-200 pt-3">
+      <legend className="text-sm font-bold text-stone-800">{FILTER_TITLES[name]}</legend>
+      <ul className="mt-1 space-y-1">
+        {shown.map((f) => {
+          const id = `facet-${name}-${f.value}`;
+          return (
+            <li key={f.value} className="flex items-center gap-2 text-sm">
+              <input id={id} type="checkbox" className="h-4 w-4 accent-moss-700" checked={chosen.includes(f.value)} onChange={() => onToggle(f.value)} />
+              <label htmlFor={id} className="flex flex-1 justify-between gap-2 text-stone-800">
+                <span>{valueLabel(name, f.value)}</span>
+                <span className="tabular-nums text-stone-600" aria-label={`${f.count} networks`}>
+                  {f.count}
+                </span>
+              </label>
+            </li>
+          );
+        })}
+      </ul>
+      {values.length > 8 && (
+        <button type="button" className="mt-1 text-sm font-semibold text-moss-700 underline" onClick={() => setAll(!all)}>
+          {all ? "Show fewer" : `Show all ${values.length}`}
+        </button>
+      )}
+    </fieldset>
+  );
+}
+
+function RangeFilters({ params, facets, onApply }: { params: URLSearchParams; facets: CatalogueFacets | undefined; onApply: (next: Record<string, string>) => void }) {
+  return (
+    <form
+      key={params.toString()}
+      aria-label="Range filters"
+      className="space-y-3 border-t border-stone-200 pt-3"
+      onSubmit={(e) => {
+        e.preventDefault();
+        const f = new FormData(e.currentTarget);
+        const next: Record<string, string> = {};
+        for (const r of RANGE_FILTERS) {
+          next[r.min] = String(f.get(r.min) ?? "").trim();
+          next[r.max] = String(f.get(r.max) ?? "").trim();
+        }
+        onApply(next);
+      }}
+    >
+      {RANGE_FILTERS.map((r) => {
+        const facet = facets?.[r.key];
+        const hint = facet && facet.min !== null ? `${+facet.min.toFixed(3)} – ${+facet.max!.toFixed(3)} among matches` : "no values among matches";
+        return (
+          <fieldset key={r.key}>
+            <legend className="text-sm font-bold text-stone-800">{r.label}</legend>
+            <p className="text-xs text-stone-600">{hint}</p>
+            <div className="mt-1 flex items-center gap-2">
+              <label className="sr-only" htmlFor={`range-${r.min}`}>
+                {r.label}: at least
+              </label>
+              <input id={`range-${r.min}`} name={r.min} type="number" step={r.step} placeholder="min" defaultValue={params.get(r.min) ?? ""} className="w-24 rounded border border-stone-400 px-2 py-1 text-sm" />
+              <span aria-hidden="true">–</span>
+              <label className="sr-only" htmlFor={`range-${r.max}`}>
+                {r.label}: at most
+              </label>
+              <input id={`range-${r.max}`} name={r.max} type="number" step={r.step} placeholder="max" defaultValue={params.get(r.max) ?? ""} className="w-24 rounded border border-stone-400 px-2 py-1 text-sm" />
+            </div>
+          </fieldset>
+        );
+      })}
+      <Button className="w-full px-3 py-1.5 text-sm" variant="secondary">
+        Apply ranges
+      </Button>
+    </form>
+  );
+}
+
+const col = createColumnHelper<CatalogueRow>();
+
+export function CataloguePage({ actions }: { actions?: (ctx: CatalogueActionsContext) => ReactNode }) {
+  const [params, setParams] = useSearchParams();
+  const search = params.toString();
+  const catalogue = useCatalogue(search);
+  const { selected, toggle, setMany, clear } = useSelection();
+  const page = Math.max(1, Number(params.get("page")) || 1);
+  const pageSize = Number(params.get("pageSize")) || PAGE_SIZE;
+  const total = catalogue.data?.meta.total ?? 0;
+  const pages = Math.max(1, Math.ceil(total / pageSize));
+  const rows = useMemo(() => catalogue.data?.data ?? [], [catalogue.data]);
+  const sort = params.get("sort");
+  const sorting: SortingState = sort && COLUMN_OF_SORT[sort] ? [{ id: COLUMN_OF_SORT[sort], desc: params.get("order") === "desc" }] : [];
+  const pageRefs = rows.map((r) => r.ref);
+  const allOnPage = pageRefs.length > 0 && pageRefs.every((r) => selected.includes(r));
+
+  const update = (p: URLSearchParams) => setParams(p, { replace: false });
+
+  const columns = useMemo(
+    () => [
+      col.display({
+        id: "select",
+        header: () => (
+          <input
+            type="checkbox"
+            className="h-4 w-4 accent-moss-700"
+            aria-label="Select every network on this page"
+            checked={allOnPage}
+            onChange={(e) => setMany(pageRefs, e.target.checked)}
+          />
+        ),
+        cell: (c) => (
+          <input
+            type="checkbox"
+            className="h-4 w-4 accent-moss-700"
+            aria-label={`Select ${c.row.original.ref}`}
+            checked={selected.includes(c.row.original.ref)}
+            onChange={() => toggle(c.row.original.ref)}
+          />
+        ),
+      }),
+      col.accessor("ref", {
+        header: "Network",
+        cell: (c) => (
+          <Link className="font-semibold whitespace-nowrap text-moss-700 underline" to={paths.dataset.href(c.row.original.accession)}>
+            {c.getValue()}
+          </Link>
+        ),
+      }),
+      col.accessor("title", {
+        header: "Title",
+        cell: (c) => (
+          <span>
+            <span className="text-stone-900">{c.getValue()}</span>
+            <span className="block text-xs text-stone-600">{c.row.original.name}</span>
+          </span>
+        ),
+      }),
+      col.accessor("interactionType", { header: "Interaction", cell: (c) => (c.getValue() ?? "—").replace(/-/g, " ") }),
+      col.accessor("kind", { header: "Kind", enableSorting: false, cell: (c) => `${c.getValue()}${c.row.original.directed ? ", directed" : ""}${c.row.original.weighted ? ", weighted" : ""}` }),
+      col.accessor("S", { header: "S", cell: (c) => c.getValue() }),
+      col.accessor("C", { header: "C", cell: (c) => fmt(c.getValue(), 3) }),
+      col.accessor("Q", { header: "Q", cell: (c) => fmt(c.getValue(), 3) }),
+      col.accessor("z", { header: "z", cell: (c) => fmt(c.getValue(), 2) }),
+      col.accessor("country", { header: "Country", enableSorting: false, cell: (c) => c.getValue() ?? "—" }),
+      col.accessor((r) => r.startYear, {
+        id: "year",
+        header: "Year",
+        cell: (c) => (c.row.original.startYear === null ? "—" : c.row.original.endYear && c.row.original.endYear !== c.row.original.startYear ? `${c.row.original.startYear}–${c.row.original.endYear}` : String(c.row.original.startYear)),
+      }),
+    ],
+    [selected, allOnPage, pageRefs, setMany, toggle],
+  );
+
+  const table = useReactTable({
+    data: rows,
+    columns,
+    getCoreRowModel: getCoreRowModel(),
+    manualSorting: true,
+    manualPagination: true,
+    // first click ascending, second descending, third back to the default order
+    sortDescFirst: false,
+    pageCount: pages,
+    state: { sorting },
+    onSortingChange: (updater) => {
+      const next = typeof updater === "function" ? updater(sorting) : updater;
+      const s = next[0];
+      update(withParams(params, { sort: s ? SORT_OF_COLUMN[s.id] : undefined, order: s ? (s.desc ? "desc" : "asc") : undefined, page: undefined }));
+    },
+    getRowId: (r) => r.ref,
+  });
+
+  const facets = catalogue.data?.meta.facets;
+  return (
+    <div className="space-y-4">
+      <div className="flex flex-wrap items-end justify-between gap-4">
+        <div>
+          <h1 className="text-2xl font-bold text-moss-700">Catalogue</h1>
+          <p className="mt-1 max-w-3xl text-stone-700">
+            Every published interaction network, one row each, with its current metrics. Search, filter, select across pages, then bundle or compare. Scripts can use the same filters through the{" "}
+            <Link className="font-semibold text-moss-700 underline" to="/api-docs">
+              API
+            </Link>
+            .
+          </p>
+        </div>
+      </div>
+
+      <form
+        role="search"
+        aria-label="Search the catalogue"
+        className="flex flex-wrap items-end gap-3 rounded-lg bg-white p-4 ring-1 ring-stone-200"
+        onSubmit={(e) => {
+          e.preventDefault();
+          const q = String(new FormData(e.currentTarget).get("q") ?? "").trim();
+          update(withParams(params, { q, page: undefined, sort: q ? undefined : params.get("sort"), order: q ? undefined : params.get("order") }));
+        }}
+      >
+        <div className="min-w-64 flex-1">
+          <label htmlFor="catalogue-q" className="block text-sm font-semibold text-stone-800">
+            Search titles, descriptions, keywords, creators, places and taxon names
+          </label>
+          <input
+            id="catalogue-q"
+            key={params.get("q") ?? ""}
+            name="q"
+            type="search"
+            defaultValue={params.get("q") ?? ""}
+            placeholder="e.g. Verrin meadow Bombus"
+            className="mt-1 block w-full rounded border border-stone-400 bg-white px-3 py-2 text-stone-900 focus:border-moss-600 focus:outline-none focus:ring-2 focus:ring-moss-200"
+          />
+        </div>
+        <Button>Search</Button>
+        {hasFilters(params) && (
+          <Button type="button" variant="secondary" onClick={() => update(new URLSearchParams())}>
+            Clear all
+          </Button>
+        )}
+      </form>
+
+      <p className="rounded border-l-4 border-lichen-600 bg-lichen-300/30 p-3 text-sm text-stone-900">
+        <strong>Caution:</strong> raw Q is not comparable across networks of different size, connectance and sampling effort. Compare z or Q<sub>rel</sub> (Q against the
+        network&apos;s own null model) instead.
+      </p>
+
+      <div className="grid gap-4 lg:grid-cols-[16rem_1fr]">
+        <aside aria-label="Filters" className="space-y-3 self-start rounded-lg bg-white p-4 ring-1 ring-stone-200">
+          <h2 className="text-lg font-bold text-moss-700">Filters</h2>
+          <p className="text-xs text-stone-600">Numbers: networks each value would give with the other filters applied.</p>
+          {LIST_FILTERS.map((name) => (
+            <FacetGroup key={name} name={name} values={facets?.[name] ?? []} chosen={listValues(params, name)} onToggle={(v) => update(toggleValue(params, name, v))} />
+          ))}
+          <RangeFilters params={params} facets={facets} onApply={(next) => update(withParams(params, { ...next, page: undefined }))} />
+        </aside>
+
+        <section aria-labelledby="results-heading" className="min-w-0 space-y-3">
+          <div className="flex flex-wrap items-center justify-between gap-2">
+            <h2 id="results-heading" className="text-lg font-bold text-stone-900" aria-live="polite">
+              {catalogue.isPending ? "Loading…" : `${total.toLocaleString("en")} network${total === 1 ? "" : "s"}`}
+            </h2>
+          </div>
+          <div className="flex flex-wrap items-center gap-3 rounded-lg bg-moss-50 p-3 ring-1 ring-moss-200" aria-label="Selection">
+            <p className="font-semibold text-moss-900" aria-live="polite" data-testid="selection-count">
+              {selected.length} selected
+            </p>
+            {selected.length > 0 && (
+              <>
+                <Link className="font-semibold text-moss-700 underline" to={paths.compare.href(selected.slice(0, 50))}>
+                  Compare selected
+                </Link>
+                <button type="button" className="text-sm font-semibold text-stone-700 underline" onClick={clear}>
+                  Clear selection
+                </button>
+              </>
+            )}
+            {actions?.({ selected, filter: filterOnly(params), total, clearSelection: clear })}
+          </div>
+          {catalogue.error && <Alert tone="error">{catalogue.error.message}</Alert>}
+          <div className="overflow-x-auto rounded-lg bg-white ring-1 ring-stone-200">
+            <table className="min-w-full text-left text-sm">
+              <caption className="sr-only">Published networks, page {page} of {pages}</caption>
+              <thead className="border-b border-stone-200 bg-stone-50 text-stone-700">
+                {table.getHeaderGroups().map((hg) => (
+                  <tr key={hg.id}>
+                    {hg.headers.map((h) => {
+                      const sortable = h.column.id in SORT_OF_COLUMN;
+                      const dir = h.column.getIsSorted();
+                      return (
+                        <th key={h.id} scope="col" className="px-3 py-2 font-semibold whitespace-nowrap" aria-sort={dir === "asc" ? "ascending" : dir === "desc" ? "descending" : undefined}>
+                          {sortable ? (
+                            <button type="button" className="inline-flex items-center gap-1 font-semibold hover:text-moss-700" onClick={h.column.getToggleSortingHandler()}>
+                              {flexRender(h.column.columnDef.header, h.getContext())}
+                              <span aria-hidden="true" className="text-xs">
+                                {dir === "asc" ? "▲" : dir === "desc" ? "▼" : "↕"}
+                              </span>
+                              <span className="sr-only">, sort</span>
+                            </button>
+                          ) : (
+                            flexRender(h.column.columnDef.header, h.getContext())
+                          )}
+                        </th>
+                      );
+                    })}
+                  </tr>
+                ))}
+              </thead>
+              <tbody>
+                {table.getRowModel().rows.map((r) => (
+                  <tr key={r.id} className={`border-b border-stone-100 last:border-0 ${selected.includes(r.id) ? "bg-moss-50" : ""}`}>
+                    {r.getVisibleCells().map((c) => (
+                      <td key={c.id} className={`px-3 py-2 align-top ${["S", "C", "Q", "z"].includes(c.column.id) ? "text-right tabular-nums" : ""}`}>
+                        {flexRender(c.column.columnDef.cell, c.getContext())}
+                      </td>
+                    ))}
+                  </tr>
+                ))}
+                {catalogue.data && rows.length === 0 && (
+                  <tr>
+                    <td colSpan={columns.length} className="px-4 py-6 text-center text-stone-700">
+                      No published network matches. Remove a filter or search for other words.
+                    </td>
+                  </tr>
+                )}
+              </tbody>
+            </table>
+          </div>
+          <nav aria-label="Pages of networks" className="flex flex-wrap items-center justify-between gap-2 text-sm text-stone-700">
+            <p>
+              Page {page} of {pages}
+            </p>
+            <div className="flex gap-2">
+              <Button type="button" variant="secondary" className="px-3 py-1.5 text-sm" disabled={page <= 1} onClick={() => update(withParams(params, { page: page - 1 > 1 ? String(page - 1) : undefined }))}>
+                Previous page
+              </Button>
+              <Button type="button" variant="secondary" className="px-3 py-1.5 text-sm" disabled={page >= pages} onClick={() => update(withParams(params, { page: String(page + 1) }))}>
+                Next page
+              </Button>
+            </div>
+          </nav>
+        </section>
+      </div>
+    </div>
+  );
+}

@@ -1,0 +1,26 @@
+import { queryOptions, useQuery } from "@tanstack/react-query";
+import { apiFetch } from "../../../lib/api-client";
+
+export interface ApiTokenView {
+  id: number;
+  name: string;
+  prefix: string;
+  createdAt: string;
+  lastUsedAt: string | null;
+  revokedAt: string | null;
+}
+
+export const tokensKeys = {
+  all: ["api-tokens"] as const,
+  list: () => [...tokensKeys.all, "list"] as const,
+};
+
+export function getTokens(): Promise<{ data: ApiTokenView[] }> {
+  return apiFetch("/tokens");
+}
+
+export const getTokensQueryOptions = () => queryOptions({ queryKey: tokensKeys.list(), queryFn: getTokens });
+
+export function useTokens() {
+  return useQuery(getTokensQueryOptions());
+}
