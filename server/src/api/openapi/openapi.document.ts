@@ -256,6 +256,15 @@ export function openapiDocument(): Json {
       "/network-views/summaries": {
         get: { tags: ["Networks"], operationId: "getNetworkSummaries", summary: "Compact summaries of several networks (for comparisons)", parameters: [queryParam("refs", "Comma-separated network references", { type: "string" }, "TB-000001/v1/1,TB-000001/v1/2")], responses: { 200: json({ type: "object" }) } },
       },
+      "/network-views/map": {
+        get: {
+          tags: ["Catalogue"],
+          operationId: "getCoverageMap",
+          summary: "Every catalogue network matching the filters with its public (generalised) coordinates, for maps",
+          parameters: filterParameters,
+          responses: { 200: json({ type: "object" }), 400: error("A parameter is not valid") },
+        },
+      },
       "/network-views/{accession}/{version}/{position}": {
         get: { tags: ["Networks"], operationId: "getNetworkView", summary: "Everything the network page plots: matrix order, partition, null distribution, roles", parameters: NETWORK_REF_PARAMS, responses: { 200: json({ type: "object" }), 404: error("Not found"), 410: error("Withdrawn") } },
       },
