@@ -1,0 +1,35 @@
+/**
+ * The catalogue's URL state: toggling facet values, setting and clearing parameters, and what
+ * "everything matching" sends to the bundle endpoint (filters only, never paging or sorting).
+ */
+import { describe, expect, it } from "vitest";
+import { filterOnly, hasFilters, listValues, toggleValue, withParams } from "../../client/src/features/catalogue/utils/catalogue-params";
+import { bundleUrlForFilter, bundleUrlForRefs, formatBytes } from "../../client/src/features/bundles/utils/bundle-url";
+
+describe("catalogue URL parameters", () => {
+  it("toggles facet values as a comma list and goes back to page 1", () => {
+    let p = new URLSearchParams("page=3&country=NO");
+    p = toggleValue(p, "country", "SE");
+    expect(listValues(p, "country")).toEqual(["NO", "SE"]);
+    expect(p.get("page")).toBeNull();
+    p = toggleValue(p, "country", "NO");
+    p = toggleValue(p, "country", "SE");
+    expect(p.has("country")).toBe(false);
+  });
+
+  it("sets and clears values; the bundle filter drops paging and sorting", () => {
+    const p = withParams(new URLSearchParams("q=moor&sort=z&order=desc&page=2&pageSize=50&nodesMin=10"), { nodesMin: "", zMin: "1.5" });
+    expect(p.toString()).toBe("q=moor&sort=z&order=desc&page=2&pageSize=50&zMin=1.5");
+    expect(filterOnly(p).toString()).toBe("q=moor&zMin=1.5");
+    expect(hasFilters(new URLSearchParams("sort=S&page=2"))).toBe(false);
+    expect(bundleUrlForFilter(filterOnly(p))).toBe("/api/v1/bundles?q=moor&zMin=1.5");
+    expect(bundleUrlForRefs(["TB-000001/v1/2", "TB-000003/v2/1"])).toBe("/api/v1/bundles?refs=TB-000001%2Fv1%2F2,TB-000003%2Fv2%2F1");
+  });
+
+  it("formats sizes", () => {
+    expect(formatBytes(500)).toBe("1 kB");
+    expect(formatBytes(80 * 1024)).toBe("80 kB");
+    expect(formatBytes(3.25 * 1024 * 1024)).toBe("3.3 MB");
+    expect(formatBytes(250 * 1024 * 1024)).toBe("250 MB");
+  });
+});
