@@ -281,7 +281,7 @@ describe("public read API, versions and withdrawal", () => {
 
     const latest = await visitor.agent.get(`/api/v1/datasets/${accession}`);
     expect(latest.body).toMatchObject({ version: { number: 2, networkCount: 1 }, latestPublishedVersion: 2, metadata: { title: "Flower visitors of the Verrin Hills heath, revised" } });
-    expect(latest.body.versions.map((v: { number: number; state: string }) => `${v.number}:${v.state}`)).toEqual(["1:published", "2:published"]);
+    expect(latest.body.versions.map((v: { number: number; state: string; networkCount: number }) => `${v.number}:${v.state}:${v.networkCount}`)).toEqual(["1:published:2", "2:published:1"]);
     const old = await visitor.agent.get(`/api/v1/datasets/${accession}?version=1`);
     expect(old.body).toMatchObject({ version: { number: 1, networkCount: 2 }, latestPublishedVersion: 2, metadata: { title: studyMeta().title } });
     expect((await visitor.agent.get(`/api/v1/datasets/${accession}/versions/1`)).body.version.number).toBe(1);

@@ -164,7 +164,15 @@ export async function decide(versionId: number, viewer: Viewer, input: { decisio
   }
   const { dataset, version } = await loadVisibleVersion(versionId, viewer);
   if (dataset.ownerId === viewer.id) throw ApiError.forbidden("You cannot decide on your own deposit; another curator must review it.");
-  if (version.state !== "submitted") throw ApiError.conflict(`This version is not awaiting a decision: it is ${version.state.replace("_", " ")}.`);
+  if (version.state !== "submitted") {
+    const state = version.state.replace("_", " ");
+    const last = await Review.findOne({ where: { versionId: version.id }, order: [["id", "DESC"]], include: [{ model: User, as: "curator", attributes: ["displayName"] }] });
+    if (last && ["published", "declined", "changes_requested"].includes(version.state)) {
+      const who = last.curatorId === viewer.id ? "You already decided on this submission" : `Another curator decided on this submission first (${(last as Review & { curator?: User }).curator?.displayName ?? "a curator"})`;
+      throw ApiError.conflict(`${who}: it is now ${state}. Reload the page; your decision was not recorded.`);
+    }
+    throw ApiError.conflict(`This version is not awaiting a decision: it is ${state}.`);
+  }
   const seenLock = input.lockVersion ?? version.lockVersion;
   const newState = input.decision === "publish" ? "published" : input.decision === "decline" ? "declined" : "changes_requested";
 
