@@ -8,7 +8,7 @@ import type { AddressInfo } from "node:net";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { createApp } from "../../server/src/app";
 import { shutdownServerResources } from "../../server/src/index";
-import { resetConfig } from "../../server/src/config/env";
+import { config, resetConfig } from "../../server/src/config/env";
 import { resetRateLimits } from "../../server/src/middlewares/rate-limit";
 import { sequelize } from "../../server/src/db/sequelize";
 import { AuditLog } from "../../server/src/models";
@@ -352,7 +352,7 @@ describe("submission", () => {
 
     const mail = await catcher.waitFor((m) => m.subject.includes("New submission") && m.text.includes(`/review/${id}`));
     expect(mail.to.length).toBeGreaterThanOrEqual(1);
-    expect(mail.links).toContain(`${process.env.PUBLIC_URL ?? "http://127.0.0.1:3000"}/review/${id}`.replace(/^undefined/, ""));
+    expect(mail.links).toContain(`${config().publicUrl}/review/${id}`);
     const audit = await AuditLog.findOne({ where: { action: "deposit.submit", entityId: String(id) } });
     expect(audit?.details).toMatchObject({ from: "draft", to: "submitted" });
 
