@@ -16,6 +16,9 @@ import { catalogueStore } from "../../server/src/api/catalogue/catalogue.store";
 import { deserializeNetwork, parseNetworkText, serializeNetwork } from "../../shared/network/index";
 import { resetDatabase } from "../setup/db";
 import { publishDataset, type PublishedFixture } from "./support/catalogue-fixtures";
+import { Writable } from "node:stream";
+import { resolveSelection } from "../../server/src/api/bundles/bundles.selection";
+import { writeBundle } from "../../server/src/api/bundles/bundles.stream";
 
 const app = createApp();
 let a: PublishedFixture;
@@ -188,5 +191,30 @@ describe("bundle contents", () => {
     // the estimate is of the uncompressed files: within a factor of 3 of the truth on small networks
     expect(est.body.estimatedBytes).toBeGreaterThan(total / 3);
     expect(est.body.estimatedBytes).toBeLessThan(total * 3);
+  });
+
+  it("stops reading networks when the client goes away", async () => {
+    const big = await publishDataset({ study: { title: "Many plots" }, networks: Array.from({ length: 150 }, (_, i) => ({ seed: 1000 + i, rows: 8, cols: 9 })) });
+    const nets = await resolveSelection({ kind: "refs", refs: big.networkIds.map((_, i) => `${big.accession}/v1/${i + 1}`) });
+    const sink = () => {
+      let bytes = 0;
+      return { w: new Writable({ write(c: Buffer, _e, cb) { bytes += c.length; cb(); } }), bytes: () => bytes };
+    };
+    const full = sink();
+    const done = await writeBundle(full.w, { networks: nets, title: "all", signal: new AbortController().signal });
+    expect(done.aborted).toBe(false);
+    // the client disconnects after the first bytes: the bundle ends early, the temporary files are removed
+    const ctrl = new AbortController();
+    let bytes = 0;
+    const early = new Writable({
+      write(c: Buffer, _e, cb) {
+        bytes += c.length;
+        ctrl.abort();
+        cb();
+      },
+    });
+    const cut = await writeBundle(early, { networks: nets, title: "cut", signal: ctrl.signal });
+    expect(cut.aborted).toBe(true);
+    expect(bytes).toBeLessThan(full.bytes() / 2);
   });
 });
