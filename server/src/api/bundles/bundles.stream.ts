@@ -10,7 +10,7 @@ import { createReadStream } from "node:fs";
 import { mkdtemp, open, rm } from "node:fs/promises";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
-import { Readable } from "node:stream";
+import { Readable, Transform } from "node:stream";
 import type { Writable } from "node:stream";
 import { ZipArchive } from "archiver";
 import { QueryTypes } from "sequelize";
@@ -113,6 +113,30 @@ interface CanonicalRow {
   title: string | null;
 }
 
+/**
+ * Gathers the zip's many small pieces (headers, descriptors, deflate output) into chunks of about 64 kB
+ * before they reach the socket: far fewer writes for the same bytes.
+ */
+function coalescer(size = 64 * 1024): Transform {
+  let parts: Buffer[] = [];
+  let length = 0;
+  return new Transform({
+    transform(chunk: Buffer, _enc, cb) {
+      parts.push(chunk);
+      length += chunk.length;
+      if (length >= size) {
+        const out = Buffer.concat(parts, length);
+        parts = [];
+        length = 0;
+        cb(null, out);
+      } else cb();
+    },
+    flush(cb) {
+      cb(null, length ? Buffer.concat(parts, length) : undefined);
+    },
+  });
+}
+
 const licenseObj = (l: string) => ({ name: l, path: licenceUrl(l), title: l === "CC0-1.0" ? "CC0 1.0 Universal" : l === "CC-BY-4.0" ? "Creative Commons Attribution 4.0" : l });
 
 /**
@@ -155,7 +179,7 @@ export async function writeBundle(out: Writable, opts: BundleOptions): Promise<{
   const waitFor = async (n: number) => {
     while (processed < n && !signal.aborted && !failure) await new Promise<void>((r) => (wake = r));
   };
-  archive.pipe(out);
+  archive.pipe(coalescer()).pipe(out);
   /** A stream entry from an async generator; a failure (e.g. the database) aborts the whole bundle. */
   const fromGenerator = (gen: AsyncGenerator<string | Buffer>) =>
     Readable.from(
