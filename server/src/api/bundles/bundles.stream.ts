@@ -25,7 +25,7 @@ import { loadCatalogueRows, type CatalogueEntry } from "../catalogue/catalogue.r
 import { fileNameOf, type SelectedNetwork } from "./bundles.selection";
 import { bundleReadme } from "./bundles.readme";
 
-const BATCH = 100;
+const DEFAULT_BATCH = 100;
 
 export const METRICS_FIELDS: Array<[string, "string" | "integer" | "number", string, (e: CatalogueEntry) => unknown]> = [
   ["accession", "string", "Dataset accession", (e) => e.accession],
@@ -104,6 +104,8 @@ export interface BundleOptions {
   signal: AbortSignal;
   /** zlib level (1 = fast; bundles are mostly zeros, which compress well even at level 1). */
   level?: number;
+  /** Networks read from the database at a time (default 100). */
+  batchSize?: number;
 }
 
 interface CanonicalRow {
@@ -150,6 +152,7 @@ const licenseObj = (l: string) => ({ name: l, path: licenceUrl(l), title: l === 
  */
 export async function writeBundle(out: Writable, opts: BundleOptions): Promise<{ aborted: boolean; bytes: number }> {
   const { networks, signal } = opts;
+  const BATCH = opts.batchSize ?? DEFAULT_BATCH;
   const archive = new ZipArchive({ zlib: { level: opts.level ?? 1 } });
   let processed = 0;
   let wake: (() => void) | null = null;
@@ -178,6 +181,25 @@ export async function writeBundle(out: Writable, opts: BundleOptions): Promise<{
   signal.addEventListener("abort", onAbort);
   const waitFor = async (n: number) => {
     while (processed < n && !signal.aborted && !failure) await new Promise<void>((r) => (wake = r));
+  };
+  /**
+   * Archiver consumes entries whether or not its output is read, so the socket's backpressure is checked
+   * here: no new batch is read while the client has not taken what was already sent.
+   */
+  const waitForClient = async () => {
+    while (!signal.aborted && !failure && (out.writableNeedDrain || archive.readableLength > 4 * 1024 * 1024)) {
+      await new Promise<void>((resolve) => {
+        const done = () => {
+          out.off("drain", done);
+          signal.removeEventListener("abort", done);
+          clearTimeout(timer);
+          resolve();
+        };
+        const timer = setTimeout(done, 100);
+        out.once("drain", done);
+        signal.addEventListener("abort", done);
+      });
+    }
   };
   archive.pipe(coalescer()).pipe(out);
   /** A stream entry from an async generator; a failure (e.g. the database) aborts the whole bundle. */
@@ -237,6 +259,7 @@ export async function writeBundle(out: Writable, opts: BundleOptions): Promise<{
       const byId = new Map(rows.map((r) => [r.network_id, r]));
       const entryOf = new Map(entries.map((e) => [e.networkId, e]));
       await waitFor(appended - BATCH);
+      await waitForClient();
       if (signal.aborted || failure) break;
       const resourceLines: string[] = [];
       const metricLines: string[] = [];
