@@ -1,7 +1,7 @@
 /**
  * A standalone metrics worker (`npm run worker`): connects to the database in DATABASE_URL and works the
  * metrics queue with a worker-thread pool sized to this machine's cores. Start as many as you like, on any
- * machine that reaches the database. SIGINT/SIGTERM: finish the running jobs (up to 60 s), then exit.
+ * machine that reaches the database. SIGINT/SIGTERM: finish the running jobs (up to 15 s; unfinished ones go back to the queue), then exit.
  */
 import { config } from "./config/env";
 import { migrateUp } from "./db/migrator";
@@ -20,7 +20,7 @@ async function stop(signal: string) {
   if (stopping) return;
   stopping = true;
   console.log(`${signal}: finishing running metrics jobs…`);
-  await stopMetricsWorker({ timeoutMs: 60_000 }).catch((err: unknown) => console.error(err));
+  await stopMetricsWorker({ timeoutMs: 15_000 }).catch((err: unknown) => console.error(err));
   await closeSequelize();
   process.exit(0);
 }

@@ -239,6 +239,8 @@ export async function handleJob(job: PgBoss.JobWithMetadata<MetricsJobData>): Pr
   try {
     await processRun(runId, job.data.phase === "observed" ? "observed" : "nulls");
   } catch (err) {
+    // Interrupted by this process stopping: the queue retries the job elsewhere or at the next start.
+    if (stopping) throw err;
     const message = errorMessage(err);
     const run = await loadRun(runId);
     const lastAttempt = job.retryCount >= job.retryLimit || (run?.attempts ?? 0) >= MAX_ATTEMPTS;
@@ -290,6 +292,7 @@ export async function sweepOrphanRuns(): Promise<{ resent: number; failed: numbe
 }
 
 let workerIds: string[] = [];
+let stopping = false;
 let sweepTimer: NodeJS.Timeout | undefined;
 
 /**
@@ -297,6 +300,7 @@ let sweepTimer: NodeJS.Timeout | undefined;
  * single-threaded observed phase, another one's null replicates keep the other threads busy).
  */
 export async function startMetricsWorker(opts: { concurrency?: number; pollingIntervalSeconds?: number } = {}): Promise<void> {
+  stopping = false;
   const boss = await getBoss();
   const concurrency = opts.concurrency ?? Number(process.env.TB_METRICS_CONCURRENCY ?? 2);
   const pollingIntervalSeconds = opts.pollingIntervalSeconds ?? Number(process.env.TB_METRICS_POLL_SECONDS ?? 1);
@@ -320,8 +324,13 @@ export async function startMetricsWorker(opts: { concurrency?: number; pollingIn
   sweepTimer.unref();
 }
 
-/** Stops taking jobs, lets running ones finish (up to `timeoutMs`), then closes the queue and the pool. */
+/**
+ * Stops taking jobs, lets running ones finish (up to `timeoutMs`), then closes the queue and the pool. Jobs
+ * still running then are failed back to the queue by pg-boss (state "retry"): another worker, or this one
+ * at its next start, continues them, reusing the observed phase already stored.
+ */
 export async function stopMetricsWorker(opts: { timeoutMs?: number } = {}): Promise<void> {
+  stopping = true;
   if (sweepTimer) clearInterval(sweepTimer);
   sweepTimer = undefined;
   workerIds = [];

@@ -8,4 +8,5 @@ export const startMetricsWorkerTask: StartupTask = async ({ log }) => {
   log(`Metrics worker running (${poolThreads()} threads); more with \`npm run worker\`.`);
 };
 
-export const stopMetricsWorkerTask: ShutdownTask = () => stopMetricsWorker({ timeoutMs: 20_000 });
+/** Ctrl-C: running jobs get 5 s, then go back to the queue (continued at the next start). */
+export const stopMetricsWorkerTask: ShutdownTask = () => stopMetricsWorker({ timeoutMs: 5_000 });
