@@ -46,10 +46,18 @@ npx eslint . --max-warnings=0 || { status=1; log "Lint FAILED"; }
 log "Building the client…"
 npx vite build --logLevel warn || { status=1; log "Client build FAILED"; }
 log "Running the tests…"
-if [ -n "${TB_SKIP_E2E:-}" ]; then
-  npx vitest run --project unit --project server "$@" || status=1
-else
-  npx vitest run "$@" || status=1
-fi
+mkdir -p test-artifacts
+rm -f test-artifacts/vitest-results.json
+projects=()
+[ -n "${TB_SKIP_E2E:-}" ] && projects=(--project unit --project server)
+npx vitest run "${projects[@]}" --reporter=default --reporter=json --outputFile.json=test-artifacts/vitest-results.json "$@" || status=1
+# One plain closing line with the counts.
+node -e '
+  const fs = require("fs");
+  try {
+    const r = JSON.parse(fs.readFileSync("test-artifacts/vitest-results.json", "utf8"));
+    console.log(`Tests: ${r.numPassedTests} passed, ${r.numFailedTests} failed, ${r.numPendingTests + (r.numTodoTests ?? 0)} skipped`);
+  } catch { console.log("Tests: 0 passed, 1 failed (no test results were written)"); }
+' || status=1
 [ "$status" = 0 ] && log "All checks passed." || log "Some checks FAILED (see above)."
 exit "$status"

@@ -149,7 +149,7 @@ function studyFor(d: DatasetSpec, owner: User): StudyMetadata {
   return {
     title: d.title,
     description: d.description,
-    creators: [{ name: owner.displayName, affiliation: owner.affiliation ?? "Northmoor Field Station" }, { name: "Quillfeather, Ada", affiliation: "Northmoor Field Station" }],
+    creators: [{ name: owner.displayName, affiliation: owner.affiliation ?? "Northmoor Field Station" }, { name: "Ada Quillfeather", affiliation: "Northmoor Field Station" }],
     ...(d.doi ? { publication: { citation: `${owner.displayName} et al. (2024) ${d.title}. Northmoor Field Station Reports (invented) 7: 1–12.`, doi: d.doi } } : {}),
     licence: d.keywords.length % 2 ? "CC-BY-4.0" : "CC0-1.0",
     keywords: d.keywords,
