@@ -85,6 +85,21 @@ describe("metrics pipeline", () => {
     expect(await MetricRun.count()).toBe(2);
   });
 
+  it("a failing hand-over never breaks the publishing transaction", async () => {
+    const { networkIds } = await publishMatrices([randomMatrix(81, 6, 7, 0.4)]);
+    const before = await MetricRun.count();
+    await sequelize().transaction(async (transaction) => {
+      // 999999 is no network: the foreign key fails inside the hand-over's savepoint…
+      await enqueueNetworkMetrics([networkIds[0], 999999], { transaction });
+      // …and the publishing transaction is still usable and commits.
+      await sequelize().query(`UPDATE dataset_versions SET lock_version = lock_version + 1`, { transaction });
+    });
+    expect(await MetricRun.count()).toBe(before);
+    // The network is not lost: the sweeper queues published networks that never had a run.
+    await sweepOrphanRuns();
+    await waitFor(async () => (await MetricRun.count({ where: { networkId: networkIds[0], status: "succeeded" } })) === 1, "the swept network");
+  });
+
   it("computes the observed figures of every queued network before any null replicates", async () => {
     await setPipelineSettings({ ...LIGHT, nulls: 40 });
     const { networkIds } = await publishMatrices([3, 4, 5, 6, 7].map((k) => randomMatrix(60 + k, 8 + k, 9, 0.3)));
