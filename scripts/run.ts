@@ -4,7 +4,8 @@
  * (which also runs a metrics worker), prints the URL and the demo sign-ins. SIGINT/SIGTERM stop it cleanly.
  */
 import { join } from "node:path";
-import { config } from "../server/src/config/env";
+import { config, resetConfig } from "../server/src/config/env";
+import { resetMailer } from "../server/src/emails/mailer";
 import { migrateUp } from "../server/src/db/migrator";
 import { initModels } from "../server/src/models";
 import { DEMO_ACCOUNTS, seedDemoAccounts } from "../server/src/db/seeders/demo-accounts";
@@ -26,6 +27,12 @@ const catcher = new MailCatcher(join(ROOT_DIR, ".data", "outbox.jsonl"));
 const mailPort = await catcher.listen(cfg.mailCatcherPort);
 setCurrentMailCatcher(catcher);
 say(`Local mail catcher (SMTP) on 127.0.0.1:${mailPort}`);
+if (!process.env.SMTP_PORT && mailPort !== cfg.smtp.port) {
+  // TB_MAIL_PORT=0 picks a free port: point the app's mail at the port the catcher actually got.
+  process.env.SMTP_PORT = String(mailPort);
+  resetConfig();
+  resetMailer();
+}
 
 const { url, close } = await startServer();
 for (const task of startupTasks) await task({ log: say });
