@@ -40,6 +40,11 @@ beforeAll(async () => {
   });
   await createFixtureDataset({ accession: "TB-000003", state: "withdrawn", withdrawalReason: "Duplicate of TB-000001." });
   await createFixtureDataset({ accession: "TB-000004", state: "draft" });
+  await createFixtureDataset({
+    accession: "TB-000005",
+    study: { title: "Dollar $` and $' and $& in a title", description: "A description with replacement patterns $` $' $& $$ that must stay literal text in the page head." },
+    networks: [{ text: DAVIS_CSV, metrics: false }],
+  });
 });
 afterAll(async () => {
   await shutdownServerResources();
@@ -118,6 +123,19 @@ describe("dataset page HTML", () => {
     expect(ld.keywords).toEqual(["a<b"]);
     expect(html).toContain("<title>Evil &lt;/script&gt;&lt;script&gt;alert(1)&lt;/script&gt; &amp; co (TB-000002 v1) · Tanglebank</title>");
     expect(jsonForScript({ a: "</script>\u2028" })).toBe('{"a":"\\u003c/script\\u003e\\u2028"}');
+  });
+
+  it("keeps $`, $' and $& in depositor text literal (no copies of the page spliced into the head)", async () => {
+    const html = (await datasetHtmlRenderer("/datasets/TB-000005", shell))!;
+    expect(html.match(/<\/head>/gi)).toHaveLength(1);
+    expect(html.match(/<title>/gi)).toHaveLength(1);
+    expect(html).toContain("<title>Dollar $` and $&#39; and $&amp; in a title (TB-000005 v1) · Tanglebank</title>");
+    const blocks = jsonLdBlocks(html);
+    expect(blocks).toHaveLength(1);
+    const ld = blocks[0] as Record<string, unknown>;
+    expect(ld.name).toBe("Dollar $` and $' and $& in a title");
+    expect(ld.description).toBe("A description with replacement patterns $` $' $& $$ that must stay literal text in the page head.");
+    expect(meta(html, "name", "description")).toBe("A description with replacement patterns $` $&#39; $&amp; $$ that must stay literal text in the page head.");
   });
 
   it("gives a withdrawn version a tombstone description with the reason and citation, no Dataset markup, and noindex", async () => {

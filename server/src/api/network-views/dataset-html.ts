@@ -124,10 +124,13 @@ export async function buildDatasetJsonLd(accession: string, versionNumber: numbe
 
 function injectHead(html: string, head: string, title: string): string {
   // our description replaces the app shell's generic one
+  // Replacements are functions: a replacement string would expand "$`", "$'" and "$&" found in depositor
+  // text (title, description) into copies of the page's own HTML.
+  const titleTag = `<title>${escapeHtml(title)}</title>`;
   let out = html.replace(/<meta\s+name="description"[^>]*>\s*/i, "");
-  out = out.replace(/<title>[\s\S]*?<\/title>/i, `<title>${escapeHtml(title)}</title>`);
-  if (!/<title>/i.test(out)) out = out.replace(/<head>/i, `<head><title>${escapeHtml(title)}</title>`);
-  return out.replace(/<\/head>/i, `${head}\n</head>`);
+  out = out.replace(/<title>[\s\S]*?<\/title>/i, () => titleTag);
+  if (!/<title>/i.test(out)) out = out.replace(/<head>/i, () => `<head>${titleTag}`);
+  return out.replace(/<\/head>/i, () => `${head}\n</head>`);
 }
 
 function metaTags(title: string, description: string, url: string, extra = ""): string {
