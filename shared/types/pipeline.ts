@@ -75,3 +75,40 @@ export interface NetworkRunRow {
   error: string | null;
   createdAt: string;
 }
+
+/** Metric runs of the current settings by phase (a run computes observed figures first, then null replicates). */
+export interface QueuePhaseCounts {
+  /** Waiting for a worker, nothing computed yet. */
+  queued: number;
+  /** A worker is computing the observed figures. */
+  running: number;
+  /** Observed figures (S, L, C, Q, NODF) stored; null replicates waiting or being computed. */
+  nullsPending: number;
+  /** Finished with every figure (including runs found already computed: superseded). */
+  done: number;
+  failed: number;
+  /** All runs counted here. */
+  total: number;
+  /** Runs with observed figures (nullsPending + done). */
+  observedDone: number;
+}
+
+export interface QueueProgress {
+  settingsHash: string;
+  /**
+   * Work outside any batch (queued by publishing), from the latest moment the queue of such work was
+   * empty: the current wave of newly published networks, or the last one when idle.
+   */
+  unbatched: QueuePhaseCounts & {
+    /** When the current (or last) wave of unbatched work started; null when there was none. */
+    since: string | null;
+    /** Runs finished per minute over the last few minutes (null before the first). */
+    ratePerMinute: number | null;
+    /** Seconds until every waiting run is finished at that rate (0 when idle, null when unknown). */
+    etaSeconds: number | null;
+  };
+  /** Every run of the current settings, in batches or not. */
+  overall: QueuePhaseCounts;
+  /** True while any run of the current settings is waiting or running. */
+  active: boolean;
+}

@@ -37,6 +37,7 @@ const ROUTES: ProtectedRoute[] = [
   // metrics pipeline (admin); bodies are invalid on purpose, so an admin gets 400/404 and nothing is queued
   { method: "get", path: "/api/v1/pipeline/settings", min: "admin" },
   { method: "put", path: "/api/v1/pipeline/settings", min: "admin", body: { restarts: 0 } },
+  { method: "get", path: "/api/v1/pipeline/queue", min: "admin" },
   { method: "get", path: "/api/v1/pipeline/batches", min: "admin" },
   { method: "post", path: "/api/v1/pipeline/batches", min: "admin", body: { force: "yes" } },
   { method: "get", path: "/api/v1/pipeline/batches/current", min: "admin" },

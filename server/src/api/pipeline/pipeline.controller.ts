@@ -45,3 +45,7 @@ export async function listRuns(req: Request, res: Response) {
 export async function networkMetrics(req: Request, res: Response) {
   res.json(await service.networkMetrics(v.parseId(req.params.id, "network")));
 }
+
+export async function queueProgress(_req: Request, res: Response) {
+  res.json(await service.queueProgress());
+}

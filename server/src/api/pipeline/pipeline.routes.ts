@@ -1,4 +1,4 @@
-/** Admin: the metrics pipeline (settings, batches, progress, failures, retries, runs per network). */
+/** Admin: the metrics pipeline (settings, queue and batches, progress, failures, retries, runs per network). */
 import { Router } from "express";
 import { requireRole } from "../../middlewares/require-role";
 import * as c from "./pipeline.controller";
@@ -8,6 +8,7 @@ const admin = requireRole("admin");
 
 pipelineRouter.get("/settings", admin, c.getSettings);
 pipelineRouter.put("/settings", admin, c.putSettings);
+pipelineRouter.get("/queue", admin, c.queueProgress);
 pipelineRouter.get("/batches", admin, c.listBatches);
 pipelineRouter.post("/batches", admin, c.startBatch);
 pipelineRouter.get("/batches/current", admin, c.currentBatch);

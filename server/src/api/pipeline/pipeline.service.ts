@@ -9,7 +9,7 @@
  */
 import { QueryTypes } from "sequelize";
 import { ENGINE_VERSION } from "../../../../shared/network/version";
-import type { BatchProgress, NetworkRunRow, PipelineSettings, PipelineSettingsResponse, RunFailure } from "../../../../shared/types/pipeline";
+import type { BatchProgress, NetworkRunRow, PipelineSettings, PipelineSettingsResponse, QueuePhaseCounts, QueueProgress, RunFailure } from "../../../../shared/types/pipeline";
 import type { NetworkMetricsSummary } from "../../../../shared/types/dataset";
 import { sequelize } from "../../db/sequelize";
 import { ApiError } from "../../lib/api-error";
@@ -266,4 +266,94 @@ export async function networkMetrics(networkId: number): Promise<{ current: Netw
     type: QueryTypes.SELECT,
   });
   return { current, runs: rows.map(toRunRow) };
+}
+
+interface QueueCountsRow {
+  queued: number;
+  running: number;
+  nulls_pending: number;
+  done: number;
+  failed: number;
+  total: number;
+}
+
+function toPhaseCounts(r: QueueCountsRow): QueuePhaseCounts {
+  return {
+    queued: r.queued,
+    running: r.running,
+    nullsPending: r.nulls_pending,
+    done: r.done,
+    failed: r.failed,
+    total: r.total,
+    observedDone: r.nulls_pending + r.done,
+  };
+}
+
+/** Finished runs per minute are measured over at most this window (or since the wave started). */
+export const QUEUE_RATE_WINDOW_SECONDS = 300;
+
+const PHASE_COUNTS = `
+  count(*) FILTER (WHERE status = 'queued' AND NOT observed_only)::int AS queued,
+  count(*) FILTER (WHERE status = 'running' AND NOT observed_only)::int AS running,
+  count(*) FILTER (WHERE observed_only)::int AS nulls_pending,
+  count(*) FILTER (WHERE status IN ('succeeded', 'superseded'))::int AS done,
+  count(*) FILTER (WHERE status = 'failed')::int AS failed,
+  count(*)::int AS total`;
+
+/**
+ * Progress of the metric runs of the current settings, by phase. The worker stores a run's observed
+ * figures as results.phase = "observed" while the run is still queued or running (null replicates
+ * pending); the full result turns it "succeeded". Work outside batches (queued by publishing) is counted
+ * from the start of its current wave: the latest moment no such run was waiting or running, found by
+ * walking the runs in creation order (a run starts a wave when every earlier run had finished before it
+ * was created).
+ */
+export async function queueProgress(now = new Date()): Promise<QueueProgress> {
+  const hash = settingsHash(await getPipelineSettings());
+  const rows = await sequelize().query<QueueCountsRow & { scope: "overall" | "unbatched"; since: Date | null; finished_recent: number; window_start: Date | null }>(
+    `WITH r AS (
+       SELECT id, batch_id, status, created_at, finished_at,
+              (status IN ('queued', 'running') AND results->>'phase' = 'observed') IS TRUE AS observed_only
+         FROM metric_runs WHERE settings_hash = :hash
+     ), w AS (
+       SELECT id, created_at,
+              max(COALESCE(finished_at, 'infinity'::timestamptz))
+                OVER (ORDER BY created_at, id ROWS BETWEEN UNBOUNDED PRECEDING AND 1 PRECEDING) AS prev_max
+         FROM r WHERE batch_id IS NULL
+     ), s AS (
+       SELECT max(created_at) AS since FROM w WHERE prev_max IS NULL OR created_at > prev_max
+     ), win AS (
+       SELECT s.since, GREATEST(s.since, CAST(:now AS timestamptz) - make_interval(secs => :window)) AS window_start FROM s
+     )
+     SELECT 'overall' AS scope, NULL::timestamptz AS since, NULL::timestamptz AS window_start, 0 AS finished_recent, ${PHASE_COUNTS} FROM r
+     UNION ALL
+     SELECT 'unbatched', win.since, win.window_start,
+            count(*) FILTER (WHERE r.finished_at >= win.window_start AND r.status IN ('succeeded', 'superseded', 'failed'))::int,
+            ${PHASE_COUNTS}
+       FROM win LEFT JOIN r ON r.batch_id IS NULL AND r.created_at >= win.since
+      GROUP BY win.since, win.window_start`,
+    { replacements: { hash, now: now.toISOString(), window: QUEUE_RATE_WINDOW_SECONDS }, type: QueryTypes.SELECT },
+  );
+  const overallRow = rows.find((r) => r.scope === "overall")!;
+  const u = rows.find((r) => r.scope === "unbatched")!;
+  // The LEFT JOIN counts one empty row when there is no unbatched work at all.
+  const unbatchedCounts = u.since ? toPhaseCounts(u) : toPhaseCounts({ queued: 0, running: 0, nulls_pending: 0, done: 0, failed: 0, total: 0 });
+  const unfinished = unbatchedCounts.queued + unbatchedCounts.running + unbatchedCounts.nullsPending;
+  let ratePerMinute: number | null = null;
+  if (u.window_start && u.finished_recent > 0) {
+    const minutes = Math.max((now.getTime() - new Date(u.window_start).getTime()) / 60_000, 1 / 60);
+    ratePerMinute = Math.round((u.finished_recent / minutes) * 100) / 100;
+  }
+  const overall = toPhaseCounts(overallRow);
+  return {
+    settingsHash: hash,
+    unbatched: {
+      ...unbatchedCounts,
+      since: u.since ? new Date(u.since).toISOString() : null,
+      ratePerMinute,
+      etaSeconds: unfinished === 0 ? 0 : ratePerMinute ? Math.round((unfinished / ratePerMinute) * 60) : null,
+    },
+    overall,
+    active: overall.queued + overall.running + overall.nullsPending > 0,
+  };
 }
