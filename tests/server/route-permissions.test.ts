@@ -67,6 +67,8 @@ const ROUTES: ProtectedRoute[] = [
   { method: "put", path: "/api/v1/reviews/999999/metadata", min: "curator", body: { metadata: {} } },
   { method: "patch", path: "/api/v1/reviews/999999/networks/1", min: "curator", body: { metadata: {} } },
   { method: "post", path: "/api/v1/datasets/TB-999999/withdraw", min: "curator", body: { reason: "test" } },
+  // network views: the curators' audit history of a dataset (the accession need not exist)
+  { method: "get", path: "/api/v1/network-views/history/TB-999999", min: "curator" },
 ];
 
 const ORDER: Min[] = ["depositor", "curator", "admin"];
