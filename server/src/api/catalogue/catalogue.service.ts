@@ -7,61 +7,9 @@ import { searchIndex } from "../../lib/search-index";
 import type { CatalogueEntry } from "./catalogue.rows";
 import { catalogueStore } from "./catalogue.store";
 import type { CatalogueQuery, Range, SortKey } from "./catalogue.validation";
+import type { CatalogueFacets, CatalogueRow, FacetValue, RangeFacet } from "../../../../shared/types/catalogue";
 
-export interface FacetValue {
-  value: string;
-  count: number;
-}
-export interface RangeFacet {
-  min: number | null;
-  max: number | null;
-}
-export interface CatalogueFacets {
-  interactionType: FacetValue[];
-  kind: FacetValue[];
-  weighted: FacetValue[];
-  habitat: FacetValue[];
-  country: FacetValue[];
-  licence: FacetValue[];
-  year: RangeFacet;
-  nodes: RangeFacet;
-  connectance: RangeFacet;
-  Q: RangeFacet;
-  z: RangeFacet;
-}
-
-/** The public shape of a catalogue row. */
-export interface CatalogueRow {
-  ref: string;
-  networkId: number;
-  accession: string;
-  version: number;
-  position: number;
-  name: string;
-  title: string;
-  licence: string;
-  interactionType: string | null;
-  kind: string;
-  directed: boolean;
-  weighted: boolean;
-  habitat: string | null;
-  country: string | null;
-  placeName: string | null;
-  startYear: number | null;
-  endYear: number | null;
-  S: number;
-  rows: number | null;
-  cols: number | null;
-  L: number;
-  C: number | null;
-  Q: number | null;
-  modules: number | null;
-  z: number | null;
-  qRel: number | null;
-  p: number | null;
-  nodf: number | null;
-  metricsStatus: "succeeded" | "none";
-}
+export type { CatalogueFacets, CatalogueRow, FacetValue, RangeFacet };
 
 export function toRow(e: CatalogueEntry): CatalogueRow {
   return {

@@ -11,8 +11,7 @@
 import { createHash } from "node:crypto";
 import { Op, QueryTypes, type Transaction } from "sequelize";
 import { basicMetrics, parseNetworkText, serializeNetwork, NetworkParseError, type ParseResult } from "../../../../shared/network";
-import type { DatasetDetail, VersionState } from "../../../../shared/types/dataset";
-import type { FieldError } from "../../../../shared/validation/messages";
+import type { VersionState } from "../../../../shared/types/dataset";
 import { ApiError, type ErrorDetail } from "../../lib/api-error";
 import { audit } from "../../lib/audit";
 import { networkFindings, studyFindings } from "../../lib/schemas";
@@ -29,32 +28,8 @@ import type { UploadedFile } from "./deposits.upload";
 export const OWNER_EDITABLE: VersionState[] = ["draft", "changes_requested"];
 const MAX_METADATA_CHARS = 200_000;
 
-export interface DepositDetail extends DatasetDetail {
-  versionId: number;
-  lockVersion: number;
-  updatedAt: string;
-  /** The owner may edit now (draft or changes requested). */
-  editable: boolean;
-  /** Schema findings of the current metadata (drafts may be incomplete). */
-  findings: { study: FieldError[]; networks: Array<{ networkId: number; position: number; findings: FieldError[] }> };
-  reviews: Array<{ id: number; decision: string; comment: string | null; curator: string; at: string }>;
-}
-
-export interface DepositListItem {
-  versionId: number;
-  datasetId: number;
-  accession: string | null;
-  number: number;
-  state: VersionState;
-  title: string;
-  networkCount: number;
-  updatedAt: string;
-  submittedAt: string | null;
-  publishedAt: string | null;
-  lastReview: { decision: string; comment: string | null; at: string } | null;
-  /** A published version whose dataset has no open draft: a new version may be started from it. */
-  canStartNewVersion: boolean;
-}
+export type { DepositDetail, DepositListItem } from "../../../../shared/types/deposit";
+import type { DepositDetail, DepositListItem } from "../../../../shared/types/deposit";
 
 function tx<T>(fn: (t: Transaction) => Promise<T>): Promise<T> {
   return sequelize().transaction(fn);

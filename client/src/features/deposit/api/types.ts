@@ -1,34 +1,8 @@
 /** Response shapes of /api/v1/deposits (server/src/api/deposits/deposits.service.ts). */
-import type { DatasetDetail, VersionState } from "../../../../../shared/types/dataset";
+import type { VersionState } from "../../../../../shared/types/dataset";
 
-export interface FieldFinding {
-  path: string;
-  message: string;
-}
-
-export interface DepositDetail extends DatasetDetail {
-  versionId: number;
-  lockVersion: number;
-  updatedAt: string;
-  editable: boolean;
-  findings: { study: FieldFinding[]; networks: Array<{ networkId: number; position: number; findings: FieldFinding[] }> };
-  reviews: Array<{ id: number; decision: string; comment: string | null; curator: string; at: string }>;
-}
-
-export interface DepositListItem {
-  versionId: number;
-  datasetId: number;
-  accession: string | null;
-  number: number;
-  state: VersionState;
-  title: string;
-  networkCount: number;
-  updatedAt: string;
-  submittedAt: string | null;
-  publishedAt: string | null;
-  lastReview: { decision: string; comment: string | null; at: string } | null;
-  canStartNewVersion: boolean;
-}
+export type { DepositDetail, DepositListItem } from "../../../../../shared/types/deposit";
+export type { FieldError as FieldFinding } from "../../../../../shared/validation/messages";
 
 export const depositKeys = {
   all: ["deposits"] as const,
