@@ -13,12 +13,14 @@
  * | GET /:accession/:version/:position/partition.json | anyone (see above) | rows/columns with modules     |
  */
 import { Router, type Request, type Response, type NextFunction } from "express";
+import { apiRateLimit } from "../../middlewares/api-rate-limit";
 import { requireRole } from "../../middlewares/require-role";
 import { GoneError } from "./network-views.access";
 import { getCompareRows, getHistory, getMapPoints, getNetworkView, partitionCsv, partitionJson } from "./network-views.service";
 import { parseAccession, parsePosition, parseRefs, parseVersion } from "./network-views.validation";
 
 export const networkViewsRouter = Router();
+networkViewsRouter.use(apiRateLimit); // public reads: the read API's limit, per token or IP
 
 async function view(req: Request) {
   return getNetworkView(parseAccession(req.params.accession as string), parseVersion(req.params.version as string), parsePosition(req.params.position as string), req.user);
