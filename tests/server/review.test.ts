@@ -214,6 +214,33 @@ describe("decisions", () => {
     await decide(curatorA, id, { decision: "decline", comment: "Test cleanup." });
   });
 
+  it("refuses to publish metadata that a correction made invalid, listing the problems; publishes once corrected", async () => {
+    const id = await submitted();
+    const before = (await curatorA.agent.get(`/api/v1/reviews/${id}`)).body;
+    const nid = before.networks[0].id;
+    const { licence: _licence, ...noLicence } = studyMeta();
+    void _licence;
+    const loc = networkMeta().locality as Record<string, unknown>;
+    const { generalisation: _g, ...locNoGeneralisation } = loc;
+    void _g;
+    expect((await curatorB.agent.put(`/api/v1/reviews/${id}/metadata`).set("x-csrf-token", curatorB.csrf).send({ metadata: noLicence })).status).toBe(200);
+    expect((await curatorB.agent.patch(`/api/v1/reviews/${id}/networks/${nid}`).set("x-csrf-token", curatorB.csrf).send({ metadata: networkMeta({ locality: locNoGeneralisation }) })).status).toBe(200);
+    const refused = await decide(curatorA, id, { decision: "publish" });
+    expect(refused.status).toBe(422);
+    const paths = (refused.body.details as Array<{ path: string }>).map((d) => d.path);
+    expect(paths.some((p) => p.startsWith("/study") && p.includes("licence"))).toBe(true);
+    expect(paths.some((p) => p.startsWith("/networks/1") && p.includes("locality"))).toBe(true);
+    const v = await DatasetVersion.findByPk(id);
+    expect(v!.state).toBe("submitted");
+    expect((await Dataset.findByPk(v!.datasetId))!.accession).toBeNull();
+    expect(await Review.count({ where: { versionId: id } })).toBe(0);
+    expect((await curatorB.agent.put(`/api/v1/reviews/${id}/metadata`).set("x-csrf-token", curatorB.csrf).send({ metadata: studyMeta() })).status).toBe(200);
+    expect((await curatorB.agent.patch(`/api/v1/reviews/${id}/networks/${nid}`).set("x-csrf-token", curatorB.csrf).send({ metadata: networkMeta() })).status).toBe(200);
+    const ok = await decide(curatorA, id, { decision: "publish" });
+    expect(ok.status).toBe(200);
+    expect(ok.body.version.state).toBe("published");
+  });
+
   it("gives unique, sequential accessions when several datasets are published at once; never reassigns", async () => {
     const ids = [];
     for (let i = 0; i < 5; i++) ids.push(await submitted());

@@ -5,7 +5,9 @@
  * Decisions: publish, request changes (comment required), decline (reason required). A decision applies
  * only to a `submitted` version whose `lock_version` is the one the curator saw: the conditional UPDATE
  * makes two curators deciding at once safe (one wins; the other gets 409). A curator never decides on
- * their own deposit (403). Publishing assigns the accession on first publication only (`TB-` + six digits
+ * their own deposit (403). Publishing needs metadata that passes the full submission validation (422 with
+ * every problem otherwise: curators' corrections are saved unvalidated). Publishing assigns the accession
+ * on first publication only (`TB-` + six digits
  * from the sequence accession_seq, so never reused), freezes the version and queues the metrics of every
  * network, all in one transaction.
  */
@@ -189,12 +191,18 @@ export async function decide(versionId: number, viewer: Viewer, input: { decisio
       ]);
     }
     if (input.decision === "publish") {
+      // Published metadata is validated metadata: corrections are saved as they are, so check again here.
+      const fresh = await DatasetVersion.findByPk(version.id, { transaction: t });
+      const nets = await Network.findAll({ where: { versionId: version.id }, order: [["position", "ASC"]], transaction: t });
+      const problems = submissionProblems(fresh!, nets);
+      if (problems.length) {
+        throw ApiError.unprocessable(`This submission cannot be published: ${problems.length} metadata problem${problems.length === 1 ? "" : "s"} to correct first (or request changes).`, problems);
+      }
       if (!dataset.accession) {
         const [seq] = (await sequelize().query(`SELECT nextval('accession_seq') AS n`, { type: QueryTypes.SELECT, transaction: t })) as Array<{ n: string }>;
         const accession = `TB-${String(seq.n).padStart(6, "0")}`;
         await dataset.update({ accession }, { transaction: t });
       }
-      const nets = await Network.findAll({ where: { versionId: version.id }, attributes: ["id"], transaction: t });
       await enqueueNetworkMetrics(nets.map((n) => n.id), { transaction: t });
       await notifyCatalogueChanged(dataset.id, t);
     }
