@@ -2,6 +2,7 @@
 export const pipelineKeys = {
   all: ["pipeline"] as const,
   settings: () => [...pipelineKeys.all, "settings"] as const,
+  queue: () => [...pipelineKeys.all, "queue"] as const,
   batches: () => [...pipelineKeys.all, "batches"] as const,
   batchList: (page: number) => [...pipelineKeys.batches(), "list", page] as const,
   currentBatch: () => [...pipelineKeys.batches(), "current"] as const,
@@ -10,3 +11,5 @@ export const pipelineKeys = {
 
 /** While a batch runs, its progress is polled this often. */
 export const PROGRESS_POLL_MS = 2000;
+/** While nothing waits, the queue is still looked at now and then (networks may be published meanwhile). */
+export const QUEUE_IDLE_POLL_MS = 30_000;

@@ -5,9 +5,10 @@ import { useCurrentBatch } from "../api/get-current-batch";
 import { pipelineKeys } from "../api/keys";
 import { BatchHistory } from "./batch-history";
 import { BatchProgressCard } from "./batch-progress";
+import { QueuePanel } from "./queue-panel";
 import { PipelineSettingsForm } from "./settings-form";
 
-/** The admin's metrics pipeline page: current batch with live progress, settings, history. */
+/** The admin's metrics pipeline page: networks queued by publishing, current batch with live progress, settings, history. */
 export function PipelineAdmin() {
   const current = useCurrentBatch();
   const batch = current.data?.batch ?? null;
@@ -28,6 +29,7 @@ export function PipelineAdmin() {
           whole catalogue with new settings. Workers started with <code className="font-mono text-sm">npm run worker</code> on other machines share the work.
         </p>
       </div>
+      <QueuePanel />
       {current.error && <Alert tone="error">{current.error.message}</Alert>}
       {batch ? (
         <BatchProgressCard batch={batch} />
