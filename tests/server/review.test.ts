@@ -178,6 +178,15 @@ describe("decisions", () => {
     expect(own.status).toBe(403);
     expect(own.body.message).toMatch(/own deposit/);
     expect((await curatorA.agent.get("/api/v1/reviews")).body.data.find((i: { versionId: number }) => i.versionId === cid)).toMatchObject({ ownDeposit: true });
+    // nor correct it while another curator reviews it (the depositor's edits are frozen once submitted)
+    const lockBefore = (await DatasetVersion.findByPk(cid))!.lockVersion;
+    const ownCorr = await curatorA.agent.put(`/api/v1/reviews/${cid}/metadata`).set("x-csrf-token", curatorA.csrf).send({ metadata: studyMeta({ title: "Changed under review" }) });
+    expect(ownCorr.status).toBe(403);
+    const ownNet = await curatorA.agent.patch(`/api/v1/reviews/${cid}/networks/${det.body.networks[0].id}`).set("x-csrf-token", curatorA.csrf).send({ metadata: networkMeta({ habitat: "changed" }) });
+    expect(ownNet.status).toBe(403);
+    const after = (await DatasetVersion.findByPk(cid))!;
+    expect(after.lockVersion).toBe(lockBefore);
+    expect(after.metadata.title).toBe(studyMeta().title);
     await decide(curatorB, cid, { decision: "decline", comment: "Test cleanup." });
     await decide(curatorB, id, { decision: "decline", comment: "Test cleanup." });
   });

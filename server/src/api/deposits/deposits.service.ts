@@ -461,10 +461,11 @@ export async function startNewVersion(accession: string, viewer: Viewer): Promis
   return depositDetail(dataset, version, viewer);
 }
 
-/** Curators correct metadata of submissions (submitted or changes requested), never of published versions. */
+/** Curators correct metadata of submissions (submitted or changes requested), never of published versions nor of their own deposits. */
 export async function loadCuratorEditable(versionId: number, viewer: Viewer, t: Transaction): Promise<{ dataset: Dataset; version: DatasetVersion }> {
   if (!hasRole(viewer, "curator")) throw ApiError.forbidden("This needs the curator role.");
   const r = await loadVisibleVersion(versionId, viewer, t, true);
+  if (r.dataset.ownerId === viewer.id) throw ApiError.forbidden("You cannot correct your own deposit as a curator; another curator reviews it (edit it yourself when changes are requested).");
   if (!["submitted", "changes_requested"].includes(r.version.state)) {
     throw ApiError.conflict(r.version.state === "draft" ? "Drafts are the depositor's until submitted." : stateMessage(r.version.state));
   }
