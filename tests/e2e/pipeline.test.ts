@@ -52,6 +52,8 @@ describe("metrics pipeline page", () => {
     await page.getByText("4 of 4 networks finished (100%)").waitFor({ timeout: 60_000 });
     expect(await bar.getAttribute("aria-valuenow")).toBe("100");
     await page.getByRole("heading", { name: "Latest batch #1" }).waitFor();
+    // The Queue panel above follows the batch's runs in its overall counts.
+    await page.getByText("batches included: 0 waiting, 0 computing observed figures, 0 with null replicates pending, 3 done, 1 failed.").waitFor();
     await page.getByRole("heading", { name: /Failures \(1\)/ }).waitFor();
     await page.getByText("Network 4").waitFor();
     const history = page.getByRole("table", { name: "Batches, newest first" });

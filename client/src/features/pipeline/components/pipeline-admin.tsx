@@ -29,7 +29,7 @@ export function PipelineAdmin() {
           whole catalogue with new settings. Workers started with <code className="font-mono text-sm">npm run worker</code> on other machines share the work.
         </p>
       </div>
-      <QueuePanel />
+      <QueuePanel batchRunning={running} />
       {current.error && <Alert tone="error">{current.error.message}</Alert>}
       {batch ? (
         <BatchProgressCard batch={batch} />

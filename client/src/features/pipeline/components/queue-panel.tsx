@@ -1,3 +1,4 @@
+import { useEffect, useRef } from "react";
 import { Alert } from "../../../components/ui/form";
 import { useQueue } from "../api/get-queue";
 import { formatRate, percentOf, queueSummary } from "../utils/format";
@@ -43,8 +44,16 @@ function Count({ label, value, tone }: { label: string; value: number | string; 
  * Networks queued by publishing (not by a batch), e.g. the demo catalogue on the first start: how many have
  * their observed figures (S, L, C, Q) and how many their null-model figures (z, Q_rel, p) already.
  */
-export function QueuePanel() {
-  const queue = useQueue();
+export function QueuePanel({ batchRunning = false }: { batchRunning?: boolean }) {
+  const queue = useQueue(batchRunning);
+  const { refetch } = queue;
+  // A batch started or finished: its runs change the overall counts at once.
+  const seen = useRef(batchRunning);
+  useEffect(() => {
+    if (seen.current === batchRunning) return;
+    seen.current = batchRunning;
+    void refetch();
+  }, [batchRunning, refetch]);
   const q = queue.data;
   const u = q?.unbatched;
   const busy = !!u && u.queued + u.running + u.nullsPending > 0;
