@@ -68,9 +68,9 @@ describe("API token powers", () => {
       request(app).patch("/api/v1/reviews/999999/networks/1").set(bearer(secrets.curator)).send({ metadata: {} }),
       request(app).post("/api/v1/datasets/TB-999999/withdraw").set(bearer(secrets.curator)).send({ reason: "test" }),
     ];
-    for (const res of await Promise.all(calls)) {
-      expect(res.status, res.req.path).toBe(403);
-      expect(res.body.code, res.req.path).toBe("session_required");
+    for (const [i, res] of (await Promise.all(calls)).entries()) {
+      expect(res.status, `call ${i}`).toBe(403);
+      expect(res.body.code, `call ${i}`).toBe("session_required");
     }
   });
 
