@@ -4,11 +4,11 @@
  *
  * Visibility: published versions are public; drafts, submissions, change requests and declined versions
  * only to their owner and curators (404 for anyone else). The public get generalised coordinates
- * (shared/validation/coordinates.ts) and never the contact e-mail; owner, curators and admins see both.
+ * (network-views/public-locality.ts) and never the contact e-mail; owner, curators and admins see both.
  */
 import { Op } from "sequelize";
 import type { DatasetDetail, NetworkMetadata, NetworkSummary, StudyMetadata, VersionState, VersionSummary } from "../../../../shared/types/dataset";
-import { publicLocality } from "../../../../shared/validation/coordinates";
+import { publicLocality } from "../network-views/public-locality";
 import { formatCitationText } from "../../../../shared/citation";
 import { ApiError } from "../../lib/api-error";
 import { hasRole } from "../../middlewares/require-role";
@@ -56,7 +56,7 @@ export function viewStudyMetadata(meta: Record<string, unknown>, privileged: boo
 }
 
 export function viewNetworkMetadata(meta: Record<string, unknown>, privileged: boolean): NetworkMetadata {
-  if (privileged || !meta.locality || typeof meta.locality !== "object") return meta as unknown as NetworkMetadata;
+  if (privileged || meta.locality === undefined || meta.locality === null) return meta as unknown as NetworkMetadata;
   return { ...meta, locality: publicLocality(meta.locality as NetworkMetadata["locality"]) } as unknown as NetworkMetadata;
 }
 

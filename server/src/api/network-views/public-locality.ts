@@ -1,31 +1,32 @@
 /**
- * Public coordinates of a locality: rounded to its generalisation grid ("exact", "0.01", "0.1" or "1"
- * degrees; missing means 0.1, the cautious default), so sensitive sites never leave the server with more
- * precision than allowed. The precision field then states the grid actually used.
+ * Public coordinates of a locality, the one rule every public answer uses (dataset API, network JSON and
+ * views, JSON-LD, catalogue, map, bundles): latitude and longitude rounded to the locality's generalisation
+ * grid by the deposit validation's `publicLocality` (shared/validation/coordinates.ts). A missing or
+ * unknown generalisation means 0.1°, the cautious default, never "exact"; coordinates that are not numbers
+ * are left out; only the known locality fields are kept. The precision field then states the grid used.
  */
-import type { Locality } from "../../../../shared/types/dataset";
+import type { CoordinateGeneralisation, Locality } from "../../../../shared/types/dataset";
+import { GENERALISATION_STEPS, publicLocality as toGrid } from "../../../../shared/validation/coordinates";
 
-const STEP: Record<string, number> = { exact: 0, "0.01": 0.01, "0.1": 0.1, "1": 1 };
-
-export function generalise(v: number, step: number): number {
-  if (step === 0) return v;
-  const decimals = step >= 1 ? 0 : Math.round(-Math.log10(step));
-  return Number((Math.round(v / step) * step).toFixed(decimals));
+function generalisationOf(l: Partial<Locality>): CoordinateGeneralisation {
+  const g = l.generalisation as string | undefined;
+  return g === "exact" || (typeof g === "string" && Object.prototype.hasOwnProperty.call(GENERALISATION_STEPS, g)) ? (g as CoordinateGeneralisation) : "0.1";
 }
 
-export function publicLocality(loc: Locality | undefined): Locality {
-  const l = (loc ?? {}) as Partial<Locality>;
-  const step = STEP[l.generalisation ?? "0.1"] ?? 0.1;
-  const lat = typeof l.decimalLatitude === "number" ? generalise(l.decimalLatitude, step) : (null as unknown as number);
-  const lon = typeof l.decimalLongitude === "number" ? generalise(l.decimalLongitude, step) : (null as unknown as number);
-  const precision = step === 0 ? l.coordinatePrecision : Math.max(step, l.coordinatePrecision ?? 0);
+export function publicLocality(loc: Locality | Partial<Locality> | undefined): Locality {
+  const l = (loc && typeof loc === "object" ? loc : {}) as Partial<Locality>;
+  const generalisation = generalisationOf(l);
+  const lat = typeof l.decimalLatitude === "number" && Number.isFinite(l.decimalLatitude) ? l.decimalLatitude : undefined;
+  const lon = typeof l.decimalLongitude === "number" && Number.isFinite(l.decimalLongitude) ? l.decimalLongitude : undefined;
+  const precision = typeof l.coordinatePrecision === "number" ? l.coordinatePrecision : undefined;
+  const p = toGrid<Partial<Locality>>({ decimalLatitude: lat, decimalLongitude: lon, coordinatePrecision: precision, generalisation });
   return {
-    placeName: l.placeName ?? "",
-    countryCode: l.countryCode ?? "",
-    decimalLatitude: lat,
-    decimalLongitude: lon,
-    ...(precision !== undefined ? { coordinatePrecision: precision } : {}),
-    ...(l.elevation !== undefined ? { elevation: l.elevation } : {}),
-    generalisation: (l.generalisation ?? "0.1") as Locality["generalisation"],
+    placeName: typeof l.placeName === "string" ? l.placeName : "",
+    countryCode: typeof l.countryCode === "string" ? l.countryCode : "",
+    decimalLatitude: (p.decimalLatitude ?? null) as unknown as number,
+    decimalLongitude: (p.decimalLongitude ?? null) as unknown as number,
+    ...(p.coordinatePrecision !== undefined ? { coordinatePrecision: p.coordinatePrecision } : {}),
+    ...(typeof l.elevation === "number" ? { elevation: l.elevation } : {}),
+    generalisation,
   };
 }

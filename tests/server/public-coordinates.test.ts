@@ -1,0 +1,77 @@
+/**
+ * One public rule for coordinates everywhere: a published locality whose generalisation is missing or
+ * unknown (metadata saved before validation, or by hand) is treated as the cautious 0.1° grid by every
+ * public answer: dataset API, network JSON, network view, coverage map and JSON-LD agree, and none of
+ * them carries the exact coordinates. The owner still sees the exact values.
+ */
+import request from "supertest";
+import { existsSync, readFileSync } from "node:fs";
+import { join } from "node:path";
+import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { CLIENT_DIST, createApp } from "../../server/src/app";
+import { shutdownServerResources } from "../../server/src/index";
+import { resetRateLimits } from "../../server/src/middlewares/rate-limit";
+import { catalogueStore } from "../../server/src/api/catalogue/catalogue.store";
+import { datasetHtmlRenderer } from "../../server/src/api/network-views/dataset-html";
+import type { Locality } from "../../shared/types/dataset";
+import { resetDatabase } from "../setup/db";
+import { agentFor, createUser } from "./support/accounts";
+import { createFixtureDataset, DAVIS_CSV } from "./support/published-fixture";
+
+const app = createApp();
+const EXACT_LAT = 61.23456;
+const EXACT_LON = 8.98765;
+const shell = existsSync(join(CLIENT_DIST, "index.html")) ? readFileSync(join(CLIENT_DIST, "index.html"), "utf8") : readFileSync(join(process.cwd(), "client", "index.html"), "utf8");
+let ownerEmail = "";
+
+beforeAll(async () => {
+  await resetDatabase();
+  catalogueStore.reset();
+  await resetRateLimits();
+  const owner = await createUser({ email: "owner@coords.test" });
+  ownerEmail = owner.email;
+  const noGeneralisation = { placeName: "Verrin Hills", countryCode: "NO", decimalLatitude: EXACT_LAT, decimalLongitude: EXACT_LON } as unknown as Locality;
+  const unknownGeneralisation = { ...noGeneralisation, generalisation: "0.5" } as unknown as Locality;
+  await createFixtureDataset({ accession: "TB-000011", owner, networks: [{ text: DAVIS_CSV, metrics: false, metadata: { locality: noGeneralisation } }] });
+  await createFixtureDataset({ accession: "TB-000012", owner, networks: [{ text: DAVIS_CSV, metrics: false, metadata: { locality: unknownGeneralisation } }] });
+});
+afterAll(shutdownServerResources);
+
+function expectCautious(lat: unknown, lon: unknown, where: string) {
+  expect(lat, where).toBe(61.2);
+  expect(lon, where).toBe(9);
+}
+
+describe("public coordinates without a known generalisation", () => {
+  it.each(["TB-000011", "TB-000012"])("%s: every public answer rounds to 0.1° and none carries the exact values", async (acc) => {
+    const detail = await request(app).get(`/api/v1/datasets/${acc}`);
+    expect(detail.status).toBe(200);
+    const loc = detail.body.networks[0].metadata.locality;
+    expectCautious(loc.decimalLatitude, loc.decimalLongitude, "dataset API");
+    expect(loc.generalisation).toBe("0.1");
+
+    const net = await request(app).get(`/api/v1/networks/${acc}/v1/1`);
+    expect(net.status).toBe(200);
+    expectCautious(net.body.metadata.locality.decimalLatitude, net.body.metadata.locality.decimalLongitude, "network JSON");
+
+    const view = await request(app).get(`/api/v1/network-views/${acc}/v1/1`);
+    expect(view.status).toBe(200);
+    expectCautious(view.body.metadata.locality.decimalLatitude, view.body.metadata.locality.decimalLongitude, "network view");
+
+    const map = await request(app).get(`/api/v1/network-views/map`);
+    const point = (map.body.data as Array<{ ref: string; latitude: number; longitude: number }>).find((p) => p.ref === `${acc}/v1/1`);
+    expectCautious(point?.latitude, point?.longitude, "map");
+
+    const html = (await datasetHtmlRenderer(`/datasets/${acc}`, shell))!;
+    for (const body of [JSON.stringify(detail.body), JSON.stringify(net.body), JSON.stringify(view.body), JSON.stringify(map.body), html]) {
+      expect(body).not.toContain(String(EXACT_LAT));
+      expect(body).not.toContain(String(EXACT_LON));
+    }
+  });
+
+  it("the owner still sees the exact coordinates", async () => {
+    const owner = await agentFor(app, ownerEmail);
+    const res = await owner.agent.get("/api/v1/datasets/TB-000011");
+    expect(res.body.networks[0].metadata.locality.decimalLatitude).toBe(EXACT_LAT);
+  });
+});
