@@ -11,7 +11,7 @@ import { resetRateLimits } from "../../server/src/middlewares/rate-limit";
 import { setCurrentMailCatcher } from "../../server/src/lib/mail-catcher";
 import { User } from "../../server/src/models";
 import { resetDatabase } from "../setup/db";
-import { agentFor, createUser, type SignedInAgent } from "./support/accounts";
+import { agentFor, createUser, TEST_PASSWORD, type SignedInAgent } from "./support/accounts";
 
 const app = createApp();
 const secrets: Record<"depositor" | "curator" | "admin", string> = { depositor: "", curator: "", admin: "" };
@@ -79,5 +79,11 @@ describe("API token powers", () => {
     expect(dep.status).toBe(201);
     expect((await request(app).post("/api/v1/tokens").set(bearer(secrets.depositor)).send({ name: "more" })).status).toBe(403);
     expect((await request(app).patch("/api/v1/account").set(bearer(secrets.depositor)).send({ displayName: "X" })).status).toBe(403);
+  });
+
+  it("signing in with an Authorization header is a clear 400, not a server error", async () => {
+    const res = await request(app).post("/api/v1/auth/sign-in").set(bearer(secrets.depositor)).send({ email: "depositor@token-powers.test", password: TEST_PASSWORD });
+    expect(res.status).toBe(400);
+    expect(res.body.message).toMatch(/Authorization header/);
   });
 });

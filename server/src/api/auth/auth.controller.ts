@@ -1,4 +1,5 @@
 import type { Request, Response } from "express";
+import { ApiError } from "../../lib/api-error";
 import { csrfToken } from "../../middlewares/csrf";
 import { toAuthUser } from "../../middlewares/authenticate";
 import * as v from "./auth.validation";
@@ -22,6 +23,8 @@ export async function signUp(req: Request, res: Response) {
 }
 
 export async function signIn(req: Request, res: Response) {
+  // Requests with an Authorization header get no session (app.ts): signing in needs a plain browser request.
+  if (!req.session) throw ApiError.badRequest("Sign in without an Authorization header: API tokens need no sign-in.");
   const { email, password } = v.validateSignIn(req.body);
   const user = await service.checkCredentials(email, password);
   // A new session id at sign-in (no session fixation) with a fresh CSRF token.
