@@ -12,7 +12,8 @@ export const apiNotFound: RequestHandler = (req, res) => {
 /**
  * The one error pipeline. Mapping table:
  * ApiError → its status; malformed JSON → 400; multer limits → 413/400; unique constraint → 409;
- * Sequelize validation → 422; anything else → 500 without detail in production.
+ * Sequelize validation → 422; other 4xx errors of Express/body-parser keep their status; anything else →
+ * 500 without detail in production.
  */
 export const errorHandler: ErrorRequestHandler = (err, req, res, _next) => {
   if (res.headersSent) {
@@ -43,6 +44,13 @@ export const errorHandler: ErrorRequestHandler = (err, req, res, _next) => {
   }
   if (err instanceof SequelizeValidationError) {
     res.status(422).json({ code: "validation_failed", message: "Invalid data.", details: err.errors.map((x) => ({ path: x.path ?? undefined, message: x.message })) });
+    return;
+  }
+  // Other client errors raised by Express and body-parser (a path that is not valid percent-encoding, an
+  // unsupported charset or encoding, an aborted body…) keep their 4xx status: they are the caller's fault.
+  if (typeof e.status === "number" && e.status >= 400 && e.status < 500) {
+    const exposed = (err as { expose?: boolean }).expose === true;
+    res.status(e.status).json({ code: e.status === 415 ? "unsupported_media_type" : "bad_request", message: exposed && e.message ? e.message : "The request could not be read." });
     return;
   }
   req.log?.error({ err }, "unhandled error");

@@ -1,0 +1,54 @@
+/**
+ * The error pipeline: the caller's mistakes that Express and body-parser detect (a path that is not valid
+ * percent-encoding, an unsupported charset) are 4xx, not server errors; real server errors say nothing
+ * of the internals in production.
+ */
+import express from "express";
+import request from "supertest";
+import { afterAll, describe, expect, it } from "vitest";
+import { createApp } from "../../server/src/app";
+import { shutdownServerResources } from "../../server/src/index";
+import { resetConfig } from "../../server/src/config/env";
+import { errorHandler } from "../../server/src/middlewares/error-handler";
+
+const app = createApp();
+afterAll(shutdownServerResources);
+
+describe("error pipeline", () => {
+  it.each(["/api/v1/datasets/%E0%A4%A", "/api/v1/network-views/TB-000001/v1/%ZZ", "/api/v1/networks/TB-000001/v1/%ZZ"])("%s: a path that is not valid percent-encoding is a 400", async (path) => {
+    const res = await request(app).get(path);
+    expect(res.status).toBe(400);
+    expect(res.body.code).toBe("bad_request");
+  });
+
+  it("an unsupported request charset is a 415", async () => {
+    const res = await request(app).post("/api/v1/bundles/estimate").set("Authorization", "Bearer not-a-token").set("Content-Type", "application/json; charset=latin9").send('{"refs":[]}');
+    // the bad token is checked after the body is read: the charset answers first
+    expect(res.status).toBe(415);
+    expect(res.body.code).toBe("unsupported_media_type");
+  });
+
+  it("in production a server error says nothing of the internals", async () => {
+    const prev = process.env.NODE_ENV;
+    const prevSecret = process.env.SESSION_SECRET;
+    process.env.NODE_ENV = "production";
+    process.env.SESSION_SECRET = "x".repeat(40);
+    resetConfig();
+    try {
+      const mini = express();
+      mini.get("/boom", () => {
+        throw new Error("relation \"secret_table\" does not exist at /srv/app/server.js:42");
+      });
+      mini.use(errorHandler);
+      const res = await request(mini).get("/boom");
+      expect(res.status).toBe(500);
+      expect(JSON.stringify(res.body)).not.toMatch(/secret_table|\/srv\/app/);
+      expect(res.body).toEqual({ code: "internal", message: "Something went wrong on our side." });
+    } finally {
+      process.env.NODE_ENV = prev;
+      if (prevSecret === undefined) delete process.env.SESSION_SECRET;
+      else process.env.SESSION_SECRET = prevSecret;
+      resetConfig();
+    }
+  });
+});
