@@ -197,6 +197,9 @@ describe("uploads", () => {
         .attach("files", Buffer.from(SMALL_MATRIX), "1.csv").attach("files", Buffer.from(SMALL_MATRIX), "2.csv").attach("files", Buffer.from(SMALL_MATRIX), "3.csv");
       expect(many.status).toBe(413);
       expect(await count("networks")).toBe(nets);
+      // someone else's deposit: refused before the body is read (404 as if absent, not 413)
+      const foreign = await other.agent.post(`/api/v1/deposits/${id}/networks`).set("x-csrf-token", other.csrf).attach("files", Buffer.from(big), "big.csv");
+      expect(foreign.status).toBe(404);
     } finally {
       delete process.env.TB_UPLOAD_MAX_BYTES;
       delete process.env.TB_UPLOAD_MAX_FILES;

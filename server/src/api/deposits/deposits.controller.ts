@@ -1,4 +1,4 @@
-import type { Request, Response } from "express";
+import type { NextFunction, Request, Response } from "express";
 import type { ListResponse } from "../../../../shared/types/api";
 import { config } from "../../config/env";
 import * as s from "./deposits.service";
@@ -23,6 +23,12 @@ export async function show(req: Request, res: Response) {
 
 export async function updateMetadata(req: Request, res: Response) {
   res.json(await s.updateStudyMetadata(idParam(req.params.id, "deposit"), viewer(req), (req.body as { metadata?: unknown } | undefined)?.metadata));
+}
+
+/** Before the multipart body is read: only the owner of an editable deposit gets its files into memory. */
+export async function uploadTarget(req: Request, _res: Response, next: NextFunction) {
+  await s.assertUploadTarget(idParam(req.params.id, "deposit"), viewer(req));
+  next();
 }
 
 export async function upload(req: Request, res: Response) {

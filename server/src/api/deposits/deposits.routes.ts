@@ -16,7 +16,7 @@ depositsRouter.post("/", c.create); // new dataset + v1 draft
 depositsRouter.get("/:id", c.show); // owner or curator, else 404
 depositsRouter.delete("/:id", c.remove); // owner, drafts only
 depositsRouter.put("/:id/metadata", c.updateMetadata); // owner, draft or changes requested
-depositsRouter.post("/:id/networks", uploadFiles, c.upload); // owner; multipart "files" (+ kind, directed, format)
+depositsRouter.post("/:id/networks", c.uploadTarget, uploadFiles, c.upload); // owner (checked before the body is read); multipart "files" (+ kind, directed, format)
 depositsRouter.put("/:id/networks/order", c.reorder); // owner; { order: [networkId…] }
 depositsRouter.patch("/:id/networks/:networkId", c.updateNetwork); // owner; { metadata?, kind?, directed?, format? }
 depositsRouter.delete("/:id/networks/:networkId", c.deleteNetwork); // owner

@@ -251,12 +251,17 @@ async function deleteOrphanFiles(fileIds: number[], t: Transaction): Promise<voi
   await sequelize().query(`DELETE FROM stored_files f WHERE f.id IN (:ids) AND NOT EXISTS (SELECT 1 FROM networks n WHERE n.file_id = f.id)`, { replacements: { ids: fileIds }, transaction: t });
 }
 
-/** Adds parsed network files to an editable version, all or nothing. */
-export async function addNetworks(versionId: number, viewer: Viewer, files: UploadedFile[], opts: UploadOptions): Promise<{ networks: Array<{ id: number; position: number; originalName: string }>; deposit: DepositDetail }> {
-  // Visibility and state first, so a refused upload is not parsed for nothing.
+/** Who may upload to a version now: its owner while it is editable (404 for others who may not see it). */
+export async function assertUploadTarget(versionId: number, viewer: Viewer): Promise<void> {
   const pre = await loadVisibleVersion(versionId, viewer);
   if (pre.dataset.ownerId !== viewer.id) throw ApiError.forbidden("Only the depositor uploads files to a deposit.");
   if (!OWNER_EDITABLE.includes(pre.version.state)) throw ApiError.conflict(stateMessage(pre.version.state));
+}
+
+/** Adds parsed network files to an editable version, all or nothing. */
+export async function addNetworks(versionId: number, viewer: Viewer, files: UploadedFile[], opts: UploadOptions): Promise<{ networks: Array<{ id: number; position: number; originalName: string }>; deposit: DepositDetail }> {
+  // Visibility and state first, so a refused upload is not parsed for nothing.
+  await assertUploadTarget(versionId, viewer);
   const parsed = parseUploads(files, opts);
   const created = await tx(async (t) => {
     const { dataset, version } = await loadOwnEditable(versionId, viewer, t);
