@@ -5,11 +5,12 @@
  */
 import express from "express";
 import request from "supertest";
-import { afterAll, describe, expect, it } from "vitest";
+import { afterAll, describe, expect, it, vi } from "vitest";
 import { createApp } from "../../server/src/app";
 import { shutdownServerResources } from "../../server/src/index";
 import { resetConfig } from "../../server/src/config/env";
 import { errorHandler } from "../../server/src/middlewares/error-handler";
+import { sequelize } from "../../server/src/db/sequelize";
 
 const app = createApp();
 afterAll(shutdownServerResources);
@@ -26,6 +27,27 @@ describe("error pipeline", () => {
     // the bad token is checked after the body is read: the charset answers first
     expect(res.status).toBe(415);
     expect(res.body.code).toBe("unsupported_media_type");
+  });
+
+  it("in production the health check does not pass on the database driver's message", async () => {
+    const prev = process.env.NODE_ENV;
+    const prevSecret = process.env.SESSION_SECRET;
+    process.env.NODE_ENV = "production";
+    process.env.SESSION_SECRET = "x".repeat(40);
+    resetConfig();
+    const spy = vi.spyOn(sequelize(), "query").mockRejectedValueOnce(new Error('password authentication failed for user "tanglebank" at 10.1.2.3:5432'));
+    try {
+      const res = await request(app).get("/api/v1/health");
+      expect(res.status).toBe(503);
+      expect(res.body.database.status).toBe("unreachable");
+      expect(JSON.stringify(res.body)).not.toMatch(/tanglebank|10\.1\.2\.3|password/);
+    } finally {
+      spy.mockRestore();
+      process.env.NODE_ENV = prev;
+      if (prevSecret === undefined) delete process.env.SESSION_SECRET;
+      else process.env.SESSION_SECRET = prevSecret;
+      resetConfig();
+    }
   });
 
   it("in production a server error says nothing of the internals", async () => {
