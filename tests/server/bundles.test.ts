@@ -73,6 +73,46 @@ async function unzip(buf: Buffer): Promise<Map<string, string>> {
   });
 }
 
+/** CRC-32 (IEEE 802.3, reflected polynomial 0xEDB88320) bit by bit, straight from its definition. */
+function crc32Reference(buf: Buffer): number {
+  let c = 0xffffffff;
+  for (const byte of buf) {
+    c ^= byte;
+    for (let k = 0; k < 8; k++) c = c & 1 ? (c >>> 1) ^ 0xedb88320 : c >>> 1;
+  }
+  return (c ^ 0xffffffff) >>> 0;
+}
+
+interface ZipEntryInfo {
+  method: number;
+  crc: number;
+  content: Buffer;
+}
+
+/** Every entry with its compression method (0 stored, 8 deflated), recorded CRC-32 and content. */
+async function zipEntries(buf: Buffer): Promise<Map<string, ZipEntryInfo>> {
+  return new Promise((resolve, reject) => {
+    yauzl.fromBuffer(buf, { lazyEntries: true }, (err, zip) => {
+      if (err || !zip) return reject(err);
+      const out = new Map<string, ZipEntryInfo>();
+      zip.on("entry", (entry: yauzl.Entry) => {
+        zip.openReadStream(entry, (e, stream) => {
+          if (e || !stream) return reject(e);
+          const parts: Buffer[] = [];
+          stream.on("data", (c: Buffer) => parts.push(c));
+          stream.on("end", () => {
+            out.set(entry.fileName, { method: entry.compressionMethod, crc: entry.crc32, content: Buffer.concat(parts) });
+            zip.readEntry();
+          });
+        });
+      });
+      zip.on("end", () => resolve(out));
+      zip.on("error", reject);
+      zip.readEntry();
+    });
+  });
+}
+
 async function download(query: Record<string, string>): Promise<Map<string, string>> {
   const res = await request(app).get("/api/v1/bundles").query(query).buffer(true).parse(binaryParser);
   expect(res.status, res.status !== 200 ? JSON.stringify(res.body) : "").toBe(200);
@@ -149,6 +189,42 @@ describe("bundle contents", () => {
     expect(files.get("CITATIONS.bib")).toContain(`@misc{${a.accession}-v1`);
     expect(files.get("README.txt")).toMatch(/Raw Q is not comparable/);
     expect(files.get("README.txt")).toMatch(/null replicates/);
+  });
+
+  it("compression: fast (default) stores every file, small deflates them; both hold the same files with correct CRC-32s", async () => {
+    // check value of CRC-32 for "123456789": 0xCBF43926 (the standard check value of this CRC)
+    expect(crc32Reference(Buffer.from("123456789"))).toBe(0xcbf43926);
+    const get = async (query: Record<string, string>) => {
+      const res = await request(app).get("/api/v1/bundles").query(query).buffer(true).parse(binaryParser);
+      expect(res.status).toBe(200);
+      return { size: (res.body as Buffer).length, entries: await zipEntries(res.body as Buffer) };
+    };
+    const fast = await get({});
+    const fastNamed = await get({ compression: "fast" });
+    const small = await get({ compression: "small" });
+    expect([...fast.entries.keys()].sort()).toEqual([...small.entries.keys()].sort());
+    expect([...fastNamed.entries.keys()].sort()).toEqual([...fast.entries.keys()].sort());
+    for (const [name, f] of fast.entries) {
+      const sm = small.entries.get(name)!;
+      expect(f.method, name).toBe(0);
+      expect(sm.method, name).toBe(8);
+      expect(f.crc, name).toBe(crc32Reference(f.content));
+      expect(sm.crc, name).toBe(crc32Reference(sm.content));
+      // the same bytes, except the generation time in README.txt and datapackage.json
+      const strip = (b: Buffer) => b.toString("utf8").replace(/\d{4}-\d\d-\d\dT\d\d:\d\d:\d\d\.\d{3}Z/g, "T");
+      expect(strip(sm.content), name).toBe(strip(f.content));
+    }
+    expect(small.size).toBeLessThan(fast.size / 2);
+
+    const bad = await request(app).get("/api/v1/bundles").query({ compression: "zstd" });
+    expect(bad.status).toBe(400);
+    expect(bad.body.details[0].path).toBe("compression");
+    const agent = request.agent(app);
+    const s = await agent.get("/api/v1/auth/session");
+    const post = await agent.post("/api/v1/bundles").set("x-csrf-token", s.body.csrfToken).send({ refs: [`${b.accession}/v1/1`], compression: "small" }).buffer(true).parse(binaryParser);
+    expect(post.status).toBe(200);
+    const posted = await zipEntries(post.body as Buffer);
+    expect(posted.get(`networks/${b.accession}_v1_1.csv`)!.method).toBe(8);
   });
 
   it("a selection bundle holds exactly the chosen networks; a filter bundle only the matching ones", async () => {

@@ -1,0 +1,157 @@
+/**
+ * A network's matrix CSV for bundles, written straight from its stored canonical JSON into one Buffer.
+ *
+ * The output is byte for byte what the engine's `networkToMatrixCsv(deserializeNetwork(json))` gives
+ * (tests/server/bundles-csv.test.ts compares them), but it skips building the typed arrays and the
+ * per-cell strings: a row of zero cells (",0,0,…,0") is made once per network and copied into each line,
+ * and only the non-zero cells are written (an unweighted network only changes a "0" into a "1" in place).
+ * Stored networks were validated when they were deposited; the checks here (array lengths, column
+ * indices in range and strictly increasing, positive finite weights) only make sure a damaged row can
+ * never produce a malformed file: it throws instead.
+ */
+import type { CanonicalNetworkJson } from "../../../../shared/network/parse/serialize";
+
+const COMMA = 0x2c;
+const NEWLINE = 0x0a;
+const ZERO = 0x30;
+const ONE = 0x31;
+
+/** RFC 4180 quoting, as the engine's writer does (delimiter ","). */
+function quote(s: string): string {
+  if (s.includes(",") || s.includes('"') || s.includes("\n") || s.includes("\r") || s !== s.trim()) return `"${s.replace(/"/g, '""')}"`;
+  return s;
+}
+
+function fail(msg: string): never {
+  throw new Error(`Stored network cannot be written as CSV: ${msg}`);
+}
+
+/**
+ * `corner` is the text of the header's first cell (the engine writes it empty; bundles name it "node" so
+ * that the first column has a name in the Table Schema).
+ */
+export function matrixCsvFromCanonical(json: unknown, corner = ""): Buffer {
+  const c = json as CanonicalNetworkJson;
+  if (!c || typeof c !== "object" || c.v !== 1) fail("unknown canonical form");
+  const rows = c.rows;
+  const cols = c.kind === "bipartite" ? c.cols : rows;
+  if (!Array.isArray(rows) || !Array.isArray(cols)) fail("missing node labels");
+  const { ptr, idx } = c;
+  const w = c.w ?? null;
+  const I = rows.length;
+  const J = cols.length;
+  if (!Array.isArray(ptr) || ptr.length !== I + 1 || ptr[0] !== 0 || !Array.isArray(idx) || idx.length !== ptr[I]) fail("row pointers do not match the links");
+  if (w !== null && (!Array.isArray(w) || w.length !== idx.length)) fail("weights do not match the links");
+
+  // exact size: header, labels, I lines of J ",0" cells and a newline, plus the extra length of weights
+  const header = (cols.length ? quote(corner) + "," + cols.map(quote).join(",") : quote(corner)) + "\n";
+  const headerBytes = Buffer.byteLength(header);
+  const labels = new Array<string>(I);
+  let size = headerBytes + I * (2 * J + 1);
+  for (let i = 0; i < I; i++) {
+    const q = quote(rows[i]);
+    labels[i] = q;
+    size += q.length; // corrected below when a label is not ASCII
+  }
+  let ascii = true;
+  for (let i = 0; i < I && ascii; i++) if (!isAscii(labels[i])) ascii = false;
+  if (!ascii) {
+    size = headerBytes + I * (2 * J + 1);
+    for (let i = 0; i < I; i++) size += Buffer.byteLength(labels[i]);
+  }
+  // weights: whole numbers are written digit by digit; other numbers through String() (shortest round trip)
+  let texts: Map<number, string> | null = null;
+  if (w !== null) {
+    for (let p = 0; p < w.length; p++) {
+      const x = w[p];
+      if (typeof x !== "number" || !(x > 0) || !Number.isFinite(x)) fail(`weight ${String(x)} at link ${p + 1}`);
+      if (Number.isInteger(x) && x < 1e15) size += digitCount(x) - 1;
+      else {
+        const t = String(x);
+        (texts ??= new Map()).set(p, t);
+        size += t.length - 1;
+      }
+    }
+  }
+
+  const out = Buffer.allocUnsafe(size);
+  let pos = out.write(header, 0, "utf8");
+  const zeros = Buffer.allocUnsafe(2 * J);
+  for (let j = 0; j < J; j++) {
+    zeros[2 * j] = COMMA;
+    zeros[2 * j + 1] = ZERO;
+  }
+  for (let i = 0; i < I; i++) {
+    pos += out.write(labels[i], pos, ascii ? "latin1" : "utf8");
+    const from = ptr[i];
+    const to = ptr[i + 1];
+    if (!(to >= from) || to > idx.length) fail(`row pointers decrease at row ${i + 1}`);
+    let prev = -1;
+    if (w === null) {
+      zeros.copy(out, pos);
+      for (let p = from; p < to; p++) {
+        const j = idx[p];
+        if (!(j > prev && j < J)) fail(`column index ${j} out of order or range in row ${i + 1}`);
+        out[pos + 2 * j + 1] = ONE;
+        prev = j;
+      }
+      pos += 2 * J;
+    } else {
+      let cell = 0; // next cell not yet written
+      for (let p = from; p < to; p++) {
+        const j = idx[p];
+        if (!(j > prev && j < J)) fail(`column index ${j} out of order or range in row ${i + 1}`);
+        pos = writeZeros(out, pos, zeros, j - cell);
+        out[pos++] = COMMA;
+        const x = w[p];
+        if (Number.isInteger(x) && x < 1e15) pos = writeDigits(out, pos, x);
+        else pos += out.write(texts!.get(p)!, pos, "latin1");
+        cell = j + 1;
+        prev = j;
+      }
+      pos = writeZeros(out, pos, zeros, J - cell);
+    }
+    out[pos++] = NEWLINE;
+  }
+  if (pos !== size) fail(`wrote ${pos} bytes where ${size} were expected`);
+  return out;
+}
+
+/** n cells ",0": a byte loop for short runs, a copy of the zero row for long ones. */
+function writeZeros(out: Buffer, pos: number, zeros: Buffer, n: number): number {
+  if (n > 16) return pos + zeros.copy(out, pos, 0, 2 * n);
+  for (let k = 0; k < n; k++) {
+    out[pos++] = COMMA;
+    out[pos++] = ZERO;
+  }
+  return pos;
+}
+
+function digitCount(x: number): number {
+  let n = 1;
+  while (x >= 10) {
+    x = Math.floor(x / 10);
+    n++;
+  }
+  return n;
+}
+
+/** A whole number below 10^15 in decimal, as String() writes it. */
+function writeDigits(out: Buffer, pos: number, x: number): number {
+  if (x < 10) {
+    out[pos] = ZERO + x;
+    return pos + 1;
+  }
+  const end = pos + digitCount(x);
+  for (let k = end - 1; k >= pos; k--) {
+    const q = Math.floor(x / 10);
+    out[k] = ZERO + (x - q * 10);
+    x = q;
+  }
+  return end;
+}
+
+function isAscii(s: string): boolean {
+  for (let k = 0; k < s.length; k++) if (s.charCodeAt(k) > 0x7f) return false;
+  return true;
+}

@@ -1,0 +1,108 @@
+/**
+ * The bundle's byte-level matrix writer (server/src/api/bundles/bundles.csv.ts) against the engine's
+ * writer (`networkToMatrixCsv`, itself tested by round trips through the parser in
+ * tests/shared/network/parse.test.ts): the same bytes for random bipartite and one-mode networks
+ * (directed or not, self-loops, weights whole, fractional, large and tiny), labels needing quotes and
+ * non-ASCII labels, empty rows and networks without links; a CSV parsed back gives the stored network;
+ * damaged stored networks throw instead of writing a malformed file. No database needed.
+ */
+import { describe, expect, it } from "vitest";
+import { createRng, deserializeNetwork, networkToMatrixCsv, parseNetworkText, serializeNetwork, type Network } from "../../shared/network/index";
+import { networkFromTriples } from "../../shared/network/graph";
+import { matrixCsvFromCanonical } from "../../server/src/api/bundles/bundles.csv";
+import { useNativeCrc32 } from "../../server/src/api/bundles/bundles.crc";
+import zlib from "node:zlib";
+
+const engine = (net: Network, corner = "") => {
+  const text = networkToMatrixCsv(net);
+  return corner ? corner + text : text;
+};
+
+function randomNetwork(seed: number, opts: { outerSpaces?: boolean } = {}): Network {
+  const rng = createRng(seed);
+  const kind = rng.next() < 0.5 ? "bipartite" : "unipartite";
+  const directed = kind === "unipartite" && rng.next() < 0.5;
+  const I = rng.nextInt(40);
+  const J = kind === "bipartite" ? rng.nextInt(60) : I;
+  const weightKind = rng.nextInt(4); // 0 binary, 1 small whole, 2 large whole, 3 fractional
+  const weight = () => (weightKind === 0 ? 1 : weightKind === 1 ? 1 + rng.nextInt(9) : weightKind === 2 ? 10 + rng.nextInt(1e9) : 0.001 + rng.next() * 1000);
+  const odd = ["a,b", 'say "hi"', "Épervier d'Europe", "鳥", "line\nbreak", "tab\there", "", ...(opts.outerSpaces === false ? [] : [" padded "])];
+  const label = (p: string, i: number) => (rng.next() < 0.15 ? `${odd[rng.nextInt(odd.length)]}_${p}${i}` : `${p}${i}`);
+  const rows = Array.from({ length: I }, (_, i) => label("r", i));
+  const cols = kind === "bipartite" ? Array.from({ length: J }, (_, j) => label("c", j)) : rows;
+  const r: number[] = [];
+  const c: number[] = [];
+  const w: number[] = [];
+  const density = rng.next();
+  for (let i = 0; i < I; i++) {
+    for (let j = kind === "unipartite" && !directed ? i : 0; j < J; j++) {
+      if (rng.next() >= density) continue;
+      const x = weight();
+      r.push(i); c.push(j); w.push(x);
+      if (kind === "unipartite" && !directed && i !== j) { r.push(j); c.push(i); w.push(x); }
+    }
+  }
+  return networkFromTriples({ kind, directed, rowLabels: rows, colLabels: cols }, r, c, w);
+}
+
+describe("bundle matrix CSV writer", () => {
+  it("writes exactly the engine's bytes, with an empty or named corner cell", () => {
+    let checked = 0;
+    for (let seed = 1; seed <= 300; seed++) {
+      let net: Network;
+      try {
+        net = randomNetwork(seed);
+      } catch {
+        continue; // e.g. duplicate labels refused by the engine
+      }
+      const json = JSON.parse(JSON.stringify(serializeNetwork(net)));
+      expect(matrixCsvFromCanonical(json).toString("utf8"), `seed ${seed}`).toBe(engine(net));
+      expect(matrixCsvFromCanonical(json, "node").toString("utf8"), `seed ${seed}`).toBe(engine(net, "node"));
+      checked++;
+    }
+    expect(checked).toBeGreaterThan(250);
+  });
+
+  it("round-trips through the engine's parser to the stored network", () => {
+    for (let seed = 400; seed < 440; seed++) {
+      // the parser trims outer spaces of labels even when quoted, so such labels cannot round-trip
+      const net = randomNetwork(seed, { outerSpaces: false });
+      if (net.rowPtr[net.rowLabels.length] === 0) continue; // the parser refuses a matrix without links
+      const stored = serializeNetwork(net);
+      const text = matrixCsvFromCanonical(JSON.parse(JSON.stringify(stored))).toString("utf8");
+      const back = parseNetworkText(text, { fileName: "m.csv", kind: net.kind, directed: net.directed }).network;
+      expect(serializeNetwork(back)).toEqual(serializeNetwork(deserializeNetwork(stored)));
+    }
+  });
+
+  it("edge cases: no rows, no links, one cell", () => {
+    const empty = networkFromTriples({ kind: "bipartite", directed: false, rowLabels: [], colLabels: [] }, [], [], []);
+    expect(matrixCsvFromCanonical(serializeNetwork(empty), "node").toString()).toBe(engine(empty, "node"));
+    const noLinks = networkFromTriples({ kind: "bipartite", directed: false, rowLabels: ["a", "b"], colLabels: ["x"] }, [], [], []);
+    expect(matrixCsvFromCanonical(serializeNetwork(noLinks)).toString()).toBe(",x\na,0\nb,0\n");
+    const one = networkFromTriples({ kind: "bipartite", directed: false, rowLabels: ["a"], colLabels: ["x"] }, [0], [0], [2.5]);
+    expect(matrixCsvFromCanonical(serializeNetwork(one), "node").toString()).toBe("node,x\na,2.5\n");
+  });
+
+  it("refuses damaged stored networks instead of writing a malformed file", () => {
+    const good = serializeNetwork(networkFromTriples({ kind: "bipartite", directed: false, rowLabels: ["a", "b"], colLabels: ["x", "y"] }, [0, 1], [1, 0], [1, 1]));
+    expect(() => matrixCsvFromCanonical({ ...good, idx: [1, 5] })).toThrow(/column index 5/);
+    expect(() => matrixCsvFromCanonical({ ...good, ptr: [0, 1] })).toThrow(/row pointers/);
+    expect(() => matrixCsvFromCanonical({ ...good, w: [1, -2] })).toThrow(/weight -2/);
+    expect(() => matrixCsvFromCanonical({ ...good, v: 2 })).toThrow(/canonical/);
+  });
+});
+
+describe("native CRC-32 for archiver", () => {
+  it("gives the standard check value and the same result as archiver's own package, in pieces too", async () => {
+    expect(useNativeCrc32()).toBe(true);
+    // check value of CRC-32 for "123456789": 0xCBF43926
+    expect(zlib.crc32("123456789")).toBe(0xcbf43926);
+    const { createRequire } = await import("node:module");
+    const req = createRequire(import.meta.url);
+    const crc = createRequire(createRequire(createRequire(req.resolve("archiver")).resolve("zip-stream")).resolve("compress-commons"))("crc-32") as { buf(b: Uint8Array, seed?: number): number };
+    expect(crc.buf(Buffer.from("123456789")) >>> 0).toBe(0xcbf43926);
+    const data = Buffer.from("node,x,y\na,0,1\n".repeat(1000));
+    expect(crc.buf(data.subarray(500), crc.buf(data.subarray(0, 500)) >>> 0) >>> 0).toBe(zlib.crc32(data));
+  });
+});
