@@ -1,10 +1,12 @@
 /**
  * One public rule for coordinates everywhere: a published locality whose generalisation is missing or
  * unknown (metadata saved before validation, or by hand) is treated as the cautious 0.1° grid by every
- * public answer: dataset API, network JSON, network view, coverage map and JSON-LD agree, and none of
- * them carries the exact coordinates. The owner still sees the exact values.
+ * public answer: dataset API, network JSON, network view, coverage map, JSON-LD and bundles' networks.csv
+ * agree (the bundle states the grid applied), and none carries the exact coordinates. The owner still sees
+ * the exact values.
  */
 import request from "supertest";
+import yauzl from "yauzl";
 import { existsSync, readFileSync } from "node:fs";
 import { join } from "node:path";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
@@ -69,9 +71,57 @@ describe("public coordinates without a known generalisation", () => {
     }
   });
 
+  it("bundles' networks.csv states the rounded coordinates and the 0.1 grid it applied", async () => {
+    const res = await request(app)
+      .get("/api/v1/bundles?refs=TB-000011/v1/1,TB-000012/v1/1")
+      .buffer(true)
+      .parse((r, cb) => {
+        const chunks: Buffer[] = [];
+        r.on("data", (c: Buffer) => chunks.push(c));
+        r.on("end", () => cb(null, Buffer.concat(chunks)));
+      });
+    expect(res.status).toBe(200);
+    const files = await unzip(res.body as Buffer);
+    const csv = files.get("networks.csv")!;
+    const [header, ...rows] = csv.trim().split("\n").map((l) => l.split(","));
+    const col = (name: string) => header.indexOf(name);
+    expect(rows).toHaveLength(2);
+    for (const r of rows) {
+      expectCautious(Number(r[col("decimal_latitude")]), Number(r[col("decimal_longitude")]), "networks.csv");
+      expect(r[col("coordinate_generalisation")]).toBe("0.1");
+    }
+    for (const text of files.values()) {
+      expect(text).not.toContain(String(EXACT_LAT));
+      expect(text).not.toContain(String(EXACT_LON));
+    }
+  });
+
   it("the owner still sees the exact coordinates", async () => {
     const owner = await agentFor(app, ownerEmail);
     const res = await owner.agent.get("/api/v1/datasets/TB-000011");
     expect(res.body.networks[0].metadata.locality.decimalLatitude).toBe(EXACT_LAT);
   });
 });
+
+async function unzip(buf: Buffer): Promise<Map<string, string>> {
+  return new Promise((resolve, reject) => {
+    yauzl.fromBuffer(buf, { lazyEntries: true }, (err, zip) => {
+      if (err || !zip) return reject(err ?? new Error("no zip"));
+      const out = new Map<string, string>();
+      zip.on("entry", (entry: yauzl.Entry) => {
+        zip.openReadStream(entry, (e, stream) => {
+          if (e || !stream) return reject(e ?? new Error("no stream"));
+          const parts: Buffer[] = [];
+          stream.on("data", (c: Buffer) => parts.push(c));
+          stream.on("end", () => {
+            out.set(entry.fileName, Buffer.concat(parts).toString("utf8"));
+            zip.readEntry();
+          });
+        });
+      });
+      zip.on("end", () => resolve(out));
+      zip.on("error", reject);
+      zip.readEntry();
+    });
+  });
+}

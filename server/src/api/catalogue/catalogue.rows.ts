@@ -191,7 +191,7 @@ function toEntry(r: RawRow): CatalogueEntry {
     placeName: str(loc.placeName),
     latitude: coords.latitude,
     longitude: coords.longitude,
-    generalisation: str(loc.generalisation),
+    generalisation: coords.latitude !== null || coords.longitude !== null ? coords.generalisation : str(loc.generalisation),
     elevation: num(loc.elevation),
     startDate,
     endDate,

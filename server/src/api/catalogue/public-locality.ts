@@ -6,10 +6,12 @@
 import type { Locality } from "../../../../shared/types/dataset";
 import { publicLocality } from "../network-views/public-locality";
 
-export function publicCoordinates(loc: Record<string, unknown>): { latitude: number | null; longitude: number | null } {
+export function publicCoordinates(loc: Record<string, unknown>): { latitude: number | null; longitude: number | null; generalisation: Locality["generalisation"] } {
   const p = publicLocality(loc as Partial<Locality>);
   return {
     latitude: typeof p.decimalLatitude === "number" ? p.decimalLatitude : null,
     longitude: typeof p.decimalLongitude === "number" ? p.decimalLongitude : null,
+    // the grid actually applied (a missing or unknown one is 0.1), as bundles' networks.csv states it
+    generalisation: p.generalisation,
   };
 }
