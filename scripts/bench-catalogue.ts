@@ -13,8 +13,10 @@
  *   autocannon prints no 95th percentile, so a second 10 s run with our own 20-connection client records
  *   every latency and gives p50/p95/p99 exactly, and every one of its requests differs (a random
  *   connectanceMin with five decimals and a random page), so each one filters, counts and sorts the 10,000 networks afresh.
- * - Bundle: 1,000 networks by reference (POST with a Bearer token), downloaded in full; MB/s of the zip
- *   and of the uncompressed content, and the server's peak RSS growth over its idle RSS.
+ * - Bundle: 1,000 networks by reference (POST with a Bearer token), downloaded in full three times with
+ *   the default compression=fast (files stored) and once with compression=small (deflated); MB/s of the
+ *   zip and of the uncompressed content, and the server's peak RSS growth over its idle RSS. The rate
+ *   target is judged on content MB/s (what the reader gets, whatever the packing), median of the three.
  * Targets: p95 < 100 ms for both queries; bundle RSS growth < 100 MB and ≥ 50 MB/s.
  */
 import { spawn, execFileSync } from "node:child_process";
@@ -282,55 +284,71 @@ async function main(): Promise<void> {
     summary.push(`${name}: p95 ${own.p95.toFixed(1)} ms ${own.p95 < 100 ? "< 100 ms — target met" : "≥ 100 ms — TARGET MISSED"}`);
   }
 
-  // Bundle of 1,000 networks
-  await new Promise((r) => setTimeout(r, 1000));
-  const idle = rssOf(child.pid!);
-  let peak = idle;
-  const sampler = setInterval(() => {
-    peak = Math.max(peak, rssOf(child.pid!));
-  }, 20);
-  const t0 = Date.now();
-  let zipBytes = 0;
-  const res = await fetch(base + "/api/v1/bundles", {
-    method: "POST",
-    headers: { "content-type": "application/json", authorization: `Bearer ${secret}` },
-    body: JSON.stringify({ refs: refRows.map((r) => r.ref) }),
-  });
-  if (res.status !== 200) throw new Error(`bundle: ${res.status} ${await res.text()}`);
-  const reader = res.body!.getReader();
-  const chunks: Buffer[] = [];
-  for (;;) {
-    const { done, value } = await reader.read();
-    if (done) break;
-    zipBytes += value.byteLength;
-    chunks.push(Buffer.from(value));
-  }
-  const seconds = (Date.now() - t0) / 1000;
-  clearInterval(sampler);
-  peak = Math.max(peak, rssOf(child.pid!));
-  // uncompressed content size from the zip's central directory
+  // Bundle of 1,000 networks: three downloads with the default packing (compression=fast), then one with
+  // compression=small. Each download reads every network from the database afresh (nothing is cached
+  // between bundles); the first one also pays for compiling the bundle code in the server process.
   const yauzl = (await import("yauzl")).default;
-  const content = await new Promise<{ entries: number; bytes: number }>((resolve, reject) => {
-    yauzl.fromBuffer(Buffer.concat(chunks), { lazyEntries: true }, (err, zip) => {
-      if (err || !zip) return reject(err);
-      let entries = 0;
-      let bytes = 0;
-      zip.on("entry", (e: { uncompressedSize: number }) => {
-        entries++;
-        bytes += e.uncompressedSize;
+  const bundleOnce = async (compression: "fast" | "small") => {
+    await new Promise((r) => setTimeout(r, 500));
+    const idle = rssOf(child.pid!);
+    let peak = idle;
+    const sampler = setInterval(() => {
+      peak = Math.max(peak, rssOf(child.pid!));
+    }, 20);
+    const t0 = Date.now();
+    let zipBytes = 0;
+    const res = await fetch(base + "/api/v1/bundles", {
+      method: "POST",
+      headers: { "content-type": "application/json", authorization: `Bearer ${secret}` },
+      body: JSON.stringify({ refs: refRows.map((r) => r.ref), compression }),
+    });
+    if (res.status !== 200) throw new Error(`bundle: ${res.status} ${await res.text()}`);
+    const reader = res.body!.getReader();
+    const chunks: Buffer[] = [];
+    for (;;) {
+      const { done, value } = await reader.read();
+      if (done) break;
+      zipBytes += value.byteLength;
+      chunks.push(Buffer.from(value));
+    }
+    const seconds = (Date.now() - t0) / 1000;
+    clearInterval(sampler);
+    peak = Math.max(peak, rssOf(child.pid!));
+    // uncompressed content size from the zip's central directory
+    const content = await new Promise<{ entries: number; bytes: number }>((resolve, reject) => {
+      yauzl.fromBuffer(Buffer.concat(chunks), { lazyEntries: true }, (err, zip) => {
+        if (err || !zip) return reject(err);
+        let entries = 0;
+        let bytes = 0;
+        zip.on("entry", (e: { uncompressedSize: number }) => {
+          entries++;
+          bytes += e.uncompressedSize;
+          zip.readEntry();
+        });
+        zip.on("end", () => resolve({ entries, bytes }));
         zip.readEntry();
       });
-      zip.on("end", () => resolve({ entries, bytes }));
-      zip.readEntry();
     });
-  });
-  const growth = (peak - idle) / MB;
-  const rate = content.bytes / MB / seconds;
-  console.log(
-    `bundle 1,000 networks: ${content.entries} files, zip ${(zipBytes / MB).toFixed(1)} MB (${(content.bytes / MB).toFixed(1)} MB uncompressed) in ${seconds.toFixed(2)} s = ${(zipBytes / MB / seconds).toFixed(1)} MB/s of zip, ${rate.toFixed(1)} MB/s of content | server RSS idle ${(idle / MB).toFixed(0)} MB, peak ${(peak / MB).toFixed(0)} MB, growth ${growth.toFixed(1)} MB`,
+    return { compression, seconds, zipBytes, content, idle, peak, growth: (peak - idle) / MB, zipRate: zipBytes / MB / seconds, contentRate: content.bytes / MB / seconds };
+  };
+  const runs = [];
+  for (const compression of ["fast", "fast", "fast", "small"] as const) {
+    const b = await bundleOnce(compression);
+    runs.push(b);
+    console.log(
+      `bundle 1,000 networks #${runs.length} (compression=${b.compression}): ${b.content.entries} files, zip ${(b.zipBytes / MB).toFixed(1)} MB (${(b.content.bytes / MB).toFixed(1)} MB uncompressed) in ${b.seconds.toFixed(2)} s = ${b.zipRate.toFixed(1)} MB/s of zip, ${b.contentRate.toFixed(1)} MB/s of content | server RSS idle ${(b.idle / MB).toFixed(0)} MB, peak ${(b.peak / MB).toFixed(0)} MB, growth ${b.growth.toFixed(1)} MB`,
+    );
+  }
+  const fastRuns = runs.filter((b) => b.compression === "fast");
+  const median = [...fastRuns].sort((x, y) => x.contentRate - y.contentRate)[1];
+  const growth = Math.max(...runs.map((b) => b.growth));
+  // The rate is judged on the content delivered (the uncompressed bytes of the bundle's files) per second:
+  // it counts what the reader gets whatever the packing, so a worse compression cannot look faster. With
+  // compression=fast (stored) the zip bytes and the content bytes are the same to within the zip headers.
+  summary.push(`bundle memory growth ${growth.toFixed(1)} MB (largest of the four downloads) ${growth < 100 ? "< 100 MB — target met" : "≥ 100 MB — TARGET MISSED"}`);
+  summary.push(
+    `bundle rate ${median.contentRate.toFixed(1)} MB/s of content (${median.zipRate.toFixed(1)} MB/s of zip), median of three downloads with compression=fast (first ${fastRuns[0].contentRate.toFixed(1)} MB/s) ${median.contentRate >= 50 ? "≥ 50 MB/s — target met" : "< 50 MB/s — TARGET MISSED"}`,
   );
-  summary.push(`bundle memory growth ${growth.toFixed(1)} MB ${growth < 100 ? "< 100 MB — target met" : "≥ 100 MB — TARGET MISSED"}`);
-  summary.push(`bundle rate ${rate.toFixed(1)} MB/s (uncompressed content) ${rate >= 50 ? "≥ 50 MB/s — target met" : "< 50 MB/s — TARGET MISSED"}`);
 
   // A client that disconnects stops the work: abort after the first bytes and watch the server go idle
   const ctrl = new AbortController();

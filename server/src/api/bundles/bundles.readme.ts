@@ -13,6 +13,8 @@ export interface ReadmeInput {
   generated: Date;
   publicUrl: string;
   title: string;
+  /** How the zip was packed (compression=fast|small); omitted: not said. */
+  compression?: "fast" | "small";
 }
 
 export function bundleReadme(r: ReadmeInput): string {
@@ -43,7 +45,20 @@ FILES
                      are the public ones: sensitive sites are rounded to the grid their curator chose
                      (column coordinate_generalisation).
   CITATIONS.bib      One BibTeX entry per dataset version. Please cite every dataset you use.
-
+${
+  r.compression === "fast"
+    ? `
+  The files are stored uncompressed (compression=fast, the default): the zip is about five times larger
+  than a deflated one, but the server sends it several times faster. On a slow connection ask for
+  compression=small (deflated) instead.
+`
+    : r.compression === "small"
+      ? `
+  The files are deflated (compression=small): about a fifth of the size of compression=fast (the
+  default), which sends stored files several times faster.
+`
+      : ""
+}
 HOW THE METRICS WERE COMPUTED
   Engine: ${r.engineVersion}. Pipeline settings hash: ${r.settingsHash}
   (the hash of the settings below plus the engine version; every metric row names the hash of its run).

@@ -286,7 +286,7 @@ export async function writeBundle(out: Writable, opts: BundleOptions): Promise<{
   const metricsOut = await open(metricsFile, "w");
   const networksOut = await open(networksFile, "w");
   try {
-    add(bundleReadme({ settings, settingsHash: settingsHash(settings), engineVersion: ENGINE_VERSION, count: networks.length, generated, publicUrl, title: opts.title }), "README.txt");
+    add(bundleReadme({ settings, settingsHash: settingsHash(settings), engineVersion: ENGINE_VERSION, count: networks.length, generated, publicUrl, title: opts.title, compression: store ? "fast" : "small" }), "README.txt");
     await metricsOut.write(METRICS_FIELDS.map((f) => f[0]).join(",") + "\n");
     await networksOut.write(NETWORK_FIELDS.map((f) => f[0]).join(",") + "\n");
     const licences = new Set<string>();
