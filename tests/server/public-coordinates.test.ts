@@ -100,6 +100,13 @@ describe("public coordinates without a known generalisation", () => {
     const owner = await agentFor(app, ownerEmail);
     const res = await owner.agent.get("/api/v1/datasets/TB-000011");
     expect(res.body.networks[0].metadata.locality.decimalLatitude).toBe(EXACT_LAT);
+    // an answer that differs per viewer must not be kept by shared caches
+    for (const path of ["/api/v1/datasets/TB-000011", "/api/v1/datasets/TB-000011/versions/1"]) {
+      const r = await owner.agent.get(path);
+      expect(r.headers["cache-control"], path).toBe("private, no-cache");
+      expect(r.headers.vary, path).toMatch(/Cookie/);
+      expect(r.headers.vary, path).toMatch(/Authorization/);
+    }
   });
 });
 

@@ -24,7 +24,15 @@ async function withTombstone(res: Response, fn: () => Promise<void>): Promise<vo
   }
 }
 
+/** The answer depends on who asks (owner and curators see exact coordinates and the contact e-mail): no shared caches. */
+function perViewer(res: Response): void {
+  res.setHeader("Cache-Control", "private, no-cache");
+  res.vary("Authorization");
+  res.vary("Cookie");
+}
+
 export async function show(req: Request, res: Response) {
+  perViewer(res);
   const v = req.query.version;
   const number = v === undefined ? undefined : positiveInt(v, "version");
   await withTombstone(res, async () => {
@@ -33,6 +41,7 @@ export async function show(req: Request, res: Response) {
 }
 
 export async function showVersion(req: Request, res: Response) {
+  perViewer(res);
   await withTombstone(res, async () => {
     res.json(await getPublishedDetail(String(req.params.accession), positiveInt(req.params.n, "version"), req.user));
   });
