@@ -16,10 +16,28 @@ const NEWLINE = 0x0a;
 const ZERO = 0x30;
 const ONE = 0x31;
 
-/** RFC 4180 quoting, as the engine's writer does (delimiter ","). */
-function quote(s: string): string {
-  if (s.includes(",") || s.includes('"') || s.includes("\n") || s.includes("\r") || s !== s.trim()) return `"${s.replace(/"/g, '""')}"`;
-  return s;
+/** RFC 4180 quoting, as the engine's writer does (delimiter ","): one pass over the label. */
+export function quote(s: string): string {
+  return needsQuotes(s) ? `"${s.replace(/"/g, '""')}"` : s;
+}
+
+/** A comma, quote or line break inside, or outer white space (what String.prototype.trim removes). */
+export function needsQuotes(s: string): boolean {
+  const n = s.length;
+  if (n === 0) return false;
+  if (isTrimmed(s.charCodeAt(0)) || isTrimmed(s.charCodeAt(n - 1))) return true;
+  for (let k = 0; k < n; k++) {
+    const c = s.charCodeAt(k);
+    if (c === 0x2c || c === 0x22 || c === 0x0a || c === 0x0d) return true;
+  }
+  return false;
+}
+
+/** White space and line terminators of ECMAScript (the characters trim() removes). */
+function isTrimmed(c: number): boolean {
+  if (c <= 0x20) return c === 0x20 || (c >= 0x09 && c <= 0x0d);
+  if (c < 0xa0) return false;
+  return c === 0xa0 || c === 0x1680 || (c >= 0x2000 && c <= 0x200a) || c === 0x2028 || c === 0x2029 || c === 0x202f || c === 0x205f || c === 0x3000 || c === 0xfeff;
 }
 
 function fail(msg: string): never {

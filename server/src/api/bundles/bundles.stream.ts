@@ -24,7 +24,7 @@ import { getPipelineSettings, settingsHash } from "../../jobs/settings";
 import { loadCatalogueRows, type CatalogueEntry } from "../catalogue/catalogue.rows";
 import { fileNameOf, type SelectedNetwork } from "./bundles.selection";
 import { bundleReadme } from "./bundles.readme";
-import { matrixCsvFromCanonical } from "./bundles.csv";
+import { matrixCsvFromCanonical, quote } from "./bundles.csv";
 import { useNativeCrc32 } from "./bundles.crc";
 
 useNativeCrc32();
@@ -97,8 +97,7 @@ export const NETWORK_FIELDS: Array<[string, "string" | "integer" | "number" | "b
 
 export function csvCell(v: unknown): string {
   if (v === null || v === undefined) return "";
-  const s = typeof v === "number" ? String(v) : String(v);
-  return /[",\n\r]/.test(s) || s !== s.trim() ? `"${s.replace(/"/g, '""')}"` : s;
+  return typeof v === "number" ? String(v) : quote(String(v));
 }
 
 function tableSchema(fields: Array<[string, string, string, unknown]>) {
