@@ -5,6 +5,7 @@
 import { createHash } from "node:crypto";
 import { parseNetworkText, serializeNetwork, basicMetrics } from "../../../shared/network/index";
 import { Dataset, DatasetVersion, Network, StoredFile, User } from "../../../server/src/models";
+import { networkMeta, studyMeta } from "./deposit-helpers";
 
 let counter = 0;
 
@@ -43,7 +44,8 @@ export async function publishMatrices(
     state,
     publishedAt: state === "published" ? new Date() : null,
     submittedAt: new Date(),
-    metadata: { title: "Test" },
+    // Complete, schema-valid metadata: publishing re-validates a submission before it publishes it.
+    metadata: studyMeta({ title: `Pipeline test ${counter}` }),
   });
   const networkIds: number[] = [];
   for (let i = 0; i < matrices.length; i++) {
@@ -67,7 +69,7 @@ export async function createNetwork(versionId: number, position: number, csv: st
     kind: "bipartite",
     directed: false,
     weighted: false,
-    metadata: { name: `Network ${position}` },
+    metadata: networkMeta({ name: `Network ${position}` }),
     canonical: canonicalOverride ?? serializeNetwork(network),
     nNodes: b.nodes,
     nRows: b.rows,
