@@ -12,7 +12,7 @@
  * network, all in one transaction.
  */
 import { Op, QueryTypes } from "sequelize";
-import { ApiError, type ErrorDetail } from "../../lib/api-error";
+import { ApiError } from "../../lib/api-error";
 import { audit } from "../../lib/audit";
 import { logger } from "../../lib/logger";
 import { sequelize } from "../../db/sequelize";
@@ -23,41 +23,12 @@ import { notifyCatalogueChanged } from "../../lib/catalogue-events";
 import { sendMail } from "../../emails/mailer";
 import { reviewDecisionEmail, type DecisionKind } from "../../emails/templates/review-decision";
 import type { Viewer } from "../datasets/datasets.service";
-import { depositDetail, loadCuratorEditable, loadVisibleVersion, submissionProblems, updateNetwork, type DepositDetail } from "../deposits/deposits.service";
+import { depositDetail, loadCuratorEditable, loadVisibleVersion, submissionProblems, updateNetwork } from "../deposits/deposits.service";
 
 export type Decision = "publish" | "request_changes" | "decline";
 
-export interface QueueItem {
-  versionId: number;
-  datasetId: number;
-  accession: string | null;
-  number: number;
-  title: string;
-  depositor: string;
-  ownerId: number;
-  submittedAt: string;
-  networkCount: number;
-  resubmission: boolean;
-  ownDeposit: boolean;
-}
-
-export interface HistoryEntry {
-  id: number;
-  at: string;
-  action: string;
-  actor: string | null;
-  details: Record<string, unknown>;
-}
-
-export interface ReviewDetail extends DepositDetail {
-  depositor: { id: number; displayName: string; email: string };
-  ownDeposit: boolean;
-  /** Full submission validation (what would stop publication). */
-  problems: ErrorDetail[];
-  /** Networks whose file (same SHA-256) is already published in another dataset. */
-  duplicates: Array<{ networkId: number; position: number; sha256: string; publishedAs: string[] }>;
-  history: HistoryEntry[];
-}
+export type { HistoryEntry, QueueItem, ReviewDetail } from "../../../../shared/types/review";
+import type { HistoryEntry, QueueItem, ReviewDetail } from "../../../../shared/types/review";
 
 export async function reviewQueue(viewer: Viewer): Promise<QueueItem[]> {
   const rows = (await sequelize().query(
