@@ -265,7 +265,30 @@ export async function writeBundle(out: Writable, opts: BundleOptions): Promise<{
     );
 
   const ids = networks.map((n) => n.networkId);
-  const settings = await getPipelineSettings();
+  const fetchBatch = (from: number) => {
+    const batchIds = ids.slice(from, from + BATCH);
+    return Promise.all([
+      sequelize().query<CanonicalRow>(
+        `SELECT n.id AS network_id, n.canonical::text AS canonical FROM networks n JOIN dataset_versions v ON v.id = n.version_id
+         WHERE n.id IN (:ids) AND v.state = 'published'`,
+        { replacements: { ids: batchIds }, type: QueryTypes.SELECT },
+      ),
+      loadCatalogueRows({ networkIds: batchIds, anyPublishedVersion: true }),
+    ]);
+  };
+  // up to PREFETCH batches are read ahead, so the database works while this process writes
+  const ahead: Array<ReturnType<typeof fetchBatch>> = [];
+  let fetched = 0;
+  const refill = () => {
+    while (ahead.length < PREFETCH && fetched < ids.length) {
+      const p = fetchBatch(fetched);
+      p.catch(() => undefined); // awaited below; a failure while another batch is awaited is not unhandled
+      ahead.push(p);
+      fetched += BATCH;
+    }
+  };
+  refill(); // the first batches are read while the temporary files are made
+  const [settings, dir] = await Promise.all([getPipelineSettings(), mkdtemp(join(tmpdir(), "tanglebank-bundle-"))]);
   const generated = new Date();
   const publicUrl = config().publicUrl;
   let appended = 0;
@@ -277,43 +300,16 @@ export async function writeBundle(out: Writable, opts: BundleOptions): Promise<{
     archive.append(csv, { name, date: generated });
     appended++;
   };
-  const dir = await mkdtemp(join(tmpdir(), "tanglebank-bundle-"));
   const resourcesFile = join(dir, "resources.jsonl");
   const metricsFile = join(dir, "metrics.csv");
   const networksFile = join(dir, "networks.csv");
-  const resources = await open(resourcesFile, "w");
-  const metricsOut = await open(metricsFile, "w");
-  const networksOut = await open(networksFile, "w");
+  const [resources, metricsOut, networksOut] = await Promise.all([open(resourcesFile, "w"), open(metricsFile, "w"), open(networksFile, "w")]);
   try {
     add(bundleReadme({ settings, settingsHash: settingsHash(settings), engineVersion: ENGINE_VERSION, count: networks.length, generated, publicUrl, title: opts.title, compression: store ? "fast" : "small" }), "README.txt");
-    await metricsOut.write(METRICS_FIELDS.map((f) => f[0]).join(",") + "\n");
-    await networksOut.write(NETWORK_FIELDS.map((f) => f[0]).join(",") + "\n");
+    await Promise.all([metricsOut.write(METRICS_FIELDS.map((f) => f[0]).join(",") + "\n"), networksOut.write(NETWORK_FIELDS.map((f) => f[0]).join(",") + "\n")]);
     const licences = new Set<string>();
     let firstResource = true;
 
-    const fetchBatch = (from: number) => {
-      const batchIds = ids.slice(from, from + BATCH);
-      return Promise.all([
-        sequelize().query<CanonicalRow>(
-          `SELECT n.id AS network_id, n.canonical::text AS canonical FROM networks n JOIN dataset_versions v ON v.id = n.version_id
-           WHERE n.id IN (:ids) AND v.state = 'published'`,
-          { replacements: { ids: batchIds }, type: QueryTypes.SELECT },
-        ),
-        loadCatalogueRows({ networkIds: batchIds, anyPublishedVersion: true }),
-      ]);
-    };
-    // up to PREFETCH batches are read ahead, so the database works while this process writes
-    const ahead: Array<ReturnType<typeof fetchBatch>> = [];
-    let fetched = 0;
-    const refill = () => {
-      while (ahead.length < PREFETCH && fetched < ids.length) {
-        const p = fetchBatch(fetched);
-        p.catch(() => undefined); // awaited below; a failure while another batch is awaited is not unhandled
-        ahead.push(p);
-        fetched += BATCH;
-      }
-    };
-    refill();
     for (let i = 0; ahead.length && !signal.aborted && !failure; i += BATCH) {
       const [rows, entries] = await ahead.shift()!;
       refill();
