@@ -48,14 +48,14 @@ FILES
 ${
   r.compression === "fast"
     ? `
-  The files are stored uncompressed (compression=fast, the default): the zip is about five times larger
-  than a deflated one, but the server sends it several times faster. On a slow connection ask for
+  The files are stored uncompressed (compression=fast, the default): the zip is about seven times larger
+  than a deflated one, but the server sends it about twice as fast. On a slow connection ask for
   compression=small (deflated) instead.
 `
     : r.compression === "small"
       ? `
-  The files are deflated (compression=small): about a fifth of the size of compression=fast (the
-  default), which sends stored files several times faster.
+  The files are deflated (compression=small): about a seventh of the size of compression=fast (the
+  default), which sends stored files about twice as fast.
 `
       : ""
 }

@@ -138,10 +138,10 @@ export interface BundleOptions {
   signal: AbortSignal;
   /**
    * How the files are packed:
-   * - "fast" (default): stored uncompressed. The zip is about five times larger (the matrices are mostly
-   *   zeros), but the server only copies bytes, so it sends several times more content per second.
-   * - "small": deflated (zlib level 6): about a fifth of the size, for slow connections, at about four
-   *   times the server's time.
+   * - "fast" (default): stored uncompressed. The zip is about seven times larger (the matrices are mostly
+   *   zeros), but the server only copies bytes, so it sends about twice as much content per second.
+   * - "small": deflated (zlib level 6): about a seventh of the size, for slow connections, at about twice
+   *   the server's time.
    */
   compression?: BundleCompression;
   /** Networks read from the database at a time (default 50). */
