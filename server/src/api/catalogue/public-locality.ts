@@ -1,10 +1,10 @@
 /**
  * Public coordinates of a locality for catalogue rows (map, bundles): the one public rule of
- * network-views/public-locality.ts (rounded to the locality's generalisation grid; missing or unknown
+ * server/src/lib/public-locality.ts (rounded to the locality's generalisation grid; missing or unknown
  * generalisation means 0.1°), so sensitive sites never leave the server with more precision than allowed.
  */
 import type { Locality } from "../../../../shared/types/dataset";
-import { publicLocality } from "../network-views/public-locality";
+import { publicLocality } from "../../lib/public-locality";
 
 export function publicCoordinates(loc: Record<string, unknown>): { latitude: number | null; longitude: number | null; generalisation: Locality["generalisation"] } {
   const p = publicLocality(loc as Partial<Locality>);

@@ -4,11 +4,11 @@
  *
  * Visibility: published versions are public; drafts, submissions, change requests and declined versions
  * only to their owner and curators (404 for anyone else). The public get generalised coordinates
- * (network-views/public-locality.ts) and never the contact e-mail; owner, curators and admins see both.
+ * (server/src/lib/public-locality.ts) and never the contact e-mail; owner, curators and admins see both.
  */
 import { Op } from "sequelize";
 import type { DatasetDetail, NetworkMetadata, NetworkSummary, StudyMetadata, VersionState, VersionSummary } from "../../../../shared/types/dataset";
-import { publicLocality } from "../network-views/public-locality";
+import { publicLocality } from "../../lib/public-locality";
 import { formatCitationText } from "../../../../shared/citation";
 import { ApiError } from "../../lib/api-error";
 import { hasRole } from "../../middlewares/require-role";

@@ -17,7 +17,7 @@ import { config } from "../../config/env";
 import { ApiError } from "../../lib/api-error";
 import { Network } from "../../models";
 import { citationFor, GoneError, resolveVersion, versionUrl } from "./network-views.access";
-import { publicLocality } from "./public-locality";
+import { publicLocality } from "../../lib/public-locality";
 
 const PATH_RE = /^\/datasets\/(TB-\d{6})(?:\/v\/(\d{1,6}))?(?:\/networks\/\d{1,6})?\/?$/;
 

@@ -16,7 +16,7 @@ import type { AuthUser } from "../../types";
 import { resolveVersion } from "./network-views.access";
 import { matchCatalogue } from "../catalogue/catalogue.service";
 import { parseCatalogueQuery } from "../catalogue/catalogue.validation";
-import { publicLocality } from "./public-locality";
+import { publicLocality } from "../../lib/public-locality";
 
 interface RunResults {
   analysis?: AnalysisResult;

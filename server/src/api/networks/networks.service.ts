@@ -5,7 +5,7 @@
  */
 import type { NetworkMetadata, NetworkMetricsSummary } from "../../../../shared/types/dataset";
 import { deserializeNetwork, networkToEdgeListCsv, networkToMatrixCsv } from "../../../../shared/network";
-import { publicLocality } from "../network-views/public-locality";
+import { publicLocality } from "../../lib/public-locality";
 import { getCurrentMetrics } from "../../jobs/metrics-read";
 import { ApiError } from "../../lib/api-error";
 import { Network, StoredFile } from "../../models";
