@@ -7,10 +7,10 @@
 import { readFileSync } from "node:fs";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { AxeBuilder } from "@axe-core/playwright";
-import yauzl from "yauzl";
 import { startStack, type TestStack } from "../server/support/stack";
 import { openBrowser, screenshot, signInViaApi, type BrowserSession } from "./support/browser";
 import { resetDatabase } from "../setup/db";
+import { unzip } from "../server/support/unzip";
 import { catalogueStore } from "../../server/src/api/catalogue/catalogue.store";
 import { publishDataset } from "../server/support/catalogue-fixtures";
 import { createUser, TEST_PASSWORD } from "../server/support/accounts";
@@ -44,27 +44,7 @@ afterAll(async () => {
   await stack?.stop();
 });
 
-function zipEntries(file: string): Promise<Map<string, string>> {
-  return new Promise((resolve, reject) => {
-    yauzl.fromBuffer(readFileSync(file), { lazyEntries: true }, (err, zip) => {
-      if (err || !zip) return reject(err);
-      const out = new Map<string, string>();
-      zip.on("entry", (entry: yauzl.Entry) => {
-        zip.openReadStream(entry, (e, stream) => {
-          if (e || !stream) return reject(e);
-          const parts: Buffer[] = [];
-          stream.on("data", (c: Buffer) => parts.push(c));
-          stream.on("end", () => {
-            out.set(entry.fileName, Buffer.concat(parts).toString("utf8"));
-            zip.readEntry();
-          });
-        });
-      });
-      zip.on("end", () => resolve(out));
-      zip.readEntry();
-    });
-  });
-}
+const zipEntries = (file: string) => unzip(readFileSync(file));
 
 describe("catalogue page", () => {
   it("filters, selects across two pages, and downloads the selection as a bundle", async () => {

@@ -15,6 +15,7 @@ import { sequelize } from "../../server/src/db/sequelize";
 import { catalogueStore } from "../../server/src/api/catalogue/catalogue.store";
 import { deserializeNetwork, parseNetworkText, serializeNetwork } from "../../shared/network/index";
 import { resetDatabase } from "../setup/db";
+import { unzip } from "./support/unzip";
 import { publishDataset, type PublishedFixture } from "./support/catalogue-fixtures";
 import { Writable } from "node:stream";
 import { resolveSelection } from "../../server/src/api/bundles/bundles.selection";
@@ -50,28 +51,6 @@ function binaryParser(res: request.Response, cb: (err: Error | null, body: Buffe
   res.on("end", () => cb(null, Buffer.concat(chunks)));
 }
 
-async function unzip(buf: Buffer): Promise<Map<string, string>> {
-  return new Promise((resolve, reject) => {
-    yauzl.fromBuffer(buf, { lazyEntries: true }, (err, zip) => {
-      if (err || !zip) return reject(err);
-      const out = new Map<string, string>();
-      zip.on("entry", (entry: yauzl.Entry) => {
-        zip.openReadStream(entry, (e, stream) => {
-          if (e || !stream) return reject(e);
-          const parts: Buffer[] = [];
-          stream.on("data", (c: Buffer) => parts.push(c));
-          stream.on("end", () => {
-            out.set(entry.fileName, Buffer.concat(parts).toString("utf8"));
-            zip.readEntry();
-          });
-        });
-      });
-      zip.on("end", () => resolve(out));
-      zip.on("error", reject);
-      zip.readEntry();
-    });
-  });
-}
 
 /** CRC-32 (IEEE 802.3, reflected polynomial 0xEDB88320) bit by bit, straight from its definition. */
 function crc32Reference(buf: Buffer): number {

@@ -14,6 +14,7 @@ import { shutdownServerResources } from "../../server/src/index";
 import { startMetricsWorker, stopMetricsWorker } from "../../server/src/jobs/metrics-worker";
 import { MetricRun, Network } from "../../server/src/models";
 import { resetDatabase } from "../setup/db";
+import { waitFor } from "./support/wait";
 import { agentFor, createUser, type SignedInAgent } from "./support/accounts";
 import { clearQueue, createNetwork, matrixCsv, publishMatrices, randomMatrix } from "./support/pipeline-fixtures";
 import { startMailCatcher } from "./support/stack";
@@ -25,15 +26,6 @@ let admin: SignedInAgent;
 let curator: SignedInAgent;
 let catcher: MailCatcher;
 
-async function waitFor<T>(probe: () => Promise<T | undefined | false>, what: string, timeoutMs = 45_000): Promise<T> {
-  const t0 = Date.now();
-  for (;;) {
-    const v = await probe();
-    if (v) return v;
-    if (Date.now() - t0 > timeoutMs) throw new Error(`timed out waiting for ${what}`);
-    await new Promise((r) => setTimeout(r, 200));
-  }
-}
 
 beforeAll(async () => {
   process.env.TB_METRICS_RETRY_DELAY_SECONDS = "1";

@@ -12,6 +12,7 @@ import { stopQueue } from "../../server/src/jobs/queue";
 import { setPipelineSettings } from "../../server/src/jobs/settings";
 import { MetricRun } from "../../server/src/models";
 import { resetDatabase } from "../setup/db";
+import { waitFor as waitUntil } from "./support/wait";
 import { clearQueue, publishMatrices, randomMatrix } from "./support/pipeline-fixtures";
 
 // Enough work for the job to be caught mid-way (a few seconds on two threads), small enough for a test.
@@ -34,15 +35,7 @@ function startWorkerProcess(): ChildProcess {
   return child;
 }
 
-async function waitFor<T>(probe: () => Promise<T | undefined | false>, what: string, timeoutMs = 90_000): Promise<T> {
-  const t0 = Date.now();
-  for (;;) {
-    const v = await probe();
-    if (v) return v;
-    if (Date.now() - t0 > timeoutMs) throw new Error(`timed out waiting for ${what}`);
-    await new Promise((r) => setTimeout(r, 100));
-  }
-}
+const waitFor = <T>(probe: () => Promise<T | undefined | false>, what: string) => waitUntil(probe, what, 90_000, 100);
 
 beforeAll(async () => {
   Object.assign(process.env, JOB_ENV);

@@ -18,19 +18,11 @@ import { sendRunJobs } from "../../server/src/jobs/queue";
 import { setPipelineSettings, settingsHash } from "../../server/src/jobs/settings";
 import { MetricBatch, MetricRun, Network } from "../../server/src/models";
 import { resetDatabase } from "../setup/db";
+import { waitFor } from "./support/wait";
 import { clearQueue, createNetwork, matrixCsv, publishMatrices, randomMatrix } from "./support/pipeline-fixtures";
 
 const LIGHT: PipelineSettings = { objective: "auto", restarts: 3, nullModel: "auto", nulls: 6, seed: 7, annealing: "auto" };
 
-async function waitFor<T>(probe: () => Promise<T | undefined | false>, what: string, timeoutMs = 45_000): Promise<T> {
-  const t0 = Date.now();
-  for (;;) {
-    const v = await probe();
-    if (v) return v;
-    if (Date.now() - t0 > timeoutMs) throw new Error(`timed out waiting for ${what}`);
-    await new Promise((r) => setTimeout(r, 200));
-  }
-}
 
 beforeAll(async () => {
   process.env.TB_METRICS_RETRY_DELAY_SECONDS = "1";

@@ -6,7 +6,6 @@
  * the exact values.
  */
 import request from "supertest";
-import yauzl from "yauzl";
 import { existsSync, readFileSync } from "node:fs";
 import { join } from "node:path";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
@@ -17,6 +16,7 @@ import { catalogueStore } from "../../server/src/api/catalogue/catalogue.store";
 import { datasetHtmlRenderer } from "../../server/src/api/network-views/dataset-html";
 import type { Locality } from "../../shared/types/dataset";
 import { resetDatabase } from "../setup/db";
+import { unzip } from "./support/unzip";
 import { agentFor, createUser } from "./support/accounts";
 import { createFixtureDataset, DAVIS_CSV } from "./support/published-fixture";
 
@@ -110,25 +110,3 @@ describe("public coordinates without a known generalisation", () => {
   });
 });
 
-async function unzip(buf: Buffer): Promise<Map<string, string>> {
-  return new Promise((resolve, reject) => {
-    yauzl.fromBuffer(buf, { lazyEntries: true }, (err, zip) => {
-      if (err || !zip) return reject(err ?? new Error("no zip"));
-      const out = new Map<string, string>();
-      zip.on("entry", (entry: yauzl.Entry) => {
-        zip.openReadStream(entry, (e, stream) => {
-          if (e || !stream) return reject(e ?? new Error("no stream"));
-          const parts: Buffer[] = [];
-          stream.on("data", (c: Buffer) => parts.push(c));
-          stream.on("end", () => {
-            out.set(entry.fileName, Buffer.concat(parts).toString("utf8"));
-            zip.readEntry();
-          });
-        });
-      });
-      zip.on("end", () => resolve(out));
-      zip.on("error", reject);
-      zip.readEntry();
-    });
-  });
-}
