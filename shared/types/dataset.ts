@@ -89,13 +89,8 @@ export interface NetworkMetricsSummary {
   error?: string | null;
 }
 
-export interface NetworkSummary {
-  id: number;
-  /** e.g. "TB-000042/v2/3" (null before the first publication) */
-  ref: string | null;
-  position: number;
-  originalName: string;
-  format: "matrix" | "edgelist";
+/** What a network is and its size: the parsed counts stored with every network. */
+export interface NetworkShape {
   kind: "bipartite" | "unipartite";
   directed: boolean;
   weighted: boolean;
@@ -105,6 +100,15 @@ export interface NetworkSummary {
   nLinks: number;
   totalWeight: number;
   connectance: number | null;
+}
+
+export interface NetworkSummary extends NetworkShape {
+  id: number;
+  /** e.g. "TB-000042/v2/3" (null before the first publication) */
+  ref: string | null;
+  position: number;
+  originalName: string;
+  format: "matrix" | "edgelist";
   sha256: string;
   size: number;
   metadata: NetworkMetadata;

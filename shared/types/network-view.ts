@@ -2,7 +2,7 @@
  * The contract of `GET /api/v1/network-views/:accession/:version/:position`: exactly what the network view
  * plots (matrix ordered by module, null distribution, roles) plus the metrics summary and provenance.
  */
-import type { NetworkMetadata, NetworkMetricsSummary, VersionState } from "./dataset";
+import type { NetworkMetadata, NetworkMetricsSummary, NetworkShape, VersionState } from "./dataset";
 
 export interface ModuleRow {
   module: number;
@@ -26,7 +26,7 @@ export interface RoleRow {
   role: "peripheral" | "connector" | "module-hub" | "network-hub" | null;
 }
 
-export interface NetworkView {
+export interface NetworkView extends NetworkShape {
   /** e.g. "TB-000042/v2/3" */
   ref: string;
   accession: string;
@@ -37,15 +37,6 @@ export interface NetworkView {
   datasetTitle: string;
   licence: string;
   metadata: NetworkMetadata;
-  kind: "bipartite" | "unipartite";
-  directed: boolean;
-  weighted: boolean;
-  nNodes: number;
-  nRows: number | null;
-  nCols: number | null;
-  nLinks: number;
-  totalWeight: number;
-  connectance: number | null;
   rowLabels: string[];
   /** One-mode networks: the same as rowLabels. */
   colLabels: string[];
