@@ -9,7 +9,7 @@
 import { describe, expect, it } from "vitest";
 import { createRng, deserializeNetwork, networkToMatrixCsv, parseNetworkText, serializeNetwork, type Network } from "../../shared/network/index";
 import { networkFromTriples } from "../../shared/network/graph";
-import { matrixCsvFromCanonical, needsQuotes } from "../../server/src/api/bundles/bundles.csv";
+import { csvHeaderLabels, matrixCsvFromCanonical, needsQuotes } from "../../server/src/api/bundles/bundles.csv";
 import { useNativeCrc32 } from "../../server/src/api/bundles/bundles.crc";
 import zlib from "node:zlib";
 
@@ -86,6 +86,18 @@ describe("bundle matrix CSV writer", () => {
       }
     }
     expect(n).toBeGreaterThan(10_000);
+  });
+
+  it("reads the column labels back from a CSV's header (the bundle's Table Schema fields), whatever the quoting", () => {
+    for (let seed = 1; seed <= 300; seed++) {
+      const net = randomNetwork(seed);
+      const csv = matrixCsvFromCanonical(serializeNetwork(net), "node");
+      expect(csvHeaderLabels(csv), `seed ${seed}`).toEqual(net.kind === "bipartite" ? net.colLabels : net.rowLabels);
+    }
+    expect(csvHeaderLabels(Buffer.from('node,"a,b","say ""hi""","line\nbreak",鳥\nx,0,0,0,1\n'))).toEqual(["a,b", 'say "hi"', "line\nbreak", "鳥"]);
+    expect(csvHeaderLabels(Buffer.from("node\n"))).toEqual([]);
+    expect(csvHeaderLabels(Buffer.from(""))).toEqual([]);
+    expect(() => csvHeaderLabels(Buffer.from('node,"open\n'))).toThrow(/unterminated/);
   });
 
   it("edge cases: no rows, no links, one cell", () => {

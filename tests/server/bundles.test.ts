@@ -20,6 +20,7 @@ import { publishDataset, type PublishedFixture } from "./support/catalogue-fixtu
 import { Writable } from "node:stream";
 import { resolveSelection } from "../../server/src/api/bundles/bundles.selection";
 import { writeBundle } from "../../server/src/api/bundles/bundles.stream";
+import { bundleMatrixCsv, fillStoredMatrixCsvs, MATRIX_CSV_FORMAT } from "../../server/src/api/bundles/bundles.stored-csv";
 
 const app = createApp();
 let a: PublishedFixture;
@@ -168,6 +169,41 @@ describe("bundle contents", () => {
     expect(files.get("CITATIONS.bib")).toContain(`@misc{${a.accession}-v1`);
     expect(files.get("README.txt")).toMatch(/Raw Q is not comparable/);
     expect(files.get("README.txt")).toMatch(/null replicates/);
+  });
+
+  it("stored matrix CSVs: a network without one, or with one from another writer version, gets the same file written from its canonical form; the fill writes them back", async () => {
+    const refs = [...a.networkIds.map((_, i) => `${a.accession}/v1/${i + 1}`), `${b.accession}/v1/1`].join(",");
+    const before = await download({ refs });
+    const stored = async (id: number) =>
+      (await sequelize().query<{ matrix_csv: string | null; matrix_csv_format: number | null; canonical: unknown }>(`SELECT matrix_csv, matrix_csv_format, canonical FROM networks WHERE id = :id`, { replacements: { id }, type: QueryTypes.SELECT }))[0];
+    // every published fixture network has its CSV stored, as publishing writes it
+    for (const id of [...a.networkIds, ...b.networkIds]) {
+      const r = await stored(id);
+      expect(r.matrix_csv_format).toBe(MATRIX_CSV_FORMAT);
+      expect(r.matrix_csv).toBe(before.get(`networks/${id === b.networkIds[0] ? `${b.accession}_v1_1` : `${a.accession}_v1_${a.networkIds.indexOf(id) + 1}`}.csv`));
+    }
+    const draft = await publishDataset({ state: "draft", networks: [{ seed: 9 }] });
+    expect((await stored(draft.networkIds[0])).matrix_csv).toBeNull();
+
+    await sequelize().query(`UPDATE networks SET matrix_csv = NULL, matrix_csv_format = NULL WHERE id = :id`, { replacements: { id: a.networkIds[0] } });
+    await sequelize().query(`UPDATE networks SET matrix_csv = 'node,stale\nx,1\n', matrix_csv_format = :old WHERE id = :id`, { replacements: { id: a.networkIds[1], old: MATRIX_CSV_FORMAT - 1 } });
+    const after = await download({ refs });
+    const networkFiles = (m: Map<string, string>) => [...m].filter(([k]) => k.startsWith("networks/")).sort();
+    expect(networkFiles(after)).toEqual(networkFiles(before));
+    expect(JSON.parse(after.get("datapackage.json")!).resources).toEqual(JSON.parse(before.get("datapackage.json")!).resources);
+    for (const content of after.values()) expect(content).not.toContain("stale");
+
+    // the fill (run at server start) writes the missing and the stale ones within the size limit, never drafts:
+    // 5 × 6 = 30 cells is over a limit of 20, 4 × 4 = 16 is not
+    expect(await fillStoredMatrixCsvs({ maxCells: 20 })).toBe(1);
+    expect((await stored(a.networkIds[0])).matrix_csv).toBeNull();
+    expect((await stored(a.networkIds[1])).matrix_csv).toBe(before.get(`networks/${a.accession}_v1_2.csv`));
+    expect(await fillStoredMatrixCsvs()).toBe(1);
+    const first = await stored(a.networkIds[0]);
+    expect([first.matrix_csv, first.matrix_csv_format]).toEqual([bundleMatrixCsv(first.canonical).toString("utf8"), MATRIX_CSV_FORMAT]);
+    expect(await fillStoredMatrixCsvs()).toBe(0);
+    expect((await stored(draft.networkIds[0])).matrix_csv).toBeNull();
+    await sequelize().query(`DELETE FROM dataset_versions WHERE id = :v; DELETE FROM datasets WHERE id = :d`, { replacements: { v: draft.versionId, d: draft.datasetId } });
   });
 
   it("compression: fast (default) stores every file, small deflates them; both hold the same files with correct CRC-32s", async () => {

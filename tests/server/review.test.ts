@@ -7,7 +7,9 @@ import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { createApp } from "../../server/src/app";
 import { shutdownServerResources } from "../../server/src/index";
 import { resetRateLimits } from "../../server/src/middlewares/rate-limit";
+import { QueryTypes } from "sequelize";
 import { sequelize } from "../../server/src/db/sequelize";
+import { bundleMatrixCsv, MATRIX_CSV_FORMAT } from "../../server/src/api/bundles/bundles.stored-csv";
 import { AuditLog, Dataset, DatasetVersion, Network, Review } from "../../server/src/models";
 import type { MailCatcher } from "../../server/src/lib/mail-catcher";
 import { resetDatabase } from "../setup/db";
@@ -149,6 +151,25 @@ describe("decisions", () => {
     expect((await owner.agent.post(`/api/v1/deposits/${id}/networks`).set("x-csrf-token", owner.csrf).attach("files", Buffer.from(SMALL_MATRIX), "x.csv")).status).toBe(409);
     expect((await curatorA.agent.put(`/api/v1/reviews/${id}/metadata`).set("x-csrf-token", curatorA.csrf).send({ metadata: studyMeta() })).status).toBe(409);
     expect((await owner.agent.delete(`/api/v1/deposits/${id}`).set("x-csrf-token", owner.csrf)).status).toBe(409);
+  });
+
+  it("publishing stores each network's matrix CSV for bundles, the bytes written from its canonical form; submissions have none", async () => {
+    const id = await submitted([["heath.csv", SMALL_MATRIX], ["davis.csv", davisCsv()]]);
+    const stored = () =>
+      sequelize().query<{ position: number; canonical: unknown; matrix_csv: string | null; matrix_csv_format: number | null }>(
+        `SELECT position, canonical, matrix_csv, matrix_csv_format FROM networks WHERE version_id = :id ORDER BY position`,
+        { replacements: { id }, type: QueryTypes.SELECT },
+      );
+    expect((await stored()).map((r) => r.matrix_csv)).toEqual([null, null]);
+    expect((await decide(curatorA, id, { decision: "publish" })).status).toBe(200);
+    const rows = await stored();
+    expect(rows).toHaveLength(2);
+    for (const r of rows) {
+      expect(r.matrix_csv_format).toBe(MATRIX_CSV_FORMAT);
+      expect(r.matrix_csv).toBe(bundleMatrixCsv(r.canonical).toString("utf8"));
+    }
+    // the first file as deposited, with the corner cell named "node"
+    expect(rows[0].matrix_csv).toBe("node,bee A,bee B,fly C\nHeather,1,0,2\nGorse,0,1,1\nBilberry,3,0,0\n");
   });
 
   it("decline needs a reason and e-mails the depositor", async () => {

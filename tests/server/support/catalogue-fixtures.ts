@@ -12,6 +12,7 @@ import { sequelize } from "../../../server/src/db/sequelize";
 import { DEFAULT_PIPELINE_SETTINGS, settingsHash } from "../../../server/src/jobs/settings";
 import { Dataset, DatasetVersion, MetricRun, Network, StoredFile, User } from "../../../server/src/models";
 import { hashPassword } from "../../../server/src/lib/passwords";
+import { storeMatrixCsvs } from "../../../server/src/api/bundles/bundles.stored-csv";
 
 export const CURRENT_HASH = settingsHash(DEFAULT_PIPELINE_SETTINGS);
 
@@ -124,6 +125,8 @@ export async function publishDataset(opts: {
   /** Add a version to this dataset instead of creating a new dataset. */
   dataset?: { id: number; accession: string };
   number?: number;
+  /** Store the networks' matrix CSVs as publishing does (default true for published and withdrawn). */
+  storeMatrixCsvs?: boolean;
 }): Promise<PublishedFixture> {
   const owner = opts.owner ?? (await makeUser());
   let datasetId: number;
@@ -179,6 +182,8 @@ export async function publishDataset(opts: {
     networkIds.push(n.id);
     if (spec.metrics) await addRun(n.id, spec.metrics);
   }
+  // as publishing does: the matrix CSVs bundles copy (bundles.stored-csv.ts)
+  if ((state === "published" || state === "withdrawn") && opts.storeMatrixCsvs !== false) await storeMatrixCsvs(networkIds);
   return { datasetId, accession, versionId: v.id, version: number, networkIds };
 }
 

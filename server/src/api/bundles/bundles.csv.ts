@@ -173,3 +173,48 @@ function isAscii(s: string): boolean {
   for (let k = 0; k < s.length; k++) if (s.charCodeAt(k) > 0x7f) return false;
   return true;
 }
+
+const QUOTE = 0x22;
+
+/**
+ * The labels of a matrix CSV's header after its first cell: the inverse of the header written by
+ * matrixCsvFromCanonical (RFC 4180: a quoted cell may hold commas, doubled quotes and line breaks). A
+ * bundle takes its Table Schema fields from the stored CSV's header this way, so they always match.
+ */
+export function csvHeaderLabels(csv: Buffer): string[] {
+  let end = csv.indexOf(NEWLINE);
+  if (end < 0) end = csv.length;
+  const firstQuote = csv.indexOf(QUOTE);
+  if (firstQuote < 0 || firstQuote > end) return end === 0 ? [] : csv.toString("utf8", 0, end).split(",").slice(1);
+  const cells: string[] = [];
+  let pos = 0;
+  for (;;) {
+    if (csv[pos] === QUOTE) {
+      // quotes, commas and line breaks are single bytes in UTF-8, so every cut below is between characters
+      let text = "";
+      let from = pos + 1;
+      for (;;) {
+        const k = csv.indexOf(QUOTE, from);
+        if (k < 0) fail("unterminated quoted cell in the header");
+        if (csv[k + 1] === QUOTE) {
+          text += csv.toString("utf8", from, k + 1);
+          from = k + 2;
+          continue;
+        }
+        text += csv.toString("utf8", from, k);
+        pos = k + 1;
+        break;
+      }
+      cells.push(text);
+    } else {
+      let k = pos;
+      while (k < csv.length && csv[k] !== COMMA && csv[k] !== NEWLINE) k++;
+      cells.push(csv.toString("utf8", pos, k));
+      pos = k;
+    }
+    if (pos >= csv.length || csv[pos] === NEWLINE) break;
+    if (csv[pos] !== COMMA) fail(`unexpected byte after a quoted header cell at ${pos}`);
+    pos++;
+  }
+  return cells.slice(1);
+}

@@ -17,14 +17,15 @@ import { QueryTypes } from "sequelize";
 import { ENGINE_VERSION } from "../../../../shared/network/version";
 import { licenceUrl, toBibTeX } from "../../../../shared/citation";
 import type { StudyMetadata } from "../../../../shared/types/dataset";
-import type { CanonicalNetworkJson } from "../../../../shared/network/parse/serialize";
 import { config } from "../../config/env";
 import { sequelize } from "../../db/sequelize";
 import { getPipelineSettings, settingsHash } from "../../jobs/settings";
 import { loadCatalogueRows, type CatalogueEntry } from "../catalogue/catalogue.rows";
+import { catalogueStore } from "../catalogue/catalogue.store";
 import { fileNameOf, type SelectedNetwork } from "./bundles.selection";
 import { bundleReadme } from "./bundles.readme";
-import { matrixCsvFromCanonical, quote } from "./bundles.csv";
+import { csvHeaderLabels, quote } from "./bundles.csv";
+import { bundleMatrixCsv, MATRIX_CSV_FORMAT } from "./bundles.stored-csv";
 import { useNativeCrc32 } from "./bundles.crc";
 
 useNativeCrc32();
@@ -35,6 +36,8 @@ useNativeCrc32();
  * to 50); reading ahead lets the database work while this process writes.
  */
 const DEFAULT_BATCH = 50;
+/** …and at most about this many bytes of matrix CSV per batch (a batch holds at least one network). */
+const BATCH_BYTES = 4 * 1024 * 1024;
 const PREFETCH = 3;
 /** zlib level of compression=small (zlib's default). */
 const SMALL_LEVEL = 6;
@@ -144,17 +147,26 @@ export interface BundleOptions {
    *   the server's time.
    */
   compression?: BundleCompression;
-  /** Networks read from the database at a time (default 50). */
+  /** Networks read from the database at a time (default 50; fewer when they are large). */
   batchSize?: number;
 }
 
 export const BUNDLE_COMPRESSIONS = ["fast", "small"] as const;
 export type BundleCompression = (typeof BUNDLE_COMPRESSIONS)[number];
 
-interface CanonicalRow {
+interface MatrixRow {
   network_id: number;
-  /** The JSON text: parsed only just before its CSV is written, so the parsed arrays die young. */
-  canonical: string;
+  /** The stored matrix CSV (bundles.stored-csv.ts), or null when there is none of the current format. */
+  csv: string | null;
+  /** Otherwise the canonical JSON text, parsed only just before its CSV is written. */
+  canonical: string | null;
+}
+
+/** About how many bytes a network's matrix CSV has (cells of ",0" plus labels), for sizing batches. */
+function csvBytesOf(n: SelectedNetwork): number {
+  const I = n.nRows ?? n.nNodes;
+  const J = n.nCols ?? n.nNodes;
+  return I * (2 * J + 20) + 20 * J;
 }
 
 /**
@@ -186,15 +198,18 @@ const licenseObj = (l: string) => ({ name: l, path: licenceUrl(l), title: l === 
 /**
  * Streams the bundle into `out` (an HTTP response). Resolves when the zip is finished or aborted.
  *
- * One pass over the networks, 50 at a time (the next three batches are read while this one is written):
- * each network's CSV is written straight from its stored JSON text (bundles.csv.ts) and appended to the
- * archive, and its datapackage resource, metrics row and metadata row are written to small temporary
- * files, which become datapackage.json, metrics.csv and networks.csv at the end. So every network is read
- * from the database once, and memory holds a few batches whatever the bundle's size.
+ * One pass over the networks, 50 at a time and at most about 4 MB of CSV per batch (the next three
+ * batches are read while this one is written): each network's matrix CSV is copied from the one stored
+ * at publication (bundles.stored-csv.ts), or written from its canonical JSON when there is none
+ * (bundles.csv.ts), and appended to the archive; its datapackage resource (fields from the CSV's
+ * header), metrics row and metadata row are written to small temporary files, which become
+ * datapackage.json, metrics.csv and networks.csv at the end. Metadata and metrics come from the catalogue
+ * in memory. So every network is read from the database once, and memory holds a few batches whatever
+ * the bundle's size.
  *
- * Speed (npm run bench:catalogue, 1,000 networks): the CSVs are written from bytes (no per-cell
- * strings), the JSON is parsed only just before its CSV is written, the checksum is native
- * (bundles.crc.ts), and by default nothing is deflated (compression "fast"; see BundleOptions).
+ * Speed (npm run bench:catalogue, 1,000 networks): stored CSVs are copied (parsing the JSON and writing
+ * the matrix was most of the server's time), metadata is not read again from the database, the checksum
+ * is native (bundles.crc.ts), and by default nothing is deflated (compression "fast"; see BundleOptions).
  */
 export async function writeBundle(out: Writable, opts: BundleOptions): Promise<{ aborted: boolean; bytes: number }> {
   const { networks, signal } = opts;
@@ -264,27 +279,55 @@ export async function writeBundle(out: Writable, opts: BundleOptions): Promise<{
       })(),
     );
 
-  const ids = networks.map((n) => n.networkId);
-  const fetchBatch = (from: number) => {
-    const batchIds = ids.slice(from, from + BATCH);
+  // Batches of at most BATCH networks and about BATCH_BYTES of CSV (so a few large networks do not fill
+  // memory): [start, end) indices into `networks`.
+  const batches: Array<[number, number]> = [];
+  for (let i = 0; i < networks.length; ) {
+    const from = i;
+    let bytes = 0;
+    while (i < networks.length && i - from < BATCH && (i === from || bytes + csvBytesOf(networks[i]) <= BATCH_BYTES)) bytes += csvBytesOf(networks[i++]);
+    batches.push([from, i]);
+  }
+  // Metadata and metrics come from the catalogue in memory, brought up to date first (so metrics.csv
+  // holds the runs finished before the bundle started); networks of older published versions, which the
+  // catalogue does not list, are read from the database. Whether a network is still published is always
+  // checked in the database, with its matrix.
+  catalogueStore.invalidate();
+  const catalogueReady = catalogueStore.entries();
+  catalogueReady.catch(() => undefined); // awaited with the first batch
+  const fetchBatch = ([from, to]: [number, number]) => {
+    const batchIds = networks.slice(from, to).map((n) => n.networkId);
     return Promise.all([
-      sequelize().query<CanonicalRow>(
-        `SELECT n.id AS network_id, n.canonical::text AS canonical FROM networks n JOIN dataset_versions v ON v.id = n.version_id
-         WHERE n.id IN (:ids) AND v.state = 'published'`,
-        { replacements: { ids: batchIds }, type: QueryTypes.SELECT },
+      // the stored CSV when there is one of the current format, else the canonical form to write it from
+      sequelize().query<MatrixRow>(
+        `SELECT n.id AS network_id,
+                CASE WHEN n.matrix_csv_format = :format THEN n.matrix_csv END AS csv,
+                CASE WHEN n.matrix_csv IS NULL OR n.matrix_csv_format IS DISTINCT FROM :format THEN n.canonical::text END AS canonical
+           FROM networks n JOIN dataset_versions v ON v.id = n.version_id
+          WHERE n.id IN (:ids) AND v.state = 'published'`,
+        { replacements: { ids: batchIds, format: MATRIX_CSV_FORMAT }, type: QueryTypes.SELECT },
       ),
-      loadCatalogueRows({ networkIds: batchIds, anyPublishedVersion: true }),
+      catalogueReady.then(async () => {
+        const entries: CatalogueEntry[] = [];
+        const older: number[] = [];
+        for (const id of batchIds) {
+          const e = catalogueStore.get(id);
+          if (e) entries.push(e);
+          else older.push(id);
+        }
+        if (older.length) entries.push(...(await loadCatalogueRows({ networkIds: older, anyPublishedVersion: true })));
+        return entries;
+      }),
     ]);
   };
   // up to PREFETCH batches are read ahead, so the database works while this process writes
   const ahead: Array<ReturnType<typeof fetchBatch>> = [];
   let fetched = 0;
   const refill = () => {
-    while (ahead.length < PREFETCH && fetched < ids.length) {
-      const p = fetchBatch(fetched);
+    while (ahead.length < PREFETCH && fetched < batches.length) {
+      const p = fetchBatch(batches[fetched++]);
       p.catch(() => undefined); // awaited below; a failure while another batch is awaited is not unhandled
       ahead.push(p);
-      fetched += BATCH;
     }
   };
   refill(); // the first batches are read while the temporary files are made
@@ -310,28 +353,29 @@ export async function writeBundle(out: Writable, opts: BundleOptions): Promise<{
     const licences = new Set<string>();
     let firstResource = true;
 
-    for (let i = 0; ahead.length && !signal.aborted && !failure; i += BATCH) {
+    for (let b = 0; ahead.length && !signal.aborted && !failure; b++) {
       const [rows, entries] = await ahead.shift()!;
       refill();
       const byId = new Map(rows.map((r) => [r.network_id, r]));
       const entryOf = new Map(entries.map((e) => [e.networkId, e]));
-      await waitFor(appended - BATCH);
+      const [from, to] = batches[b];
+      await waitFor(appended - (to - from));
       await waitForClient();
       if (signal.aborted || failure) break;
       const resourceLines: string[] = [];
       const metricLines: string[] = [];
       const networkLines: string[] = [];
-      for (const net of networks.slice(i, i + BATCH)) {
+      for (const net of networks.slice(from, to)) {
         const r = byId.get(net.networkId);
         const e = entryOf.get(net.networkId);
         if (!r || !e) continue; // withdrawn since the selection was read
         byId.delete(net.networkId);
         const path = fileNameOf(net.ref);
-        const canon = JSON.parse(r.canonical) as CanonicalNetworkJson;
-        addNetwork(matrixCsvFromCanonical(canon, "node"), path);
+        const csv = r.csv !== null ? Buffer.from(r.csv, "utf8") : bundleMatrixCsv(r.canonical);
+        addNetwork(csv, path);
         const licence = e.licence || "unknown";
         licences.add(licence);
-        const cols = (canon.kind === "bipartite" ? canon.cols : canon.rows) ?? [];
+        const cols = csvHeaderLabels(csv);
         resourceLines.push(
           (firstResource ? "" : ",\n") +
             "    " +
@@ -346,7 +390,7 @@ export async function writeBundle(out: Writable, opts: BundleOptions): Promise<{
               licenses: [licenseObj(licence)],
               sources: [{ title: `${net.accession} version ${net.version}`, path: `${publicUrl}/datasets/${net.accession}/v/${net.version}` }],
             }).slice(0, -1) +
-            `,"schema":{"fields":[${canon.kind === "bipartite" ? NODE_FIELD_BIPARTITE : NODE_FIELD_ONE_MODE}${numberFields(cols)}],"primaryKey":["node"]}}`,
+            `,"schema":{"fields":[${e.kind === "bipartite" ? NODE_FIELD_BIPARTITE : NODE_FIELD_ONE_MODE}${numberFields(cols)}],"primaryKey":["node"]}}`,
         );
         firstResource = false;
         metricLines.push(METRICS_FIELDS.map((f) => csvCell(f[3](e))).join(","));

@@ -29,6 +29,7 @@ export type Decision = "publish" | "request_changes" | "decline";
 
 export type { HistoryEntry, QueueItem, ReviewDetail } from "../../../../shared/types/review";
 import type { HistoryEntry, QueueItem, ReviewDetail } from "../../../../shared/types/review";
+import { storeMatrixCsvs } from "../bundles/bundles.stored-csv";
 
 export async function reviewQueue(viewer: Viewer): Promise<QueueItem[]> {
   const rows = (await sequelize().query(
@@ -174,6 +175,8 @@ export async function decide(versionId: number, viewer: Viewer, input: { decisio
         const accession = `TB-${String(seq.n).padStart(6, "0")}`;
         await dataset.update({ accession }, { transaction: t });
       }
+      // the matrix CSVs bundles copy (bundles.stored-csv.ts): the version is frozen from now on
+      await storeMatrixCsvs(nets.map((n) => n.id), t);
       await enqueueNetworkMetrics(nets.map((n) => n.id), { transaction: t });
       await notifyCatalogueChanged(dataset.id, t);
     }
