@@ -5,7 +5,8 @@
  *   migrated, then seeded once with 10,000 published networks (2,500 datasets × 4 networks) with synthetic
  *   metadata (invented places and taxon-like labels), random bipartite matrices of 5–150 × 5–250 nodes and
  *   one successful metric run each under the current pipeline settings hash. Bulk inserts via
- *   json_populate_recordset, 500 rows a statement. Re-runs reuse the seed when the count is right.
+ *   json_populate_recordset, 500 rows a statement. Re-runs reuse the seed when the count is right. Then, as
+ *   publishing does, each network's matrix CSV is stored for bundles (fillStoredMatrixCsvs; only what is missing).
  * - Server: a child process (`node --import tsx scripts/bench-catalogue.ts --serve`), so its memory can be
  *   sampled alone (VmRSS from /proc every 20 ms).
  * - Queries: autocannon, 20 connections, 10 s each, on a filtered catalogue page and on a full-text search
@@ -14,13 +15,16 @@
  *   every latency and gives p50/p95/p99 exactly, and every one of its requests differs (a random
  *   connectanceMin with five decimals and a random page), so each one filters, counts and sorts the 10,000 networks afresh.
  * - Bundle: 1,000 networks by reference (POST with a Bearer token), downloaded in full three times with
- *   the default compression=fast (files stored) and once with compression=small (deflated); MB/s of the
- *   zip and of the uncompressed content, and the server's peak RSS growth over its idle RSS. The rate
- *   target is judged on content MB/s (what the reader gets, whatever the packing), median of the three.
+ *   the default compression=fast (files stored) and once with compression=small (deflated) by a node:http
+ *   client; MB/s of the zip and of the uncompressed content, the server's peak RSS growth over its idle
+ *   RSS, and the CPU seconds of the server, the database's processes and this client. The rate target is
+ *   judged on content MB/s (what the reader gets, whatever the packing), median of the three.
+ * Options: `--only=queries` or `--only=bundle` measures one part; TB_BENCH_PROFILE=dir writes the server's
+ * CPU profile into dir.
  * Targets: p95 < 100 ms for both queries; bundle RSS growth < 100 MB and ≥ 50 MB/s.
  */
 import { spawn, execFileSync } from "node:child_process";
-import { readFileSync } from "node:fs";
+import { readFileSync, readdirSync } from "node:fs";
 import http from "node:http";
 import os from "node:os";
 import { randomBytes } from "node:crypto";
@@ -30,6 +34,8 @@ const MB = 1024 * 1024;
 const NETWORKS = 10_000;
 const PER_DATASET = 4;
 const SERVE = process.argv.includes("--serve");
+/** `--only=queries` or `--only=bundle` measures one part (the summary then lists that part's targets). */
+const ONLY = process.argv.find((a) => a.startsWith("--only="))?.slice("--only=".length) ?? null;
 
 
 function rng(seed: number) {
@@ -197,6 +203,38 @@ async function seed(url: string): Promise<void> {
   await seq.close();
 }
 
+/** CPU seconds (user + system) a process has used so far, from /proc. */
+function cpuOf(pid: number): number {
+  try {
+    const f = readFileSync(`/proc/${pid}/stat`, "utf8").slice(readFileSync(`/proc/${pid}/stat`, "utf8").lastIndexOf(")") + 2).split(" ");
+    return (Number(f[11]) + Number(f[12])) / 100;
+  } catch {
+    return 0;
+  }
+}
+
+/** CPU seconds used so far by the database cluster's processes (children of its postmaster). */
+function databaseCpu(): number {
+  const pidFile = ".pg-devtest/data/postmaster.pid";
+  let master: number;
+  try {
+    master = Number(readFileSync(pidFile, "utf8").split("\n")[0]);
+  } catch {
+    return 0;
+  }
+  let total = cpuOf(master);
+  for (const d of readdirSync("/proc")) {
+    if (!/^\d+$/.test(d)) continue;
+    try {
+      const st = readFileSync(`/proc/${d}/stat`, "utf8");
+      if (Number(st.slice(st.lastIndexOf(")") + 2).split(" ")[1]) === master) total += cpuOf(Number(d));
+    } catch {
+      // gone
+    }
+  }
+  return total;
+}
+
 function rssOf(pid: number): number {
   const m = /VmRSS:\s+(\d+) kB/.exec(readFileSync(`/proc/${pid}/status`, "utf8"));
   return m ? Number(m[1]) * 1024 : 0;
@@ -238,6 +276,14 @@ async function main(): Promise<void> {
   const { migrateUp } = await import("../server/src/db/migrator");
   await migrateUp(url);
   await seed(url);
+  // as publishing does: each network's matrix CSV stored for bundles (bundles.stored-csv.ts)
+  process.env.DATABASE_URL = url;
+  const { fillStoredMatrixCsvs } = await import("../server/src/api/bundles/bundles.stored-csv");
+  const { closeSequelize } = await import("../server/src/db/sequelize");
+  const filling = Date.now();
+  const filled = await fillStoredMatrixCsvs();
+  if (filled) console.log(`Stored the matrix CSV of ${filled} networks in ${((Date.now() - filling) / 1000).toFixed(1)} s.`);
+  await closeSequelize();
 
   // an API token for the bundle request (POST needs a token or a browser session)
   const { createSequelize } = await import("../server/src/db/sequelize");
@@ -251,8 +297,10 @@ async function main(): Promise<void> {
   console.log(`Machine: ${os.cpus().length} cores, load average ${os.loadavg().map((l) => l.toFixed(1)).join(" ")} (shared with other work).`);
   console.log(`Networks: mean S ${sizes.s}, mean L ${sizes.l}, mean matrix cells ${sizes.cells}.`);
 
+  // TB_BENCH_PROFILE=dir writes the server's V8 CPU profile (.cpuprofile) into dir when it stops
+  const profileArgs = process.env.TB_BENCH_PROFILE ? ["--cpu-prof", `--cpu-prof-dir=${process.env.TB_BENCH_PROFILE}`] : [];
   const started = Date.now();
-  const child = spawn(process.execPath, ["--import", "tsx", "scripts/bench-catalogue.ts", "--serve"], {
+  const child = spawn(process.execPath, [...profileArgs, "--import", "tsx", "scripts/bench-catalogue.ts", "--serve"], {
     env: { ...process.env, DATABASE_URL: url, NODE_ENV: "production", SESSION_SECRET: "bench-session-secret-that-is-long-enough-123", LOG_LEVEL: "silent", TB_API_RATE_LIMIT: "100000000", PORT: "0" },
     stdio: ["ignore", "pipe", "inherit"],
   });
@@ -274,7 +322,7 @@ async function main(): Promise<void> {
     ["search", "/api/v1/catalogue?q=verrin%20mossia%20alba&habitat=meadow,heath&sort=relevance"],
   ];
   const summary: string[] = [];
-  for (const [name, path] of queries) {
+  for (const [name, path] of ONLY === "bundle" ? [] : queries) {
     const probe = await fetch(base + path).then((r) => r.json() as Promise<{ meta: { total: number } }>);
     const ac = await autocannon({ url: base + path, connections: 20, duration: 10 });
     const own = await ownLoad(() => `${base}${path}&connectanceMin=${(Math.random() * 0.05).toFixed(5)}&page=${1 + Math.floor(Math.random() * 5)}`, 10, 20);
@@ -284,83 +332,94 @@ async function main(): Promise<void> {
     summary.push(`${name}: p95 ${own.p95.toFixed(1)} ms ${own.p95 < 100 ? "< 100 ms — target met" : "≥ 100 ms — TARGET MISSED"}`);
   }
 
-  // Bundle of 1,000 networks: three downloads with the default packing (compression=fast), then one with
-  // compression=small. Each download reads every network from the database afresh (nothing is cached
-  // between bundles); the first one also pays for compiling the bundle code in the server process.
-  const yauzl = (await import("yauzl")).default;
-  const bundleOnce = async (compression: "fast" | "small") => {
-    await new Promise((r) => setTimeout(r, 500));
-    const idle = rssOf(child.pid!);
-    let peak = idle;
-    const sampler = setInterval(() => {
+  if (ONLY !== "queries") {
+    // Bundle of 1,000 networks: three downloads with the default packing (compression=fast), then one with
+    // compression=small. Each download reads every network from the database afresh (nothing is cached
+    // between bundles); the first one also pays for compiling the bundle code in the server process.
+    const yauzl = (await import("yauzl")).default;
+    const bundleOnce = async (compression: "fast" | "small") => {
+      await new Promise((r) => setTimeout(r, 500));
+      const idle = rssOf(child.pid!);
+      let peak = idle;
+      const sampler = setInterval(() => {
+        peak = Math.max(peak, rssOf(child.pid!));
+      }, 20);
+      const cpu0 = { server: cpuOf(child.pid!), database: databaseCpu(), client: process.cpuUsage() };
+      const t0 = Date.now();
+      let zipBytes = 0;
+      // node:http streams (as curl or R's and Python's HTTP clients would read it), not fetch's web streams,
+      // which cost this client several times more CPU on a machine it shares with the server
+      const chunks: Buffer[] = [];
+      await new Promise<void>((resolve, reject) => {
+        const body = JSON.stringify({ refs: refRows.map((r) => r.ref), compression });
+        const req = http.request(base + "/api/v1/bundles", { method: "POST", headers: { "content-type": "application/json", "content-length": Buffer.byteLength(body), authorization: `Bearer ${secret}` } }, (res) => {
+          if (res.statusCode !== 200) {
+            res.resume();
+            return reject(new Error(`bundle: ${res.statusCode}`));
+          }
+          res.on("data", (c: Buffer) => {
+            zipBytes += c.length;
+            chunks.push(c);
+          });
+          res.on("end", resolve);
+          res.on("error", reject);
+        });
+        req.on("error", reject);
+        req.end(body);
+      });
+      const seconds = (Date.now() - t0) / 1000;
+      clearInterval(sampler);
       peak = Math.max(peak, rssOf(child.pid!));
-    }, 20);
-    const t0 = Date.now();
-    let zipBytes = 0;
-    const res = await fetch(base + "/api/v1/bundles", {
-      method: "POST",
-      headers: { "content-type": "application/json", authorization: `Bearer ${secret}` },
-      body: JSON.stringify({ refs: refRows.map((r) => r.ref), compression }),
-    });
-    if (res.status !== 200) throw new Error(`bundle: ${res.status} ${await res.text()}`);
-    const reader = res.body!.getReader();
-    const chunks: Buffer[] = [];
-    for (;;) {
-      const { done, value } = await reader.read();
-      if (done) break;
-      zipBytes += value.byteLength;
-      chunks.push(Buffer.from(value));
-    }
-    const seconds = (Date.now() - t0) / 1000;
-    clearInterval(sampler);
-    peak = Math.max(peak, rssOf(child.pid!));
-    // uncompressed content size from the zip's central directory
-    const content = await new Promise<{ entries: number; bytes: number }>((resolve, reject) => {
-      yauzl.fromBuffer(Buffer.concat(chunks), { lazyEntries: true }, (err, zip) => {
-        if (err || !zip) return reject(err);
-        let entries = 0;
-        let bytes = 0;
-        zip.on("entry", (e: { uncompressedSize: number }) => {
-          entries++;
-          bytes += e.uncompressedSize;
+      const clientCpu = process.cpuUsage(cpu0.client);
+      const cpu = { server: cpuOf(child.pid!) - cpu0.server, database: databaseCpu() - cpu0.database, client: (clientCpu.user + clientCpu.system) / 1e6 };
+      // uncompressed content size from the zip's central directory
+      const content = await new Promise<{ entries: number; bytes: number }>((resolve, reject) => {
+        yauzl.fromBuffer(Buffer.concat(chunks), { lazyEntries: true }, (err, zip) => {
+          if (err || !zip) return reject(err);
+          let entries = 0;
+          let bytes = 0;
+          zip.on("entry", (e: { uncompressedSize: number }) => {
+            entries++;
+            bytes += e.uncompressedSize;
+            zip.readEntry();
+          });
+          zip.on("end", () => resolve({ entries, bytes }));
           zip.readEntry();
         });
-        zip.on("end", () => resolve({ entries, bytes }));
-        zip.readEntry();
       });
-    });
-    return { compression, seconds, zipBytes, content, idle, peak, growth: (peak - idle) / MB, zipRate: zipBytes / MB / seconds, contentRate: content.bytes / MB / seconds };
-  };
-  const runs = [];
-  for (const compression of ["fast", "fast", "fast", "small"] as const) {
-    const b = await bundleOnce(compression);
-    runs.push(b);
-    console.log(
-      `bundle 1,000 networks #${runs.length} (compression=${b.compression}): ${b.content.entries} files, zip ${(b.zipBytes / MB).toFixed(1)} MB (${(b.content.bytes / MB).toFixed(1)} MB uncompressed) in ${b.seconds.toFixed(2)} s = ${b.zipRate.toFixed(1)} MB/s of zip, ${b.contentRate.toFixed(1)} MB/s of content | server RSS idle ${(b.idle / MB).toFixed(0)} MB, peak ${(b.peak / MB).toFixed(0)} MB, growth ${b.growth.toFixed(1)} MB`,
+      return { compression, seconds, zipBytes, content, idle, peak, cpu, growth: (peak - idle) / MB, zipRate: zipBytes / MB / seconds, contentRate: content.bytes / MB / seconds };
+    };
+    const runs = [];
+    for (const compression of ["fast", "fast", "fast", "small"] as const) {
+      const b = await bundleOnce(compression);
+      runs.push(b);
+      console.log(
+        `bundle 1,000 networks #${runs.length} (compression=${b.compression}): ${b.content.entries} files, zip ${(b.zipBytes / MB).toFixed(1)} MB (${(b.content.bytes / MB).toFixed(1)} MB uncompressed) in ${b.seconds.toFixed(2)} s = ${b.zipRate.toFixed(1)} MB/s of zip, ${b.contentRate.toFixed(1)} MB/s of content | server RSS idle ${(b.idle / MB).toFixed(0)} MB, peak ${(b.peak / MB).toFixed(0)} MB, growth ${b.growth.toFixed(1)} MB | CPU s: server ${b.cpu.server.toFixed(2)}, database ${b.cpu.database.toFixed(2)}, this client ${b.cpu.client.toFixed(2)}`,
+      );
+    }
+    const fastRuns = runs.filter((b) => b.compression === "fast");
+    const median = [...fastRuns].sort((x, y) => x.contentRate - y.contentRate)[1];
+    const growth = Math.max(...runs.map((b) => b.growth));
+    // The rate is judged on the content delivered (the uncompressed bytes of the bundle's files) per second:
+    // it counts what the reader gets whatever the packing, so a worse compression cannot look faster. With
+    // compression=fast (stored) the zip bytes and the content bytes are the same to within the zip headers.
+    summary.push(`bundle memory growth ${growth.toFixed(1)} MB (largest of the four downloads) ${growth < 100 ? "< 100 MB — target met" : "≥ 100 MB — TARGET MISSED"}`);
+    summary.push(
+      `bundle rate ${median.contentRate.toFixed(1)} MB/s of content (${median.zipRate.toFixed(1)} MB/s of zip), median of three downloads with compression=fast (first ${fastRuns[0].contentRate.toFixed(1)} MB/s) ${median.contentRate >= 50 ? "≥ 50 MB/s — target met" : "< 50 MB/s — TARGET MISSED"}`,
     );
-  }
-  const fastRuns = runs.filter((b) => b.compression === "fast");
-  const median = [...fastRuns].sort((x, y) => x.contentRate - y.contentRate)[1];
-  const growth = Math.max(...runs.map((b) => b.growth));
-  // The rate is judged on the content delivered (the uncompressed bytes of the bundle's files) per second:
-  // it counts what the reader gets whatever the packing, so a worse compression cannot look faster. With
-  // compression=fast (stored) the zip bytes and the content bytes are the same to within the zip headers.
-  summary.push(`bundle memory growth ${growth.toFixed(1)} MB (largest of the four downloads) ${growth < 100 ? "< 100 MB — target met" : "≥ 100 MB — TARGET MISSED"}`);
-  summary.push(
-    `bundle rate ${median.contentRate.toFixed(1)} MB/s of content (${median.zipRate.toFixed(1)} MB/s of zip), median of three downloads with compression=fast (first ${fastRuns[0].contentRate.toFixed(1)} MB/s) ${median.contentRate >= 50 ? "≥ 50 MB/s — target met" : "< 50 MB/s — TARGET MISSED"}`,
-  );
 
-  // A client that disconnects stops the work: abort after the first bytes and watch the server go idle
-  const ctrl = new AbortController();
-  const r2 = await fetch(base + "/api/v1/bundles", { method: "POST", headers: { "content-type": "application/json", authorization: `Bearer ${secret}` }, body: JSON.stringify({ refs: refRows.map((r) => r.ref) }), signal: ctrl.signal });
-  await r2.body!.getReader().read();
-  ctrl.abort();
-  const stat = () => readFileSync(`/proc/${child.pid}/stat`, "utf8").split(" ");
-  await new Promise((r) => setTimeout(r, 300));
-  const ticks0 = Number(stat()[13]) + Number(stat()[14]);
-  await new Promise((r) => setTimeout(r, 1000));
-  const ticks1 = Number(stat()[13]) + Number(stat()[14]);
-  console.log(`aborted bundle: server CPU in the second after the disconnect ${((ticks1 - ticks0) / 100).toFixed(2)} s (≈0 means the work stopped)`);
+    // A client that disconnects stops the work: abort after the first bytes and watch the server go idle
+    const ctrl = new AbortController();
+    const r2 = await fetch(base + "/api/v1/bundles", { method: "POST", headers: { "content-type": "application/json", authorization: `Bearer ${secret}` }, body: JSON.stringify({ refs: refRows.map((r) => r.ref) }), signal: ctrl.signal });
+    await r2.body!.getReader().read();
+    ctrl.abort();
+    const stat = () => readFileSync(`/proc/${child.pid}/stat`, "utf8").split(" ");
+    await new Promise((r) => setTimeout(r, 300));
+    const ticks0 = Number(stat()[13]) + Number(stat()[14]);
+    await new Promise((r) => setTimeout(r, 1000));
+    const ticks1 = Number(stat()[13]) + Number(stat()[14]);
+    console.log(`aborted bundle: server CPU in the second after the disconnect ${((ticks1 - ticks0) / 100).toFixed(2)} s (≈0 means the work stopped)`);
+  }
 
   console.log(`Load average at the end: ${os.loadavg().map((l) => l.toFixed(1)).join(" ")}.`);
   child.kill("SIGTERM");
