@@ -179,6 +179,22 @@ describe("sorting and pagination", () => {
     expect(titles).toEqual([...titles].sort());
   });
 
+  it("a page's rows are those of the full ordering, for every sort key and direction (pages are picked without sorting every match)", async () => {
+    const total = (await get({ pageSize: 1 })).meta.total;
+    expect(total).toBeGreaterThan(16);
+    for (const sort of ["accession", "title", "type", "S", "C", "Q", "z", "year"]) {
+      for (const order of ["asc", "desc"]) {
+        const full = (await get({ sort, order, pageSize: 200 })).data.map((r) => r.ref);
+        expect(full).toHaveLength(total);
+        // one row per page, on the pages where fewer than an eighth of the matches are needed
+        for (let page = 1; page * 8 < total; page++) {
+          const one = await get({ sort, order, page, pageSize: 1 });
+          expect(one.data.map((r) => r.ref), `${sort} ${order} page ${page}`).toEqual([full[page - 1]]);
+        }
+      }
+    }
+  });
+
   it("pages cover every row exactly once", async () => {
     const all = await get({ pageSize: 200 });
     const seen: string[] = [];

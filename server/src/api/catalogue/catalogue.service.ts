@@ -152,15 +152,21 @@ function sortValue(e: CatalogueEntry, key: SortKey, hits: Map<number, number> | 
 }
 
 export interface MatchResult {
+  /** The matches in the query's order (only the first `limit` when a limit was given). */
   matches: CatalogueEntry[];
+  /** How many networks match. */
+  total: number;
   facets: CatalogueFacets;
 }
 
 const YEAR = RANGES.indexOf("year");
 const SEARCH_BIT = 1 << (CATEGORICAL.length + RANGES.length);
 
-/** Every entry matching the query, in the requested order, with facet counts. */
-export async function matchCatalogue(q: CatalogueQuery): Promise<MatchResult> {
+/**
+ * Every entry matching the query, in the requested order, with facet counts. `limit`: only the first
+ * `limit` matches are needed (a page needs page × page size), which saves ordering the rest.
+ */
+export async function matchCatalogue(q: CatalogueQuery, opts: { limit?: number } = {}): Promise<MatchResult> {
   const all = await catalogueStore.entries();
   const hits = q.q ? await searchIndex.search(q.q) : null;
   const cols = columnsOf(all);
@@ -254,20 +260,67 @@ export async function matchCatalogue(q: CatalogueQuery): Promise<MatchResult> {
     z: rf(4),
   };
   const matches = matchIdx.map((i) => all[i]);
+  const total = matches.length;
+  const limit = Math.min(total, opts.limit ?? total);
+  if (q.sort === "accession" && q.order !== "desc") return { matches: limit < total ? matches.slice(0, limit) : matches, total, facets };
+  return { matches: firstInOrder(matches, q, hits, limit), total, facets };
+}
 
-  if (q.sort !== "accession" || q.order === "desc") {
-    const dir = q.order === "desc" ? -1 : 1;
-    const keyed = matches.map((e, pos) => ({ e, pos, k: sortValue(e, q.sort, hits) }));
-    keyed.sort((a, b) => {
-      // Missing values always last, whatever the direction; ties keep accession order.
-      if (a.k === null && b.k !== null) return 1;
-      if (b.k === null && a.k !== null) return -1;
-      if (a.k !== null && b.k !== null && a.k !== b.k) return (a.k < b.k ? -1 : 1) * dir;
-      return q.sort === "accession" ? (a.pos - b.pos) * dir : a.pos - b.pos;
-    });
-    return { matches: keyed.map((x) => x.e), facets };
+/**
+ * The first `k` matches in the query's order: missing values always last whatever the direction, ties in
+ * accession order (`matches` come in accession order). A page needs only the first page × size, so when k
+ * is small a bounded heap keeps the k best instead of sorting every match (the same k, in the same order).
+ */
+function firstInOrder(matches: CatalogueEntry[], q: CatalogueQuery, hits: Map<number, number> | null, k: number): CatalogueEntry[] {
+  const n = matches.length;
+  const dir = q.order === "desc" ? -1 : 1;
+  const keys = matches.map((e) => sortValue(e, q.sort, hits));
+  const byAccession = q.sort === "accession";
+  // < 0 when match a comes before match b
+  const cmp = (a: number, b: number): number => {
+    const ka = keys[a];
+    const kb = keys[b];
+    if (ka === null && kb !== null) return 1;
+    if (kb === null && ka !== null) return -1;
+    if (ka !== null && kb !== null && ka !== kb) return (ka < kb ? -1 : 1) * dir;
+    return byAccession ? (a - b) * dir : a - b;
+  };
+  let chosen: number[];
+  if (k * 8 >= n) {
+    chosen = Array.from({ length: n }, (_, i) => i).sort(cmp);
+    if (k < n) chosen.length = k;
+  } else {
+    // max-heap on cmp: heap[0] is the last of the k best so far
+    const heap: number[] = [];
+    const down = (i: number) => {
+      for (;;) {
+        const l = 2 * i + 1;
+        const r = l + 1;
+        let m = i;
+        if (l < heap.length && cmp(heap[l], heap[m]) > 0) m = l;
+        if (r < heap.length && cmp(heap[r], heap[m]) > 0) m = r;
+        if (m === i) return;
+        [heap[i], heap[m]] = [heap[m], heap[i]];
+        i = m;
+      }
+    };
+    for (let i = 0; i < n; i++) {
+      if (heap.length < k) {
+        heap.push(i);
+        for (let c = heap.length - 1; c > 0; ) {
+          const p = (c - 1) >> 1;
+          if (cmp(heap[c], heap[p]) <= 0) break;
+          [heap[c], heap[p]] = [heap[p], heap[c]];
+          c = p;
+        }
+      } else if (k > 0 && cmp(i, heap[0]) < 0) {
+        heap[0] = i;
+        down(0);
+      }
+    }
+    chosen = heap.sort(cmp);
   }
-  return { matches, facets };
+  return chosen.map((i) => matches[i]);
 }
 
 /** Recent pages, keyed by the query and valid while the catalogue and search index are unchanged. */
@@ -284,11 +337,11 @@ export async function searchCatalogue(q: CatalogueQuery) {
     return hit.body;
   }
   const generation = searchIndex.generation;
-  const { matches, facets } = await matchCatalogue(q);
   const start = (q.page - 1) * q.pageSize;
+  const { matches, total, facets } = await matchCatalogue(q, { limit: start + q.pageSize });
   const body = {
     data: matches.slice(start, start + q.pageSize).map(toRow),
-    meta: { total: matches.length, page: q.page, pageSize: q.pageSize, facets },
+    meta: { total, page: q.page, pageSize: q.pageSize, facets },
   };
   pageCache.set(key, { all, generation, body });
   if (pageCache.size > PAGE_CACHE_LIMIT) pageCache.delete(pageCache.keys().next().value!);
