@@ -49,13 +49,13 @@ ${
   r.compression === "fast"
     ? `
   The files are stored uncompressed (compression=fast, the default): the zip is about seven times larger
-  than a deflated one, but the server sends it about twice as fast. On a slow connection ask for
+  than a deflated one, but the server sends it about three times as fast. On a slow connection ask for
   compression=small (deflated) instead.
 `
     : r.compression === "small"
       ? `
   The files are deflated (compression=small): about a seventh of the size of compression=fast (the
-  default), which sends stored files about twice as fast.
+  default), which sends stored files about three times as fast.
 `
       : ""
 }

@@ -8,7 +8,7 @@
  * | POST /           | anyone | application/zip, streamed (body: `{ refs: [...] }` or `{ filter }`)   |
  * At most 5,000 networks (413 beyond); refs that are not published → 422; withdrawn never included.
  * Both take `compression=fast|small` (query or body; default fast = files stored uncompressed, small =
- * deflated, about a seventh of the size at about twice the server's time).
+ * deflated, about a seventh of the size at about three times the server's time).
  */
 import { Router, type Request, type Response } from "express";
 import { logger } from "../../lib/logger";

@@ -142,8 +142,8 @@ export interface BundleOptions {
   /**
    * How the files are packed:
    * - "fast" (default): stored uncompressed. The zip is about seven times larger (the matrices are mostly
-   *   zeros), but the server only copies bytes, so it sends about twice as much content per second.
-   * - "small": deflated (zlib level 6): about a seventh of the size, for slow connections, at about twice
+   *   zeros), but the server only copies bytes, so it sends about three times as much content per second.
+   * - "small": deflated (zlib level 6): about a seventh of the size, for slow connections, at about three times
    *   the server's time.
    */
   compression?: BundleCompression;

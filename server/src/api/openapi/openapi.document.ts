@@ -217,7 +217,7 @@ export function openapiDocument(): Json {
           properties: {
             refs: { type: "array", items: { type: "string", pattern: "^TB-[0-9]{6}/v[0-9]+/[0-9]+$" }, example: ["TB-000001/v1/1", "TB-000002/v1/3"] },
             filter: { type: "object", description: "Catalogue filter parameters, e.g. { \"interactionType\": \"pollination\", \"country\": \"NO\" }", additionalProperties: true },
-            compression: { type: "string", enum: ["fast", "small"], default: "fast", description: "Bundles only. fast: files stored uncompressed (about seven times larger, sent about twice as fast); small: deflated" },
+            compression: { type: "string", enum: ["fast", "small"], default: "fast", description: "Bundles only. fast: files stored uncompressed (about seven times larger, sent about three times as fast); small: deflated" },
           },
         },
         ApiToken: {
@@ -307,7 +307,7 @@ export function openapiDocument(): Json {
           description: `The zip holds datapackage.json (Frictionless Data Package with a Table Schema per CSV), networks/ACCESSION_vN_POS.csv (matrices), metrics.csv, networks.csv (public coordinates), CITATIONS.bib and README.txt (how every metric was computed). At most ${BUNDLE_LIMIT} networks (413 beyond).`,
           parameters: [
             queryParam("refs", "Comma-separated network references; without it, the catalogue filters below select the networks", { type: "string" }, "TB-000001/v1/1,TB-000001/v1/2"),
-            queryParam("compression", "fast (default): files stored uncompressed, about seven times larger but sent about twice as fast; small: deflated (zlib level 6), for slow connections", { type: "string", enum: ["fast", "small"], default: "fast" }, "small"),
+            queryParam("compression", "fast (default): files stored uncompressed, about seven times larger but sent about three times as fast; small: deflated (zlib level 6), for slow connections", { type: "string", enum: ["fast", "small"], default: "fast" }, "small"),
             ...filterParameters,
           ],
           responses: { 200: zip, 400: error("Bad selection"), 413: error(`More than ${BUNDLE_LIMIT} networks`), 422: error("Some references are not published networks") },
