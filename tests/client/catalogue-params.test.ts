@@ -24,6 +24,9 @@ describe("catalogue URL parameters", () => {
     expect(hasFilters(new URLSearchParams("sort=S&page=2"))).toBe(false);
     expect(bundleUrlForFilter(filterOnly(p))).toBe("/api/v1/bundles?q=moor&zMin=1.5");
     expect(bundleUrlForRefs(["TB-000001/v1/2", "TB-000003/v2/1"])).toBe("/api/v1/bundles?refs=TB-000001%2Fv1%2F2,TB-000003%2Fv2%2F1");
+    // compressed packing is asked for explicitly; stored files are the server's default
+    expect(bundleUrlForFilter(filterOnly(p), "small")).toBe("/api/v1/bundles?q=moor&zMin=1.5&compression=small");
+    expect(bundleUrlForRefs(["TB-000001/v1/2"], "small")).toBe("/api/v1/bundles?refs=TB-000001%2Fv1%2F2&compression=small");
   });
 
   it("formats sizes", () => {

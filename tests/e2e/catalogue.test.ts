@@ -102,6 +102,16 @@ describe("catalogue page", () => {
     for (const r of dp.resources) expect(entries.has(r.path)).toBe(true);
     expect(entries.get("metrics.csv")!.trim().split("\n").length).toBe(5);
 
+    // compressed packing: the same files, deflated
+    await page.getByLabel("Packing").selectOption("small");
+    const compressed = page.getByRole("link", { name: /Bundle selection/ });
+    expect(await compressed.getAttribute("href")).toContain("compression=small");
+    const [download2] = await Promise.all([page.waitForEvent("download"), compressed.click()]);
+    const entries2 = await zipEntries((await download2.path())!);
+    expect([...entries2.keys()].filter((n) => n.startsWith("networks/")).sort()).toEqual(csvs);
+    for (const name of csvs) expect(entries2.get(name)).toBe(entries.get(name));
+    expect(entries2.get("README.txt")).toMatch(/deflated \(compression=small\)/);
+
     // the compare link carries the selection
     const compare = page.getByRole("link", { name: "Compare selected" });
     expect(await compare.getAttribute("href")).toBe(`/compare?refs=${refs.join(",")}`);

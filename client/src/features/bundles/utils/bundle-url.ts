@@ -1,13 +1,19 @@
 /** Download addresses of bundles (GET streams the zip; long selections go by POST instead). */
 export const MAX_REFS_IN_URL = 300;
 
-export function bundleUrlForFilter(filter: URLSearchParams): string {
-  const q = filter.toString();
+/** How the zip packs its files: "fast" stores them (the server's default), "small" deflates them. */
+export type BundlePacking = "fast" | "small";
+
+export function bundleUrlForFilter(filter: URLSearchParams, packing: BundlePacking = "fast"): string {
+  const params = new URLSearchParams(filter);
+  params.delete("compression");
+  if (packing === "small") params.set("compression", "small");
+  const q = params.toString();
   return `/api/v1/bundles${q ? `?${q}` : ""}`;
 }
 
-export function bundleUrlForRefs(refs: string[]): string {
-  return `/api/v1/bundles?refs=${refs.map(encodeURIComponent).join(",")}`;
+export function bundleUrlForRefs(refs: string[], packing: BundlePacking = "fast"): string {
+  return `/api/v1/bundles?refs=${refs.map(encodeURIComponent).join(",")}${packing === "small" ? "&compression=small" : ""}`;
 }
 
 export function formatBytes(n: number): string {
