@@ -11,6 +11,7 @@ import { createRng, deserializeNetwork, networkToMatrixCsv, parseNetworkText, se
 import { networkFromTriples } from "../../shared/network/graph";
 import { csvHeaderLabels, matrixCsvFromCanonical, needsQuotes } from "../../server/src/api/bundles/bundles.csv";
 import { useNativeCrc32 } from "../../server/src/api/bundles/bundles.crc";
+import { numberFieldsOfCsv } from "../../server/src/api/bundles/bundles.stream";
 import zlib from "node:zlib";
 
 const engine = (net: Network, corner = "") => {
@@ -98,6 +99,23 @@ describe("bundle matrix CSV writer", () => {
     expect(csvHeaderLabels(Buffer.from("node\n"))).toEqual([]);
     expect(csvHeaderLabels(Buffer.from(""))).toEqual([]);
     expect(() => csvHeaderLabels(Buffer.from('node,"open\n'))).toThrow(/unterminated/);
+  });
+
+  it("writes the Table Schema fields of a CSV's columns as JSON.stringify would, with or without quoted labels", () => {
+    const expected = (labels: string[]) => labels.map((name) => "," + JSON.stringify({ name, type: "number" })).join("");
+    let plain = 0;
+    for (let seed = 1; seed <= 300; seed++) {
+      const net = randomNetwork(seed);
+      const csv = matrixCsvFromCanonical(serializeNetwork(net), "node");
+      const labels = net.kind === "bipartite" ? net.colLabels : net.rowLabels;
+      if (!csv.subarray(0, csv.indexOf(10)).includes(34)) plain++;
+      expect(numberFieldsOfCsv(csv), `seed ${seed}`).toBe(expected(labels));
+    }
+    expect(plain).toBeGreaterThan(20); // the one-replace path was taken too
+    const odd = ["back\\slash", "tab\there", "emoji 🐝", "é", "", "鳥"];
+    const net = networkFromTriples({ kind: "bipartite", directed: false, rowLabels: ["r"], colLabels: odd }, [0], [0], [1]);
+    expect(numberFieldsOfCsv(matrixCsvFromCanonical(serializeNetwork(net), "node"))).toBe(expected(odd));
+    expect(numberFieldsOfCsv(Buffer.from("node\n"))).toBe("");
   });
 
   it("edge cases: no rows, no links, one cell", () => {

@@ -111,11 +111,27 @@ const NODE_FIELD_BIPARTITE = JSON.stringify({ name: "node", type: "string", desc
 const NODE_FIELD_ONE_MODE = JSON.stringify({ name: "node", type: "string", description: "Node (row: source of a link)" });
 
 /**
- * `,{"name":…,"type":"number"}` for every column, as JSON.stringify would write them (labels without
- * quotes, backslashes, control characters or surrogates are copied as they are; others go through
- * JSON.stringify): a bundle writes tens of thousands of these.
+ * `,{"name":…,"type":"number"}` for every column of a matrix CSV (its header's labels after the corner
+ * cell), as JSON.stringify would write them: a bundle writes hundreds of thousands of these. When the
+ * header has no quote at all (so no label was quoted, and a comma always separates two labels) and nothing
+ * JSON would escape, the header itself becomes the list with one replace; otherwise label by label.
  */
-function numberFields(cols: string[]): string {
+export function numberFieldsOfCsv(csv: Buffer): string {
+  let end = csv.indexOf(0x0a);
+  if (end < 0) end = csv.length;
+  const header = csv.toString("utf8", 0, end);
+  const comma = header.indexOf(",");
+  if (comma < 0) return "";
+  if (!JSON_SPECIAL.test(header)) return `,{"name":"${header.slice(comma + 1).replaceAll(",", '","type":"number"},{"name":"')}","type":"number"}`;
+  return numberFields(csvHeaderLabels(csv));
+}
+
+/** A quote, backslash, control character or surrogate (any of which needs a closer look). */
+// eslint-disable-next-line no-control-regex -- control characters are exactly what JSON escapes
+const JSON_SPECIAL = /["\\\u0000-\u001f\ud800-\udfff]/;
+
+/** The same for a list of labels. */
+export function numberFields(cols: string[]): string {
   let out = "";
   for (const c of cols) out += `,{"name":${plainJson(c) ? `"${c}"` : JSON.stringify(c)},"type":"number"}`;
   return out;
@@ -375,7 +391,6 @@ export async function writeBundle(out: Writable, opts: BundleOptions): Promise<{
         addNetwork(csv, path);
         const licence = e.licence || "unknown";
         licences.add(licence);
-        const cols = csvHeaderLabels(csv);
         resourceLines.push(
           (firstResource ? "" : ",\n") +
             "    " +
@@ -390,7 +405,7 @@ export async function writeBundle(out: Writable, opts: BundleOptions): Promise<{
               licenses: [licenseObj(licence)],
               sources: [{ title: `${net.accession} version ${net.version}`, path: `${publicUrl}/datasets/${net.accession}/v/${net.version}` }],
             }).slice(0, -1) +
-            `,"schema":{"fields":[${e.kind === "bipartite" ? NODE_FIELD_BIPARTITE : NODE_FIELD_ONE_MODE}${numberFields(cols)}],"primaryKey":["node"]}}`,
+            `,"schema":{"fields":[${e.kind === "bipartite" ? NODE_FIELD_BIPARTITE : NODE_FIELD_ONE_MODE}${numberFieldsOfCsv(csv)}],"primaryKey":["node"]}}`,
         );
         firstResource = false;
         metricLines.push(METRICS_FIELDS.map((f) => csvCell(f[3](e))).join(","));
