@@ -14,11 +14,13 @@
  *   autocannon prints no 95th percentile, so a second 10 s run with our own 20-connection client records
  *   every latency and gives p50/p95/p99 exactly, and every one of its requests differs (a random
  *   connectanceMin with five decimals and a random page), so each one filters, counts and sorts the 10,000 networks afresh.
- * - Bundle: 1,000 networks by reference (POST with a Bearer token), downloaded in full three times with
+ * - Bundle: 1,000 networks by reference (POST with a Bearer token), downloaded in full six times with
  *   the default compression=fast (files stored) and once with compression=small (deflated) by a node:http
- *   client; MB/s of the zip and of the uncompressed content, the server's peak RSS growth over its idle
- *   RSS, and the CPU seconds of the server, the database's processes and this client. The rate target is
- *   judged on content MB/s (what the reader gets, whatever the packing), median of the three.
+ *   client: the first fast one right after the server started (cold: it pays for compiling the bundle
+ *   code), then five more, whose median is the rate. For each: MB/s of the zip and of the uncompressed
+ *   content, the server's peak RSS growth over its idle RSS, the CPU seconds of the server, the database's
+ *   processes and this client, and the share of CPU time the host stole. The rate target is judged on
+ *   content MB/s (what the reader gets, whatever the packing).
  * Options: `--only=queries` or `--only=bundle` measures one part; TB_BENCH_PROFILE=dir writes the server's
  * CPU profile into dir.
  * Targets: p95 < 100 ms for both queries; bundle RSS growth < 100 MB and ≥ 50 MB/s.
@@ -203,6 +205,12 @@ async function seed(url: string): Promise<void> {
   await seq.close();
 }
 
+/** The machine's CPU time so far (all cores) and the part stolen by the host for other guests, in ticks. */
+function machineTicks(): { total: number; steal: number } {
+  const f = readFileSync("/proc/stat", "utf8").split("\n")[0].trim().split(/\s+/).slice(1).map(Number);
+  return { total: f.reduce((a, b) => a + b, 0), steal: f[7] ?? 0 };
+}
+
 /** CPU seconds (user + system) a process has used so far, from /proc. */
 function cpuOf(pid: number): number {
   try {
@@ -344,7 +352,7 @@ async function main(): Promise<void> {
       const sampler = setInterval(() => {
         peak = Math.max(peak, rssOf(child.pid!));
       }, 20);
-      const cpu0 = { server: cpuOf(child.pid!), database: databaseCpu(), client: process.cpuUsage() };
+      const cpu0 = { server: cpuOf(child.pid!), database: databaseCpu(), client: process.cpuUsage(), machine: machineTicks() };
       const t0 = Date.now();
       let zipBytes = 0;
       // node:http streams (as curl or R's and Python's HTTP clients would read it), not fetch's web streams,
@@ -371,7 +379,9 @@ async function main(): Promise<void> {
       clearInterval(sampler);
       peak = Math.max(peak, rssOf(child.pid!));
       const clientCpu = process.cpuUsage(cpu0.client);
-      const cpu = { server: cpuOf(child.pid!) - cpu0.server, database: databaseCpu() - cpu0.database, client: (clientCpu.user + clientCpu.system) / 1e6 };
+      const machine = machineTicks();
+    const steal = machine.total > cpu0.machine.total ? (machine.steal - cpu0.machine.steal) / (machine.total - cpu0.machine.total) : 0;
+    const cpu = { server: cpuOf(child.pid!) - cpu0.server, database: databaseCpu() - cpu0.database, client: (clientCpu.user + clientCpu.system) / 1e6, steal };
       // uncompressed content size from the zip's central directory
       const content = await new Promise<{ entries: number; bytes: number }>((resolve, reject) => {
         yauzl.fromBuffer(Buffer.concat(chunks), { lazyEntries: true }, (err, zip) => {
@@ -390,22 +400,25 @@ async function main(): Promise<void> {
       return { compression, seconds, zipBytes, content, idle, peak, cpu, growth: (peak - idle) / MB, zipRate: zipBytes / MB / seconds, contentRate: content.bytes / MB / seconds };
     };
     const runs = [];
-    for (const compression of ["fast", "fast", "fast", "small"] as const) {
+    // the first download after the server started pays for compiling the bundle code (reported as "cold");
+    // the rate is the median of the five after it, as a server that has been running a while sends them
+    for (const compression of ["fast", "fast", "fast", "fast", "fast", "fast", "small"] as const) {
       const b = await bundleOnce(compression);
       runs.push(b);
       console.log(
-        `bundle 1,000 networks #${runs.length} (compression=${b.compression}): ${b.content.entries} files, zip ${(b.zipBytes / MB).toFixed(1)} MB (${(b.content.bytes / MB).toFixed(1)} MB uncompressed) in ${b.seconds.toFixed(2)} s = ${b.zipRate.toFixed(1)} MB/s of zip, ${b.contentRate.toFixed(1)} MB/s of content | server RSS idle ${(b.idle / MB).toFixed(0)} MB, peak ${(b.peak / MB).toFixed(0)} MB, growth ${b.growth.toFixed(1)} MB | CPU s: server ${b.cpu.server.toFixed(2)}, database ${b.cpu.database.toFixed(2)}, this client ${b.cpu.client.toFixed(2)}`,
+        `bundle 1,000 networks #${runs.length} (compression=${b.compression}): ${b.content.entries} files, zip ${(b.zipBytes / MB).toFixed(1)} MB (${(b.content.bytes / MB).toFixed(1)} MB uncompressed) in ${b.seconds.toFixed(2)} s = ${b.zipRate.toFixed(1)} MB/s of zip, ${b.contentRate.toFixed(1)} MB/s of content | server RSS idle ${(b.idle / MB).toFixed(0)} MB, peak ${(b.peak / MB).toFixed(0)} MB, growth ${b.growth.toFixed(1)} MB | CPU s: server ${b.cpu.server.toFixed(2)}, database ${b.cpu.database.toFixed(2)}, this client ${b.cpu.client.toFixed(2)}; CPU time stolen by the host ${(b.cpu.steal * 100).toFixed(0)}%`,
       );
     }
     const fastRuns = runs.filter((b) => b.compression === "fast");
-    const median = [...fastRuns].sort((x, y) => x.contentRate - y.contentRate)[1];
+    const warm = fastRuns.slice(1).sort((x, y) => x.contentRate - y.contentRate);
+    const median = warm[2];
     const growth = Math.max(...runs.map((b) => b.growth));
     // The rate is judged on the content delivered (the uncompressed bytes of the bundle's files) per second:
     // it counts what the reader gets whatever the packing, so a worse compression cannot look faster. With
     // compression=fast (stored) the zip bytes and the content bytes are the same to within the zip headers.
-    summary.push(`bundle memory growth ${growth.toFixed(1)} MB (largest of the four downloads) ${growth < 100 ? "< 100 MB — target met" : "≥ 100 MB — TARGET MISSED"}`);
+    summary.push(`bundle memory growth ${growth.toFixed(1)} MB (largest of the ${runs.length} downloads) ${growth < 100 ? "< 100 MB — target met" : "≥ 100 MB — TARGET MISSED"}`);
     summary.push(
-      `bundle rate ${median.contentRate.toFixed(1)} MB/s of content (${median.zipRate.toFixed(1)} MB/s of zip), median of three downloads with compression=fast (first ${fastRuns[0].contentRate.toFixed(1)} MB/s) ${median.contentRate >= 50 ? "≥ 50 MB/s — target met" : "< 50 MB/s — TARGET MISSED"}`,
+      `bundle rate ${median.contentRate.toFixed(1)} MB/s of content (${median.zipRate.toFixed(1)} MB/s of zip), median of five downloads with compression=fast after a first, cold one (cold ${fastRuns[0].contentRate.toFixed(1)} MB/s; the five ${warm[0].contentRate.toFixed(1)}–${warm[4].contentRate.toFixed(1)} MB/s) ${median.contentRate >= 50 ? "≥ 50 MB/s — target met" : "< 50 MB/s — TARGET MISSED"}`,
     );
 
     // A client that disconnects stops the work: abort after the first bytes and watch the server go idle
