@@ -20,7 +20,8 @@ import { publishDataset, type PublishedFixture } from "./support/catalogue-fixtu
 import { Writable } from "node:stream";
 import { resolveSelection } from "../../server/src/api/bundles/bundles.selection";
 import { writeBundle } from "../../server/src/api/bundles/bundles.stream";
-import { bundleMatrixCsv, fillStoredMatrixCsvs, MATRIX_CSV_FORMAT } from "../../server/src/api/bundles/bundles.stored-csv";
+import { bundleMatrixCsv, fillStoredMatrixCsvs, MATRIX_CSV_FORMAT, MATRIX_CSV_MAX_CELLS } from "../../server/src/api/bundles/bundles.stored-csv";
+import zlib from "node:zlib";
 
 const app = createApp();
 let a: PublishedFixture;
@@ -309,5 +310,30 @@ describe("bundle contents", () => {
     const cut = await writeBundle(stalled, { networks: nets, title: "cut", signal: ctrl.signal, batchSize: 10 });
     expect(cut.aborted).toBe(true);
     expect(bytes).toBeLessThan(full.bytes());
+  });
+});
+
+describe("large networks", () => {
+  it("a matrix too large to be stored is streamed row by row into the bundle: the same bytes, a correct CRC-32, fields matching its header", async () => {
+    const big = await publishDataset({ study: { title: "Large sparse web" }, networks: [{ seed: 11, rows: 1001, cols: 1000, density: 0.002, weighted: true, metrics: { q: 0.7, z: 9 } }] });
+    const [row] = await sequelize().query<{ canonical: unknown; matrix_csv: string | null; cells: number }>(`SELECT canonical, matrix_csv, n_rows * n_cols AS cells FROM networks WHERE id = :id`, {
+      replacements: { id: big.networkIds[0] },
+      type: QueryTypes.SELECT,
+    });
+    expect(row.cells).toBeGreaterThan(MATRIX_CSV_MAX_CELLS);
+    expect(row.matrix_csv).toBeNull(); // over the limit: never stored
+    const res = await request(app).get("/api/v1/bundles").query({ refs: `${big.accession}/v1/1,${b.accession}/v1/1` }).buffer(true).parse(binaryParser);
+    expect(res.status).toBe(200);
+    const entries = await zipEntries(res.body as Buffer);
+    const file = entries.get(`networks/${big.accession}_v1_1.csv`)!;
+    const expected = bundleMatrixCsv(row.canonical);
+    expect(expected.length).toBeGreaterThan(2_000_000);
+    expect(file.content.equals(expected)).toBe(true);
+    expect(file.crc).toBe(zlib.crc32(file.content));
+    const dp = JSON.parse(entries.get("datapackage.json")!.content.toString("utf8"));
+    const resource = dp.resources.find((r: { path: string }) => r.path === `networks/${big.accession}_v1_1.csv`);
+    const header = parseCsv(file.content.subarray(0, file.content.indexOf(10) + 1), { to_line: 1 })[0] as string[];
+    expect(resource.schema.fields.map((f: { name: string }) => f.name)).toEqual(header);
+    expect(header).toHaveLength(1001);
   });
 });

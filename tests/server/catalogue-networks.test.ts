@@ -8,7 +8,7 @@ import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { createApp } from "../../server/src/app";
 import { shutdownServerResources } from "../../server/src/index";
 import { Network } from "../../server/src/models";
-import { deserializeNetwork, parseNetworkText, serializeNetwork } from "../../shared/network/index";
+import { deserializeNetwork, networkToMatrixCsv, parseNetworkText, serializeNetwork } from "../../shared/network/index";
 import { resetDatabase } from "../setup/db";
 import { publishDataset, type PublishedFixture } from "./support/catalogue-fixtures";
 
@@ -56,6 +56,17 @@ describe("network by reference", () => {
     expect(edges.text.split("\n")[0]).toBe("source,target,weight");
     const bad = await request(app).get(`/api/v1/networks/${pub.accession}/v1/1/data.csv`).query({ layout: "spiral" });
     expect(bad.status).toBe(400);
+  });
+
+  it("streams a large matrix in pieces: the engine's bytes exactly", async () => {
+    const big = await publishDataset({ networks: [{ seed: 21, rows: 700, cols: 900, density: 0.01, weighted: true }] });
+    const stored = await Network.findByPk(big.networkIds[0], { attributes: { include: ["canonical"] } });
+    const res = await request(app).get(`/api/v1/networks/${big.accession}/v1/1/data.csv`).buffer(true);
+    expect(res.status).toBe(200);
+    expect(res.headers["transfer-encoding"]).toBe("chunked"); // streamed, not held whole
+    const expected = networkToMatrixCsv(deserializeNetwork(stored!.canonical));
+    expect(expected.length).toBeGreaterThan(1024 * 1024); // more than one piece
+    expect(res.text === expected).toBe(true);
   });
 
   it("serves the metrics alone", async () => {

@@ -12,7 +12,7 @@
  */
 import { QueryTypes, type Transaction } from "sequelize";
 import { sequelize } from "../../db/sequelize";
-import { matrixCsvFromCanonical } from "./bundles.csv";
+import { matrixCsvFromCanonical } from "../../lib/matrix-csv";
 
 /** Version of the writer below (raise it when the bundle's matrix CSV changes). */
 export const MATRIX_CSV_FORMAT = 1;

@@ -24,8 +24,9 @@ import { loadCatalogueRows, type CatalogueEntry } from "../catalogue/catalogue.r
 import { catalogueStore } from "../catalogue/catalogue.store";
 import { fileNameOf, type SelectedNetwork } from "./bundles.selection";
 import { bundleReadme } from "./bundles.readme";
-import { csvHeaderLabels, quote } from "./bundles.csv";
-import { bundleMatrixCsv, MATRIX_CSV_FORMAT } from "./bundles.stored-csv";
+import { csvHeaderLabels, matrixCsvChunks, quote } from "../../lib/matrix-csv";
+import { bundleMatrixCsv, MATRIX_CSV_CORNER, MATRIX_CSV_FORMAT, MATRIX_CSV_MAX_CELLS } from "./bundles.stored-csv";
+import type { CanonicalNetworkJson } from "../../../../shared/network/parse/serialize";
 import { useNativeCrc32 } from "./bundles.crc";
 
 useNativeCrc32();
@@ -178,11 +179,18 @@ interface MatrixRow {
   canonical: string | null;
 }
 
-/** About how many bytes a network's matrix CSV has (cells of ",0" plus labels), for sizing batches. */
+function cellsOf(n: SelectedNetwork): number {
+  return (n.nRows ?? n.nNodes) * (n.nCols ?? n.nNodes);
+}
+
+/**
+ * About how many bytes a batch holds for a network, for sizing batches: its matrix CSV (cells of ",0"
+ * plus labels), or for a matrix too large to be stored, which is streamed, its canonical JSON.
+ */
 function csvBytesOf(n: SelectedNetwork): number {
   const I = n.nRows ?? n.nNodes;
   const J = n.nCols ?? n.nNodes;
-  return I * (2 * J + 20) + 20 * J;
+  return cellsOf(n) <= MATRIX_CSV_MAX_CELLS ? I * (2 * J + 20) + 20 * J : 30 * (I + J) + 16 * n.nLinks;
 }
 
 /**
@@ -217,7 +225,7 @@ const licenseObj = (l: string) => ({ name: l, path: licenceUrl(l), title: l === 
  * One pass over the networks, 50 at a time and at most about 4 MB of CSV per batch (the next three
  * batches are read while this one is written): each network's matrix CSV is copied from the one stored
  * at publication (bundles.stored-csv.ts), or written from its canonical JSON when there is none
- * (bundles.csv.ts), and appended to the archive; its datapackage resource (fields from the CSV's
+ * (lib/matrix-csv.ts), and appended to the archive; its datapackage resource (fields from the CSV's
  * header), metrics row and metadata row are written to small temporary files, which become
  * datapackage.json, metrics.csv and networks.csv at the end. Metadata and metrics come from the catalogue
  * in memory. So every network is read from the database once, and memory holds a few batches whatever
@@ -387,8 +395,17 @@ export async function writeBundle(out: Writable, opts: BundleOptions): Promise<{
         if (!r || !e) continue; // withdrawn since the selection was read
         byId.delete(net.networkId);
         const path = fileNameOf(net.ref);
-        const csv = r.csv !== null ? Buffer.from(r.csv, "utf8") : bundleMatrixCsv(r.canonical);
-        addNetwork(csv, path);
+        let fields: string;
+        if (r.csv !== null || cellsOf(net) <= MATRIX_CSV_MAX_CELLS) {
+          const csv = r.csv !== null ? Buffer.from(r.csv, "utf8") : bundleMatrixCsv(r.canonical);
+          addNetwork(csv, path);
+          fields = numberFieldsOfCsv(csv);
+        } else {
+          // a large matrix is streamed row by row, never held whole
+          const canon = JSON.parse(r.canonical ?? "null") as CanonicalNetworkJson;
+          add(Readable.from(matrixCsvChunks(canon, MATRIX_CSV_CORNER), { objectMode: false }), path);
+          fields = numberFields((canon?.kind === "bipartite" ? canon.cols : canon?.rows) ?? []);
+        }
         const licence = e.licence || "unknown";
         licences.add(licence);
         resourceLines.push(
@@ -405,7 +422,7 @@ export async function writeBundle(out: Writable, opts: BundleOptions): Promise<{
               licenses: [licenseObj(licence)],
               sources: [{ title: `${net.accession} version ${net.version}`, path: `${publicUrl}/datasets/${net.accession}/v/${net.version}` }],
             }).slice(0, -1) +
-            `,"schema":{"fields":[${e.kind === "bipartite" ? NODE_FIELD_BIPARTITE : NODE_FIELD_ONE_MODE}${numberFieldsOfCsv(csv)}],"primaryKey":["node"]}}`,
+            `,"schema":{"fields":[${e.kind === "bipartite" ? NODE_FIELD_BIPARTITE : NODE_FIELD_ONE_MODE}${fields}],"primaryKey":["node"]}}`,
         );
         firstResource = false;
         metricLines.push(METRICS_FIELDS.map((f) => csvCell(f[3](e))).join(","));

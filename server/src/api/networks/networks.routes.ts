@@ -11,6 +11,8 @@
  * | GET /:accession/:version/:position/metrics      | anyone (published) | `{ ref, metrics }`              |
  * Unpublished versions: owner and curators only (404 for others); withdrawn → 410.
  */
+import { Readable } from "node:stream";
+import { pipeline } from "node:stream/promises";
 import { Router, type Request, type Response } from "express";
 import { ApiError } from "../../lib/api-error";
 import { apiRateLimit } from "../../middlewares/api-rate-limit";
@@ -31,10 +33,25 @@ function layoutOf(req: Request): "matrix" | "edgelist" {
 }
 
 async function sendCsv(req: Request, res: Response) {
-  const { ref, csv } = await getNetworkCsv(req.params as unknown as NetworkRefParams, req.user, layoutOf(req));
+  const { ref, chunks } = await getNetworkCsv(req.params as unknown as NetworkRefParams, req.user, layoutOf(req));
+  // the first piece is made before anything is sent: a network that cannot be written is an error answer
+  const pieces = chunks[Symbol.iterator]();
+  const first = pieces.next();
   res.type("text/csv; charset=utf-8");
   res.set("Content-Disposition", `inline; filename="${ref.replace(/\//g, "_")}.csv"`);
-  res.send(csv);
+  await pipeline(
+    Readable.from(
+      (function* () {
+        if (!first.done) yield first.value;
+        for (let p = pieces.next(); !p.done; p = pieces.next()) yield p.value;
+      })(),
+      { objectMode: false },
+    ),
+    res,
+  ).catch((err: unknown) => {
+    // the client went away, or a later piece failed: the answer is cut short
+    if (!res.destroyed) res.destroy(err as Error);
+  });
 }
 
 networksRouter.get("/", listCatalogue);

@@ -1,5 +1,5 @@
 /**
- * The bundle's byte-level matrix writer (server/src/api/bundles/bundles.csv.ts) against the engine's
+ * The bundle's byte-level matrix writer (server/src/lib/matrix-csv.ts) against the engine's
  * writer (`networkToMatrixCsv`, itself tested by round trips through the parser in
  * tests/shared/network/parse.test.ts): the same bytes for random bipartite and one-mode networks
  * (directed or not, self-loops, weights whole, fractional, large and tiny), labels needing quotes and
@@ -7,9 +7,10 @@
  * damaged stored networks throw instead of writing a malformed file. No database needed.
  */
 import { describe, expect, it } from "vitest";
+import { parse as parseCsv } from "csv-parse/sync";
 import { createRng, deserializeNetwork, networkToMatrixCsv, parseNetworkText, serializeNetwork, type Network } from "../../shared/network/index";
 import { networkFromTriples } from "../../shared/network/graph";
-import { csvHeaderLabels, matrixCsvFromCanonical, needsQuotes } from "../../server/src/api/bundles/bundles.csv";
+import { csvHeaderLabels, matrixCsvChunks, matrixCsvFromCanonical, needsQuotes } from "../../server/src/lib/matrix-csv";
 import { useNativeCrc32 } from "../../server/src/api/bundles/bundles.crc";
 import { numberFieldsOfCsv } from "../../server/src/api/bundles/bundles.stream";
 import zlib from "node:zlib";
@@ -116,6 +117,29 @@ describe("bundle matrix CSV writer", () => {
     const net = networkFromTriples({ kind: "bipartite", directed: false, rowLabels: ["r"], colLabels: odd }, [0], [0], [1]);
     expect(numberFieldsOfCsv(matrixCsvFromCanonical(serializeNetwork(net), "node"))).toBe(expected(odd));
     expect(numberFieldsOfCsv(Buffer.from("node\n"))).toBe("");
+  });
+
+  it("streams the same bytes in pieces of whole rows, none larger than asked unless one row is", () => {
+    for (let seed = 1; seed <= 200; seed++) {
+      const json = serializeNetwork(randomNetwork(seed));
+      const whole = matrixCsvFromCanonical(json, "node");
+      // byte offset where each record (the header, then each row) ends, by an independent CSV parser
+      const ends = new Set((parseCsv(whole, { info: true, relax_column_count: true }) as unknown as Array<{ info: { bytes: number } }>).map((r) => r.info.bytes));
+      expect(ends.has(whole.length)).toBe(true);
+      for (const size of [1, 64, 1000, 1 << 20]) {
+        const parts = [...matrixCsvChunks(json, "node", size)];
+        expect(Buffer.concat(parts).equals(whole), `seed ${seed}, pieces of ${size}`).toBe(true);
+        let at = 0;
+        for (const part of parts) {
+          const from = at;
+          at += part.length;
+          expect(ends.has(at), `seed ${seed}: a piece ends inside a row`).toBe(true);
+          // larger than asked only when it is a single record
+          if (part.length > size) expect([...ends].filter((e) => e > from && e < at)).toEqual([]);
+        }
+        if (size >= whole.length) expect(parts).toHaveLength(1);
+      }
+    }
   });
 
   it("edge cases: no rows, no links, one cell", () => {

@@ -1,15 +1,17 @@
 /**
- * A network's matrix CSV for bundles, written straight from its stored canonical JSON into one Buffer.
+ * A network's matrix CSV, written straight from its stored canonical JSON: into one Buffer (bundles, and
+ * the CSV stored at publication), or in pieces of whole rows for large matrices (bundles and the network
+ * download stream those, so a 20,000-node network's 800 MB of ",0" is never held whole).
  *
  * The output is byte for byte what the engine's `networkToMatrixCsv(deserializeNetwork(json))` gives
- * (tests/server/bundles-csv.test.ts compares them), but it skips building the typed arrays and the
+ * (tests/server/matrix-csv.test.ts compares them), but it skips building the typed arrays and the
  * per-cell strings: a row of zero cells (",0,0,…,0") is made once per network and copied into each line,
  * and only the non-zero cells are written (an unweighted network only changes a "0" into a "1" in place).
  * Stored networks were validated when they were deposited; the checks here (array lengths, column
  * indices in range and strictly increasing, positive finite weights) only make sure a damaged row can
  * never produce a malformed file: it throws instead.
  */
-import type { CanonicalNetworkJson } from "../../../../shared/network/parse/serialize";
+import type { CanonicalNetworkJson } from "../../../shared/network/parse/serialize";
 
 const COMMA = 0x2c;
 const NEWLINE = 0x0a;
@@ -46,9 +48,19 @@ function fail(msg: string): never {
 
 /**
  * `corner` is the text of the header's first cell (the engine writes it empty; bundles name it "node" so
- * that the first column has a name in the Table Schema).
+ * that the first column has a name in the Table Schema). One Buffer of exactly the CSV's size.
  */
 export function matrixCsvFromCanonical(json: unknown, corner = ""): Buffer {
+  const parts = [...matrixCsvChunks(json, corner, Infinity)];
+  return parts.length === 1 ? parts[0] : Buffer.concat(parts);
+}
+
+/**
+ * The same bytes in pieces of about `chunkBytes` (whole rows; a row longer than that is one piece): a
+ * large sparse network's matrix (20,000 nodes are 800 MB of ",0") is streamed without ever being held
+ * whole. Checks and the exact total size are computed before the first piece.
+ */
+export function* matrixCsvChunks(json: unknown, corner = "", chunkBytes = 1024 * 1024): Generator<Buffer> {
   const c = json as CanonicalNetworkJson;
   if (!c || typeof c !== "object" || c.v !== 1) fail("unknown canonical form");
   const rows = c.rows;
@@ -60,50 +72,62 @@ export function matrixCsvFromCanonical(json: unknown, corner = ""): Buffer {
   const J = cols.length;
   if (!Array.isArray(ptr) || ptr.length !== I + 1 || ptr[0] !== 0 || !Array.isArray(idx) || idx.length !== ptr[I]) fail("row pointers do not match the links");
   if (w !== null && (!Array.isArray(w) || w.length !== idx.length)) fail("weights do not match the links");
+  for (let i = 0; i < I; i++) if (!(ptr[i + 1] >= ptr[i])) fail(`row pointers decrease at row ${i + 1}`);
 
-  // exact size: header, labels, I lines of J ",0" cells and a newline, plus the extra length of weights
+  // exact sizes: header, then per row its label, J ",0" cells and a newline, plus the extra length of weights
   const header = (cols.length ? quote(corner) + "," + cols.map(quote).join(",") : quote(corner)) + "\n";
   const headerBytes = Buffer.byteLength(header);
   const labels = new Array<string>(I);
-  let size = headerBytes + I * (2 * J + 1);
-  for (let i = 0; i < I; i++) {
-    const q = quote(rows[i]);
-    labels[i] = q;
-    size += q.length; // corrected below when a label is not ASCII
-  }
   let ascii = true;
-  for (let i = 0; i < I && ascii; i++) if (!isAscii(labels[i])) ascii = false;
-  if (!ascii) {
-    size = headerBytes + I * (2 * J + 1);
-    for (let i = 0; i < I; i++) size += Buffer.byteLength(labels[i]);
+  for (let i = 0; i < I; i++) {
+    labels[i] = quote(rows[i]);
+    if (ascii && !isAscii(labels[i])) ascii = false;
   }
+  const rowBytes = new Float64Array(I);
+  for (let i = 0; i < I; i++) rowBytes[i] = (ascii ? labels[i].length : Buffer.byteLength(labels[i])) + 2 * J + 1;
   // weights: whole numbers are written digit by digit; other numbers through String() (shortest round trip)
   let texts: Map<number, string> | null = null;
   if (w !== null) {
-    for (let p = 0; p < w.length; p++) {
-      const x = w[p];
-      if (typeof x !== "number" || !(x > 0) || !Number.isFinite(x)) fail(`weight ${String(x)} at link ${p + 1}`);
-      if (Number.isInteger(x) && x < 1e15) size += digitCount(x) - 1;
-      else {
-        const t = String(x);
-        (texts ??= new Map()).set(p, t);
-        size += t.length - 1;
+    for (let i = 0; i < I; i++) {
+      for (let p = ptr[i]; p < ptr[i + 1]; p++) {
+        const x = w[p];
+        if (typeof x !== "number" || !(x > 0) || !Number.isFinite(x)) fail(`weight ${String(x)} at link ${p + 1}`);
+        if (Number.isInteger(x) && x < 1e15) rowBytes[i] += digitCount(x) - 1;
+        else {
+          const t = String(x);
+          (texts ??= new Map()).set(p, t);
+          rowBytes[i] += t.length - 1;
+        }
       }
     }
   }
+  let total = headerBytes;
+  let longest = headerBytes;
+  for (let i = 0; i < I; i++) {
+    total += rowBytes[i];
+    if (rowBytes[i] > longest) longest = rowBytes[i];
+  }
+  const capacity = Math.min(total, Math.max(chunkBytes, longest));
 
-  const out = Buffer.allocUnsafe(size);
+  let out = Buffer.allocUnsafe(capacity);
   let pos = out.write(header, 0, "utf8");
+  let written = 0;
   const zeros = Buffer.allocUnsafe(2 * J);
   for (let j = 0; j < J; j++) {
     zeros[2 * j] = COMMA;
     zeros[2 * j + 1] = ZERO;
   }
   for (let i = 0; i < I; i++) {
+    if (pos > 0 && pos + rowBytes[i] > Math.min(chunkBytes, out.length)) {
+      written += pos;
+      yield out.subarray(0, pos);
+      out = Buffer.allocUnsafe(Math.min(capacity, total - written));
+      pos = 0;
+    }
+    const start = pos;
     pos += out.write(labels[i], pos, ascii ? "latin1" : "utf8");
     const from = ptr[i];
     const to = ptr[i + 1];
-    if (!(to >= from) || to > idx.length) fail(`row pointers decrease at row ${i + 1}`);
     let prev = -1;
     if (w === null) {
       zeros.copy(out, pos);
@@ -130,9 +154,11 @@ export function matrixCsvFromCanonical(json: unknown, corner = ""): Buffer {
       pos = writeZeros(out, pos, zeros, J - cell);
     }
     out[pos++] = NEWLINE;
+    if (pos - start !== rowBytes[i]) fail(`row ${i + 1}: wrote ${pos - start} bytes where ${rowBytes[i]} were expected`);
   }
-  if (pos !== size) fail(`wrote ${pos} bytes where ${size} were expected`);
-  return out;
+  written += pos;
+  if (written !== total) fail(`wrote ${written} bytes where ${total} were expected`);
+  if (pos > 0 || total === 0) yield out.subarray(0, pos);
 }
 
 /** n cells ",0": a byte loop for short runs, a copy of the zero row for long ones. */
