@@ -336,4 +336,13 @@ describe("large networks", () => {
     expect(resource.schema.fields.map((f: { name: string }) => f.name)).toEqual(header);
     expect(header).toHaveLength(1001);
   });
+
+  it("the fill passes over a network whose stored form is damaged and writes the others", async () => {
+    const ds = await publishDataset({ study: { title: "Two plots" }, networks: [{ seed: 31 }, { seed: 32 }], storeMatrixCsvs: false });
+    // the last test of this file: the damaged network stays
+    await sequelize().query(`UPDATE networks SET canonical = '{"v":1,"kind":"bipartite","rows":["a"],"cols":["b"],"ptr":[0,5],"idx":[]}' WHERE id = :id`, { replacements: { id: ds.networkIds[0] } });
+    expect(await fillStoredMatrixCsvs()).toBe(1);
+    const rows = await sequelize().query<{ id: number; matrix_csv: string | null }>(`SELECT id, matrix_csv FROM networks WHERE id IN (:ids) ORDER BY id`, { replacements: { ids: ds.networkIds }, type: QueryTypes.SELECT });
+    expect(rows.map((r) => r.matrix_csv === null)).toEqual([true, false]);
+  });
 });

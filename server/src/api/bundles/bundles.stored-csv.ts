@@ -12,6 +12,7 @@
  */
 import { QueryTypes, type Transaction } from "sequelize";
 import { sequelize } from "../../db/sequelize";
+import { logger } from "../../lib/logger";
 import { matrixCsvFromCanonical } from "../../lib/matrix-csv";
 
 /** Version of the writer below (raise it when the bundle's matrix CSV changes). */
@@ -71,23 +72,36 @@ export async function storeMatrixCsvs(networkIds: number[], transaction?: Transa
 
 /**
  * Writes the stored CSV of every published network that lacks one in the current format (networks
- * published before this column existed, or by an older writer), a few hundred at a time. Run at server
- * start (catalogue.startup.ts) and by the catalogue benchmark after seeding. Returns how many were written.
+ * published before this column existed, or by an older writer), a few hundred at a time in id order. A
+ * network whose CSV cannot be written (a damaged stored form) is logged and passed over, so the others
+ * are still filled. Run at server start (catalogue.startup.ts) and by the catalogue benchmark after
+ * seeding. Returns how many were written.
  */
 export async function fillStoredMatrixCsvs(opts: { chunk?: number; maxCells?: number } = {}): Promise<number> {
   const chunk = opts.chunk ?? 200;
   const max = opts.maxCells ?? MATRIX_CSV_MAX_CELLS;
   let total = 0;
+  let after = 0;
   for (;;) {
     const rows = await sequelize().query<{ id: number }>(
       `SELECT n.id FROM networks n JOIN dataset_versions v ON v.id = n.version_id
-        WHERE v.state = 'published' AND ${MATRIX_CELLS_SQL} <= :max AND n.matrix_csv_format IS DISTINCT FROM :format
+        WHERE v.state = 'published' AND ${MATRIX_CELLS_SQL} <= :max AND n.matrix_csv_format IS DISTINCT FROM :format AND n.id > :after
         ORDER BY n.id LIMIT :chunk`,
-      { replacements: { max, format: MATRIX_CSV_FORMAT, chunk }, type: QueryTypes.SELECT },
+      { replacements: { max, format: MATRIX_CSV_FORMAT, chunk, after }, type: QueryTypes.SELECT },
     );
     if (!rows.length) return total;
-    const written = await storeMatrixCsvs(rows.map((r) => r.id), undefined, { maxCells: max });
-    total += written;
-    if (written === 0) return total; // nothing left that can be written (changed since it was listed)
+    const ids = rows.map((r) => r.id);
+    after = ids[ids.length - 1];
+    try {
+      total += await storeMatrixCsvs(ids, undefined, { maxCells: max });
+    } catch {
+      for (const id of ids) {
+        try {
+          total += await storeMatrixCsvs([id], undefined, { maxCells: max });
+        } catch (err) {
+          logger.warn({ err, networkId: id }, "the matrix CSV of a published network could not be written; bundles will try again");
+        }
+      }
+    }
   }
 }
