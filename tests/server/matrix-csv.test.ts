@@ -10,9 +10,10 @@ import { describe, expect, it } from "vitest";
 import { parse as parseCsv } from "csv-parse/sync";
 import { createRng, deserializeNetwork, networkToMatrixCsv, parseNetworkText, serializeNetwork, type Network } from "../../shared/network/index";
 import { networkFromTriples } from "../../shared/network/graph";
-import { csvHeaderLabels, matrixCsvChunks, matrixCsvFromCanonical, needsQuotes } from "../../server/src/lib/matrix-csv";
+import { csvHeaderLabels, matrixCsvPieces, matrixCsvFromCanonical, needsQuotes } from "../../server/src/lib/matrix-csv";
 import { useNativeCrc32 } from "../../server/src/api/bundles/bundles.crc";
 import { numberFieldsOfCsv } from "../../server/src/api/bundles/bundles.stream";
+import { bundleMatrixCsv, MATRIX_CSV_FORMAT } from "../../server/src/api/bundles/bundles.stored-csv";
 import zlib from "node:zlib";
 
 const engine = (net: Network, corner = "") => {
@@ -127,7 +128,9 @@ describe("bundle matrix CSV writer", () => {
       const ends = new Set((parseCsv(whole, { info: true, relax_column_count: true }) as unknown as Array<{ info: { bytes: number } }>).map((r) => r.info.bytes));
       expect(ends.has(whole.length)).toBe(true);
       for (const size of [1, 64, 1000, 1 << 20]) {
-        const parts = [...matrixCsvChunks(json, "node", size)];
+        const { bytes, pieces } = matrixCsvPieces(json, "node", size);
+        expect(bytes).toBe(whole.length);
+        const parts = [...pieces];
         expect(Buffer.concat(parts).equals(whole), `seed ${seed}, pieces of ${size}`).toBe(true);
         let at = 0;
         for (const part of parts) {
@@ -140,6 +143,12 @@ describe("bundle matrix CSV writer", () => {
         if (size >= whole.length) expect(parts).toHaveLength(1);
       }
     }
+  });
+
+  it("writes the bytes its format number stands for (stored CSVs carry that number: raise MATRIX_CSV_FORMAT when this changes)", () => {
+    const net = networkFromTriples({ kind: "bipartite", directed: false, rowLabels: ["Heather", "a,b"], colLabels: ['say "hi"', "Bombus"] }, [0, 1], [1, 0], [2, 0.5]);
+    expect(MATRIX_CSV_FORMAT).toBe(1);
+    expect(bundleMatrixCsv(serializeNetwork(net)).toString("utf8")).toBe('node,"say ""hi""",Bombus\nHeather,0,2\n"a,b",0.5,0\n');
   });
 
   it("edge cases: no rows, no links, one cell", () => {

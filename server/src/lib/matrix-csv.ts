@@ -42,8 +42,16 @@ function isTrimmed(c: number): boolean {
   return c === 0xa0 || c === 0x1680 || (c >= 0x2000 && c <= 0x200a) || c === 0x2028 || c === 0x2029 || c === 0x202f || c === 0x205f || c === 0x3000 || c === 0xfeff;
 }
 
+/** A stored network that cannot be written as CSV (damaged): the only error the writer throws. */
+export class MatrixCsvError extends Error {
+  constructor(msg: string) {
+    super(`Stored network cannot be written as CSV: ${msg}`);
+    this.name = "MatrixCsvError";
+  }
+}
+
 function fail(msg: string): never {
-  throw new Error(`Stored network cannot be written as CSV: ${msg}`);
+  throw new MatrixCsvError(msg);
 }
 
 /**
@@ -51,16 +59,18 @@ function fail(msg: string): never {
  * that the first column has a name in the Table Schema). One Buffer of exactly the CSV's size.
  */
 export function matrixCsvFromCanonical(json: unknown, corner = ""): Buffer {
-  const parts = [...matrixCsvChunks(json, corner, Infinity)];
+  const parts = [...matrixCsvPieces(json, corner, Infinity).pieces];
   return parts.length === 1 ? parts[0] : Buffer.concat(parts);
 }
 
 /**
  * The same bytes in pieces of about `chunkBytes` (whole rows; a row longer than that is one piece): a
  * large sparse network's matrix (20,000 nodes are 800 MB of ",0") is streamed without ever being held
- * whole. Checks and the exact total size are computed before the first piece.
+ * whole. The form is checked and the exact size computed here, at the call (a damaged network throws
+ * MatrixCsvError before anything is sent); only a column index out of order or range is found while the
+ * pieces are written (MatrixCsvError from the iterator).
  */
-export function* matrixCsvChunks(json: unknown, corner = "", chunkBytes = 1024 * 1024): Generator<Buffer> {
+export function matrixCsvPieces(json: unknown, corner = "", chunkBytes = 1024 * 1024): { bytes: number; pieces: Generator<Buffer> } {
   const c = json as CanonicalNetworkJson;
   if (!c || typeof c !== "object" || c.v !== 1) fail("unknown canonical form");
   const rows = c.rows;
@@ -108,57 +118,59 @@ export function* matrixCsvChunks(json: unknown, corner = "", chunkBytes = 1024 *
     if (rowBytes[i] > longest) longest = rowBytes[i];
   }
   const capacity = Math.min(total, Math.max(chunkBytes, longest));
-
-  let out = Buffer.allocUnsafe(capacity);
-  let pos = out.write(header, 0, "utf8");
-  let written = 0;
-  const zeros = Buffer.allocUnsafe(2 * J);
-  for (let j = 0; j < J; j++) {
-    zeros[2 * j] = COMMA;
-    zeros[2 * j + 1] = ZERO;
-  }
-  for (let i = 0; i < I; i++) {
-    if (pos > 0 && pos + rowBytes[i] > Math.min(chunkBytes, out.length)) {
-      written += pos;
-      yield out.subarray(0, pos);
-      out = Buffer.allocUnsafe(Math.min(capacity, total - written));
-      pos = 0;
+  function* write(): Generator<Buffer> {
+    let out = Buffer.allocUnsafe(capacity);
+    let pos = out.write(header, 0, "utf8");
+    let written = 0;
+    const zeros = Buffer.allocUnsafe(2 * J);
+    for (let j = 0; j < J; j++) {
+      zeros[2 * j] = COMMA;
+      zeros[2 * j + 1] = ZERO;
     }
-    const start = pos;
-    pos += out.write(labels[i], pos, ascii ? "latin1" : "utf8");
-    const from = ptr[i];
-    const to = ptr[i + 1];
-    let prev = -1;
-    if (w === null) {
-      zeros.copy(out, pos);
-      for (let p = from; p < to; p++) {
-        const j = idx[p];
-        if (!(j > prev && j < J)) fail(`column index ${j} out of order or range in row ${i + 1}`);
-        out[pos + 2 * j + 1] = ONE;
-        prev = j;
+    for (let i = 0; i < I; i++) {
+      if (pos > 0 && pos + rowBytes[i] > Math.min(chunkBytes, out.length)) {
+        written += pos;
+        yield out.subarray(0, pos);
+        out = Buffer.allocUnsafe(Math.min(capacity, total - written));
+        pos = 0;
       }
-      pos += 2 * J;
-    } else {
-      let cell = 0; // next cell not yet written
-      for (let p = from; p < to; p++) {
-        const j = idx[p];
-        if (!(j > prev && j < J)) fail(`column index ${j} out of order or range in row ${i + 1}`);
-        pos = writeZeros(out, pos, zeros, j - cell);
-        out[pos++] = COMMA;
-        const x = w[p];
-        if (Number.isInteger(x) && x < 1e15) pos = writeDigits(out, pos, x);
-        else pos += out.write(texts!.get(p)!, pos, "latin1");
-        cell = j + 1;
-        prev = j;
+      const start = pos;
+      pos += out.write(labels[i], pos, ascii ? "latin1" : "utf8");
+      const from = ptr[i];
+      const to = ptr[i + 1];
+      let prev = -1;
+      if (w === null) {
+        zeros.copy(out, pos);
+        for (let p = from; p < to; p++) {
+          const j = idx[p];
+          if (!(j > prev && j < J)) fail(`column index ${j} out of order or range in row ${i + 1}`);
+          out[pos + 2 * j + 1] = ONE;
+          prev = j;
+        }
+        pos += 2 * J;
+      } else {
+        let cell = 0; // next cell not yet written
+        for (let p = from; p < to; p++) {
+          const j = idx[p];
+          if (!(j > prev && j < J)) fail(`column index ${j} out of order or range in row ${i + 1}`);
+          pos = writeZeros(out, pos, zeros, j - cell);
+          out[pos++] = COMMA;
+          const x = w[p];
+          if (Number.isInteger(x) && x < 1e15) pos = writeDigits(out, pos, x);
+          else pos += out.write(texts!.get(p)!, pos, "latin1");
+          cell = j + 1;
+          prev = j;
+        }
+        pos = writeZeros(out, pos, zeros, J - cell);
       }
-      pos = writeZeros(out, pos, zeros, J - cell);
+      out[pos++] = NEWLINE;
+      if (pos - start !== rowBytes[i]) fail(`row ${i + 1}: wrote ${pos - start} bytes where ${rowBytes[i]} were expected`);
     }
-    out[pos++] = NEWLINE;
-    if (pos - start !== rowBytes[i]) fail(`row ${i + 1}: wrote ${pos - start} bytes where ${rowBytes[i]} were expected`);
+    written += pos;
+    if (written !== total) fail(`wrote ${written} bytes where ${total} were expected`);
+    if (pos > 0 || total === 0) yield out.subarray(0, pos);
   }
-  written += pos;
-  if (written !== total) fail(`wrote ${written} bytes where ${total} were expected`);
-  if (pos > 0 || total === 0) yield out.subarray(0, pos);
+  return { bytes: total, pieces: write() };
 }
 
 /** n cells ",0": a byte loop for short runs, a copy of the zero row for long ones. */

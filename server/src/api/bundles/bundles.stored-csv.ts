@@ -8,12 +8,13 @@
  *   CSV from the canonical form, as for a NULL) and is written again by `fillStoredMatrixCsvs`.
  * - Networks over `MATRIX_CSV_MAX_CELLS` are never stored (their CSV can be several MB and is mostly the
  *   copied zero row; writing it at bundle time costs little more than reading it).
- * - Published versions are frozen, so a stored CSV never goes stale; drafts have none.
+ * - Published versions are frozen, so a stored CSV never goes stale; drafts have none. A trigger clears it
+ *   if anything changes a network's canonical form all the same (migration 20261202-0200).
  */
 import { QueryTypes, type Transaction } from "sequelize";
 import { sequelize } from "../../db/sequelize";
 import { logger } from "../../lib/logger";
-import { matrixCsvFromCanonical } from "../../lib/matrix-csv";
+import { matrixCsvFromCanonical, MatrixCsvError } from "../../lib/matrix-csv";
 
 /** Version of the writer below (raise it when the bundle's matrix CSV changes). */
 export const MATRIX_CSV_FORMAT = 1;
@@ -94,12 +95,15 @@ export async function fillStoredMatrixCsvs(opts: { chunk?: number; maxCells?: nu
     after = ids[ids.length - 1];
     try {
       total += await storeMatrixCsvs(ids, undefined, { maxCells: max });
-    } catch {
+    } catch (err) {
+      // a damaged network: the others one by one (any other failure, e.g. the database, ends the fill)
+      if (!(err instanceof MatrixCsvError)) throw err;
       for (const id of ids) {
         try {
           total += await storeMatrixCsvs([id], undefined, { maxCells: max });
-        } catch (err) {
-          logger.warn({ err, networkId: id }, "the matrix CSV of a published network could not be written; bundles will try again");
+        } catch (e) {
+          if (!(e instanceof MatrixCsvError)) throw e;
+          logger.warn({ err: e, networkId: id }, "the matrix CSV of a published network could not be written; bundles will try again");
         }
       }
     }

@@ -24,7 +24,7 @@ import { loadCatalogueRows, type CatalogueEntry } from "../catalogue/catalogue.r
 import { catalogueStore } from "../catalogue/catalogue.store";
 import { fileNameOf, type SelectedNetwork } from "./bundles.selection";
 import { bundleReadme } from "./bundles.readme";
-import { csvHeaderLabels, matrixCsvChunks, quote } from "../../lib/matrix-csv";
+import { csvHeaderLabels, matrixCsvPieces, quote } from "../../lib/matrix-csv";
 import { bundleMatrixCsv, MATRIX_CSV_CORNER, MATRIX_CSV_FORMAT, MATRIX_CSV_MAX_CELLS } from "./bundles.stored-csv";
 import type { CanonicalNetworkJson } from "../../../../shared/network/parse/serialize";
 import { useNativeCrc32 } from "./bundles.crc";
@@ -40,6 +40,8 @@ const DEFAULT_BATCH = 50;
 /** …and at most about this many bytes of matrix CSV per batch (a batch holds at least one network). */
 const BATCH_BYTES = 4 * 1024 * 1024;
 const PREFETCH = 3;
+/** …and batches read ahead hold at most about this many bytes (a large streamed network is one batch). */
+const PREFETCH_BYTES = 12 * 1024 * 1024;
 /** zlib level of compression=small (zlib's default). */
 const SMALL_LEVEL = 6;
 
@@ -316,8 +318,7 @@ export async function writeBundle(out: Writable, opts: BundleOptions): Promise<{
   // holds the runs finished before the bundle started); networks of older published versions, which the
   // catalogue does not list, are read from the database. Whether a network is still published is always
   // checked in the database, with its matrix.
-  catalogueStore.invalidate();
-  const catalogueReady = catalogueStore.entries();
+  const catalogueReady = catalogueStore.current();
   catalogueReady.catch(() => undefined); // awaited with the first batch
   const fetchBatch = ([from, to]: [number, number]) => {
     const batchIds = networks.slice(from, to).map((n) => n.networkId);
@@ -344,14 +345,17 @@ export async function writeBundle(out: Writable, opts: BundleOptions): Promise<{
       }),
     ]);
   };
-  // up to PREFETCH batches are read ahead, so the database works while this process writes
-  const ahead: Array<ReturnType<typeof fetchBatch>> = [];
+  // up to PREFETCH batches and about PREFETCH_BYTES are read ahead (at least the next batch), so the
+  // database works while this process writes
+  const batchBytes = ([from, to]: [number, number]) => networks.slice(from, to).reduce((sum, n) => sum + csvBytesOf(n), 0);
+  const ahead: Array<{ rows: ReturnType<typeof fetchBatch>; bytes: number }> = [];
   let fetched = 0;
   const refill = () => {
-    while (ahead.length < PREFETCH && fetched < batches.length) {
-      const p = fetchBatch(batches[fetched++]);
+    while (fetched < batches.length && (ahead.length === 0 || (ahead.length < PREFETCH && ahead.reduce((sum, a) => sum + a.bytes, 0) + batchBytes(batches[fetched]) <= PREFETCH_BYTES))) {
+      const batch = batches[fetched++];
+      const p = fetchBatch(batch);
       p.catch(() => undefined); // awaited below; a failure while another batch is awaited is not unhandled
-      ahead.push(p);
+      ahead.push({ rows: p, bytes: batchBytes(batch) });
     }
   };
   refill(); // the first batches are read while the temporary files are made
@@ -378,7 +382,7 @@ export async function writeBundle(out: Writable, opts: BundleOptions): Promise<{
     let firstResource = true;
 
     for (let b = 0; ahead.length && !signal.aborted && !failure; b++) {
-      const [rows, entries] = await ahead.shift()!;
+      const [rows, entries] = await ahead.shift()!.rows;
       refill();
       const byId = new Map(rows.map((r) => [r.network_id, r]));
       const entryOf = new Map(entries.map((e) => [e.networkId, e]));
@@ -401,9 +405,18 @@ export async function writeBundle(out: Writable, opts: BundleOptions): Promise<{
           addNetwork(csv, path);
           fields = numberFieldsOfCsv(csv);
         } else {
-          // a large matrix is streamed row by row, never held whole
+          // a large matrix is streamed row by row, never held whole; a damaged one throws here (checks) or
+          // aborts the bundle from its stream (a column index found out of range while writing)
           const canon = JSON.parse(r.canonical ?? "null") as CanonicalNetworkJson;
-          add(Readable.from(matrixCsvChunks(canon, MATRIX_CSV_CORNER), { objectMode: false }), path);
+          const { pieces } = matrixCsvPieces(canon, MATRIX_CSV_CORNER);
+          add(
+            fromGenerator(
+              (async function* () {
+                yield* pieces;
+              })(),
+            ),
+            path,
+          );
           fields = numberFields((canon?.kind === "bipartite" ? canon.cols : canon?.rows) ?? []);
         }
         const licence = e.licence || "unknown";
@@ -434,7 +447,7 @@ export async function writeBundle(out: Writable, opts: BundleOptions): Promise<{
         await networksOut.write(networkLines.join("\n") + "\n");
       }
     }
-    await Promise.all(ahead.map((p) => p.catch(() => undefined)));
+    await Promise.all(ahead.map((a) => a.rows.catch(() => undefined)));
     await Promise.all([resources.close(), metricsOut.close(), networksOut.close()]);
     if (failure) throw failure;
     if (signal.aborted) return { aborted: true, bytes: archive.pointer() };

@@ -40,6 +40,16 @@ export class CatalogueStore {
     this.checkedAt = 0;
   }
 
+  /**
+   * All entries, after a check that starts now (a check already running may have read the database
+   * before a change this caller must see, so it is waited for and another one is made).
+   */
+  async current(): Promise<CatalogueEntry[]> {
+    if (this.loading) await this.loading.catch(() => undefined);
+    this.checkedAt = 0;
+    return this.entries();
+  }
+
   /** Empties the store (tests: after the database was reset). */
   reset(): void {
     this.byId.clear();

@@ -15,6 +15,7 @@ import { Readable } from "node:stream";
 import { pipeline } from "node:stream/promises";
 import { Router, type Request, type Response } from "express";
 import { ApiError } from "../../lib/api-error";
+import { logger } from "../../lib/logger";
 import { apiRateLimit } from "../../middlewares/api-rate-limit";
 import { config } from "../../config/env";
 import { listCatalogue } from "../catalogue/catalogue.routes";
@@ -33,24 +34,15 @@ function layoutOf(req: Request): "matrix" | "edgelist" {
 }
 
 async function sendCsv(req: Request, res: Response) {
-  const { ref, chunks } = await getNetworkCsv(req.params as unknown as NetworkRefParams, req.user, layoutOf(req));
-  // the first piece is made before anything is sent: a network that cannot be written is an error answer
-  const pieces = chunks[Symbol.iterator]();
-  const first = pieces.next();
+  // the network is checked and its size computed before anything is sent (a damaged one is an error answer)
+  const { ref, bytes, pieces } = await getNetworkCsv(req.params as unknown as NetworkRefParams, req.user, layoutOf(req));
   res.type("text/csv; charset=utf-8");
   res.set("Content-Disposition", `inline; filename="${ref.replace(/\//g, "_")}.csv"`);
-  await pipeline(
-    Readable.from(
-      (function* () {
-        if (!first.done) yield first.value;
-        for (let p = pieces.next(); !p.done; p = pieces.next()) yield p.value;
-      })(),
-      { objectMode: false },
-    ),
-    res,
-  ).catch((err: unknown) => {
-    // the client went away, or a later piece failed: the answer is cut short
-    if (!res.destroyed) res.destroy(err as Error);
+  res.set("Content-Length", String(bytes));
+  await pipeline(Readable.from(pieces, { objectMode: false }), res).catch((err: unknown) => {
+    // the client went away, or a damaged row was found while writing: the answer is cut short
+    if ((err as { code?: string }).code !== "ERR_STREAM_PREMATURE_CLOSE") logger.warn({ err, ref }, "network CSV cut short");
+    if (!res.destroyed) res.destroy();
   });
 }
 

@@ -5,7 +5,7 @@
  */
 import type { NetworkMetadata, NetworkMetricsSummary } from "../../../../shared/types/dataset";
 import { deserializeNetwork, networkToEdgeListCsv } from "../../../../shared/network";
-import { matrixCsvChunks } from "../../lib/matrix-csv";
+import { matrixCsvPieces } from "../../lib/matrix-csv";
 import { publicLocality } from "../../lib/public-locality";
 import { getCurrentMetrics } from "../../jobs/metrics-read";
 import { ApiError } from "../../lib/api-error";
@@ -105,9 +105,13 @@ export async function getNetworkJson(p: NetworkRefParams, user: AuthUser | undef
  * A network as CSV, in pieces: the edge list (as long as the links) at once, the matrix (rows × columns
  * cells, 800 MB for a 20,000-node network) row by row, the same bytes as the engine's networkToMatrixCsv.
  */
-export async function getNetworkCsv(p: NetworkRefParams, user: AuthUser | undefined, layout: "matrix" | "edgelist"): Promise<{ ref: string; chunks: Iterable<Buffer | string> }> {
+export async function getNetworkCsv(p: NetworkRefParams, user: AuthUser | undefined, layout: "matrix" | "edgelist"): Promise<{ ref: string; bytes: number; pieces: Iterable<Buffer> }> {
   const { network, ref } = await findNetwork(p, user, true);
-  return { ref, chunks: layout === "edgelist" ? [networkToEdgeListCsv(deserializeNetwork(network.canonical))] : matrixCsvChunks(network.canonical) };
+  if (layout === "edgelist") {
+    const csv = Buffer.from(networkToEdgeListCsv(deserializeNetwork(network.canonical)), "utf8");
+    return { ref, bytes: csv.length, pieces: [csv] };
+  }
+  return { ref, ...matrixCsvPieces(network.canonical) };
 }
 
 export async function getNetworkMetrics(p: NetworkRefParams, user: AuthUser | undefined): Promise<{ ref: string; metrics: NetworkMetricsSummary | null }> {
