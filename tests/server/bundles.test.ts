@@ -207,6 +207,21 @@ describe("bundle contents", () => {
     await sequelize().query(`DELETE FROM dataset_versions WHERE id = :v; DELETE FROM datasets WHERE id = :d`, { replacements: { v: draft.versionId, d: draft.datasetId } });
   });
 
+  it("a stored CSV follows its network's canonical form: changing the form (by any writer) clears it", async () => {
+    const id = a.networkIds[2];
+    const read = async () =>
+      (await sequelize().query<{ canonical: unknown; matrix_csv: string | null }>(`SELECT canonical, matrix_csv FROM networks WHERE id = :id`, { replacements: { id }, type: QueryTypes.SELECT }))[0];
+    const before = await read();
+    expect(before.matrix_csv).not.toBeNull();
+    await sequelize().query(`UPDATE networks SET canonical = canonical WHERE id = :id`, { replacements: { id } });
+    expect((await read()).matrix_csv).toBe(before.matrix_csv); // the same form: kept
+    await sequelize().query(`UPDATE networks SET canonical = jsonb_set(canonical, '{rows,0}', '"renamed"') WHERE id = :id`, { replacements: { id } });
+    expect((await read()).matrix_csv).toBeNull();
+    await sequelize().query(`UPDATE networks SET canonical = :c::jsonb WHERE id = :id`, { replacements: { id, c: JSON.stringify(before.canonical) } });
+    expect(await fillStoredMatrixCsvs()).toBe(1);
+    expect((await read()).matrix_csv).toBe(before.matrix_csv);
+  });
+
   it("compression: fast (default) stores every file, small deflates them; both hold the same files with correct CRC-32s", async () => {
     // check value of CRC-32 for "123456789": 0xCBF43926 (the standard check value of this CRC)
     expect(crc32Reference(Buffer.from("123456789"))).toBe(0xcbf43926);
@@ -335,6 +350,41 @@ describe("large networks", () => {
     const header = parseCsv(file.content.subarray(0, file.content.indexOf(10) + 1), { to_line: 1 })[0] as string[];
     expect(resource.schema.fields.map((f: { name: string }) => f.name)).toEqual(header);
     expect(header).toHaveLength(1001);
+  });
+
+  it("a damaged large network cuts its bundle and download short, and the server goes on: found by the checks, or while its rows are written", async () => {
+    const big = await publishDataset({ study: { title: "Damaged web" }, networks: [{ seed: 41, rows: 1001, cols: 1000, density: 0.002 }] });
+    const id = big.networkIds[0];
+    const ref = `${big.accession}/v1/1`;
+    const original = (await sequelize().query<{ c: string }>(`SELECT canonical::text AS c FROM networks WHERE id = :id`, { replacements: { id }, type: QueryTypes.SELECT }))[0].c;
+    /** The bundle's bytes, or null when the answer was cut short (a zip that does not open, or a broken connection). */
+    const bundleOf = async (): Promise<Map<string, ZipEntryInfo> | null> => {
+      try {
+        const res = await request(app).get("/api/v1/bundles").query({ refs: `${ref},${b.accession}/v1/1` }).buffer(true).parse(binaryParser);
+        return await zipEntries(res.body as Buffer);
+      } catch {
+        return null;
+      }
+    };
+    expect(await bundleOf()).not.toBeNull();
+    // while writing: the last link's column is out of range, which is seen only when its row is written
+    await sequelize().query(`UPDATE networks SET canonical = jsonb_set(canonical, '{idx,-1}', '5000') WHERE id = :id`, { replacements: { id } });
+    expect(await bundleOf()).toBeNull();
+    const download = await request(app).get(`/api/v1/networks/${ref}/data.csv`).then(
+      (r) => r.text.length,
+      () => -1,
+    );
+    expect(download).not.toBe(Buffer.byteLength(bundleMatrixCsv(JSON.parse(original))));
+    // by the checks: the row pointers do not start at 0
+    await sequelize().query(`UPDATE networks SET canonical = jsonb_set(:c::jsonb, '{ptr,0}', '7') WHERE id = :id`, { replacements: { id, c: original } });
+    expect(await bundleOf()).toBeNull();
+    const refused = await request(app).get(`/api/v1/networks/${ref}/data.csv`);
+    expect(refused.status).toBe(500);
+    expect(refused.body.code).toBeDefined();
+    // the server is still here
+    expect((await request(app).get("/api/v1/health")).status).toBe(200);
+    await sequelize().query(`UPDATE networks SET canonical = :c::jsonb WHERE id = :id`, { replacements: { id, c: original } });
+    expect(await bundleOf()).not.toBeNull();
   });
 
   it("the fill passes over a network whose stored form is damaged and writes the others", async () => {
