@@ -65,10 +65,11 @@ export async function resolveSelection(sel: Selection, opts: { enforceLimit?: bo
     const refsOrder = new Map(sel.refs.map((r, i) => [r, i]));
     const rows = await sequelize().query<{ ref: string; network_id: number; state: string | null }>(
       `SELECT x.ref, n.id AS network_id, v.state
-       FROM unnest(ARRAY[:refs]::text[]) AS x(ref)
+       FROM unnest(ARRAY[:refs]::text[]) WITH ORDINALITY AS x(ref, ord)
        LEFT JOIN datasets d ON d.accession = split_part(x.ref, '/', 1)
        LEFT JOIN dataset_versions v ON v.dataset_id = d.id AND v.number = CAST(substr(split_part(x.ref, '/', 2), 2) AS int)
-       LEFT JOIN networks n ON n.version_id = v.id AND n.position = CAST(split_part(x.ref, '/', 3) AS int)`,
+       LEFT JOIN networks n ON n.version_id = v.id AND n.position = CAST(split_part(x.ref, '/', 3) AS int)
+       ORDER BY x.ord`,
       { replacements: { refs: sel.refs }, type: QueryTypes.SELECT },
     );
     const errors: ErrorDetail[] = [];
