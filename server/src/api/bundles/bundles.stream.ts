@@ -510,6 +510,9 @@ export async function writeBundle(out: Writable, opts: BundleOptions): Promise<{
     await Promise.race([archive.finalize(), stopped]);
     if (failure) throw failure;
     return { aborted: signal.aborted, bytes: archive.pointer() };
+  } catch (err) {
+    archive.abort(); // nothing more is read or written for this bundle
+    throw err;
   } finally {
     signal.removeEventListener("abort", onAbort);
     await Promise.all([resources.close(), metricsOut.close(), networksOut.close()]).catch(() => undefined);
