@@ -130,12 +130,22 @@ export async function resolveSelection(sel: Selection, opts: { enforceLimit?: bo
 export function estimateBytes(nets: SelectedNetwork[]): number {
   let total = 24_000; // README, datapackage header, CSV headers
   for (const n of nets) {
-    const I = n.nRows ?? n.nNodes;
-    const J = n.nCols ?? n.nNodes;
-    total += (I + 1) * (J + 1) * 2 + (I + J) * 18 + (n.weighted ? n.nLinks * 4 : 0);
-    total += 200 + 600 + 40 * (J + 1) + 400; // metrics.csv line, networks.csv line, datapackage resource and schema, citation share
+    total += matrixCsvBytes(n);
+    total += 200 + 600 + 40 * ((n.nCols ?? n.nNodes) + 1) + 400; // metrics.csv line, networks.csv line, datapackage resource and schema, citation share
   }
   return total;
+}
+
+/** Matrix cells of a network: rows × columns, or nodes² for a one-mode network. */
+export function matrixCells(n: SelectedNetwork): number {
+  return (n.nRows ?? n.nNodes) * (n.nCols ?? n.nNodes);
+}
+
+/** Estimated size of a network's matrix CSV: cells of "0," plus labels, weights written longer. */
+export function matrixCsvBytes(n: SelectedNetwork): number {
+  const I = n.nRows ?? n.nNodes;
+  const J = n.nCols ?? n.nNodes;
+  return (I + 1) * (J + 1) * 2 + (I + J) * 18 + (n.weighted ? n.nLinks * 4 : 0);
 }
 
 export function fileNameOf(ref: string): string {

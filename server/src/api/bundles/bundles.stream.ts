@@ -22,7 +22,7 @@ import { sequelize } from "../../db/sequelize";
 import { getPipelineSettings, settingsHash } from "../../jobs/settings";
 import { loadCatalogueRows, type CatalogueEntry } from "../catalogue/catalogue.rows";
 import { catalogueStore } from "../catalogue/catalogue.store";
-import { fileNameOf, type SelectedNetwork } from "./bundles.selection";
+import { fileNameOf, matrixCells, matrixCsvBytes, type SelectedNetwork } from "./bundles.selection";
 import { bundleReadme } from "./bundles.readme";
 import { csvHeaderLabels, matrixCsvPieces, quote } from "../../lib/matrix-csv";
 import { bundleMatrixCsv, MATRIX_CSV_CORNER, MATRIX_CSV_FORMAT, MATRIX_CSV_MAX_CELLS } from "./bundles.stored-csv";
@@ -181,18 +181,12 @@ interface MatrixRow {
   canonical: string | null;
 }
 
-function cellsOf(n: SelectedNetwork): number {
-  return (n.nRows ?? n.nNodes) * (n.nCols ?? n.nNodes);
-}
-
 /**
- * About how many bytes a batch holds for a network, for sizing batches: its matrix CSV (cells of ",0"
- * plus labels), or for a matrix too large to be stored, which is streamed, its canonical JSON.
+ * About how many bytes a batch holds for a network, for sizing batches: its matrix CSV, or for a matrix too
+ * large to be stored, which is streamed, its canonical JSON.
  */
-function csvBytesOf(n: SelectedNetwork): number {
-  const I = n.nRows ?? n.nNodes;
-  const J = n.nCols ?? n.nNodes;
-  return cellsOf(n) <= MATRIX_CSV_MAX_CELLS ? I * (2 * J + 20) + 20 * J : 30 * (I + J) + 16 * n.nLinks;
+function heldBytesOf(n: SelectedNetwork): number {
+  return matrixCells(n) <= MATRIX_CSV_MAX_CELLS ? matrixCsvBytes(n) : 30 * ((n.nRows ?? n.nNodes) + (n.nCols ?? n.nNodes)) + 16 * n.nLinks;
 }
 
 /**
@@ -307,12 +301,12 @@ export async function writeBundle(out: Writable, opts: BundleOptions): Promise<{
 
   // Batches of at most BATCH networks and about BATCH_BYTES of CSV (so a few large networks do not fill
   // memory): [start, end) indices into `networks`.
-  const batches: Array<[number, number]> = [];
+  const batches: Array<{ from: number; to: number; bytes: number }> = [];
   for (let i = 0; i < networks.length; ) {
     const from = i;
     let bytes = 0;
-    while (i < networks.length && i - from < BATCH && (i === from || bytes + csvBytesOf(networks[i]) <= BATCH_BYTES)) bytes += csvBytesOf(networks[i++]);
-    batches.push([from, i]);
+    while (i < networks.length && i - from < BATCH && (i === from || bytes + heldBytesOf(networks[i]) <= BATCH_BYTES)) bytes += heldBytesOf(networks[i++]);
+    batches.push({ from, to: i, bytes });
   }
   // Metadata and metrics come from the catalogue in memory, brought up to date first (so metrics.csv
   // holds the runs finished before the bundle started); networks of older published versions, which the
@@ -320,7 +314,7 @@ export async function writeBundle(out: Writable, opts: BundleOptions): Promise<{
   // checked in the database, with its matrix.
   const catalogueReady = catalogueStore.current();
   catalogueReady.catch(() => undefined); // awaited with the first batch
-  const fetchBatch = ([from, to]: [number, number]) => {
+  const fetchBatch = ({ from, to }: { from: number; to: number }) => {
     const batchIds = networks.slice(from, to).map((n) => n.networkId);
     return Promise.all([
       // the stored CSV when there is one of the current format, else the canonical form to write it from
@@ -347,15 +341,16 @@ export async function writeBundle(out: Writable, opts: BundleOptions): Promise<{
   };
   // up to PREFETCH batches and about PREFETCH_BYTES are read ahead (at least the next batch), so the
   // database works while this process writes
-  const batchBytes = ([from, to]: [number, number]) => networks.slice(from, to).reduce((sum, n) => sum + csvBytesOf(n), 0);
   const ahead: Array<{ rows: ReturnType<typeof fetchBatch>; bytes: number }> = [];
+  let aheadBytes = 0;
   let fetched = 0;
   const refill = () => {
-    while (fetched < batches.length && (ahead.length === 0 || (ahead.length < PREFETCH && ahead.reduce((sum, a) => sum + a.bytes, 0) + batchBytes(batches[fetched]) <= PREFETCH_BYTES))) {
+    while (fetched < batches.length && (ahead.length === 0 || (ahead.length < PREFETCH && aheadBytes + batches[fetched].bytes <= PREFETCH_BYTES))) {
       const batch = batches[fetched++];
       const p = fetchBatch(batch);
       p.catch(() => undefined); // awaited below; a failure while another batch is awaited is not unhandled
-      ahead.push({ rows: p, bytes: batchBytes(batch) });
+      ahead.push({ rows: p, bytes: batch.bytes });
+      aheadBytes += batch.bytes;
     }
   };
   refill(); // the first batches are read while the temporary files are made
@@ -382,11 +377,13 @@ export async function writeBundle(out: Writable, opts: BundleOptions): Promise<{
     let firstResource = true;
 
     for (let b = 0; ahead.length && !signal.aborted && !failure; b++) {
-      const [rows, entries] = await ahead.shift()!.rows;
+      const next = ahead.shift()!;
+      aheadBytes -= next.bytes;
+      const [rows, entries] = await next.rows;
       refill();
       const byId = new Map(rows.map((r) => [r.network_id, r]));
       const entryOf = new Map(entries.map((e) => [e.networkId, e]));
-      const [from, to] = batches[b];
+      const { from, to } = batches[b];
       await waitFor(appended - (to - from));
       await waitForClient();
       if (signal.aborted || failure) break;
@@ -400,7 +397,7 @@ export async function writeBundle(out: Writable, opts: BundleOptions): Promise<{
         byId.delete(net.networkId);
         const path = fileNameOf(net.ref);
         let fields: string;
-        if (r.csv !== null || cellsOf(net) <= MATRIX_CSV_MAX_CELLS) {
+        if (r.csv !== null || matrixCells(net) <= MATRIX_CSV_MAX_CELLS) {
           const csv = r.csv !== null ? Buffer.from(r.csv, "utf8") : bundleMatrixCsv(r.canonical);
           addNetwork(csv, path);
           fields = numberFieldsOfCsv(csv);
