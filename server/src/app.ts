@@ -63,7 +63,13 @@ export function createApp(): Express {
   );
   app.use(pinoHttp({ logger, autoLogging: { ignore: (req) => req.url === "/api/v1/health" } }));
 
-  sessionPool ??= new pg.Pool({ connectionString: cfg.databaseUrl, max: 5 });
+  if (!sessionPool) {
+    sessionPool = new pg.Pool({ connectionString: cfg.databaseUrl, max: 5 });
+    // An idle client whose connection drops (database restart, failover, a terminated backend, an idle
+    // timeout) emits 'error' on the pool; without a listener Node treats it as fatal and the whole server
+    // stops. The pool discards that client and opens a new one for the next request.
+    sessionPool.on("error", (err) => logger.warn({ err: { message: err.message, code: (err as { code?: string }).code } }, "session store: a database connection was lost; it will be replaced"));
+  }
   const PgStore = connectPgSimple(session);
   const sessionMw = session({
     store: new PgStore({ pool: sessionPool, tableName: "session", createTableIfMissing: false, pruneSessionInterval: 15 * 60 }),
