@@ -7,7 +7,7 @@
  * deriveSeed(seed, NULL_STREAM, r, OPTIMIZER_STREAM)). A replicate depends only on (network, settings,
  * seed, r), so replicates can be spread over worker threads in any order or chunking and give exactly the
  * numbers of a single-threaded run. Optimizing nulls with less effort than the observed network would
- * bias z upwards (../shared/science.md).
+ * bias z upwards (docs/science.md).
  *
  * Summary of N null values Q_1..Q_N against the observed Q:
  *   mean, sd (sample, n − 1), z = (Q − mean)/sd, ΔQ = Q − mean, Q_rel = (Q − mean)/mean

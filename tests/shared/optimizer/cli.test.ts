@@ -46,7 +46,7 @@ describe("npm run analyze", () => {
   });
 
   it("reads the Davis matrix as bipartite and reaches Q_B = 0.3455; no null block with --nulls 0", () => {
-    // Davis, Gardner & Gardner 1941: 18 × 14, 89 links; maximum Barber Q_B 2737/7921 (../shared/science.md).
+    // Davis, Gardner & Gardner 1941: 18 × 14, 89 links; maximum Barber Q_B 2737/7921 (scripts/derive-reference-optima.ts).
     const r = analyze([join(FIXTURES, "davis-southern-women.csv"), "--json", "--nulls", "0"]);
     expect(r.code).toBe(0);
     const out = JSON.parse(r.stdout);

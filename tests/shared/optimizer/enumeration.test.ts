@@ -2,7 +2,7 @@
  * Exact optimum by enumeration: for random networks of up to 10 nodes, every set partition (restricted
  * growth strings; Bell(10) = 115,975 of them) is scored with modularity() of quality.ts, an independent
  * implementation of the objective, and the optimizer with default settings must reach the maximum.
- * (Method: exhaustive search, as suggested in ../shared/science.md for networks up to about 10 nodes.)
+ * (Method: exhaustive search, as docs/science.md describes for networks up to about 10 nodes.)
  */
 import { describe, expect, it } from "vitest";
 import { modularity, type Objective } from "../../../shared/network/modularity/quality";

@@ -101,8 +101,8 @@ describe("optimizeModularity on reference networks", () => {
   });
 
   it("reaches the Davis Southern Women maximum Barber Q_B = 2737/7921 ≈ 0.345537 with 4 modules", () => {
-    // Source: ../shared/science.md check table, exact integer program (Brandes et al. 2008 formulation)
-    // on Davis, Gardner & Gardner (1941) 18 women × 14 events.
+    // Source: exact integer program (Brandes et al. 2008 formulation) solved by scripts/derive-reference-optima.ts
+    // (re-derived in tests/scripts/reference-optima.test.ts) on Davis, Gardner & Gardner (1941) 18 women × 14 events.
     const net = davis();
     const res = optimizeModularity(net);
     expect(res.objective).toBe("barber");
@@ -112,13 +112,13 @@ describe("optimizeModularity on reference networks", () => {
   });
 
   it("reaches the one-mode Newman Q maximum 0.336006 of the Davis graph", () => {
-    // Source: ../shared/science.md check table (exact integer program), Davis graph treated as one-mode.
+    // Source: exact integer program, scripts/derive-reference-optima.ts: 5323/15842 with 3 modules (Davis graph as one-mode).
     const res = optimizeModularity(davis(), { objective: "newman" });
     expect(Math.abs(res.Q! - 0.336006)).toBeLessThan(1e-4);
   });
 
   it("splits two triangles joined by one link into the triangles, Q = 5/14", () => {
-    // Source: hand computation from the definition (../shared/science.md check table).
+    // Source: hand computation from the definition (docs/science.md check table).
     const net = oneMode(6, [[0, 1], [1, 2], [0, 2], [3, 4], [4, 5], [3, 5], [2, 3]]);
     const res = optimizeModularity(net);
     expect(res.Q!).toBeCloseTo(5 / 14, 12);
@@ -126,7 +126,7 @@ describe("optimizeModularity on reference networks", () => {
   });
 
   it("splits two directed 3-cycles joined by an arc, Q_d = 18/49", () => {
-    // Source: hand computation in the Leicht & Newman 2008 form (../shared/science.md check table).
+    // Source: hand computation in the Leicht & Newman 2008 form (docs/science.md check table).
     const net = oneMode(6, [[0, 1], [1, 2], [2, 0], [3, 4], [4, 5], [5, 3], [2, 3]], true);
     const res = optimizeModularity(net);
     expect(res.objective).toBe("newman-directed");
@@ -135,7 +135,7 @@ describe("optimizeModularity on reference networks", () => {
   });
 
   it("finds Q_B = 1 − 1/c for c identical disconnected complete bipartite blocks", () => {
-    // Source: follows from Barber's definition (../shared/science.md check table).
+    // Source: follows from Barber's definition (docs/science.md check table).
     for (const c of [2, 3, 5]) {
       const m = Array.from({ length: 2 * c }, (_, i) =>
         Array.from({ length: 3 * c }, (_, j) => (Math.floor(i / 2) === Math.floor(j / 3) ? 1 : 0)),
@@ -147,7 +147,7 @@ describe("optimizeModularity on reference networks", () => {
   });
 
   it("uses weights: [[3,1],[1,3]] gives Q_B = 0.25 with modules {r1,c1},{r2,c2}", () => {
-    // Source: hand computation (../shared/science.md check table): (6/8) − 2·(4·4)/64 = 0.25.
+    // Source: hand computation (docs/science.md check table): (6/8) − 2·(4·4)/64 = 0.25.
     const res = optimizeModularity(bipartite([[3, 1], [1, 3]]));
     expect(res.Q!).toBeCloseTo(0.25, 12);
     expect(Array.from(res.partition)).toEqual([0, 1, 0, 1]);

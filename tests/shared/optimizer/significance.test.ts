@@ -7,7 +7,7 @@ import { bipartite, createRng, davis, karate, randomMatrix } from "./helpers";
 
 describe("summarizeNulls", () => {
   it("computes mean, sd (n−1), z, Q_rel, ΔQ and p on a hand-made sample", () => {
-    // Hand computation from the formulas of ../shared/science.md ("Significance"):
+    // Hand computation from the formulas of docs/science.md ("Significance"):
     // nulls 0.3, 0.4, 0.5, 0.2, 0.35: mean 0.35; squared deviations sum 0.05, sd = √(0.05/4) = 0.1118034;
     // z = 0.15/0.1118034 = 1.3416408; Q_rel = 0.15/0.35 = 0.4285714; p = (1 + 1)/(5 + 1) = 1/3
     // (the null value 0.5 equals Q and counts as ≥ Q).
