@@ -129,20 +129,28 @@ describe("network view", () => {
     await page.goto(`${stack.url}/datasets/TB-000001/v/2/networks/1`);
     await page.getByRole("heading", { level: 1, name: "Upper meadow" }).waitFor();
     await page.locator('canvas[data-rendered="true"]').waitFor();
-    // the canvas really holds ink: some pixels are moss-coloured (links inside modules)
+    // the canvas really holds ink: links inside the first module in its hue (#0072B2), links between modules grey (#a8a29e)
     const inked = await page.evaluate(() => {
       const c = document.querySelector("canvas") as HTMLCanvasElement;
       const d = c.getContext("2d")!.getImageData(0, 0, c.width, c.height).data;
-      let moss = 0;
-      for (let k = 0; k < d.length; k += 4) if (d[k] === 31 && d[k + 1] === 77 && d[k + 2] === 58) moss++;
-      return moss;
+      let first = 0;
+      let grey = 0;
+      for (let k = 0; k < d.length; k += 4) {
+        if (d[k] === 0 && d[k + 1] === 114 && d[k + 2] === 178) first++;
+        if (d[k] === 168 && d[k + 1] === 162 && d[k + 2] === 158) grey++;
+      }
+      return { first, grey };
     });
-    expect(inked).toBeGreaterThan(100);
+    expect(inked.first).toBeGreaterThan(100);
+    expect(inked.grey).toBeGreaterThan(10);
+    // a legend names every module, and the share of links inside modules is stated
+    expect(await page.getByTestId("module-legend-item").count()).toBeGreaterThan(1);
+    expect(await page.getByTestId("inside-share").textContent()).toMatch(/^\d+\.\d % of links lie inside modules/);
     // by keyboard: focus the matrix and move along the first row
     await page.getByTestId("matrix-canvas").focus();
     await page.keyboard.press("ArrowRight");
     await page.keyboard.press("ArrowRight");
-    await page.getByText(/^Evelyn Jefferson \(module \d+\) × E\d+ \(module \d+\): [01]$/).waitFor();
+    await page.getByText(/^Evelyn Jefferson \(module \d+\) × E\d+ \(module \d+\): (0|1, (inside its module|between modules))$/).waitFor();
     await page.getByRole("img", { name: /Histogram of 30 null modularity values/ }).waitFor();
     await page.getByRole("img", { name: /Roles plot of \d+ nodes/ }).waitFor();
     await page.getByText("Barber's bipartite modularity Q_B").waitFor();

@@ -1,4 +1,5 @@
 import type { NetworkView } from "../../../../../shared/types/network-view";
+import { moduleBand, moduleColour } from "../../../../../shared/plots/palette";
 
 export function ModuleTable({ view }: { view: NetworkView }) {
   if (!view.modules.length) return null;
@@ -24,7 +25,15 @@ export function ModuleTable({ view }: { view: NetworkView }) {
           <tbody>
             {view.modules.map((m) => (
               <tr key={m.module} className="odd:bg-stone-50">
-                <td className="px-2 py-1">{m.module + 1}</td>
+                <td className="px-2 py-1">
+                  <span className="inline-flex items-center gap-1.5">
+                    <svg width="18" height="14" aria-hidden="true">
+                      <rect width="18" height="14" fill={moduleBand(m.module)} />
+                      <rect x="5" y="3" width="8" height="8" fill={moduleColour(m.module)} />
+                    </svg>
+                    {m.module + 1}
+                  </span>
+                </td>
                 <td className="px-2 py-1 text-right tabular-nums">{m.rows}</td>
                 {bip && <td className="px-2 py-1 text-right tabular-nums">{m.cols}</td>}
                 <td className="px-2 py-1 text-right tabular-nums">{m.linksInside}</td>

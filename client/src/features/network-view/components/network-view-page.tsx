@@ -4,7 +4,7 @@ import { startTransition, useEffect, useState } from "react";
 import { paths } from "../../../config/paths";
 import { ApiClientError } from "../../../lib/api-client";
 import { useNetworkView } from "../api/get-network-view";
-import { MatrixCanvas } from "./matrix-canvas";
+import { ModuleMatrix } from "../../../components/network/module-matrix";
 import { MetricsPanel } from "./metrics-panel";
 import { ModuleTable } from "./module-table";
 import { NullHistogram } from "./null-histogram";
@@ -119,7 +119,7 @@ export function NetworkViewPage() {
       </section>
 
       <MetricsPanel view={view} />
-      <MatrixCanvas view={view} />
+      <ModuleMatrix view={view} />
       {plots ? (
         <>
           <div className="grid gap-6 xl:grid-cols-2">

@@ -1,12 +1,19 @@
 /**
  * The matrix image of a network ordered by module: rows and columns sorted by module, then by decreasing
- * degree, so that modules appear as blocks on the diagonal. Pure functions (they run in a Web Worker).
+ * degree, so that modules appear as blocks on the diagonal. Pure functions: they run in the browser's Web
+ * Worker (the network view) and on the server (preview images).
+ *
+ * Look: each module's block (its rows × its columns) is shaded with the pale band colour of its module,
+ * a link inside a module is drawn in the module's hue, and a link between modules in one neutral grey
+ * (shared/plots/palette.ts). Without a partition every link is drawn in dark grey on white.
  *
  * Two drawing modes: when every cell gets at least one pixel each way, cells are drawn as square blocks of
  * `cell` pixels; otherwise the image is at most maxW × maxH pixels and each pixel aggregates the cells that
  * fall in it (its shade grows with the share of filled cells), so a 3000 × 5000 network becomes ~1 pixel
  * per 5 × 5 cells instead of 15 million rectangles.
  */
+import { BAND_TINT, BETWEEN_MODULES, hexToRgb, moduleRgb, NO_PARTITION, tint, type Rgb } from "./palette";
+
 export interface MatrixInput {
   nRows: number;
   nCols: number;
@@ -27,6 +34,8 @@ export interface ModuleBlock {
   rowEnd: number;
   colStart: number;
   colEnd: number;
+  /** Non-zero cells inside the block (an undirected one-mode link is stored, and counted, twice). */
+  linksInside: number;
 }
 
 export interface MatrixImage {
@@ -66,12 +75,12 @@ export function moduleBlocks(rowOrder: Int32Array, colOrder: Int32Array, rowModu
   return keys.map((module) => {
     const r = rr.get(module) ?? [0, 0];
     const c = cr.get(module) ?? [0, 0];
-    return { module, rowStart: r[0], rowEnd: r[1], colStart: c[0], colEnd: c[1] };
+    return { module, rowStart: r[0], rowEnd: r[1], colStart: c[0], colEnd: c[1], linksInside: 0 };
   });
 }
 
-const INSIDE = [31, 77, 58]; // moss-700
-const OUTSIDE = [120, 113, 108]; // stone-500
+const BETWEEN = hexToRgb(BETWEEN_MODULES);
+const PLAIN = hexToRgb(NO_PARTITION);
 
 export function buildMatrixImage(input: MatrixInput): MatrixImage {
   const { nRows, nCols, ptr, idx, rowModules, colModules, maxW, maxH } = input;
@@ -95,57 +104,88 @@ export function buildMatrixImage(input: MatrixInput): MatrixImage {
   const height = cell ? nRows * cell : Math.min(maxH, nRows);
   const pixels = new Uint8ClampedArray(width * height * 4).fill(255);
   let insideLinks = 0;
+  const partitioned = !!(rowModules && colModules);
+  const blocks = rowModules && colModules ? moduleBlocks(rowOrder, colOrder, rowModules, colModules) : [];
+  const hue = new Map<number, Rgb>();
+  const hueOf = (m: number) => {
+    let c = hue.get(m);
+    if (!c) hue.set(m, (c = moduleRgb(m)));
+    return c;
+  };
+  const put = (o: number, c: Rgb) => {
+    pixels[o] = c[0];
+    pixels[o + 1] = c[1];
+    pixels[o + 2] = c[2];
+  };
+  // module bands: each block (the module's rows × its columns) in the pale tint of its hue
+  const sx = width / Math.max(nCols, 1);
+  const sy = height / Math.max(nRows, 1);
+  for (const b of blocks) {
+    if (b.rowEnd <= b.rowStart || b.colEnd <= b.colStart) continue;
+    const band = tint(hueOf(b.module), BAND_TINT);
+    const x0 = Math.floor(b.colStart * sx);
+    const x1 = Math.min(width, Math.ceil(b.colEnd * sx));
+    const y0 = Math.floor(b.rowStart * sy);
+    const y1 = Math.min(height, Math.ceil(b.rowEnd * sy));
+    for (let y = y0; y < y1; y++) for (let x = x0, o = (y * width + x0) * 4; x < x1; x++, o += 4) put(o, band);
+  }
 
   if (cell) {
     for (let i = 0; i < nRows; i++) {
       const y0 = rowPos[i] * cell;
       for (let p = ptr[i]; p < ptr[i + 1]; p++) {
         const j = idx[p];
-        const inside = !rowModules || !colModules || rowModules[i] === colModules[j];
-        if (inside && rowModules) insideLinks++;
-        const c = inside ? INSIDE : OUTSIDE;
+        const inside = partitioned && rowModules![i] === colModules![j];
+        if (inside) insideLinks++;
+        const c = !partitioned ? PLAIN : inside ? hueOf(rowModules![i]) : BETWEEN;
         const x0 = colPos[j] * cell;
         // leave a 1-pixel gap between cells when they are big enough to show it
         const s = cell >= 4 ? cell - 1 : cell;
         for (let y = y0; y < y0 + s; y++) {
           let o = (y * width + x0) * 4;
-          for (let x = 0; x < s; x++, o += 4) {
-            pixels[o] = c[0];
-            pixels[o + 1] = c[1];
-            pixels[o + 2] = c[2];
-          }
+          for (let x = 0; x < s; x++, o += 4) put(o, c);
         }
       }
     }
   } else {
     const inside = new Float32Array(width * height);
     const outside = new Float32Array(width * height);
-    const sx = width / nCols;
-    const sy = height / nRows;
+    /** module + 1 of the inside links in a pixel (rows are sorted by module, so a pixel rarely mixes two) */
+    const pixelModule = new Int32Array(width * height);
     for (let i = 0; i < nRows; i++) {
       const y = Math.min(height - 1, Math.floor(rowPos[i] * sy));
       for (let p = ptr[i]; p < ptr[i + 1]; p++) {
         const j = idx[p];
         const x = Math.min(width - 1, Math.floor(colPos[j] * sx));
-        if (!rowModules || !colModules || rowModules[i] === colModules[j]) {
-          inside[y * width + x]++;
-          if (rowModules) insideLinks++;
-        } else outside[y * width + x]++;
+        const k = y * width + x;
+        if (!partitioned || rowModules![i] === colModules![j]) {
+          inside[k]++;
+          if (partitioned) {
+            insideLinks++;
+            pixelModule[k] = rowModules![i] + 1;
+          }
+        } else outside[k]++;
       }
     }
     const cellsPerPixel = (nCols / width) * (nRows / height);
     for (let k = 0; k < width * height; k++) {
       const n = inside[k] + outside[k];
       if (!n) continue;
-      // a lone link stays visible (35 % ink); a full pixel is full colour
+      // a lone link stays visible (35 % ink); a full pixel is full colour, over the band or white beneath
       const t = 0.35 + 0.65 * Math.min(1, Math.sqrt(n / cellsPerPixel));
-      const c = inside[k] >= outside[k] ? INSIDE : OUTSIDE;
+      const c = !partitioned ? PLAIN : inside[k] >= outside[k] ? hueOf(pixelModule[k] - 1) : BETWEEN;
       const o = k * 4;
-      pixels[o] = 255 - t * (255 - c[0]);
-      pixels[o + 1] = 255 - t * (255 - c[1]);
-      pixels[o + 2] = 255 - t * (255 - c[2]);
+      pixels[o] = pixels[o] - t * (pixels[o] - c[0]);
+      pixels[o + 1] = pixels[o + 1] - t * (pixels[o + 1] - c[1]);
+      pixels[o + 2] = pixels[o + 2] - t * (pixels[o + 2] - c[2]);
     }
   }
-  const blocks = rowModules && colModules ? moduleBlocks(rowOrder, colOrder, rowModules, colModules) : [];
+  if (partitioned) {
+    const blockOf = new Map(blocks.map((b) => [b.module, b]));
+    for (let i = 0; i < nRows; i++) {
+      const b = blockOf.get(rowModules![i]);
+      for (let p = ptr[i]; p < ptr[i + 1]; p++) if (b && colModules![idx[p]] === b.module) b.linksInside++;
+    }
+  }
   return { width, height, cell, pixels, rowOrder, colOrder, blocks, insideLinks };
 }
