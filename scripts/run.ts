@@ -2,11 +2,18 @@
  * The product process started by `npm start` (after scripts/start.sh has prepared the database and built
  * the client): migrates, seeds the demo scenario once, starts the local mail catcher and the web server
  * (which also runs a metrics worker), prints the URL and the demo sign-ins. SIGINT/SIGTERM stop it cleanly.
+ *
+ * Exit status: 0 after a clean stop; 1 when the database could not be reached (scripts/start.sh starts
+ * the server again); 78 for a start-up failure that a restart cannot cure (a bad setting, a port in use, a
+ * failed migration), so start.sh stops instead of trying again and again.
  */
 import { join } from "node:path";
 import { config, resetConfig } from "../server/src/config/env";
 import { resetMailer } from "../server/src/emails/mailer";
 import { migrateUp } from "../server/src/db/migrator";
+import { waitForDatabase } from "../server/src/db/sequelize";
+import { isDatabaseUnavailable } from "../server/src/lib/db-errors";
+import { installProcessGuards } from "../server/src/lib/process-guards";
 import { initModels } from "../server/src/models";
 import { DEMO_ACCOUNTS, seedDemoAccounts } from "../server/src/db/seeders/demo-accounts";
 import { MailCatcher, setCurrentMailCatcher } from "../server/src/lib/mail-catcher";
@@ -14,30 +21,34 @@ import { shutdownServerResources, startServer } from "../server/src/index";
 import { ROOT_DIR } from "../server/src/app";
 import { startupTasks, shutdownTasks } from "../server/src/startup";
 
-const cfg = config();
 const say = (msg: string) => console.log(`\x1b[1;32m[tanglebank]\x1b[0m ${msg}`);
+const EXIT_CANNOT_RESTART = 78;
 
-const applied = await migrateUp(cfg.databaseUrl);
-say(applied.length ? `Applied migrations: ${applied.join(", ")}` : "Database schema is up to date.");
-initModels();
-const created = await seedDemoAccounts();
-if (created) say(`Created ${created} demo accounts.`);
+async function main(): Promise<() => Promise<void>> {
+  const cfg = config();
+  installProcessGuards("server");
+  await waitForDatabase(cfg.databaseUrl, { log: say });
+  const applied = await migrateUp(cfg.databaseUrl);
+  say(applied.length ? `Applied migrations: ${applied.join(", ")}` : "Database schema is up to date.");
+  initModels();
+  const created = await seedDemoAccounts();
+  if (created) say(`Created ${created} demo accounts.`);
 
-const catcher = new MailCatcher(join(ROOT_DIR, ".data", "outbox.jsonl"));
-const mailPort = await catcher.listen(cfg.mailCatcherPort);
-setCurrentMailCatcher(catcher);
-say(`Local mail catcher (SMTP) on 127.0.0.1:${mailPort}`);
-if (!process.env.SMTP_PORT && mailPort !== cfg.smtp.port) {
-  // TB_MAIL_PORT=0 picks a free port: point the app's mail at the port the catcher actually got.
-  process.env.SMTP_PORT = String(mailPort);
-  resetConfig();
-  resetMailer();
-}
+  const catcher = new MailCatcher(join(ROOT_DIR, ".data", "outbox.jsonl"));
+  const mailPort = await catcher.listen(cfg.mailCatcherPort);
+  setCurrentMailCatcher(catcher);
+  say(`Local mail catcher (SMTP) on 127.0.0.1:${mailPort}`);
+  if (!process.env.SMTP_PORT && mailPort !== cfg.smtp.port) {
+    // TB_MAIL_PORT=0 picks a free port: point the app's mail at the port the catcher actually got.
+    process.env.SMTP_PORT = String(mailPort);
+    resetConfig();
+    resetMailer();
+  }
 
-const { url, close } = await startServer();
-for (const task of startupTasks) await task({ log: say });
+  const { url, close } = await startServer();
+  for (const task of startupTasks) await task({ log: say });
 
-console.log(`
+  console.log(`
   Tanglebank is running at ${url}
 
   Demo sign-ins (password for all: ${DEMO_ACCOUNTS[0].password})
@@ -46,17 +57,30 @@ ${DEMO_ACCOUNTS.map((a) => `    ${a.role.padEnd(10)} ${a.email.padEnd(32)} ${a.d
   Mail sent by the app is caught locally: sign in as the admin and open Outbox.
   Press Ctrl-C to stop.
 `);
+  return async () => {
+    for (const task of shutdownTasks) await task().catch(() => undefined);
+    await close();
+    await catcher.close();
+    await shutdownServerResources();
+  };
+}
 
 let stopping = false;
+let shutdown: (() => Promise<void>) | undefined;
 async function stop(signal: string) {
   if (stopping) return;
   stopping = true;
   say(`${signal}: stopping…`);
-  for (const task of shutdownTasks) await task().catch(() => undefined);
-  await close();
-  await catcher.close();
-  await shutdownServerResources();
+  await shutdown?.();
   process.exit(0);
 }
 process.on("SIGINT", () => void stop("SIGINT"));
 process.on("SIGTERM", () => void stop("SIGTERM"));
+
+try {
+  shutdown = await main();
+} catch (err) {
+  const unreachable = isDatabaseUnavailable(err);
+  console.error(`\x1b[1;31m[tanglebank]\x1b[0m The server could not start: ${err instanceof Error ? err.message : String(err)}`);
+  process.exit(unreachable ? 1 : EXIT_CANNOT_RESTART);
+}

@@ -64,7 +64,8 @@ export function createApp(): Express {
   app.use(pinoHttp({ logger, autoLogging: { ignore: (req) => req.url === "/api/v1/health" } }));
 
   if (!sessionPool) {
-    sessionPool = new pg.Pool({ connectionString: cfg.databaseUrl, max: 5 });
+    // connectionTimeoutMillis: during an outage a request gets its 503 in seconds instead of hanging.
+    sessionPool = new pg.Pool({ connectionString: cfg.databaseUrl, max: 5, connectionTimeoutMillis: 5_000, application_name: "tanglebank-sessions" });
     // An idle client whose connection drops (database restart, failover, a terminated backend, an idle
     // timeout) emits 'error' on the pool; without a listener Node treats it as fatal and the whole server
     // stops. The pool discards that client and opens a new one for the next request.
@@ -72,7 +73,14 @@ export function createApp(): Express {
   }
   const PgStore = connectPgSimple(session);
   const sessionMw = session({
-    store: new PgStore({ pool: sessionPool, tableName: "session", createTableIfMissing: false, pruneSessionInterval: 15 * 60 }),
+    store: new PgStore({
+      pool: sessionPool,
+      tableName: "session",
+      createTableIfMissing: false,
+      pruneSessionInterval: 15 * 60,
+      // The hourly prune fails while the database is away: a warning, not console noise; the next one runs as usual.
+      errorLog: (...args: unknown[]) => logger.warn({ err: args.find((a) => a instanceof Error)?.message }, String(args[0])),
+    }),
     name: "tb.sid",
     secret: cfg.sessionSecret,
     resave: false,

@@ -5,11 +5,14 @@
  */
 import { config } from "./config/env";
 import { migrateUp } from "./db/migrator";
-import { closeSequelize } from "./db/sequelize";
+import { closeSequelize, waitForDatabase } from "./db/sequelize";
+import { installProcessGuards } from "./lib/process-guards";
 import { startMetricsWorker, stopMetricsWorker } from "./jobs/metrics-worker";
 import { poolThreads } from "./jobs/pool";
 import { initModels } from "./models";
 
+installProcessGuards("metrics worker");
+await waitForDatabase(config().databaseUrl, { log: (m) => console.log(m) });
 await migrateUp(config().databaseUrl);
 initModels();
 await startMetricsWorker();

@@ -11,6 +11,8 @@ import { shutdownServerResources } from "../../server/src/index";
 import { resetConfig } from "../../server/src/config/env";
 import { errorHandler } from "../../server/src/middlewares/error-handler";
 import { sequelize } from "../../server/src/db/sequelize";
+import { ConnectionRefusedError, DatabaseError, UniqueConstraintError } from "sequelize";
+import { isDatabaseUnavailable } from "../../server/src/lib/db-errors";
 
 const app = createApp();
 afterAll(shutdownServerResources);
@@ -72,5 +74,36 @@ describe("error pipeline", () => {
       else process.env.SESSION_SECRET = prevSecret;
       resetConfig();
     }
+  });
+
+  it("the database unreachable, however the error is wrapped, is a 503 with a plain message on API routes and pages", async () => {
+    const refused = Object.assign(new Error("connect ECONNREFUSED 127.0.0.1:54329"), { code: "ECONNREFUSED" });
+    const shutdown = Object.assign(new Error("terminating connection due to administrator command"), { code: "57P01" });
+    const cases: unknown[] = [
+      new ConnectionRefusedError(refused),
+      new DatabaseError(Object.assign(shutdown, { sql: "SELECT 1" })),
+      new DatabaseError(Object.assign(new Error("Connection terminated unexpectedly"), { sql: "SELECT 1" })),
+      shutdown, // from the session store's pool
+      Object.assign(new Error("the database system is starting up"), { code: "57P03" }),
+    ];
+    for (const err of cases) {
+      expect(isDatabaseUnavailable(err)).toBe(true);
+      const mini = express();
+      mini.get(["/api/v1/x", "/page"], () => {
+        throw err;
+      });
+      mini.use(errorHandler);
+      const api = await request(mini).get("/api/v1/x");
+      expect(api.status).toBe(503);
+      expect(api.headers["retry-after"]).toBe("10");
+      expect(api.body.code).toBe("database_unavailable");
+      expect(api.text).not.toMatch(/ECONNREFUSED|127\.0\.0\.1|administrator|terminated|starting up/);
+      const page = await request(mini).get("/page");
+      expect(page.status).toBe(503);
+      expect(page.headers["content-type"]).toMatch(/html/);
+    }
+    // ordinary database errors are not outages
+    expect(isDatabaseUnavailable(new UniqueConstraintError({}))).toBe(false);
+    expect(isDatabaseUnavailable(new DatabaseError(Object.assign(new Error('invalid input syntax for type integer: "x"'), { code: "22P02", sql: "" })))).toBe(false);
   });
 });

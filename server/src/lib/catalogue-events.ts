@@ -28,6 +28,7 @@ export async function notifyCatalogueChanged(datasetId: number, transaction?: Tr
 let client: pg.Client | null = null;
 let stopping = false;
 let retry: NodeJS.Timeout | null = null;
+let failures = 0;
 
 /** Applies one notification payload to this process's catalogue and search index. */
 export async function handleCatalogueNotification(payload: string | undefined): Promise<void> {
@@ -44,21 +45,33 @@ export async function handleCatalogueNotification(payload: string | undefined): 
   await catalogueStore.refreshDataset(datasetId);
 }
 
-/** Starts listening (idempotent); reconnects after a lost connection. */
+/**
+ * Starts listening (idempotent). A lost connection (an error, or the server closing it on a restart) is
+ * replaced: reconnection is tried every 2 s, then less often (up to every 30 s) while the database stays
+ * away. Whatever was published meanwhile is caught by the store's lazy check once it answers again.
+ */
 export async function startCatalogueListener(): Promise<void> {
   stopping = false;
   if (client) return;
-  const c = new pg.Client({ connectionString: config().databaseUrl });
+  const c = new pg.Client({ connectionString: config().databaseUrl, connectionTimeoutMillis: 5_000, keepAlive: true, application_name: "tanglebank-catalogue-listener" });
   client = c;
+  let lost = false;
   const reconnect = () => {
+    if (lost) return;
+    lost = true;
     if (client === c) client = null;
     c.end().catch(() => undefined);
-    if (!stopping) retry = setTimeout(() => void startCatalogueListener().catch(() => undefined), 2000);
+    if (stopping) return;
+    const delay = Math.min(30_000, 2000 * 2 ** Math.min(failures, 4));
+    failures++;
+    retry = setTimeout(() => void startCatalogueListener().catch(() => undefined), delay);
+    retry.unref();
   };
   c.on("error", (err) => {
-    logger.warn({ err }, "catalogue listener connection lost; reconnecting");
+    logger.warn({ err: { message: err.message, code: (err as { code?: string }).code } }, "catalogue listener: connection lost; reconnecting");
     reconnect();
   });
+  c.on("end", reconnect);
   c.on("notification", (msg) => {
     if (msg.channel !== CATALOGUE_CHANNEL) return;
     void handleCatalogueNotification(msg.payload).catch((err) => logger.error({ err }, "catalogue refresh failed"));
@@ -66,6 +79,8 @@ export async function startCatalogueListener(): Promise<void> {
   try {
     await c.connect();
     await c.query(`LISTEN ${CATALOGUE_CHANNEL}`);
+    if (failures > 0) logger.info("catalogue listener: listening again");
+    failures = 0;
     // Anything published while we were not listening is caught by the lazy check.
     catalogueStore.invalidate();
   } catch (err) {

@@ -3,6 +3,7 @@ import { UniqueConstraintError, ValidationError as SequelizeValidationError } fr
 import { MulterError } from "multer";
 import { ApiError } from "../lib/api-error";
 import { config } from "../config/env";
+import { DATABASE_UNAVAILABLE_MESSAGE, isDatabaseUnavailable } from "../lib/db-errors";
 
 /** JSON 404 for unknown API routes. */
 export const apiNotFound: RequestHandler = (req, res) => {
@@ -11,9 +12,11 @@ export const apiNotFound: RequestHandler = (req, res) => {
 
 /**
  * The one error pipeline. Mapping table:
- * ApiError → its status; malformed JSON → 400; multer limits → 413/400; unique constraint → 409;
- * Sequelize validation → 422; other 4xx errors of Express/body-parser keep their status; anything else →
- * 500 without detail in production.
+ * ApiError → its status; the database unreachable (outage, restart, terminated connection) → 503 with a
+ * plain message and Retry-After, never the driver's text; malformed JSON → 400; multer limits → 413/400;
+ * unique constraint → 409; Sequelize validation → 422; other 4xx errors of Express/body-parser keep their
+ * status; anything else → 500 without detail in production. Pages (outside /api) get the 503 as a short
+ * HTML page.
  */
 export const errorHandler: ErrorRequestHandler = (err, req, res, _next) => {
   if (res.headersSent) {
@@ -22,6 +25,13 @@ export const errorHandler: ErrorRequestHandler = (err, req, res, _next) => {
   }
   if (err instanceof ApiError) {
     res.status(err.status).json({ code: err.code, message: err.message, ...(err.details ? { details: err.details } : {}) });
+    return;
+  }
+  if (isDatabaseUnavailable(err)) {
+    req.log?.warn({ err: { message: (err as Error)?.message, code: (err as { code?: unknown })?.code } }, "database unavailable");
+    res.status(503).set("Retry-After", "10");
+    if (req.originalUrl.startsWith("/api")) res.json({ code: "database_unavailable", message: DATABASE_UNAVAILABLE_MESSAGE });
+    else res.type("html").send(`<!doctype html><html lang="en"><meta charset="utf-8"><title>Tanglebank: temporarily unavailable</title><body style="font-family:sans-serif;max-width:40rem;margin:4rem auto"><h1>Temporarily unavailable</h1><p>${DATABASE_UNAVAILABLE_MESSAGE}</p></body></html>`);
     return;
   }
   const e = err as { type?: string; status?: number; message?: string };

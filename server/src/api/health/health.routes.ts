@@ -1,6 +1,6 @@
 import { Router } from "express";
 import { sequelize } from "../../db/sequelize";
-import { config } from "../../config/env";
+import { DATABASE_UNAVAILABLE_MESSAGE } from "../../lib/db-errors";
 
 export const healthRouter = Router();
 
@@ -11,9 +11,8 @@ healthRouter.get("/", async (req, res) => {
     await sequelize().query("SELECT 1");
     res.json({ status: "ok", database: { status: "ok", latencyMs: Date.now() - started } });
   } catch (err) {
-    // The driver's message names hosts, ports and users: only outside production does it go to the caller.
+    // The driver's message names hosts, ports and users: it goes to the log, never to the caller.
     req.log?.error({ err }, "health check: database unreachable");
-    const message = config().nodeEnv === "production" ? "The database does not answer." : (err as Error).message;
-    res.status(503).json({ status: "degraded", database: { status: "unreachable", message } });
+    res.status(503).set("Retry-After", "10").json({ status: "degraded", database: { status: "unreachable", message: DATABASE_UNAVAILABLE_MESSAGE } });
   }
 });
