@@ -1,8 +1,33 @@
+import { readdirSync } from "node:fs";
 import js from "@eslint/js";
 import tseslint from "typescript-eslint";
+import { importX } from "eslint-plugin-import-x";
+import { createTypeScriptImportResolver } from "eslint-import-resolver-typescript";
+import reactHooks from "eslint-plugin-react-hooks";
+
+// One-way imports (DEVELOPERS.md, "Layout"): each zone lists a folder (`target`) and what it may not import
+// (`from`). Client features meet only in app/ route modules, so each feature gets a zone of its own.
+const features = readdirSync(new globalThis.URL("./client/src/features", import.meta.url), { withFileTypes: true })
+  .filter((d) => d.isDirectory())
+  .map((d) => d.name);
+const zones = [
+  { target: "./shared", from: ["./server", "./client", "./scripts", "./tests"], message: "shared/ is pure code used by every side: it imports nothing above it." },
+  { target: "./server", from: ["./client", "./scripts", "./tests"], message: "The server does not import the client, scripts or tests." },
+  { target: "./client", from: ["./server", "./scripts", "./tests"], message: "The client does not import the server, scripts or tests." },
+  { target: "./server/src/lib", from: ["./server/src/api", "./server/src/app.ts", "./server/src/index.ts"], message: "server/src/lib holds pieces the resources use: it does not import a resource (api/) or the app." },
+  { target: "./server/src/models", from: ["./server/src/api", "./server/src/jobs", "./server/src/app.ts"], message: "Models do not import resources, jobs or the app." },
+  { target: ["./client/src/components", "./client/src/lib", "./client/src/config"], from: ["./client/src/features", "./client/src/app"], message: "Shared client code does not import a feature or the app: move the piece to where both can reach it." },
+  ...features.map((f) => ({
+    target: `./client/src/features/${f}`,
+    from: "./client/src/features",
+    except: [`./${f}`],
+    message: "Features do not import each other: they meet in client/src/app/ (route modules), or the shared piece moves to components/ or lib/.",
+  })),
+  { target: "./client/src/features", from: "./client/src/app", message: "Features do not import the app shell." },
+];
 
 export default tseslint.config(
-  { ignores: ["node_modules", "client/dist", "coverage", "test-artifacts", "bench-output", ".pg", ".pg-test", ".data"] },
+  { ignores: ["node_modules", "client/dist", "dist", "coverage", "test-artifacts", "bench-output", ".pg", ".pg-test", ".pg-devtest", ".data"] },
   js.configs.recommended,
   ...tseslint.configs.recommended,
   {
@@ -11,6 +36,26 @@ export default tseslint.config(
       "@typescript-eslint/no-explicit-any": "error",
       "@typescript-eslint/no-namespace": "off",
       "no-constant-condition": ["error", { checkLoops: false }],
+    },
+  },
+  {
+    files: ["**/*.{ts,tsx}"],
+    plugins: { "import-x": importX },
+    settings: {
+      ...importX.flatConfigs.typescript.settings,
+      "import-x/resolver-next": [createTypeScriptImportResolver({ project: "./tsconfig.json" })],
+    },
+    rules: {
+      "import-x/no-restricted-paths": ["error", { zones }],
+      "import-x/no-cycle": ["error", { ignoreExternal: true }],
+    },
+  },
+  {
+    files: ["client/**/*.{ts,tsx}"],
+    plugins: { "react-hooks": reactHooks },
+    rules: {
+      "react-hooks/rules-of-hooks": "error",
+      "react-hooks/exhaustive-deps": "error",
     },
   },
 );

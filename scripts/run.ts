@@ -18,7 +18,7 @@ import { initModels } from "../server/src/models";
 import { DEMO_ACCOUNTS, seedDemoAccounts } from "../server/src/db/seeders/demo-accounts";
 import { MailCatcher, setCurrentMailCatcher } from "../server/src/lib/mail-catcher";
 import { shutdownServerResources, startServer } from "../server/src/index";
-import { ROOT_DIR } from "../server/src/app";
+import { ROOT_DIR } from "../server/src/config/paths";
 import { startupTasks, shutdownTasks } from "../server/src/startup";
 
 const say = (msg: string) => console.log(`\x1b[1;32m[tanglebank]\x1b[0m ${msg}`);

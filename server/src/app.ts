@@ -2,8 +2,7 @@
  * createApp() builds the Express app (exported for supertest); index.ts only listens.
  */
 import { existsSync, readFileSync } from "node:fs";
-import { dirname, join } from "node:path";
-import { fileURLToPath } from "node:url";
+import { join } from "node:path";
 import express, { type Express } from "express";
 import helmet from "helmet";
 import session from "express-session";
@@ -11,6 +10,7 @@ import connectPgSimple from "connect-pg-simple";
 import pg from "pg";
 import { pinoHttp } from "pino-http";
 import { config } from "./config/env";
+import { CLIENT_DIST, SCHEMAS_DIR } from "./config/paths";
 import { initModels } from "./models";
 import { authenticate } from "./middlewares/authenticate";
 import { csrfProtection } from "./middlewares/csrf";
@@ -19,9 +19,6 @@ import { apiRouter } from "./api";
 import { logger } from "./lib/logger";
 import { datasetHtmlRenderer } from "./api/network-views/dataset-html";
 
-export const ROOT_DIR = join(dirname(fileURLToPath(import.meta.url)), "..", "..");
-export const CLIENT_DIST = join(ROOT_DIR, "client", "dist");
-export const SCHEMAS_DIR = join(ROOT_DIR, "schemas");
 
 /** Server-side renderers for specific client routes (e.g. JSON-LD on dataset pages); return null to skip. */
 export type HtmlRenderer = (path: string, indexHtml: string) => Promise<string | null>;

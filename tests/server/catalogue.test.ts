@@ -11,7 +11,7 @@ import { createApp } from "../../server/src/app";
 import { shutdownServerResources } from "../../server/src/index";
 import { sequelize } from "../../server/src/db/sequelize";
 import { catalogueStore } from "../../server/src/api/catalogue/catalogue.store";
-import { notifyCatalogueChanged, startCatalogueListener, stopCatalogueListener } from "../../server/src/lib/catalogue-events";
+import { notifyCatalogueChanged, startCatalogueListener, stopCatalogueListener } from "../../server/src/api/catalogue/catalogue.events";
 import { DatasetVersion } from "../../server/src/models";
 import { resetRateLimits } from "../../server/src/middlewares/rate-limit";
 import { resetDatabase } from "../setup/db";

@@ -2,7 +2,7 @@
  * The route table. Pages load lazily; each feature adds its entries here (one object per route).
  */
 import { createBrowserRouter, type RouteObject } from "react-router-dom";
-import { AppLayout } from "../components/layouts/app-layout";
+import { AppLayout } from "./layouts/app-layout";
 import { RouteError } from "./routes/route-error";
 import { HomePage } from "./routes/home";
 import { NotFoundPage } from "./routes/not-found";

@@ -3,7 +3,7 @@
  * reader sees how many networks each value would give), sorting and pagination, in one pass over the
  * in-memory catalogue.
  */
-import { searchIndex } from "../../lib/search-index";
+import { searchIndex } from "./catalogue.search-index";
 import type { CatalogueEntry } from "./catalogue.rows";
 import { catalogueStore } from "./catalogue.store";
 import type { CatalogueQuery, Range, SortKey } from "./catalogue.validation";

@@ -3,8 +3,8 @@
  * catalogue and search index before the first visitor asks; then, in the background, write the stored
  * matrix CSVs that published networks lack (bundles.stored-csv.ts; bundles work without them, slower).
  */
-import { searchIndex } from "../../lib/search-index";
-import { startCatalogueListener, stopCatalogueListener } from "../../lib/catalogue-events";
+import { searchIndex } from "./catalogue.search-index";
+import { startCatalogueListener, stopCatalogueListener } from "./catalogue.events";
 import { catalogueStore } from "./catalogue.store";
 import { fillStoredMatrixCsvs } from "../bundles/bundles.stored-csv";
 

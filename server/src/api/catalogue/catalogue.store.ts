@@ -5,14 +5,14 @@
  * keep up to date.
  *
  * Keeping it current: `refreshDataset(id)` / `removeDataset(id)` (called on NOTIFY from publish and
- * withdraw, see lib/catalogue-events.ts), and a lazy check before each request: cheap fingerprints of
+ * withdraw, see catalogue.events.ts), and a lazy check before each request: cheap fingerprints of
  * dataset_versions, metric_runs and app_settings, looked at most every `checkIntervalMs`. A change of
  * the version fingerprint re-reads the changed datasets (and refreshes the search index); a metric run
  * change re-reads the rows of the networks whose runs changed; a settings change reloads everything.
  */
 import { QueryTypes } from "sequelize";
 import { sequelize } from "../../db/sequelize";
-import { searchIndex } from "../../lib/search-index";
+import { searchIndex } from "./catalogue.search-index";
 import { catalogueFingerprint, loadCatalogueRows, type CatalogueEntry } from "./catalogue.rows";
 
 export class CatalogueStore {

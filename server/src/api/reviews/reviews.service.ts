@@ -19,7 +19,7 @@ import { sequelize } from "../../db/sequelize";
 import { config } from "../../config/env";
 import { AuditLog, Dataset, DatasetVersion, Network, Review, User } from "../../models";
 import { enqueueNetworkMetrics } from "../../jobs/enqueue";
-import { notifyCatalogueChanged } from "../../lib/catalogue-events";
+import { notifyCatalogueChanged } from "../catalogue/catalogue.events";
 import { sendMail } from "../../emails/mailer";
 import { reviewDecisionEmail, type DecisionKind } from "../../emails/templates/review-decision";
 import type { Viewer } from "../datasets/datasets.service";

@@ -8,10 +8,10 @@
  */
 import pg from "pg";
 import type { Transaction } from "sequelize";
-import { config } from "../config/env";
-import { sequelize } from "../db/sequelize";
-import { catalogueStore } from "../api/catalogue/catalogue.store";
-import { logger } from "./logger";
+import { config } from "../../config/env";
+import { sequelize } from "../../db/sequelize";
+import { catalogueStore } from "./catalogue.store";
+import { logger } from "../../lib/logger";
 
 export const CATALOGUE_CHANNEL = "tanglebank_catalogue";
 

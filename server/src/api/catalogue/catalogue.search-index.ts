@@ -15,11 +15,11 @@
  * Both are immutable, so changes go to a small "delta" built from the changed datasets: when a dataset is
  * published or withdrawn its networks are marked stale in the main part and its current documents are
  * indexed in the delta. When the delta grows past a threshold the main part is rebuilt. Each server
- * process keeps its own index current (see catalogue-events.ts: PostgreSQL LISTEN/NOTIFY, plus a lazy
+ * process keeps its own index current (see catalogue.events.ts: PostgreSQL LISTEN/NOTIFY, plus a lazy
  * change check in the catalogue store).
  */
 import lunr from "lunr";
-import { loadSearchDocuments, type SearchDocument } from "../api/catalogue/catalogue.rows";
+import { loadSearchDocuments, type SearchDocument } from "./catalogue.rows";
 
 const FIELDS: Array<[Exclude<keyof SearchDocument, "networkId" | "datasetId" | "nodes">, number]> = [
   ["title", 4],
