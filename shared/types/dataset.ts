@@ -60,6 +60,18 @@ export interface NetworkMetadata {
   samplingProtocol: string;
   samplingEffort?: { value: number; unit: string };
   taxonomicResolution?: string;
+  /** How cells without a number were read (set from the file at upload; see network.schema.json). */
+  missingValues?: MissingValuesRecord;
+}
+
+export type CellMeaning = "no-interaction" | "not-observed";
+
+export interface MissingValuesRecord {
+  markers?: string[];
+  markerCells?: number;
+  markerMeaning?: CellMeaning;
+  blankCells: number;
+  blankMeaning: CellMeaning;
 }
 
 export type MetricsStatus = "none" | "queued" | "running" | "succeeded" | "failed";

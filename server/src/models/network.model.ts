@@ -1,4 +1,11 @@
+import type { CellMeaning } from "../../../shared/network/parse/parse";
 import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes, type Sequelize } from "sequelize";
+
+export interface NetworkReadOptions {
+  sheet?: string;
+  missing?: CellMeaning;
+  blank?: CellMeaning;
+}
 
 /**
  * One interaction network inside a version (`TB-000042/v2/3` is position 3 of version 2). `canonical` is
@@ -24,6 +31,8 @@ export class Network extends Model<InferAttributes<Network>, InferCreationAttrib
   declare totalWeight: number;
   declare connectance: number | null;
   declare parseWarnings: CreationOptional<unknown[]>;
+  /** The parser's reading options beyond kind and layout: workbook sheet, meaning of NA-like and blank cells. */
+  declare readOptions: CreationOptional<NetworkReadOptions>;
   declare createdAt: CreationOptional<Date>;
   declare updatedAt: CreationOptional<Date>;
 }
@@ -49,6 +58,7 @@ export function initNetwork(sequelize: Sequelize): void {
       totalWeight: { type: DataTypes.DOUBLE, allowNull: false },
       connectance: { type: DataTypes.DOUBLE },
       parseWarnings: { type: DataTypes.JSONB, allowNull: false, defaultValue: [] },
+      readOptions: { type: DataTypes.JSONB, allowNull: false, defaultValue: {} },
       createdAt: DataTypes.DATE,
       updatedAt: DataTypes.DATE,
     },

@@ -18,7 +18,15 @@ export type NetworkParseErrorCode =
   | "not-square"
   | "label-mismatch"
   | "not-symmetric"
-  | "bad-option";
+  | "bad-option"
+  /** The file is not a text table (a picture, PDF, zip…: named from its first bytes). */
+  | "not-a-table"
+  /** Cells hold NA-like markers and the depositor has not said what they mean. */
+  | "missing-values"
+  /** A workbook with several sheets of data and no sheet chosen (or an unknown one). */
+  | "choose-sheet"
+  /** A workbook that cannot be read. */
+  | "bad-workbook";
 
 export interface ParseLocation {
   file: string;
@@ -42,7 +50,9 @@ export class NetworkParseError extends Error {
   readonly column: number | null;
   /** The problem without the location prefix. */
   readonly detail: string;
-  constructor(code: NetworkParseErrorCode, loc: ParseLocation, detail: string) {
+  /** What a program needs to offer a choice: the sheets to choose from, the markers found, the file type. */
+  readonly extra?: Record<string, unknown>;
+  constructor(code: NetworkParseErrorCode, loc: ParseLocation, detail: string, extra?: Record<string, unknown>) {
     super(`${describeLocation(loc)}: ${detail}`);
     this.name = "NetworkParseError";
     this.code = code;
@@ -50,9 +60,10 @@ export class NetworkParseError extends Error {
     this.row = loc.row;
     this.column = loc.column;
     this.detail = detail;
+    if (extra) this.extra = extra;
   }
-  toJSON(): { code: string; message: string; file: string; row: number | null; column: number | null } {
-    return { code: this.code, message: this.message, file: this.file, row: this.row, column: this.column };
+  toJSON(): { code: string; message: string; file: string; row: number | null; column: number | null; extra?: Record<string, unknown> } {
+    return { code: this.code, message: this.message, file: this.file, row: this.row, column: this.column, ...(this.extra ? { extra: this.extra } : {}) };
   }
 }
 
@@ -70,7 +81,19 @@ export type ParseWarningCode =
   /** A label used for both a row node and a column node of a bipartite network; they are different nodes. */
   | "shared-labels"
   /** Self-loops (cannibal links) in a one-mode network; kept. */
-  | "self-loops";
+  | "self-loops"
+  /** A matrix header one cell short (R's write.table): its first cell names the first column node. */
+  | "header-without-corner"
+  /** Rows with no name and no value (spreadsheet exports); dropped. */
+  | "dropped-empty-rows"
+  /** Columns with no name and no value at the right; dropped. */
+  | "dropped-empty-columns"
+  /** Cells with NA-like markers (or blank cells read as not observed), and how they were read. */
+  | "missing-values"
+  /** A one-mode edge list whose sources and targets are two disjoint sets of names. */
+  | "two-mode"
+  /** The file's content is of another type than its name says (e.g. a workbook named .csv). */
+  | "file-type";
 
 export interface ParseWarning extends ParseLocation {
   code: ParseWarningCode;

@@ -15,6 +15,26 @@
  *   link. Node order: order of first appearance. An edge list cannot express isolated nodes.
  * - Format "auto": an edge list when the header has `source` and `target` cells, else a matrix.
  *
+ * Files as programs write them
+ * - R: `write.csv` (corner cell `""`, quoted labels, `NA`) reads as above. `write.table` writes the header
+ *   without the corner cell (one cell fewer than the data rows) and, by default, separates fields by
+ *   spaces: a header one cell shorter than the first data row names the columns from its first cell on
+ *   (noted in a warning), and a space is the delimiter when a line has no tab, semicolon or comma.
+ * - Spreadsheet exports: rows with no value at all (",,,,", often left at the end) and empty columns at the
+ *   right are dropped, with a warning saying how many.
+ * - Cells that hold no number: markers such as `NA`, `N/A`, `NaN`, `-` or `.` (MISSING_MARKERS) are
+ *   never read silently: `missing` says whether they mean "no interaction" (0) or "not observed" (also 0
+ *   in the network, since a matrix cannot hold "unknown", but counted and reported so the metadata records
+ *   it); without it, a file holding such markers is refused with code "missing-values" naming them. Blank
+ *   cells mean 0 (no interaction) as the format says, unless `blank` says "not observed"; either way they
+ *   are counted. `ParseResult.missing` reports both.
+ * - `.xlsx` workbooks (parseNetworkFile, asynchronous): one sheet is read as the table above (text cells as
+ *   they are, numbers as numbers); with several sheets that hold data, `sheet` names it (else code
+ *   "choose-sheet" lists them). Rows are the sheet's rows.
+ * - Files that are not text (pictures, PDF, zip, a workbook renamed .csv…) are recognised by their first
+ *   bytes (./signature.ts) and named for what they are (code "not-a-table"); a workbook whatever its name
+ *   is read as a workbook by parseNetworkFile.
+ *
  * Text: UTF-8 only (a UTF-8 BOM is accepted); delimiter detected from the first non-empty line (tab,
  * semicolon or comma); fields follow RFC 4180 quoting, read by csv-parse (its browser ESM build, so the same
  * code runs in the upload preview). Empty lines are skipped; labels are trimmed; trailing empty header
@@ -32,8 +52,32 @@ import { parse as csvParse } from "csv-parse/browser/esm/sync";
 import type { Network, NetworkKind } from "../types";
 import { NetworkParseError, listLabels, type ParseWarning } from "./errors";
 import { decodeUtf8, delimiterName, detectDelimiter, parseCellNumber, utf8Length } from "./text";
+import { detectSignature, signatureAdvice, zipDeclaredSize } from "./signature";
 
 export type NetworkFileFormat = "matrix" | "edgelist";
+
+/** What cells without a number mean, as the depositor says. */
+export type CellMeaning = "no-interaction" | "not-observed";
+
+/** Cell texts that mark a missing value (compared trimmed, case-insensitively). */
+export const MISSING_MARKERS = ["NA", "N/A", "NaN", "-", "–", "—", ".", "?", "missing"] as const;
+const MISSING_SET = new Set(MISSING_MARKERS.map((m) => m.toLowerCase()));
+
+export function isMissingMarker(raw: string): boolean {
+  const s = raw.trim();
+  return s !== "" && s.length <= 7 && MISSING_SET.has(s.toLowerCase());
+}
+
+/** How the cells without a number were read. */
+export interface MissingCells {
+  /** The distinct marker texts found (e.g. ["NA"]), in order of first appearance. */
+  markers: string[];
+  markerCells: number;
+  /** Meaning of the marker cells (null when there were none). */
+  markerMeaning: CellMeaning | null;
+  blankCells: number;
+  blankMeaning: CellMeaning;
+}
 
 export interface ParseOptions {
   fileName: string;
@@ -45,6 +89,12 @@ export interface ParseOptions {
   maxBytes?: number;
   /** Largest accepted matrix (rows × columns) or number of edge-list lines (default DEFAULT_MAX_CELLS). */
   maxCells?: number;
+  /** What marker cells (NA, -, …) mean; required when the file has any. */
+  missing?: CellMeaning;
+  /** What blank matrix cells mean (default "no-interaction", i.e. 0). */
+  blank?: CellMeaning;
+  /** Workbooks: the sheet to read (by name). */
+  sheet?: string;
 }
 
 export interface ParseResult {
@@ -52,6 +102,10 @@ export interface ParseResult {
   format: NetworkFileFormat;
   delimiter: string;
   warnings: ParseWarning[];
+  /** Cells that held no number and how they were read. */
+  missing: MissingCells;
+  /** Workbooks: the sheet read and every sheet of the workbook. */
+  workbook?: { sheet: string; sheets: string[] };
 }
 
 export const DEFAULT_MAX_BYTES = 256 * 1024 * 1024;
@@ -102,17 +156,18 @@ interface CsvContext {
 export function parseNetworkText(text: string | Uint8Array, options: ParseOptions): ParseResult {
   const file = options.fileName;
   const whole = { file, row: null, column: null };
-  if (options.kind !== "bipartite" && options.kind !== "unipartite") {
-    throw new NetworkParseError("bad-option", whole, `kind must be "bipartite" or "unipartite", got ${String(options.kind)}`);
-  }
-  if (options.kind === "bipartite" && options.directed) {
-    throw new NetworkParseError("bad-option", whole, "a bipartite network cannot be directed; the directed flag is for one-mode networks (food webs)");
-  }
+  checkOptions(options);
   const maxBytes = options.maxBytes ?? DEFAULT_MAX_BYTES;
   const maxCells = options.maxCells ?? DEFAULT_MAX_CELLS;
   const byteLength = typeof text === "string" ? (text.length * 3 <= maxBytes ? text.length : utf8Length(text)) : text.length;
   if (byteLength > maxBytes) {
     throw new NetworkParseError("too-large", whole, `the file has ${byteLength} bytes, more than the limit of ${maxBytes}`);
+  }
+  if (typeof text !== "string") {
+    const sig = detectSignature(text);
+    if (sig) {
+      throw new NetworkParseError("not-a-table", whole, `the file is ${sig.what}, not a table of text: ${signatureAdvice(sig)}`, { fileType: sig.type });
+    }
   }
   let str = typeof text === "string" ? text : decodeUtf8(text, file);
   if (str.charCodeAt(0) === 0xfeff) str = str.slice(1);
@@ -145,6 +200,82 @@ export function parseNetworkText(text: string | Uint8Array, options: ParseOption
     }
   }
   return sink.finish();
+}
+
+/** Checks of the options shared by text and workbook parsing. */
+function checkOptions(options: ParseOptions): void {
+  const whole = { file: options.fileName, row: null, column: null };
+  if (options.kind !== "bipartite" && options.kind !== "unipartite") {
+    throw new NetworkParseError("bad-option", whole, `kind must be "bipartite" or "unipartite", got ${String(options.kind)}`);
+  }
+  if (options.kind === "bipartite" && options.directed) {
+    throw new NetworkParseError("bad-option", whole, "a bipartite network cannot be directed; the directed flag is for one-mode networks (food webs)");
+  }
+  for (const k of ["missing", "blank"] as const) {
+    const v = options[k];
+    if (v !== undefined && v !== "no-interaction" && v !== "not-observed") {
+      throw new NetworkParseError("bad-option", whole, `${k} must be "no-interaction" or "not-observed", got ${String(v)}`);
+    }
+  }
+}
+
+/** Text of a workbook cell as the table reader sees it. */
+function workbookCellText(v: unknown): string {
+  if (v === null || v === undefined) return "";
+  if (typeof v === "number") return Number.isFinite(v) ? String(v) : "";
+  if (typeof v === "boolean") return v ? "TRUE" : "FALSE";
+  if (v instanceof Date) return Number.isNaN(v.getTime()) ? "" : v.toISOString().slice(0, 10);
+  return String(v);
+}
+
+/**
+ * Parses any network file: an .xlsx workbook (recognised by its content, whatever its name) or a text table
+ * (parseNetworkText). Asynchronous because the workbook reader is.
+ */
+export async function parseNetworkFile(bytes: Uint8Array, options: ParseOptions): Promise<ParseResult> {
+  const sig = detectSignature(bytes);
+  if (sig?.type !== "xlsx") return parseNetworkText(bytes, options);
+  checkOptions(options);
+  const file = options.fileName;
+  const whole = { file, row: null, column: null };
+  const maxBytes = options.maxBytes ?? DEFAULT_MAX_BYTES;
+  const maxCells = options.maxCells ?? DEFAULT_MAX_CELLS;
+  if (bytes.length > maxBytes) throw new NetworkParseError("too-large", whole, `the file has ${bytes.length} bytes, more than the limit of ${maxBytes}`);
+  const expanded = zipDeclaredSize(bytes);
+  if (expanded === null) throw new NetworkParseError("bad-workbook", whole, "the workbook is damaged: its zip directory cannot be read");
+  if (expanded > maxBytes * 4) {
+    throw new NetworkParseError("too-large", whole, `the workbook expands to ${expanded} bytes, more than the limit of ${maxBytes * 4}`);
+  }
+  const { default: readXlsxFile } = await import("read-excel-file/universal");
+  let sheets: Array<{ sheet: string; data: unknown[][] }>;
+  try {
+    const ab = bytes.buffer.slice(bytes.byteOffset, bytes.byteOffset + bytes.byteLength) as ArrayBuffer;
+    sheets = (await readXlsxFile(ab, { trim: false })) as unknown as Array<{ sheet: string; data: unknown[][] }>;
+  } catch (err) {
+    throw new NetworkParseError("bad-workbook", whole, `the workbook cannot be read: ${(err as Error).message ?? String(err)}`);
+  }
+  const names = sheets.map((s) => s.sheet);
+  const withData = sheets.filter((s) => s.data.some((r) => r.some((c) => workbookCellText(c).trim() !== "")));
+  let chosen: { sheet: string; data: unknown[][] } | undefined;
+  if (options.sheet !== undefined) {
+    chosen = sheets.find((s) => s.sheet === options.sheet);
+    if (!chosen) throw new NetworkParseError("choose-sheet", whole, `the workbook has no sheet "${options.sheet}"; its sheets are ${listLabels(names)}`, { sheets: names });
+  } else if (withData.length === 1) chosen = withData[0];
+  else if (withData.length === 0) throw new NetworkParseError("empty-file", whole, `every sheet of the workbook is empty (${listLabels(names)})`);
+  else throw new NetworkParseError("choose-sheet", whole, `the workbook has ${withData.length} sheets with data (${listLabels(withData.map((s) => s.sheet))}); choose the sheet that holds the network`, { sheets: withData.map((s) => s.sheet) });
+  const where = `${file} (sheet "${chosen.sheet}")`;
+  const sink = new RecordSink(options, where, ",", false, maxCells);
+  chosen.data.forEach((row, i) => {
+    const rec = row.map(workbookCellText);
+    if (rec.length) sink.record(rec, i + 1);
+  });
+  const result = sink.finish();
+  result.delimiter = "";
+  result.workbook = { sheet: chosen.sheet, sheets: names };
+  if (sig && !/\.xlsx$/i.test(file)) {
+    result.warnings.unshift({ code: "file-type", file, row: null, column: null, count: 1, message: `the file is ${sig.what} although its name does not end in .xlsx; it was read as a workbook` });
+  }
+  return result;
 }
 
 const CHUNK_CHARS = 1 << 20;
@@ -205,6 +336,18 @@ class RecordSink {
   private readonly eLine = new GrowU32(4096);
   private edgeRows = 0;
 
+  // Spreadsheet and R shapes
+  private headerNames: string[] | null = null;
+  private headerCells = 0;
+  private droppedRows = 0;
+  private firstDroppedRow = 0;
+  private readonly missingOpt: CellMeaning | undefined;
+  private readonly blankOpt: CellMeaning;
+  private readonly markers: string[] = [];
+  private markerCells = 0;
+  private firstMarker: { line: number; column: number } | null = null;
+  private blankCells = 0;
+
   constructor(
     options: ParseOptions,
     private readonly file: string,
@@ -215,7 +358,17 @@ class RecordSink {
     this.kind = options.kind;
     this.directed = options.kind === "unipartite" && options.directed === true;
     this.requested = options.format ?? "auto";
+    this.missingOpt = options.missing;
+    this.blankOpt = options.blank ?? "no-interaction";
     this.rowPtr.push(0);
+  }
+
+  /** A cell holding a missing-value marker: counted; its meaning decides later (both read as 0). */
+  private marker(raw: string, line: number, column: number): void {
+    const m = raw.trim();
+    if (!this.markers.includes(m)) this.markers.push(m);
+    this.markerCells++;
+    if (!this.firstMarker) this.firstMarker = { line, column };
   }
 
   private fail(code: ConstructorParameters<typeof NetworkParseError>[0], row: number | null, column: number | null, detail: string): never {
@@ -223,6 +376,14 @@ class RecordSink {
   }
 
   record(rec: string[], line: number): void {
+    let blank = true;
+    for (let k = 0; k < rec.length; k++) if (rec[k] !== "" && rec[k].trim() !== "") { blank = false; break; }
+    if (blank) {
+      // A row of empty fields (",,,,"), as spreadsheet exports leave below the table: dropped, reported.
+      this.droppedRows++;
+      if (this.firstDroppedRow === 0) this.firstDroppedRow = line;
+      return;
+    }
     if (this.format === null) this.header(rec, line);
     else if (this.format === "matrix") this.matrixRow(rec, line);
     else this.edgeRow(rec, line);
@@ -264,26 +425,54 @@ class RecordSink {
       }
       return;
     }
+    // The column labels are settled by the first data row: R's write.table leaves out the corner cell.
     let width = names.length;
-    while (width > 1 && names[width - 1] === "") width--;
-    const labels = names.slice(1, width);
+    while (width > 0 && names[width - 1] === "") width--;
+    this.headerCells = names.length;
+    this.headerNames = names.slice(0, width);
+  }
+
+  /** Settles the matrix header once the first data row shows whether the corner cell is there. */
+  private matrixHeader(first: string[]): void {
+    const names = this.headerNames!;
+    const line = this.headerLine;
+    this.headerNames = null;
+    let firstWidth = first.length;
+    while (firstWidth > 0 && first[firstWidth - 1].trim() === "") firstWidth--;
+    const noCorner = names.length >= 1 && names[0] !== "" && firstWidth === names.length + 1;
+    const labels = noCorner ? names : names.slice(1);
+    const offset = noCorner ? 1 : 2;
     if (labels.length === 0) {
       this.fail("bad-header", line, null,
         `the first row must name the column nodes after a corner cell, but it has no column names (delimiter detected: ${delimiterName(this.delimiter)})`);
     }
     const seen = new Map<string, number>();
     labels.forEach((label, k) => {
-      if (label === "") this.fail("empty-label", line, k + 2, "the column node name is empty");
+      if (label === "") this.fail("empty-label", line, k + offset, "the column node name is empty");
       const prev = seen.get(label);
       if (prev !== undefined) {
-        this.fail("duplicate-node", line, k + 2, `column node "${label}" is named twice (also column ${prev + 2})`);
+        this.fail("duplicate-node", line, k + offset, `column node "${label}" is named twice (also column ${prev + offset})`);
       }
       seen.set(label, k);
     });
     this.colLabels = labels;
+    if (noCorner) {
+      this.warnings.push({
+        code: "header-without-corner", file: this.file, row: line, column: 1, count: 1,
+        message: `the first row has one cell fewer than the data rows (no corner cell, as R's write.table writes it), so its first cell "${labels[0]}" names the first column node`,
+      });
+    }
+    const emptyRight = this.headerCells - (noCorner ? labels.length : labels.length + 1);
+    if (emptyRight > 0) {
+      this.warnings.push({
+        code: "dropped-empty-columns", file: this.file, row: line, column: this.headerCells - emptyRight + 1, count: emptyRight,
+        message: `${emptyRight} empty column(s) at the right of the table (no name, no values) were dropped`,
+      });
+    }
   }
 
   private matrixRow(rec: string[], line: number): void {
+    if (this.headerNames) this.matrixHeader(rec);
     const J = this.colLabels.length;
     const label = (rec[0] ?? "").trim();
     if (rec.length < J + 1) {
@@ -311,10 +500,21 @@ class RecordSink {
     const w = this.w;
     for (let j = 0; j < J; j++) {
       const raw = rec[j + 1];
-      if (raw === "" || raw === "0") continue;
+      if (raw === "0") continue;
+      if (raw === "") {
+        this.blankCells++;
+        continue;
+      }
       const v = raw === "1" ? 1 : parseCellNumber(raw, this.decimalComma);
-      if (v === 0) continue;
+      if (v === 0) {
+        if (raw.trim() === "") this.blankCells++;
+        continue;
+      }
       if (!Number.isFinite(v)) {
+        if (isMissingMarker(raw)) {
+          this.marker(raw, line, j + 2);
+          continue;
+        }
         this.fail("non-numeric", line, j + 2,
           `cell "${raw.trim()}" (row node "${label}", column node "${this.colLabels[j]}") is not a number; use non-negative numbers, blank means 0`);
       }
@@ -349,6 +549,10 @@ class RecordSink {
       const raw = rec[this.wCol];
       if (raw.trim() === "") this.fail("non-numeric", line, this.wCol + 1, "the weight is empty; give a non-negative number");
       weight = parseCellNumber(raw, this.decimalComma);
+      if (!Number.isFinite(weight) && isMissingMarker(raw)) {
+        this.marker(raw, line, this.wCol + 1);
+        weight = 0;
+      }
       if (!Number.isFinite(weight)) this.fail("non-numeric", line, this.wCol + 1, `weight "${raw.trim()}" is not a number`);
       if (weight < 0) this.fail("negative", line, this.wCol + 1, `weight ${raw.trim()} is negative; interaction values must be ≥ 0`);
     }
@@ -385,9 +589,42 @@ class RecordSink {
 
   finish(): ParseResult {
     if (this.format === null) this.fail("empty-file", null, null, "the file is empty");
+    if (this.headerNames) this.fail("empty-file", this.headerLine, null, "the matrix has a header row but no data rows");
+    if (this.markerCells > 0 && this.missingOpt === undefined) {
+      const at = this.firstMarker!;
+      throw new NetworkParseError("missing-values", { file: this.file, row: at.line, column: at.column },
+        `${this.markerCells} cell(s) hold ${listLabels(this.markers)} instead of a number (first at row ${at.line}, column ${at.column}); say whether they mean "no interaction" or "not observed" (upload option missing=no-interaction or missing=not-observed)`,
+        { markers: this.markers, cells: this.markerCells });
+    }
     const net = this.format === "matrix" ? this.finishMatrix() : this.finishEdgeList();
     this.checkLinksAndWarn(net);
-    return { network: net, format: this.format, delimiter: this.delimiter, warnings: this.warnings };
+    if (this.droppedRows > 0) {
+      this.warnings.push({
+        code: "dropped-empty-rows", file: this.file, row: this.firstDroppedRow, column: null, count: this.droppedRows,
+        message: `${this.droppedRows} row(s) with no name and no value (e.g. left below the table by a spreadsheet export) were dropped`,
+      });
+    }
+    const missing: MissingCells = {
+      markers: this.markers,
+      markerCells: this.markerCells,
+      markerMeaning: this.markerCells > 0 ? this.missingOpt ?? null : null,
+      blankCells: this.blankCells,
+      blankMeaning: this.blankOpt,
+    };
+    if (this.markerCells > 0) {
+      const at = this.firstMarker!;
+      this.warnings.push({
+        code: "missing-values", file: this.file, row: at.line, column: at.column, count: this.markerCells, labels: this.markers,
+        message: `${this.markerCells} cell(s) holding ${listLabels(this.markers)} were read as ${this.missingOpt === "not-observed" ? "not observed (no link in the network; recorded in the metadata)" : "no interaction (0)"}`,
+      });
+    }
+    if (this.blankCells > 0 && this.blankOpt === "not-observed") {
+      this.warnings.push({
+        code: "missing-values", file: this.file, row: null, column: null, count: this.blankCells, labels: [""],
+        message: `${this.blankCells} empty cell(s) were read as not observed (no link in the network; recorded in the metadata)`,
+      });
+    }
+    return { network: net, format: this.format, delimiter: this.delimiter, warnings: this.warnings, missing };
   }
 
   private finishMatrix(): Network {
@@ -420,6 +657,10 @@ class RecordSink {
     if (I !== J) {
       this.fail("not-square", null, null,
         `a one-mode adjacency matrix must be square, but it has ${I} rows and ${J} columns; for two kinds of nodes choose a bipartite network`);
+    }
+    if (this.colLabels.every((l) => !this.rowIndex.has(l))) {
+      this.fail("label-mismatch", this.headerLine, 2,
+        `no column name appears among the row names (rows ${listLabels(this.rowLabels, 3)}; columns ${listLabels(this.colLabels, 3)}): this looks like a bipartite incidence matrix of two kinds of nodes; read it as bipartite`);
     }
     const perm = new Uint32Array(J);
     let identity = true;
@@ -523,8 +764,30 @@ class RecordSink {
     if (this.kind === "bipartite") {
       const cols2 = new Set(this.colLabels);
       this.warnShared(this.rowLabels.filter((l) => cols2.has(l)));
-    }
+    } else this.warnTwoMode(src, tgt, nE, I);
     return this.makeNetwork(outPtr, outCol.slice(0, out), outW.slice(0, out), this.kind === "bipartite" ? this.colLabels : this.rowLabels);
+  }
+
+  /** A one-mode edge list whose sources never appear as targets (and back) is likely two-mode data. */
+  private warnTwoMode(src: Uint32Array, tgt: Uint32Array, nE: number, I: number): void {
+    if (nE === 0) return;
+    const side = new Uint8Array(I);
+    for (let e = 0; e < nE; e++) {
+      side[src[e]] |= 1;
+      side[tgt[e]] |= 2;
+    }
+    let sources = 0;
+    let targets = 0;
+    for (let i = 0; i < I; i++) {
+      if (side[i] === 3) return;
+      if (side[i] === 1) sources++;
+      else if (side[i] === 2) targets++;
+    }
+    if (sources < 2 || targets < 2) return;
+    this.warnings.push({
+      code: "two-mode", file: this.file, row: null, column: null, count: sources + targets,
+      message: `no name appears both as a source and as a target (${sources} sources, ${targets} targets): this looks like a two-mode network of two kinds of nodes; read it as bipartite (sources as rows, targets as columns) if so`,
+    });
   }
 
   private warnShared(shared: string[]): void {

@@ -68,11 +68,12 @@ export function utf8Length(s: string): number {
 }
 
 export const DELIMITERS = ["\t", ";", ","] as const;
-export type Delimiter = (typeof DELIMITERS)[number];
+export type Delimiter = (typeof DELIMITERS)[number] | " ";
 
 /**
  * Picks the delimiter from the first non-empty line: the most frequent of tab, semicolon and comma outside
- * double quotes (ties: tab, then semicolon, then comma); comma when none occurs (a single-column file).
+ * double quotes (ties: tab, then semicolon, then comma); a space when none occurs and spaces separate
+ * fields (R's write.table); comma otherwise (a single-column file).
  */
 export function detectDelimiter(text: string): Delimiter {
   let start = 0;
@@ -96,6 +97,8 @@ export function detectDelimiter(text: string): Delimiter {
           bestCount = counts[d];
         }
       }
+      // R's write.table separates by spaces by default: a space outside quotes between fields.
+      if (bestCount === 0 && /^\s*("[^"]*"|\S+)( +("[^"]*"|\S+))+\s*$/.test(line)) return " ";
       return best;
     }
     start = end + 1;
@@ -123,5 +126,5 @@ export function parseCellNumber(raw: string, decimalComma: boolean): number {
 
 /** Name of a delimiter for messages. */
 export function delimiterName(d: string): string {
-  return d === "\t" ? "tab" : d === ";" ? "semicolon" : d === "," ? "comma" : JSON.stringify(d);
+  return d === "\t" ? "tab" : d === ";" ? "semicolon" : d === "," ? "comma" : d === " " ? "space" : JSON.stringify(d);
 }

@@ -4,6 +4,7 @@ import { hasRole } from "../../middlewares/require-role";
 import { startNewVersion } from "../deposits/deposits.service";
 import { withdrawDataset } from "../reviews/reviews.service";
 import { TombstoneError, getPublishedDetail, getPublishedNetworkFile } from "./datasets.service";
+import { originalFileType } from "../../lib/file-type";
 
 function positiveInt(raw: unknown, what: string): number {
   const n = Number(raw);
@@ -51,7 +52,7 @@ export async function networkFile(req: Request, res: Response) {
   await withTombstone(res, async () => {
     const f = await getPublishedNetworkFile(String(req.params.accession), positiveInt(req.params.n, "version"), positiveInt(req.params.pos, "network"));
     res.setHeader("Digest", `sha-256=${Buffer.from(f.sha256, "hex").toString("base64")}`);
-    res.attachment(f.name).type(/\.tsv$/i.test(f.name) ? "text/tab-separated-values" : "text/csv").send(f.bytes);
+    res.attachment(f.name).type(originalFileType(f.name, f.bytes)).send(f.bytes);
   });
 }
 

@@ -4,6 +4,7 @@ import { config } from "../../config/env";
 import * as s from "./deposits.service";
 import { expandUpload } from "./deposits.upload";
 import { idParam, networkChanges, uploadOptions } from "./deposits.validation";
+import { originalFileType } from "../../lib/file-type";
 
 const viewer = (req: Request) => req.user!;
 
@@ -62,7 +63,7 @@ export async function submit(req: Request, res: Response) {
 
 export async function networkFile(req: Request, res: Response) {
   const f = await s.getDepositNetworkFile(idParam(req.params.id, "deposit"), idParam(req.params.networkId, "network"), viewer(req));
-  res.attachment(f.name).type(/\.tsv$/i.test(f.name) ? "text/tab-separated-values" : "text/csv").send(f.bytes);
+  res.attachment(f.name).type(originalFileType(f.name, f.bytes)).send(f.bytes);
 }
 
 export async function networkCanonical(req: Request, res: Response) {

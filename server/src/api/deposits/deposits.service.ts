@@ -10,7 +10,7 @@
  */
 import { createHash } from "node:crypto";
 import { Op, QueryTypes, type Transaction } from "sequelize";
-import { basicMetrics, parseNetworkText, serializeNetwork, NetworkParseError, type ParseResult } from "../../../../shared/network";
+import { basicMetrics, parseNetworkFile, serializeNetwork, NetworkParseError, type ParseResult } from "../../../../shared/network";
 import type { VersionState } from "../../../../shared/types/dataset";
 import { ApiError, type ErrorDetail } from "../../lib/api-error";
 import { audit } from "../../lib/audit";
@@ -20,6 +20,7 @@ import { config } from "../../config/env";
 import { logger } from "../../lib/logger";
 import { hasRole } from "../../middlewares/require-role";
 import { Dataset, DatasetVersion, Network, Review, StoredFile, User } from "../../models";
+import type { NetworkReadOptions } from "../../models/network.model";
 import { sendMail } from "../../emails/mailer";
 import { reviewSubmittedEmail } from "../../emails/templates/review-submitted";
 import { buildDatasetDetail, type Viewer } from "../datasets/datasets.service";
@@ -179,32 +180,52 @@ export interface UploadOptions {
   kind: "bipartite" | "unipartite";
   directed: boolean;
   format: "auto" | "matrix" | "edgelist";
+  /** Workbook sheet and meaning of cells without a number, for every file… */
+  read?: NetworkReadOptions;
+  /** …or per file name (overrides `read`). */
+  perFile?: Record<string, NetworkReadOptions>;
 }
 
 export interface ParsedUpload {
   file: UploadedFile;
   sha256: string;
   parsed: ParseResult;
+  read: NetworkReadOptions;
 }
 
 /** Parses every file; collects every file's problem (file, row, column) before refusing. */
-export function parseUploads(files: UploadedFile[], opts: UploadOptions): ParsedUpload[] {
+export async function parseUploads(files: UploadedFile[], opts: UploadOptions): Promise<ParsedUpload[]> {
   const problems: ErrorDetail[] = [];
   const out: ParsedUpload[] = [];
   const maxBytes = config().uploadMaxBytes;
   for (const file of files) {
+    const read: NetworkReadOptions = { ...opts.read, ...opts.perFile?.[file.name] };
     try {
-      const parsed = parseNetworkText(new Uint8Array(file.bytes.buffer, file.bytes.byteOffset, file.bytes.byteLength), {
+      const parsed = await parseNetworkFile(new Uint8Array(file.bytes.buffer, file.bytes.byteOffset, file.bytes.byteLength), {
         fileName: file.name,
         format: opts.format,
         kind: opts.kind,
         directed: opts.kind === "unipartite" ? opts.directed : false,
         maxBytes,
+        ...read,
       });
-      out.push({ file, sha256: createHash("sha256").update(file.bytes).digest("hex"), parsed });
+      // Keep only the answers that applied, so a later reading does not carry a meaningless choice.
+      const kept: NetworkReadOptions = {};
+      if (parsed.workbook) kept.sheet = parsed.workbook.sheet;
+      if (parsed.missing.markerCells > 0 && read.missing) kept.missing = read.missing;
+      if (parsed.missing.blankCells > 0 && read.blank) kept.blank = read.blank;
+      out.push({ file, sha256: createHash("sha256").update(file.bytes).digest("hex"), parsed, read: kept });
     } catch (err) {
       if (err instanceof NetworkParseError) {
-        problems.push({ file: err.file || file.name, ...(err.row !== null ? { row: err.row } : {}), ...(err.column !== null ? { column: err.column } : {}), code: err.code, message: err.message });
+        problems.push({
+          file: file.name,
+          ...(err.file && err.file !== file.name ? { where: err.file } : {}),
+          ...(err.row !== null ? { row: err.row } : {}),
+          ...(err.column !== null ? { column: err.column } : {}),
+          code: err.code,
+          message: err.message,
+          ...(err.extra ? { extra: err.extra } : {}),
+        });
       } else throw err;
     }
   }
@@ -242,6 +263,32 @@ function networkColumns(p: ParsedUpload) {
     totalWeight: m.totalWeight,
     connectance: m.connectance,
     parseWarnings: p.parsed.warnings.map((w) => ({ code: w.code, message: w.message, row: w.row, column: w.column, count: w.count })),
+    readOptions: p.read,
+  };
+}
+
+function withMissingValuesOf(meta: Record<string, unknown>, stored: Record<string, unknown>): Record<string, unknown> {
+  const { missingValues: _given, ...rest } = meta;
+  void _given;
+  return stored.missingValues !== undefined ? { ...rest, missingValues: stored.missingValues } : rest;
+}
+
+/**
+ * The network metadata's record of how cells without a number were read (`missingValues`, schema
+ * network.schema.json), from the parse; absent when every cell held a number.
+ */
+export function withMissingValues(meta: Record<string, unknown>, p: ParsedUpload): Record<string, unknown> {
+  const m = p.parsed.missing;
+  const { missingValues: _old, ...rest } = meta;
+  void _old;
+  if (m.markerCells === 0 && m.blankCells === 0) return rest;
+  return {
+    ...rest,
+    missingValues: {
+      ...(m.markerCells > 0 ? { markers: m.markers, markerCells: m.markerCells, markerMeaning: m.markerMeaning ?? "no-interaction" } : {}),
+      blankCells: m.blankCells,
+      blankMeaning: m.blankMeaning,
+    },
   };
 }
 
@@ -262,7 +309,7 @@ export async function assertUploadTarget(versionId: number, viewer: Viewer): Pro
 export async function addNetworks(versionId: number, viewer: Viewer, files: UploadedFile[], opts: UploadOptions): Promise<{ networks: Array<{ id: number; position: number; originalName: string }>; deposit: DepositDetail }> {
   // Visibility and state first, so a refused upload is not parsed for nothing.
   await assertUploadTarget(versionId, viewer);
-  const parsed = parseUploads(files, opts);
+  const parsed = await parseUploads(files, opts);
   const created = await tx(async (t) => {
     const { dataset, version } = await loadOwnEditable(versionId, viewer, t);
     const maxPos = ((await Network.max("position", { where: { versionId: version.id }, transaction: t })) as number | null) ?? 0;
@@ -272,7 +319,14 @@ export async function addNetworks(versionId: number, viewer: Viewer, files: Uplo
       const fileId = await storeFile(p.file.bytes, p.sha256, t);
       pos += 1;
       const n = await Network.create(
-        { versionId: version.id, position: pos, fileId, originalName: p.file.name, metadata: { name: p.file.name.replace(/\.(csv|tsv|txt)$/i, "") }, ...networkColumns(p) },
+        {
+          versionId: version.id,
+          position: pos,
+          fileId,
+          originalName: p.file.name,
+          metadata: withMissingValues({ name: p.parsed.workbook && p.parsed.workbook.sheets.length > 1 ? p.parsed.workbook.sheet : p.file.name.replace(/\.(csv|tsv|txt|xlsx)$/i, "") }, p),
+          ...networkColumns(p),
+        },
         { transaction: t },
       );
       out.push(n);
@@ -298,24 +352,27 @@ export async function updateNetwork(
   versionId: number,
   networkId: number,
   viewer: Viewer,
-  changes: { metadata?: unknown; kind?: UploadOptions["kind"]; directed?: boolean; format?: UploadOptions["format"] },
+  changes: { metadata?: unknown; kind?: UploadOptions["kind"]; directed?: boolean; format?: UploadOptions["format"]; read?: NetworkReadOptions },
   asCurator = false,
 ): Promise<DepositDetail> {
   const meta = changes.metadata !== undefined ? checkMetadataObject(changes.metadata, "Network metadata") : undefined;
-  const reparse = changes.kind !== undefined || changes.directed !== undefined || changes.format !== undefined;
+  const reparse = changes.kind !== undefined || changes.directed !== undefined || changes.format !== undefined || changes.read !== undefined;
   if (asCurator && reparse) throw ApiError.badRequest("Curators correct metadata only; ask the depositor to change how a file is read.");
   const { dataset, version } = await tx(async (t) => {
     const r = asCurator ? await loadCuratorEditable(versionId, viewer, t) : await loadOwnEditable(versionId, viewer, t);
     const net = await loadNetworkOf(r.version, networkId, t);
     const before = net.metadata;
     const update: Record<string, unknown> = {};
-    if (meta) update.metadata = meta;
+    // `missingValues` records what the parser was told about the file's cells: it follows the file, not the form.
+    if (meta) update.metadata = withMissingValuesOf(meta, net.metadata ?? {});
     if (reparse) {
       const file = await StoredFile.unscoped().findByPk(net.fileId, { transaction: t });
       if (!file) throw ApiError.notFound("The stored file is missing.");
       const kind = changes.kind ?? net.kind;
-      const [p] = parseUploads([{ name: net.originalName, bytes: file.bytes }], { kind, directed: changes.directed ?? net.directed, format: changes.format ?? net.format });
+      const read = { ...(net.readOptions ?? {}), ...changes.read };
+      const [p] = await parseUploads([{ name: net.originalName, bytes: file.bytes }], { kind, directed: changes.directed ?? net.directed, format: changes.format ?? net.format, read });
       Object.assign(update, networkColumns(p));
+      update.metadata = withMissingValues((update.metadata as Record<string, unknown> | undefined) ?? net.metadata ?? {}, p);
     }
     await net.update(update, { transaction: t });
     await bump(r.version, t);
@@ -454,9 +511,9 @@ export async function startNewVersion(accession: string, viewer: Viewer): Promis
     const version = await DatasetVersion.create({ datasetId: dataset.id, number, state: "draft", metadata: latest.metadata }, { transaction: t });
     await sequelize().query(
       `INSERT INTO networks (version_id, position, file_id, original_name, format, kind, directed, weighted, metadata, canonical,
-         n_nodes, n_rows, n_cols, n_links, total_weight, connectance, parse_warnings, created_at, updated_at)
+         n_nodes, n_rows, n_cols, n_links, total_weight, connectance, parse_warnings, read_options, created_at, updated_at)
        SELECT :newId, position, file_id, original_name, format, kind, directed, weighted, metadata, canonical,
-         n_nodes, n_rows, n_cols, n_links, total_weight, connectance, parse_warnings, now(), now()
+         n_nodes, n_rows, n_cols, n_links, total_weight, connectance, parse_warnings, read_options, now(), now()
          FROM networks WHERE version_id = :oldId ORDER BY position`,
       { replacements: { newId: version.id, oldId: latest.id }, transaction: t },
     );

@@ -1,5 +1,6 @@
 /**
- * Reading an upload into network files: one or more CSV/TSV files, or one zip holding them.
+ * Reading an upload into network files: one or more CSV/TSV/.xlsx files, or one zip holding them. A zip
+ * is told from a workbook (also a zip container) by its content (shared/network/parse/signature.ts).
  *
  * Zip rules (yauzl, read from memory): files may sit at the top level or inside one single top folder;
  * deeper folders are refused ("nested folders"); names with `..`, absolute paths, drive letters or
@@ -8,6 +9,7 @@
  * zip bomb stops at the upload limit instead of filling memory. Every problem names the file.
  */
 import yauzl from "yauzl";
+import { detectSignature } from "../../../../shared/network/parse/signature";
 import type { ErrorDetail } from "../../lib/api-error";
 import { ApiError } from "../../lib/api-error";
 
@@ -16,11 +18,20 @@ export interface UploadedFile {
   bytes: Buffer;
 }
 
-export const NETWORK_FILE = /\.(csv|tsv|txt)$/i;
+export const NETWORK_FILE = /\.(csv|tsv|txt|xlsx)$/i;
 const JUNK = /(^|\/)(__MACOSX\/|\._[^/]*$|\.DS_Store$)/;
 
+/** A zip of network files: named .zip, or a zip container that is not a workbook or other document. */
 export function isZip(name: string, bytes: Buffer): boolean {
-  return /\.zip$/i.test(name) || (bytes.length >= 4 && bytes.readUInt32LE(0) === 0x04034b50);
+  if (/\.zip$/i.test(name)) return true;
+  return bytes.length >= 4 && bytes.readUInt32LE(0) === 0x04034b50 && detectSignature(bytes)?.type === "zip";
+}
+
+/** Why a file is not accepted: what its name or content says it is. */
+function notANetworkFile(name: string, bytes: Buffer): string {
+  const sig = detectSignature(bytes);
+  const what = sig ? `${sig.what}` : "not a network file";
+  return `"${name}" is ${what}: only .csv, .tsv, .txt or .xlsx files (one network each), or one zip of them, are accepted.`;
 }
 
 function unsafeName(name: string): boolean {
@@ -84,7 +95,7 @@ export async function readZip(zipName: string, bytes: Buffer, limits: { maxBytes
         }
         if (segs.length === 2) topFolders.add(segs[0]);
         if (!NETWORK_FILE.test(name)) {
-          problems.push({ file: `${zipName}: ${name}`, message: `"${name}" is not a network file: only .csv, .tsv or .txt files (one network each) may be in the zip.` });
+          problems.push({ file: `${zipName}: ${name}`, message: `"${name}" is not a network file: only .csv, .tsv, .txt or .xlsx files (one network each) may be in the zip.` });
           return next();
         }
         if (entry.uncompressedSize > limits.maxBytes || expanded + entry.uncompressedSize > limits.maxBytes) {
@@ -134,6 +145,6 @@ export async function expandUpload(files: Array<{ originalname: string; buffer: 
     return readZip(zips[0].originalname, zips[0].buffer, limits);
   }
   const bad = files.filter((f) => !NETWORK_FILE.test(f.originalname));
-  if (bad.length) throw ApiError.unprocessable("Only CSV or TSV network files (.csv, .tsv, .txt) or one zip may be uploaded.", bad.map((f) => ({ file: f.originalname, message: `"${f.originalname}" is not a network file (.csv, .tsv or .txt).` })));
+  if (bad.length) throw ApiError.unprocessable("Only network files (.csv, .tsv, .txt, .xlsx) or one zip may be uploaded.", bad.map((f) => ({ file: f.originalname, message: notANetworkFile(f.originalname, f.buffer) })));
   return files.map((f) => ({ name: f.originalname, bytes: f.buffer }));
 }

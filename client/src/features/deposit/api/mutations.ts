@@ -10,14 +10,22 @@ import { depositKeys, type DepositDetail } from "./types";
 
 export const createDeposit = (metadata: unknown) => apiFetch<DepositDetail>("/deposits", { method: "POST", json: { metadata } });
 export const updateStudyMetadata = (id: number, metadata: unknown) => apiFetch<DepositDetail>(`/deposits/${id}/metadata`, { method: "PUT", json: { metadata } });
-export const uploadNetworks = (id: number, files: File[], opts: { kind: string; directed: boolean }) => {
+/** Per file: the workbook sheet and what NA-like and blank cells mean (the upload's `fileOptions`). */
+export interface FileReadOptions {
+  sheet?: string;
+  missing?: "no-interaction" | "not-observed";
+  blank?: "no-interaction" | "not-observed";
+}
+
+export const uploadNetworks = (id: number, files: File[], opts: { kind: string; directed: boolean; fileOptions?: Record<string, FileReadOptions> }) => {
   const form = new FormData();
   form.set("kind", opts.kind);
   form.set("directed", String(opts.directed));
+  if (opts.fileOptions && Object.keys(opts.fileOptions).length) form.set("fileOptions", JSON.stringify(opts.fileOptions));
   for (const f of files) form.append("files", f, f.name);
   return apiFetch<{ networks: Array<{ id: number; position: number; originalName: string }>; deposit: DepositDetail }>(`/deposits/${id}/networks`, { method: "POST", body: form });
 };
-export const updateNetwork = (id: number, networkId: number, changes: { metadata?: unknown; kind?: string; directed?: boolean }) =>
+export const updateNetwork = (id: number, networkId: number, changes: { metadata?: unknown; kind?: string; directed?: boolean } & FileReadOptions) =>
   apiFetch<DepositDetail>(`/deposits/${id}/networks/${networkId}`, { method: "PATCH", json: changes });
 export const deleteNetwork = (id: number, networkId: number) => apiFetch<DepositDetail>(`/deposits/${id}/networks/${networkId}`, { method: "DELETE" });
 export const reorderNetworks = (id: number, order: number[]) => apiFetch<DepositDetail>(`/deposits/${id}/networks/order`, { method: "PUT", json: { order } });

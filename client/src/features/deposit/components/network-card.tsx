@@ -52,6 +52,42 @@ function ReadAs({ versionId, n }: { versionId: number; n: NetworkSummary }) {
   );
 }
 
+/** Answers about the file that can change after upload: two-mode data read as one-mode, what NA-like or blank cells mean. */
+function FileQuestions({ versionId, n }: { versionId: number; n: NetworkSummary }) {
+  const m = useDepositMutation((changes: Parameters<typeof updateNetwork>[2]) => updateNetwork(versionId, n.id, changes));
+  const twoMode = n.kind === "unipartite" && n.warnings.some((w) => w.code === "two-mode");
+  const mv = n.metadata.missingValues;
+  const other = (v: string | undefined) => (v === "not-observed" ? "no-interaction" : "not-observed");
+  const label = (v: string | undefined) => (v === "not-observed" ? "not observed" : "no interaction (0)");
+  if (!twoMode && !mv) return null;
+  return (
+    <div className="mt-2 flex flex-wrap items-center gap-2 text-sm">
+      {twoMode && (
+        <Button type="button" variant="secondary" className="px-3 py-1 text-sm" busy={m.isPending} onClick={() => m.mutate({ kind: "bipartite" })}>
+          Read as bipartite
+        </Button>
+      )}
+      {mv?.markerCells ? (
+        <span>
+          {mv.markerCells} cell(s) marked {(mv.markers ?? []).join(", ")}: {label(mv.markerMeaning)}.{" "}
+          <button type="button" className="font-semibold text-moss-700 underline" onClick={() => m.mutate({ missing: other(mv.markerMeaning) })}>
+            Read them as {label(other(mv.markerMeaning))}
+          </button>
+        </span>
+      ) : null}
+      {mv && mv.blankCells > 0 ? (
+        <span>
+          {mv.blankCells} empty cell(s): {label(mv.blankMeaning)}.{" "}
+          <button type="button" className="font-semibold text-moss-700 underline" onClick={() => m.mutate({ blank: other(mv.blankMeaning) })}>
+            Read them as {label(other(mv.blankMeaning))}
+          </button>
+        </span>
+      ) : null}
+      {m.error && <p role="alert" className="w-full text-red-800">{m.error.message}</p>}
+    </div>
+  );
+}
+
 export function NetworkCard({ versionId, n, count, editable, showAll, onMove }: { versionId: number; n: NetworkSummary; count: number; editable: boolean; showAll: boolean; onMove: (dir: -1 | 1) => void }) {
   const [draft, setDraft] = useState<NetworkDraft>(n.metadata as NetworkDraft);
   const [saved, setSaved] = useState(false);
@@ -69,6 +105,7 @@ export function NetworkCard({ versionId, n, count, editable, showAll, onMove }: 
           </h3>
           <NetworkSummaryLine n={n} />
           {editable && <ReadAs key={`${n.kind}-${n.directed}`} versionId={versionId} n={n} />}
+          {editable && <FileQuestions versionId={versionId} n={n} />}
           {n.warnings.length > 0 && (
             <ul className="mt-1 list-disc pl-5 text-sm text-stone-800">
               {n.warnings.map((w, i) => (
