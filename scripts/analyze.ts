@@ -2,8 +2,13 @@
  * Command-line analysis of one network file, with the same engine and defaults as the web pipeline:
  *
  *   npm run -s analyze -- FILE [--kind bipartite|unipartite] [--directed] [--format auto|matrix|edgelist]
- *                          [--restarts N] [--nulls N] [--null-model er|curveball|patefield] [--seed N]
+ *                          [--restarts N] [--nulls N] [--null-models M1,M2,…] [--seed N]
  *                          [--annealing auto|on|off] [--objective newman|newman-directed|barber] [--json]
+ *
+ * Null models: by default the standard set of the network's kind of data (fixed degrees first, the
+ * primary); `--null-models` names others (the first is the primary; `--null-model M` is one model).
+ * In --json, `null` holds the primary's figures (same fields as always) and `nulls` every model's, each
+ * with its `model`.
  *
  * Without --json: a readable summary. With --json: one JSON object on stdout (shared/network/analyze.ts
  * describes every field). Exit codes: 0 done; 1 the file cannot be read or parsed (the message names
@@ -21,14 +26,14 @@ import { parseArgs } from "node:util";
 import { analyzeNetwork, ANALYZE_DEFAULTS, type AnalysisResult } from "../shared/network/analyze";
 import { NetworkEngineError } from "../shared/network/errors";
 import { objectiveLabel } from "../shared/network/modularity/quality";
-import { nullModelLabel, type NullModelName } from "../shared/network/null-models/index";
+import { NULL_MODEL_INFO, NULL_MODELS, nullModelLabel, type NullModelName } from "../shared/network/null-models/index";
 import type { AnnealingMode } from "../shared/network/optimizer/optimize";
 import type { OptimizerObjective } from "../shared/network/optimizer/quality-graph";
 import { NetworkParseError, parseNetworkText, type ParseResult } from "../shared/network/parse/index";
 import type { NetworkKind } from "../shared/network/types";
 
 const USAGE = `usage: npm run -s analyze -- FILE [--kind bipartite|unipartite] [--directed]
-         [--format auto|matrix|edgelist] [--restarts N] [--nulls N] [--null-model er|curveball|patefield]
+         [--format auto|matrix|edgelist] [--restarts N] [--nulls N] [--null-models ${NULL_MODELS.join("|")},…]
          [--seed N] [--annealing auto|on|off] [--objective newman|newman-directed|barber] [--json]`;
 
 class OptionError extends Error {}
@@ -62,6 +67,7 @@ function readOptions(argv: string[]) {
         restarts: { type: "string" },
         nulls: { type: "string" },
         "null-model": { type: "string" },
+        "null-models": { type: "string" },
         seed: { type: "string" },
         annealing: { type: "string" },
         objective: { type: "string" },
@@ -88,12 +94,22 @@ function readOptions(argv: string[]) {
     format: oneOf("format", values.format, ["auto", "matrix", "edgelist"] as const) ?? "auto",
     restarts: intOption("restarts", values.restarts, ANALYZE_DEFAULTS.restarts, 1, 100000),
     nulls: intOption("nulls", values.nulls, ANALYZE_DEFAULTS.nulls, 0, 100000),
-    nullModel: oneOf<NullModelName>("null-model", values["null-model"], ["er", "curveball", "patefield"]),
+    nullModels: nullModelsOption(values["null-models"], values["null-model"]),
     seed: intOption("seed", values.seed, ANALYZE_DEFAULTS.seed, 0, 0xffffffff),
     annealing: oneOf<AnnealingMode>("annealing", values.annealing, ["auto", "on", "off"]) ?? ANALYZE_DEFAULTS.annealing,
     objective: oneOf<OptimizerObjective>("objective", values.objective, ["newman", "newman-directed", "barber"]),
     json: values.json === true,
   };
+}
+
+function nullModelsOption(list: string | undefined, one: string | undefined): NullModelName[] | undefined {
+  if (list !== undefined && one !== undefined) throw new OptionError("give --null-models or --null-model, not both");
+  const raw = list ?? one;
+  if (raw === undefined) return undefined;
+  const names = raw.split(",").map((x) => x.trim()).filter(Boolean);
+  if (!names.length) throw new OptionError("--null-models needs at least one model");
+  for (const n of names) if (!(NULL_MODELS as readonly string[]).includes(n)) throw new OptionError(`--null-model(s): unknown null model "${n}"; one of ${NULL_MODELS.join(", ")}`);
+  return names as NullModelName[];
 }
 
 /** Parses the file, choosing the kind when it was not given (see the file header). */
@@ -161,17 +177,22 @@ function summary(file: string, r: AnalysisResult, detection: string | null, warn
   else {
     const lone =
       r.isolated === 1 ? " (1 of them a single node without links)" : r.isolated > 1 ? ` (${r.isolated} of them single nodes without links)` : "";
-    lines.push(`    Q = ${fmt(m.Q, 6)} with ${m.modules} ${m.modules === 1 ? "module" : "modules"}${lone}`);
+    lines.push(`    Q = ${fmt(m.Q, 6)} with ${m.modules} ${m.modules === 1 ? "module" : "modules"} of linked nodes${lone ? ` (not counting isolated nodes${lone})` : ""}`);
     lines.push(
       `    ${m.restarts.n} restarts: min ${fmt(m.restarts.min, 6)}, median ${fmt(m.restarts.median, 6)}, max ${fmt(m.restarts.max, 6)}; ` +
-        `${Math.round((m.restarts.bestShare ?? 0) * 100)} % reached the best`,
+        `${Math.round((m.restarts.bestShare ?? 0) * 100)} % reached the reported Q`,
     );
   }
-  if (r.null) {
-    const n = r.null;
-    lines.push(`  significance: ${n.n} null networks, ${nullModelLabel(n.model)}`);
-    lines.push(`    null Q mean ${fmt(n.mean, 6)}, sd ${fmt(n.sd, 6)}; z = ${fmt(n.z, 2)}, Q_rel = ${fmt(n.qRel, 3)}, ΔQ = ${fmt(n.deltaQ, 6)}, p = ${fmt(n.p, 4)}`);
-    if (n.unstable) lines.push(`    caution: ${n.unstableReason}`);
+  if (r.nulls && r.nulls.length) {
+    lines.push(`  significance (${r.nulls[0].n} null networks per model, each optimized like the observed one):`);
+    for (const n of r.nulls) {
+      const p = n.p === null ? "—" : `${n.pAtFloor ? "≤ " : ""}${fmt(n.p, 4)}`;
+      lines.push(`    ${nullModelLabel(n.model)}${n.primary ? " [primary]" : ""}${n.liberal ? " [liberal]" : ""}`);
+      lines.push(`      null Q mean ${fmt(n.mean, 6)}, sd ${fmt(n.sd, 6)}; z = ${fmt(n.z, 2)} ± ${fmt(n.zSe, 2)}, Q_rel = ${fmt(n.qRel, 3)}, ΔQ = ${fmt(n.deltaQ, 6)}, p = ${p}`);
+      if (n.nodf && n.nodf.mean !== null) lines.push(`      NODF of the same nulls: mean ${fmt(n.nodf.mean, 2)}, z = ${fmt(n.nodf.z, 2)}, p = ${n.nodf.pAtFloor ? "≤ " : ""}${fmt(n.nodf.p, 4)}`);
+      if (n.unstable) lines.push(`      caution: ${n.unstableReason}`);
+      if (n.liberal) lines.push(`      liberal: ${NULL_MODEL_INFO[n.model].caution}`);
+    }
   } else if (r.nullSkippedReason) lines.push(`  significance: ${r.nullSkippedReason}`);
   if (r.roles) {
     const c = r.roles.counts;
@@ -179,7 +200,10 @@ function summary(file: string, r: AnalysisResult, detection: string | null, warn
   }
   lines.push(`  NODF ${fmt(r.nodf, 2)}` + (r.nodf !== null ? ` (rows ${fmt(r.nodfRows, 2)}, columns ${fmt(r.nodfCols, 2)})` : ""));
   lines.push(`  ${r.algorithm.name}, ${r.algorithm.version}, seed ${r.algorithm.seed}; ${r.elapsedMs} ms`);
-  lines.push("  Raw Q depends on size, connectance and sampling effort: compare networks by z or Q_rel. Modularity maxima are degenerate: partitions of near-equal Q can differ.");
+  lines.push("  What the figures control for: z, Q_rel, ΔQ and p compare Q with its null model only (the model named above);");
+  lines.push("  none of them is free of size, connectance or sampling effort — z and Q_rel grow with network size for the same");
+  lines.push("  process — so compare networks of similar S and C, or adjust for S and C across a selection. Modularity maxima are");
+  lines.push("  degenerate (partitions of near-equal Q can differ) and have a resolution limit: small modules can merge in large networks.");
   return lines.join("\n");
 }
 
@@ -222,7 +246,7 @@ function main(argv: string[]): number {
       objective: opts.objective,
       restarts: opts.restarts,
       nulls: opts.nulls,
-      nullModel: opts.nullModel,
+      nullModels: opts.nullModels,
       seed: opts.seed,
       annealing: opts.annealing,
     });

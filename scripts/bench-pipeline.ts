@@ -176,7 +176,7 @@ for (let i = 0; i < IDLE_REQUESTS; i++) {
 }
 
 // ---- the batch -------------------------------------------------------------------------------------
-const settings = { objective: "auto" as const, restarts: RESTARTS, nullModel: "auto" as const, nulls: NULLS, seed: 1, annealing: ANNEALING };
+const settings = { objective: "auto" as const, restarts: RESTARTS, nullModels: "standard" as const, nulls: NULLS, seed: 1, annealing: ANNEALING };
 const load0 = loadavg()[0];
 const stat0 = procStat();
 const cpu0 = process.cpuUsage();

@@ -7,13 +7,22 @@
  * (roles/roles.ts) of the best partition and nestedness NODF (nestedness/nodf.ts), the algorithm, version
  * and seed, and the elapsed time.
  *
- * Defaults (exposed as ANALYZE_DEFAULTS): 20 restarts, 100 null replicates, seed 1, annealing "auto",
- * objective by network kind (Barber's Q_B for bipartite, Leicht–Newman for directed, Newman–Girvan
- * otherwise). Default null model: "patefield" (fixed row and column totals) for weighted networks whose
- * weights are all integers (interaction counts) when the model applies (bipartite or directed), so that
- * quantitative Q is compared with quantitative nulls; "er" (same size and connectance, the product's
- * default) for binary networks and for weights Patefield cannot take (non-integer, or an undirected
- * one-mode network).
+ * Defaults (exposed as ANALYZE_DEFAULTS): 20 restarts, 100 null replicates per null model, seed 1,
+ * annealing "auto", objective by network kind (Barber's Q_B for bipartite, Leicht–Newman for directed,
+ * Newman–Girvan otherwise). Null models: the standard set of the network's kind of data with its primary
+ * null first (null-models/index.ts `standardNullModels`; README "Null models"), or the models asked for
+ * (`nullModels`, the first is the primary; `nullModel` for one). A model that does not fit the network is
+ * refused with NetworkEngineError (a configuration error: retrying cannot help). The output keeps `null`
+ * (the primary null's figures, with its `model`) and lists every model's figures in `nulls`, each with its
+ * model name; NODF is compared with the same null networks.
+ *
+ * Reported choices (README "Decisions"): when the best Q is 0 (within 1e-12) — a complete bipartite
+ * matrix, a complete graph, any tie at Q = 0 — the partition is one module of all linked nodes, not one
+ * module per node; `modules` counts modules holding at least one linked node (isolated nodes each sit
+ * alone in the partition and are counted apart in `isolatedNodes`); `restarts.bestShare` is the share of
+ * restarts that reached the reported Q (after annealing), so it can be 0 when annealing found a better
+ * partition than every restart; roles use strengths when the network is weighted (the weights the
+ * partition was optimized with), and a node whose z is undefined gets no role.
  *
  * Partition in the output: node label → module number (0-based, numbered in order of first appearance,
  * rows first). In a bipartite network a label used by both a row node and a column node (two different
@@ -24,11 +33,15 @@
  */
 import { basicMetrics } from "./metrics/basic";
 import { nodf } from "./nestedness/nodf";
-import type { NullModelName } from "./null-models/index";
+import { NetworkEngineError } from "./errors";
+import {
+  NULL_MODEL_INFO, isNullModelName, nullDataKind, nullModelProblem, nullModelLabel, standardNullModels,
+  type NullDataKind, type NullModelName,
+} from "./null-models/index";
 import { optimizeModularity, type AnnealingMode, DEFAULT_RESTARTS, DEFAULT_SEED } from "./optimizer/optimize";
 import type { OptimizerObjective } from "./optimizer/quality-graph";
 import { nodeRoles, ROLE_THRESHOLDS, type NodeRoleName } from "./roles/roles";
-import { nullReplicateQ, summarizeNulls, type NullSummary } from "./significance";
+import { nullReplicateStats, summarizeNodf, summarizeNulls, type NodfNullSummary, type NullReplicate, type NullSummary } from "./significance";
 import type { Network } from "./types";
 import { ENGINE_VERSION } from "./version";
 
@@ -43,11 +56,88 @@ export interface AnalyzeSettings {
   objective?: OptimizerObjective;
   restarts?: number;
   nulls?: number;
+  /** One null model only (the primary). */
   nullModel?: NullModelName;
+  /** The null models to compute, primary first (default: the standard set of the network's kind). */
+  nullModels?: readonly NullModelName[];
   seed?: number;
   annealing?: AnnealingMode;
-  /** Null Q values computed elsewhere for replicates 0..N−1 with the same settings (see nullReplicateQ). */
-  nullQs?: readonly number[];
+  /** Replicates 0..N−1 of each model computed elsewhere with the same settings (see nullReplicateStats). */
+  nullReplicates?: Partial<Record<NullModelName, ReadonlyArray<NullReplicate | null>>>;
+}
+
+/** The figures of one null model: modularity against its nulls, and NODF against the same nulls. */
+export interface NullFigures extends NullSummary {
+  model: NullModelName;
+  /** What the model is, in a few words (e.g. "fixed degrees"). */
+  title: string;
+  primary: boolean;
+  /** Calls some non-modular networks modular (NULL_MODEL_INFO[model].caution says which). */
+  liberal: boolean;
+  nodf: NodfNullSummary | null;
+}
+
+export interface NullModelChoice {
+  dataKind: NullDataKind;
+  primary: NullModelName;
+  models: NullModelName[];
+  /** True when these are the standard set of the kind, false when asked for. */
+  standard: boolean;
+}
+
+/**
+ * The null models for a network: the standard set, or the models asked for (primary first). Throws
+ * NetworkEngineError("unsupported" | "non-integer-weights") naming the model and why when one does not fit.
+ */
+export function resolveNullModels(net: Network, settings: Pick<AnalyzeSettings, "nullModel" | "nullModels"> = {}): NullModelChoice {
+  const asked = settings.nullModels ?? (settings.nullModel ? [settings.nullModel] : null);
+  const dataKind = nullDataKind(net);
+  if (!asked) {
+    const std = standardNullModels(net);
+    return { dataKind, primary: std.primary, models: std.models, standard: true };
+  }
+  const models: NullModelName[] = [];
+  for (const m of asked) {
+    if (!isNullModelName(m)) throw new RangeError(`unknown null model "${String(m)}"`);
+    if (!models.includes(m)) models.push(m);
+  }
+  if (!models.length) throw new RangeError("at least one null model is needed");
+  for (const m of models) {
+    const problem = nullModelProblem(m, net);
+    if (problem) {
+      throw new NetworkEngineError(problem.includes("integers") ? "non-integer-weights" : "unsupported", `The ${nullModelLabel(m)} null model does not fit this network: ${problem}`);
+    }
+  }
+  return { dataKind, primary: models[0], models, standard: false };
+}
+
+/** Figures of every model from its replicates (replicate order), primary first. */
+export function buildNullFigures(
+  Q: number,
+  observedNodf: number | null,
+  choice: NullModelChoice,
+  replicates: Partial<Record<NullModelName, ReadonlyArray<NullReplicate | null>>>,
+): NullFigures[] {
+  return choice.models.map((model) => {
+    const reps = (replicates[model] ?? []).filter((r): r is NullReplicate => r !== null);
+    const info = NULL_MODEL_INFO[model];
+    return {
+      model,
+      title: info.title,
+      primary: model === choice.primary,
+      liberal: info.liberal,
+      ...summarizeNulls(Q, reps.map((r) => r.q)),
+      nodf: summarizeNodf(observedNodf, reps.map((r) => r.nodf)),
+    };
+  });
+}
+
+/** The `null` object of the output: the primary's figures in the fields the first engine had, plus the new ones. */
+export function primaryNull(figures: NullFigures[]): (NullSummary & { model: NullModelName }) | null {
+  const p = figures.find((f) => f.primary) ?? figures[0];
+  if (!p) return null;
+  const { title: _t, primary: _p, liberal: _l, nodf: _n, ...rest } = p;
+  return rest;
 }
 
 export interface AnalysisRole {
@@ -76,12 +166,19 @@ export interface AnalysisResult {
     objective: OptimizerObjective;
     Q: number | null;
     undefinedReason?: string;
+    /** Modules holding at least one linked node (isolated nodes are not counted). */
     modules: number;
+    /** Nodes without links: each sits alone in the partition and is not counted in `modules`. */
+    isolatedNodes: number;
     partition: Record<string, number>;
     restarts: { n: number; min: number | null; median: number | null; max: number | null; bestShare: number | null; qs: number[] };
   };
-  /** Present when nulls > 0; null (with nullSkippedReason) when modularity is undefined. */
+  /** Present when nulls > 0: the primary null model's figures; null (with nullSkippedReason) when modularity is undefined. */
   null?: (NullSummary & { model: NullModelName }) | null;
+  /** Present when nulls > 0: every null model's figures, primary first (empty when modularity is undefined). */
+  nulls?: NullFigures[];
+  /** The data kind, the null models and the primary (present when nulls > 0). */
+  nullModels?: NullModelChoice;
   nullSkippedReason?: string;
   nodf: number | null;
   nodfRows: number | null;
@@ -100,23 +197,15 @@ export interface AnalysisResult {
   elapsedMs: number;
 }
 
-/** Default null model for a network (see the file header). */
-export function defaultNullModel(net: Network): NullModelName {
-  if (!net.weighted) return "er";
-  if (net.kind === "unipartite" && !net.directed) return "er";
-  for (let e = 0; e < net.weights.length; e++) if (!Number.isInteger(net.weights[e])) return "er";
-  return "patefield";
-}
-
 function checkSettings(s: AnalyzeSettings, nulls: number) {
   if (!Number.isInteger(nulls) || nulls < 0 || nulls > 100000) {
     throw new RangeError(`nulls must be an integer from 0 to 100000, got ${nulls}`);
   }
-  if (s.nullModel !== undefined && !["er", "curveball", "patefield"].includes(s.nullModel)) {
-    throw new RangeError(`null model must be "er", "curveball" or "patefield", got ${String(s.nullModel)}`);
+  if (s.nullModel !== undefined && !isNullModelName(s.nullModel)) {
+    throw new RangeError(`unknown null model "${String(s.nullModel)}"`);
   }
-  if (s.nullQs !== undefined && s.nullQs.length !== nulls) {
-    throw new RangeError(`nullQs has ${s.nullQs.length} values but nulls is ${nulls}`);
+  for (const [model, reps] of Object.entries(s.nullReplicates ?? {})) {
+    if (reps && reps.length !== nulls) throw new RangeError(`nullReplicates.${model} has ${reps.length} values but nulls is ${nulls}`);
   }
 }
 
@@ -133,41 +222,47 @@ function now(): number {
 export function analyzeNetwork(net: Network, settings: AnalyzeSettings = {}): AnalysisResult {
   const t0 = now();
   const restarts = settings.restarts ?? ANALYZE_DEFAULTS.restarts;
-  const nulls = settings.nulls ?? settings.nullQs?.length ?? ANALYZE_DEFAULTS.nulls;
+  const givenCounts = Object.values(settings.nullReplicates ?? {}).map((r) => r?.length ?? 0);
+  const nulls = settings.nulls ?? (givenCounts.length ? givenCounts[0] : ANALYZE_DEFAULTS.nulls);
   const seed = settings.seed ?? ANALYZE_DEFAULTS.seed;
   const annealing = settings.annealing ?? ANALYZE_DEFAULTS.annealing;
   checkSettings(settings, nulls);
-  const nullModel = settings.nullModel ?? defaultNullModel(net);
+  const choice = nulls > 0 ? resolveNullModels(net, settings) : null;
 
   const basic = basicMetrics(net);
   const opt = optimizeModularity(net, { objective: settings.objective, restarts, seed, annealing });
   const labels = nodeLabels(net);
+  const reported = reportedPartition(net, opt.partition, opt.Q);
   const partition: Record<string, number> = {};
-  for (let v = 0; v < labels.length; v++) partition[labels[v]] = opt.partition[v];
+  for (let v = 0; v < labels.length; v++) partition[labels[v]] = reported.partition[v];
+  const nest = nodf(net);
 
-  let nullPart: AnalysisResult["null"];
+  let nullFigures: NullFigures[] = [];
   let nullSkippedReason: string | undefined;
-  if (nulls > 0) {
+  if (choice) {
     if (opt.Q === null) {
-      nullPart = null;
       nullSkippedReason = "modularity is undefined for this network, so its significance is too";
     } else {
-      const qs: number[] = [];
-      if (settings.nullQs) qs.push(...settings.nullQs);
-      else {
-        for (let r = 0; r < nulls; r++) {
-          const q = nullReplicateQ(net, { model: nullModel, seed, replicate: r, restarts, objective: opt.objective, annealing });
-          if (q !== null) qs.push(q);
+      const reps: Partial<Record<NullModelName, ReadonlyArray<NullReplicate | null>>> = {};
+      for (const model of choice.models) {
+        const given = settings.nullReplicates?.[model];
+        if (given) reps[model] = given;
+        else {
+          const list: Array<NullReplicate | null> = [];
+          for (let r = 0; r < nulls; r++) {
+            list.push(nullReplicateStats(net, { model, seed, replicate: r, restarts, objective: opt.objective, annealing }));
+          }
+          reps[model] = list;
         }
       }
-      nullPart = { model: nullModel, ...summarizeNulls(opt.Q, qs) };
+      nullFigures = buildNullFigures(opt.Q, nest ? nest.nodf : null, choice, reps);
     }
   }
 
   let roles: AnalysisResult["roles"] = null;
   if (opt.Q !== null) {
     const counts: Record<NodeRoleName, number> = { peripheral: 0, connector: 0, "module-hub": 0, "network-hub": 0 };
-    const nodes = nodeRoles(net, opt.partition).map((r) => {
+    const nodes = nodeRoles(net, reported.partition, { weighted: net.weighted }).map((r) => {
       if (r.role) counts[r.role]++;
       return {
         label: labels[r.node],
@@ -181,7 +276,6 @@ export function analyzeNetwork(net: Network, settings: AnalyzeSettings = {}): An
     });
     roles = { thresholds: { z: ROLE_THRESHOLDS.z, p: ROLE_THRESHOLDS.p }, counts, nodes };
   }
-  const nest = nodf(net);
 
   const result: AnalysisResult = {
     kind: net.kind,
@@ -199,14 +293,15 @@ export function analyzeNetwork(net: Network, settings: AnalyzeSettings = {}): An
       objective: opt.objective,
       Q: opt.Q,
       ...(opt.undefinedReason ? { undefinedReason: opt.undefinedReason } : {}),
-      modules: opt.modules,
+      modules: reported.modules,
+      isolatedNodes: reported.isolated,
       partition,
       restarts: {
         n: opt.restarts.n,
         min: opt.restarts.min,
         median: opt.restarts.median,
         max: opt.restarts.max,
-        bestShare: opt.restarts.bestShare,
+        bestShare: shareReaching(opt.restarts.qs, opt.Q),
         qs: opt.restarts.qs,
       },
     },
@@ -218,14 +313,64 @@ export function analyzeNetwork(net: Network, settings: AnalyzeSettings = {}): An
       name: opt.algorithm.name,
       version: ENGINE_VERSION,
       seed,
-      parameters: { ...opt.algorithm.parameters, nulls, nullModel: nulls > 0 ? nullModel : null },
+      parameters: { ...opt.algorithm.parameters, nulls, nullModels: choice ? choice.models : [], primaryNull: choice ? choice.primary : null },
     },
     elapsedMs: 0,
   };
-  if (nulls > 0) {
-    result.null = nullPart;
+  if (choice) {
+    result.null = primaryNull(nullFigures);
+    result.nulls = nullFigures;
+    result.nullModels = choice;
     if (nullSkippedReason) result.nullSkippedReason = nullSkippedReason;
   }
   result.elapsedMs = Math.round(now() - t0);
   return result;
+}
+
+/** Share of restarts whose Q reached the reported Q (within 1e-10·max(1, |Q|)); null without restarts. */
+export function shareReaching(qs: readonly number[], Q: number | null): number | null {
+  if (Q === null || qs.length === 0) return null;
+  const tol = 1e-10 * Math.max(1, Math.abs(Q));
+  let k = 0;
+  for (const q of qs) if (q >= Q - tol) k++;
+  return k / qs.length;
+}
+
+/** Tolerance under which a best Q counts as 0 (a tie with the one-module partition). */
+export const ZERO_Q_TOLERANCE = 1e-12;
+
+/**
+ * The partition as reported: when the best Q is 0 (a tie with one module), all linked nodes form one
+ * module; isolated nodes keep a module of their own. Modules are numbered in order of first appearance.
+ * `modules` counts modules holding a linked node.
+ */
+export function reportedPartition(net: Network, part: ArrayLike<number>, Q: number | null): { partition: Int32Array; modules: number; isolated: number } {
+  const n = part.length;
+  const I = net.rowLabels.length;
+  const linked = new Uint8Array(n);
+  const bip = net.kind === "bipartite";
+  for (let i = 0; i < I; i++) {
+    for (let p = net.rowPtr[i]; p < net.rowPtr[i + 1]; p++) {
+      linked[i] = 1;
+      linked[bip ? I + net.colIdx[p] : net.colIdx[p]] = 1;
+    }
+  }
+  const oneModule = Q !== null && Math.abs(Q) <= ZERO_Q_TOLERANCE;
+  const out = new Int32Array(n);
+  const renum = new Map<number, number>();
+  let next = 0;
+  const linkedModules = new Set<number>();
+  let isolated = 0;
+  for (let v = 0; v < n; v++) {
+    if (!linked[v]) isolated++;
+    const key = oneModule && linked[v] ? -1 : part[v];
+    let m = renum.get(key);
+    if (m === undefined) {
+      m = next++;
+      renum.set(key, m);
+    }
+    out[v] = m;
+    if (linked[v]) linkedModules.add(m);
+  }
+  return { partition: out, modules: linkedModules.size, isolated };
 }

@@ -22,7 +22,17 @@
  *     distribution of a small, dense matrix, where z's normal reading fails.
  * Q_rel is null when the null mean is 0; z null when sd is 0 or undefined. A Q_null counts as ≥ Q when
  * it is within 1e-10·max(1, |Q|) of Q (ties of the same partition value computed on different arrays).
+ *
+ * Monte Carlo error (the figures depend on the number of nulls N):
+ *   - p: binomial standard error sqrt(p(1 − p)/N); when no null reaches Q, p = 1/(N + 1) is the floor of
+ *     what N nulls can show, so `pAtFloor` is true and p is reported as "≤ 1/(N + 1)".
+ *   - z: delta-method standard error of (Q − mean)/sd with the mean's error sd/√N and the sd's error
+ *     ≈ sd/√(2(N − 1)) (normal null values): se(z) ≈ sqrt(1/N + z²/(2(N − 1))) (standard large-sample
+ *     results; e.g. Kendall & Stuart, The Advanced Theory of Statistics — from memory).
+ * The same summary of NODF over the same null networks (`summarizeNodf`) compares nestedness with the
+ * same nulls: p counts nulls at least as nested as the observed network.
  */
+import { nodf } from "./nestedness/nodf";
 import { generateNull, type NullModelName } from "./null-models/index";
 import { annealingApplies, optimizeModularity, type AnnealingMode } from "./optimizer/optimize";
 import type { OptimizerObjective } from "./optimizer/quality-graph";
@@ -70,16 +80,50 @@ export function nullReplicateQ(net: Network, settings: NullReplicateSettings): n
   return res.Q;
 }
 
+/** Q and NODF of one null replicate (NODF null when undefined for that null network). */
+export interface NullReplicate {
+  q: number;
+  nodf: number | null;
+}
+
+/**
+ * Best Q and NODF of null replicate `replicate` (null when the null network's modularity is undefined).
+ * NODF is computed on the same null network, so nestedness meets the same nulls as modularity.
+ */
+export function nullReplicateStats(net: Network, settings: NullReplicateSettings): NullReplicate | null {
+  const { model, seed, replicate } = settings;
+  const nullNet = nullReplicateNetwork(net, model, seed, replicate);
+  const res = optimizeModularity(nullNet, {
+    objective: settings.objective,
+    restarts: settings.restarts,
+    annealing: annealingApplies(net, settings.annealing ?? "auto") ? "on" : "off",
+    seed: deriveSeed(seed, NULL_STREAM, replicate, OPTIMIZER_STREAM),
+  });
+  if (res.Q === null) return null;
+  return { q: res.Q, nodf: nodf(nullNet)?.nodf ?? null };
+}
+
 export interface NullSummary {
   n: number;
   mean: number | null;
   sd: number | null;
   z: number | null;
+  /** Monte Carlo standard error of z (null when z is). */
+  zSe: number | null;
   qRel: number | null;
   deltaQ: number | null;
   p: number | null;
+  /** Monte Carlo standard error of p (binomial). */
+  pSe: number | null;
+  /** True when no null reached Q: p = 1/(N + 1) is the floor of N nulls, report it as "p ≤". */
+  pAtFloor: boolean;
   unstable: boolean;
   unstableReason?: string;
+}
+
+/** Monte Carlo standard error of z from N nulls (delta method; see the file header). */
+export function zStandardError(z: number, n: number): number {
+  return Math.sqrt(1 / n + (z * z) / (2 * Math.max(1, n - 1)));
 }
 
 export function summarizeNulls(observedQ: number, nullQs: readonly number[]): NullSummary {
@@ -87,7 +131,7 @@ export function summarizeNulls(observedQ: number, nullQs: readonly number[]): Nu
   if (!Number.isFinite(observedQ)) throw new RangeError(`observed Q must be a finite number, got ${observedQ}`);
   for (const q of nullQs) if (!Number.isFinite(q)) throw new RangeError(`null Q values must be finite numbers, got ${q}`);
   if (n === 0) {
-    return { n, mean: null, sd: null, z: null, qRel: null, deltaQ: null, p: null, unstable: true, unstableReason: "no null replicates" };
+    return { n, mean: null, sd: null, z: null, zSe: null, qRel: null, deltaQ: null, p: null, pSe: null, pAtFloor: false, unstable: true, unstableReason: "no null replicates" };
   }
   let sum = 0;
   for (const q of nullQs) sum += q;
@@ -118,7 +162,38 @@ export function summarizeNulls(observedQ: number, nullQs: readonly number[]): Nu
       unstableReason = `only ${distinct} distinct null Q values among ${n}: a small or dense network allows few randomisations, so z is unreliable`;
     }
   }
-  const out: NullSummary = { n, mean, sd, z, qRel, deltaQ, p, unstable: unstableReason !== undefined };
+  const zSe = z === null ? null : zStandardError(z, n);
+  const pSe = Math.sqrt((p * (1 - p)) / n);
+  const out: NullSummary = { n, mean, sd, z, zSe, qRel, deltaQ, p, pSe, pAtFloor: atLeast === 0, unstable: unstableReason !== undefined };
   if (unstableReason) out.unstableReason = unstableReason;
   return out;
+}
+
+export interface NodfNullSummary {
+  n: number;
+  mean: number | null;
+  sd: number | null;
+  z: number | null;
+  /** (1 + #{NODF_null ≥ NODF}) / (N + 1): nulls at least as nested as the observed network. */
+  p: number | null;
+  pAtFloor: boolean;
+}
+
+/** NODF of the observed network against the NODF of the null networks (undefined nulls left out). */
+export function summarizeNodf(observed: number | null, nullNodfs: ReadonlyArray<number | null>): NodfNullSummary | null {
+  if (observed === null) return null;
+  const vals = nullNodfs.filter((v): v is number => v !== null && Number.isFinite(v));
+  const n = vals.length;
+  if (n === 0) return { n, mean: null, sd: null, z: null, p: null, pAtFloor: false };
+  let sum = 0;
+  for (const v of vals) sum += v;
+  const mean = sum / n;
+  let ss = 0;
+  for (const v of vals) ss += (v - mean) * (v - mean);
+  const sd = n >= 2 ? Math.sqrt(ss / (n - 1)) : null;
+  const tol = 1e-9 * Math.max(1, Math.abs(observed));
+  let atLeast = 0;
+  for (const v of vals) if (v >= observed - tol) atLeast++;
+  const z = sd !== null && sd > 1e-9 * Math.max(1, Math.abs(mean)) ? (observed - mean) / sd : null;
+  return { n, mean, sd, z, p: (1 + atLeast) / (n + 1), pAtFloor: atLeast === 0 };
 }

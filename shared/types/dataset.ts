@@ -76,7 +76,50 @@ export interface MissingValuesRecord {
 
 export type MetricsStatus = "none" | "queued" | "running" | "succeeded" | "failed";
 
-/** The current metrics of a network (latest successful run of the current pipeline settings). */
+/** The significance figures of one null model (every z, Q_rel, ΔQ and p travels with its model's name). */
+export interface NullFigureSummary {
+  /** Engine name of the null model (shared/network/null-models: NULL_MODEL_INFO has its title and what it keeps). */
+  model: string;
+  /** The primary null of the network's kind (the figure shown first). */
+  primary: boolean;
+  /** Null replicates behind the figures. */
+  n: number;
+  mean: number | null;
+  sd: number | null;
+  z: number | null;
+  /** Monte Carlo standard error of z. */
+  zSe: number | null;
+  qRel: number | null;
+  deltaQ: number | null;
+  p: number | null;
+  /** Monte Carlo standard error of p. */
+  pSe: number | null;
+  /** No null reached Q: p is the floor 1/(n + 1) and reads "p ≤". */
+  pAtFloor: boolean;
+  unstable: boolean;
+  unstableReason?: string;
+  /** NODF of the same null networks: their mean, the observed NODF's z and p (nulls at least as nested). */
+  nodfMean: number | null;
+  nodfZ: number | null;
+  nodfP: number | null;
+}
+
+/** A computation newer than the figures shown (failed, waiting or running). */
+export interface NewerRunNote {
+  runId: number;
+  status: "failed" | "queued" | "running";
+  at: string | null;
+  /** Curators and admins only: why it failed. */
+  error?: string | null;
+  /** "configuration": a setting does not fit the network (not retried); "computation": the run broke. */
+  errorKind?: "configuration" | "computation" | null;
+}
+
+/**
+ * The metrics of a network: the latest successful run of the current pipeline settings, else the latest
+ * successful run of any settings (the last good figures are never hidden by a failed or newer run), else
+ * the active or failed run.
+ */
 export interface NetworkMetricsSummary {
   status: MetricsStatus;
   runId?: number;
@@ -93,6 +136,18 @@ export interface NetworkMetricsSummary {
   deltaQ?: number | null;
   p?: number | null;
   zUnstable?: boolean;
+  /** The primary null's Monte Carlo errors and floor flag. */
+  zSe?: number | null;
+  pSe?: number | null;
+  pAtFloor?: boolean;
+  /** Every null model's figures, primary first. */
+  nulls?: NullFigureSummary[];
+  /** False when the figures come from a run of older settings (the current settings have no success yet). */
+  currentSettings?: boolean;
+  /** A newer computation than the figures shown: failed (figures shown are from `runId`), or still going. */
+  newer?: NewerRunNote | null;
+  /** Modules holding a linked node (isolated nodes are not counted) and the isolated nodes. */
+  isolatedNodes?: number | null;
   nodf?: number | null;
   algorithm?: { name: string; version: string; seed: number; parameters?: Record<string, unknown> };
   startedAt?: string | null;

@@ -5,15 +5,21 @@
 
 /** "auto": the engine's default for the network (Barber for bipartite, Leicht–Newman for directed, Newman–Girvan otherwise). */
 export type PipelineObjective = "auto" | "newman" | "newman-directed" | "barber";
-/** "auto": Patefield for integer-weighted bipartite/directed data, Erdős–Rényi otherwise (the engine's default). */
-export type PipelineNullModel = "auto" | "er" | "curveball" | "patefield";
+/** A null model of the engine (shared/network/null-models). */
+export type PipelineNullModelName = "curveball" | "probabilistic" | "er" | "totals-connectance" | "patefield" | "weight-shuffle";
+/**
+ * "standard": each network gets the standard set of its kind of data, fixed degrees (curveball) first as
+ * the primary; a list: these models for every network, the first one primary (refused with 422 when one
+ * does not fit a published network).
+ */
+export type PipelineNullModels = "standard" | PipelineNullModelName[];
 
 export interface PipelineSettings {
   objective: PipelineObjective;
   /** Seeded optimizer restarts per network (and per null replicate). */
   restarts: number;
-  nullModel: PipelineNullModel;
-  /** Null replicates per network (0 = no significance test). */
+  nullModels: PipelineNullModels;
+  /** Null replicates per network and null model (0 = no significance test). */
   nulls: number;
   seed: number;
   annealing: "auto" | "on" | "off";
@@ -48,6 +54,25 @@ export interface BatchProgress {
   ratePerMinute: number | null;
   /** Seconds left at the current rate (null when unknown). */
   etaSeconds: number | null;
+}
+
+/** What "recompute all published networks" would do (shown for confirmation before it starts). */
+export interface BatchPreview {
+  settings: PipelineSettings;
+  settingsHash: string;
+  force: boolean;
+  /** Published networks. */
+  networks: number;
+  /** Networks that would be queued (or attached when already waiting). */
+  toCompute: number;
+  /** Networks already computed with these settings (left out unless forced). */
+  skipped: number;
+  /** Networks whose run of these settings is already waiting or running. */
+  alreadyQueued: number;
+  /** Networks that have figures now and would get new ones. */
+  figuresChange: number;
+  /** Networks without any figures yet. */
+  firstFigures: number;
 }
 
 export interface RunFailure {

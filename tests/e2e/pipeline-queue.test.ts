@@ -28,7 +28,7 @@ beforeAll(async () => {
   await resetDatabase();
   await clearQueue((sql) => sequelize().query(sql));
   stack = await startStack();
-  await setPipelineSettings({ objective: "auto", restarts: 3, nullModel: "auto", nulls: 8, seed: 7, annealing: "off" });
+  await setPipelineSettings({ objective: "auto", restarts: 3, nullModels: "standard", nulls: 8, seed: 7, annealing: "off" });
   await createUser({ role: "admin", email: "admin@queue-e2e.test" });
   const { networkIds } = await publishMatrices([
     randomMatrix(61, 8, 10, 0.3),

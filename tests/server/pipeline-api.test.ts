@@ -20,7 +20,7 @@ import { clearQueue, createNetwork, matrixCsv, publishMatrices, randomMatrix } f
 import { startMailCatcher } from "./support/stack";
 import type { MailCatcher } from "../../server/src/lib/mail-catcher";
 
-const LIGHT: PipelineSettings = { objective: "auto", restarts: 2, nullModel: "auto", nulls: 4, seed: 5, annealing: "off" };
+const LIGHT: PipelineSettings = { objective: "auto", restarts: 2, nullModels: "standard", nulls: 4, seed: 5, annealing: "off" };
 const app = createApp();
 let admin: SignedInAgent;
 let curator: SignedInAgent;
@@ -48,7 +48,7 @@ describe("metrics pipeline API", () => {
   it("shows and validates the settings (defaults: 20 restarts, 100 nulls, seed 1)", async () => {
     const res = await admin.agent.get("/api/v1/pipeline/settings");
     expect(res.status).toBe(200);
-    expect(res.body.settings).toEqual({ objective: "auto", restarts: 20, nullModel: "auto", nulls: 100, seed: 1, annealing: "auto" });
+    expect(res.body.settings).toEqual({ objective: "auto", restarts: 20, nullModels: "standard", nulls: 100, seed: 1, annealing: "auto" });
     expect(res.body.settingsHash).toMatch(/^[0-9a-f]{64}$/);
     const bad = await admin.agent.put("/api/v1/pipeline/settings").set("x-csrf-token", admin.csrf).send({ restarts: 0, nullModel: "shuffle", colour: "red" });
     expect(bad.status).toBe(400);
@@ -80,7 +80,7 @@ describe("metrics pipeline API", () => {
       return d.networks.every((n) => n.metrics?.status === "succeeded") && d;
     }, "metrics on the dataset page");
     for (const n of detail.networks) {
-      expect(n.metrics).toMatchObject({ objective: "barber", nullModel: "er", nullN: 4, algorithm: { seed: 5 } });
+      expect(n.metrics).toMatchObject({ objective: "barber", nullModel: "curveball", nullN: 4, algorithm: { seed: 5 } });
       expect(typeof n.metrics!.Q).toBe("number");
       expect(n.metrics!.modules).toBeGreaterThanOrEqual(1);
     }

@@ -9,7 +9,7 @@
 import { afterAll, describe, expect, it } from "vitest";
 import { analyzeNetwork, serializeNetwork, type Network } from "../../shared/network/index";
 import type { PipelineSettings } from "../../shared/types/pipeline";
-import { chunkReplicates, combineAnalysis, nullChunk } from "../../server/src/jobs/compute";
+import { chunkReplicates, combineAnalysis, nullChunk, type NullReplicatesByModel } from "../../server/src/jobs/compute";
 import { closePool, runNulls, runObserved } from "../../server/src/jobs/pool";
 import { davis, karate } from "../shared/optimizer/helpers";
 
@@ -19,34 +19,39 @@ async function threaded(net: Network, s: PipelineSettings, parts: number) {
   const canonical = serializeNetwork(net);
   const observed = await runObserved({ canonical, settings: s });
   const chunks = chunkReplicates(s.nulls, parts);
-  const results = await Promise.all(
-    chunks.map((replicates) => runNulls({ canonical, settings: s, nullModel: observed.nullModel, objective: observed.analysis.modularity.objective, replicates })),
-  );
-  return { observed, nullQs: results.flat() };
+  const byModel: NullReplicatesByModel = {};
+  for (const model of observed.nullChoice.models) {
+    const results = await Promise.all(
+      chunks.map((replicates) => runNulls({ canonical, settings: s, model, objective: observed.analysis.modularity.objective, replicates })),
+    );
+    byModel[model] = results.flat();
+  }
+  return { observed, byModel };
 }
 
 describe("metrics computed on worker threads", () => {
-  it("null replicates over threads in any chunking equal the single-threaded ones (karate, ER null)", async () => {
+  it("null replicates over threads in any chunking equal the single-threaded ones (karate, Erdős–Rényi null)", async () => {
     process.env.TB_METRICS_THREADS = "2";
-    const s: PipelineSettings = { objective: "auto", restarts: 3, nullModel: "auto", nulls: 12, seed: 11, annealing: "off" };
+    const s: PipelineSettings = { objective: "auto", restarts: 3, nullModels: ["er"], nulls: 12, seed: 11, annealing: "off" };
     const net = karate();
-    const single = nullChunk({ canonical: serializeNetwork(net), settings: s, nullModel: "er", objective: "newman", replicates: [...Array(12).keys()] });
+    const single = nullChunk({ canonical: serializeNetwork(net), settings: s, model: "er", objective: "newman", replicates: [...Array(12).keys()] });
     for (const parts of [1, 2, 5, 12]) {
-      const { nullQs } = await threaded(net, s, parts);
-      expect(nullQs).toEqual(single);
+      const { byModel } = await threaded(net, s, parts);
+      expect(byModel.er).toEqual(single);
     }
   });
 
   it("the combined result is exactly analyzeNetwork's for the same settings (Davis, Barber's Q_B)", async () => {
-    const s: PipelineSettings = { objective: "auto", restarts: 4, nullModel: "auto", nulls: 8, seed: 2, annealing: "auto" };
+    const s: PipelineSettings = { objective: "auto", restarts: 4, nullModels: "standard", nulls: 8, seed: 2, annealing: "auto" };
     const net = davis();
-    const { observed, nullQs } = await threaded(net, s, 3);
-    const combined = combineAnalysis(observed, s.nulls, nullQs, 0);
+    const { observed, byModel } = await threaded(net, s, 3);
+    const combined = combineAnalysis(observed, s.nulls, byModel, 0);
     const reference = analyzeNetwork(net, { restarts: 4, nulls: 8, seed: 2, annealing: "auto" });
     expect({ ...combined, elapsedMs: 0 }).toEqual({ ...reference, elapsedMs: 0 });
     expect(JSON.stringify({ ...combined, elapsedMs: 0 })).toBe(JSON.stringify({ ...reference, elapsedMs: 0 }));
     expect(combined.modularity.objective).toBe("barber");
     expect(combined.null!.n).toBe(8);
+    expect(combined.nulls!.map((f) => f.model)).toEqual(["curveball", "probabilistic", "er"]);
   });
 
   it("splits replicates into contiguous chunks covering 0..n−1 once", () => {

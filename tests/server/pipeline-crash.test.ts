@@ -16,7 +16,7 @@ import { waitFor as waitUntil } from "./support/wait";
 import { clearQueue, publishMatrices, randomMatrix } from "./support/pipeline-fixtures";
 
 // Enough work for the job to be caught mid-way (a few seconds on two threads), small enough for a test.
-const SETTINGS: PipelineSettings = { objective: "auto", restarts: 4, nullModel: "er", nulls: 60, seed: 3, annealing: "off" };
+const SETTINGS: PipelineSettings = { objective: "auto", restarts: 4, nullModels: ["er"], nulls: 60, seed: 3, annealing: "off" };
 const JOB_ENV = {
   TB_METRICS_JOB_EXPIRE_SECONDS: "5",
   TB_METRICS_MAINTENANCE_SECONDS: "1",

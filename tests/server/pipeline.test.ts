@@ -21,7 +21,7 @@ import { resetDatabase } from "../setup/db";
 import { waitFor } from "./support/wait";
 import { clearQueue, createNetwork, matrixCsv, publishMatrices, randomMatrix } from "./support/pipeline-fixtures";
 
-const LIGHT: PipelineSettings = { objective: "auto", restarts: 3, nullModel: "auto", nulls: 6, seed: 7, annealing: "auto" };
+const LIGHT: PipelineSettings = { objective: "auto", restarts: 3, nullModels: "standard", nulls: 6, seed: 7, annealing: "auto" };
 
 
 beforeAll(async () => {
@@ -62,8 +62,14 @@ describe("metrics pipeline", () => {
       expect(m.z).toBe(single.null!.z);
       expect(m.p).toBe(single.null!.p);
       expect(m.nodf).toBe(single.nodf);
-      expect(m.nullModel).toBe("er");
+      // Binary bipartite data: fixed degrees (primary), probabilistic degrees and Erdős–Rényi, stored apart.
+      expect(m.nullModel).toBe("curveball");
       expect(m.nullN).toBe(6);
+      expect(m.nulls!.map((f) => [f.model, f.primary])).toEqual([["curveball", true], ["probabilistic", false], ["er", false]]);
+      for (const f of m.nulls!) {
+        const ref = single.nulls!.find((x) => x.model === f.model)!;
+        expect([f.z, f.p, f.qRel, f.deltaQ, f.pAtFloor]).toEqual([ref.z, ref.p, ref.qRel, ref.deltaQ, ref.pAtFloor]);
+      }
       expect(m.algorithm).toMatchObject({ name: single.algorithm.name, version: single.algorithm.version, seed: 7 });
       expect(m.durationMs).toBeGreaterThanOrEqual(0);
       const run = await MetricRun.findByPk(m.runId!);
@@ -127,11 +133,12 @@ describe("metrics pipeline", () => {
     }, "first run");
     const changed = { ...LIGHT, seed: 8, nulls: 4 };
     await setPipelineSettings(changed);
-    expect((await getCurrentMetrics([id])).get(id)!.status).toBe("none");
+    // The last good figures stay visible, marked as coming from older settings.
+    expect((await getCurrentMetrics([id])).get(id)!).toMatchObject({ status: "succeeded", runId: first.runId, currentSettings: false });
     await enqueueNetworkMetrics([id]);
     const second = await waitFor(async () => {
       const m = (await getCurrentMetrics([id])).get(id)!;
-      return m.status === "succeeded" && m;
+      return m.status === "succeeded" && m.currentSettings && m;
     }, "second run");
     expect(second.runId).not.toBe(first.runId);
     expect(second.settingsHash).toBe(settingsHash(changed));
@@ -161,8 +168,10 @@ describe("metrics pipeline", () => {
     expect(failed.status).toBe("failed");
     expect(failed.error).toMatch(/\S/);
     expect(failed.attempts).toBeGreaterThanOrEqual(1);
-    const current = (await getCurrentMetrics([broken])).get(broken)!;
+    const current = (await getCurrentMetrics([broken], { showErrors: true })).get(broken)!;
     expect(current).toMatchObject({ status: "failed" });
     expect(current.error).toBe(failed.error);
+    // The public sees that it failed, not the raw error.
+    expect((await getCurrentMetrics([broken])).get(broken)!.error).toBe("the computation failed");
   });
 });

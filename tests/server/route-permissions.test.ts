@@ -40,6 +40,7 @@ const ROUTES: ProtectedRoute[] = [
   { method: "get", path: "/api/v1/pipeline/queue", min: "admin" },
   { method: "get", path: "/api/v1/pipeline/batches", min: "admin" },
   { method: "post", path: "/api/v1/pipeline/batches", min: "admin", body: { force: "yes" } },
+  { method: "post", path: "/api/v1/pipeline/batches/preview", min: "admin", body: { force: "yes" } },
   { method: "get", path: "/api/v1/pipeline/batches/current", min: "admin" },
   { method: "get", path: "/api/v1/pipeline/batches/999999", min: "admin" },
   { method: "get", path: "/api/v1/pipeline/batches/999999/failures", min: "admin" },

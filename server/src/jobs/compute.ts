@@ -2,16 +2,20 @@
  * The computations of one metrics job, as pure functions over the network's canonical JSON. They run in
  * the worker-thread pool (pool.ts, thread entry metrics-thread.mjs), never on the web server's thread:
  *   - "observed": the full analysis of the network without null replicates (optimized modularity with
- *     partition and restart spread, basic metrics, roles, NODF);
- *   - "nulls": the best Q of a chunk of null replicates (significance.ts `nullReplicateQ`; replicate r
- *     depends only on network, settings, seed and r, so any chunking gives the single-threaded numbers);
+ *     partition and restart spread, basic metrics, roles, NODF) and the null models it gets (the standard
+ *     set of its kind, or the models of the settings; a model that does not fit throws a
+ *     NetworkEngineError, a configuration error the worker does not retry);
+ *   - "nulls": Q and NODF of a chunk of null replicates of one model (significance.ts `nullReplicateStats`;
+ *     replicate r depends only on network, settings, model, seed and r, so any chunking gives the
+ *     single-threaded numbers);
  * and `combineAnalysis` joins them into exactly the object `analyzeNetwork` returns for the same settings
  * (tests/server/pipeline-compute.test.ts checks the equality).
  */
-import { analyzeNetwork, defaultNullModel, type AnalysisResult } from "../../../shared/network/analyze";
+import { analyzeNetwork, buildNullFigures, primaryNull, resolveNullModels, type AnalysisResult, type NullModelChoice } from "../../../shared/network/analyze";
 import type { NullModelName } from "../../../shared/network/null-models/index";
+import { NetworkEngineError } from "../../../shared/network/errors";
 import { deserializeNetwork } from "../../../shared/network/parse/index";
-import { nullReplicateQ, summarizeNulls } from "../../../shared/network/significance";
+import { nullReplicateStats, type NullReplicate } from "../../../shared/network/significance";
 import type { OptimizerObjective } from "../../../shared/network/optimizer/quality-graph";
 import type { PipelineSettings } from "../../../shared/types/pipeline";
 
@@ -24,7 +28,7 @@ export interface NullsTask {
   kind: "nulls";
   canonical: unknown;
   settings: PipelineSettings;
-  nullModel: NullModelName;
+  model: NullModelName;
   objective: OptimizerObjective;
   replicates: number[];
 }
@@ -33,9 +37,11 @@ export type MetricsTask = ObservedTask | NullsTask;
 export interface ObservedResult {
   /** analyzeNetwork's output with no null replicates. */
   analysis: AnalysisResult;
-  /** The null model the settings resolve to for this network. */
-  nullModel: NullModelName;
+  /** The null models of this network (primary first) under the settings. */
+  nullChoice: NullModelChoice;
 }
+
+export type NullReplicatesByModel = Partial<Record<NullModelName, Array<NullReplicate | null>>>;
 
 export function engineSettings(s: PipelineSettings) {
   return {
@@ -46,60 +52,92 @@ export function engineSettings(s: PipelineSettings) {
   };
 }
 
-export function observedAnalysis(canonical: unknown, s: PipelineSettings): ObservedResult {
-  const net = deserializeNetwork(canonical);
-  const nullModel = s.nullModel === "auto" ? defaultNullModel(net) : s.nullModel;
-  const analysis = analyzeNetwork(net, { ...engineSettings(s), nulls: 0, nullModel });
-  return { analysis, nullModel };
+/** The engine's null-model options for pipeline settings. */
+export function nullModelSettings(s: PipelineSettings): { nullModels?: NullModelName[] } {
+  return s.nullModels === "standard" ? {} : { nullModels: s.nullModels };
 }
 
-/** Null Q of each replicate in `replicates` (null when the replicate's modularity is undefined). */
-export function nullChunk(task: Omit<NullsTask, "kind">): Array<number | null> {
+export function observedAnalysis(canonical: unknown, s: PipelineSettings): ObservedResult {
+  const net = deserializeNetwork(canonical);
+  const nullChoice = resolveNullModels(net, nullModelSettings(s));
+  const analysis = analyzeNetwork(net, { ...engineSettings(s), nulls: 0 });
+  return { analysis, nullChoice };
+}
+
+/** Q and NODF of each replicate in `replicates` of one model (null when the replicate's modularity is undefined). */
+export function nullChunk(task: Omit<NullsTask, "kind">): Array<NullReplicate | null> {
   const net = deserializeNetwork(task.canonical);
-  const annealing = task.settings.annealing;
   return task.replicates.map((replicate) =>
-    nullReplicateQ(net, {
-      model: task.nullModel,
+    nullReplicateStats(net, {
+      model: task.model,
       seed: task.settings.seed,
       replicate,
       restarts: task.settings.restarts,
       objective: task.objective,
-      annealing,
+      annealing: task.settings.annealing,
     }),
   );
 }
 
 /**
- * The full analysis from the observed one and the null Qs of replicates 0..nulls−1 (in replicate order),
- * as analyzeNetwork builds it; `elapsedMs` is the caller's.
+ * The full analysis from the observed one and each model's replicates 0..nulls−1 (in replicate order), as
+ * analyzeNetwork builds it; `elapsedMs` is the caller's.
  */
-export function combineAnalysis(observed: ObservedResult, nulls: number, nullQs: ReadonlyArray<number | null>, elapsedMs: number): AnalysisResult {
+export function combineAnalysis(observed: ObservedResult, nulls: number, replicates: NullReplicatesByModel, elapsedMs: number): AnalysisResult {
   const a = observed.analysis;
+  const choice = observed.nullChoice;
   const out: AnalysisResult = {
     ...a,
     algorithm: {
       ...a.algorithm,
-      parameters: { ...a.algorithm.parameters, nulls, nullModel: nulls > 0 ? observed.nullModel : null },
+      parameters: { ...a.algorithm.parameters, nulls, nullModels: nulls > 0 ? choice.models : [], primaryNull: nulls > 0 ? choice.primary : null },
     },
     elapsedMs,
   };
   delete out.null;
+  delete out.nulls;
+  delete out.nullModels;
   delete out.nullSkippedReason;
   if (nulls > 0) {
-    if (a.modularity.Q === null) {
-      out.null = null;
-      out.nullSkippedReason = "modularity is undefined for this network, so its significance is too";
-    } else {
-      const qs = nullQs.filter((q): q is number => q !== null);
-      out.null = { model: observed.nullModel, ...summarizeNulls(a.modularity.Q, qs) };
-    }
+    const figures = a.modularity.Q === null ? [] : buildNullFigures(a.modularity.Q, a.nodf, choice, replicates);
+    out.null = primaryNull(figures);
+    out.nulls = figures;
+    out.nullModels = choice;
+    if (a.modularity.Q === null) out.nullSkippedReason = "modularity is undefined for this network, so its significance is too";
   }
   return out; // same key order as analyzeNetwork's object (null parts after elapsedMs)
 }
 
-export function runTask(task: MetricsTask): ObservedResult | Array<number | null> {
-  if (task.kind === "observed") return observedAnalysis(task.canonical, task.settings);
-  return nullChunk(task);
+/**
+ * A setting that does not fit the network (a null model or objective that does not apply to it): the same
+ * input fails the same way every time, so the run fails at once and is never retried.
+ */
+export class ConfigurationError extends Error {
+  constructor(message: string) {
+    super(message);
+    this.name = "ConfigurationError";
+  }
+}
+
+const CONFIGURATION_CODES = new Set(["unsupported", "non-integer-weights", "objective-mismatch"]);
+
+/** What a thread returns instead of throwing a configuration error (errors lose their class between threads). */
+export interface ConfigurationFailure {
+  configurationError: string;
+}
+
+export function isConfigurationFailure(v: unknown): v is ConfigurationFailure {
+  return !!v && typeof v === "object" && typeof (v as ConfigurationFailure).configurationError === "string";
+}
+
+export function runTask(task: MetricsTask): ObservedResult | Array<NullReplicate | null> | ConfigurationFailure {
+  try {
+    if (task.kind === "observed") return observedAnalysis(task.canonical, task.settings);
+    return nullChunk(task);
+  } catch (err) {
+    if (err instanceof NetworkEngineError && CONFIGURATION_CODES.has(err.code)) return { configurationError: err.message };
+    throw err;
+  }
 }
 
 /** Splits replicates 0..n−1 into about `parts` contiguous chunks. */

@@ -15,7 +15,10 @@
  *      becomes succeeded with the full analysis (partition, null Qs, roles) and its headline columns. The
  *      unique index "one success per (network, settings hash)" makes a duplicate success impossible.
  * A job that throws is retried by the queue (RETRY_LIMIT); on its last attempt the run is marked failed with
- * the error, and the batch goes on. A worker killed mid-job leaves R "running"; the queue expires the job
+ * the error (`error_kind` "computation"), and the batch goes on. A configuration error (a null model or
+ * objective that does not fit the network, invalid stored settings) fails the run at once with
+ * `error_kind` "configuration": the same input would fail the same way on every retry. Either way the
+ * network's last successful figures stay visible (metrics-read.ts). A worker killed mid-job leaves R "running"; the queue expires the job
  * and retries it on another worker; and the sweeper re-sends runs whose job disappeared, failing a run for
  * good after MAX_ATTEMPTS starts.
  *
@@ -28,7 +31,8 @@ import type { AnalysisResult } from "../../../shared/network/analyze";
 import type { PipelineSettings } from "../../../shared/types/pipeline";
 import { sequelize } from "../db/sequelize";
 import { logger } from "../lib/logger";
-import { chunkReplicates, combineAnalysis, type ObservedResult } from "./compute";
+import { chunkReplicates, combineAnalysis, ConfigurationError, type NullReplicatesByModel, type ObservedResult } from "./compute";
+import { writeNullFigures } from "./null-figures";
 import { enqueueNetworkMetrics } from "./enqueue";
 import { closePool, poolThreads, runNulls, runObserved } from "./pool";
 import { getBoss, METRICS_QUEUE, registerLocalWorker, RETRY_LIMIT, sendRunJobs, stopQueue, type MetricsJobData, type MetricsPhase } from "./queue";
@@ -73,13 +77,13 @@ export async function finishBatchIfDone(batchId: number | null): Promise<void> {
   );
 }
 
-export async function markRunFailed(runId: number, message: string): Promise<void> {
+export async function markRunFailed(runId: number, message: string, kind: "configuration" | "computation" = "computation"): Promise<void> {
   const [rows] = (await sequelize().query(
-    `UPDATE metric_runs SET status = 'failed', error = :message, finished_at = now(),
+    `UPDATE metric_runs SET status = 'failed', error = :message, error_kind = :kind, finished_at = now(),
             duration_ms = CASE WHEN started_at IS NULL THEN NULL ELSE (EXTRACT(EPOCH FROM (now() - started_at)) * 1000)::int END,
             updated_at = now()
       WHERE id = :runId AND status IN ('queued', 'running') RETURNING batch_id`,
-    { replacements: { runId, message: message.slice(0, 4000) } },
+    { replacements: { runId, message: message.slice(0, 4000), kind } },
   )) as [Array<{ batch_id: number | null }>, unknown];
   if (rows[0]) await finishBatchIfDone(rows[0].batch_id);
 }
@@ -113,7 +117,7 @@ export async function processRun(runId: number, phase: MetricsPhase = "nulls"): 
     }
   }
   const { settings } = validateSettings(run.settings);
-  if (!settings) throw new Error(`run ${runId} has invalid settings`);
+  if (!settings) throw new ConfigurationError(`run ${runId} has invalid settings`);
 
   const [started] = (await sequelize().query(
     `UPDATE metric_runs SET status = 'running', attempts = attempts + 1, started_at = COALESCE(started_at, now()),
@@ -159,22 +163,29 @@ export async function processRun(runId: number, phase: MetricsPhase = "nulls"): 
     await sendRunJobs([{ id: run.id, networkId: run.network_id, settingsHash: hash, phase: "nulls" }]);
     return;
   }
-  let nullQs: Array<number | null> = [];
+  const replicates: NullReplicatesByModel = {};
   if (needsNulls) {
-    // About four chunks per thread: short tasks keep every thread busy until the end of the job.
+    // Every null model of the network, each with its own replicates; about four chunks per thread and
+    // model: short tasks keep every thread busy until the end of the job.
     const chunks = chunkReplicates(settings.nulls, poolThreads() * 4);
-    const parts = await Promise.all(
-      chunks.map((replicates) =>
-        runNulls({ canonical: net.canonical, settings, nullModel: observed.nullModel, objective: observed.analysis.modularity.objective, replicates }),
-      ),
+    const objective = observed.analysis.modularity.objective;
+    await Promise.all(
+      observed.nullChoice.models.map(async (model) => {
+        const parts = await Promise.all(chunks.map((reps) => runNulls({ canonical: net.canonical, settings, model, objective, replicates: reps })));
+        replicates[model] = parts.flat();
+      }),
     );
-    nullQs = parts.flat();
   }
-  const analysis = combineAnalysis(observed, settings.nulls, nullQs, Date.now() - t0);
-  await writeSuccess(run, hash, analysis, nullQs);
+  const analysis = combineAnalysis(observed, settings.nulls, replicates, Date.now() - t0);
+  await writeSuccess(run, hash, analysis, replicates);
 }
 
-async function writeSuccess(run: RunState, hash: string, analysis: AnalysisResult, nullQs: Array<number | null>): Promise<void> {
+async function writeSuccess(run: RunState, hash: string, analysis: AnalysisResult, replicates: NullReplicatesByModel): Promise<void> {
+  // Null Q values per model (the histograms of the network view); the primary's also as `nullQs`.
+  const nullQsByModel: Record<string, number[]> = {};
+  for (const [model, reps] of Object.entries(replicates)) nullQsByModel[model] = (reps ?? []).flatMap((r) => (r ? [r.q] : []));
+  const primaryModel = analysis.nullModels?.primary;
+  const nullQs = primaryModel ? (nullQsByModel[primaryModel] ?? []) : [];
   const n = analysis.null ?? null;
   try {
     await sequelize().transaction(async (transaction) => {
@@ -195,13 +206,14 @@ async function writeSuccess(run: RunState, hash: string, analysis: AnalysisResul
         `UPDATE metric_runs SET status = 'succeeded', finished_at = now(),
                 duration_ms = (EXTRACT(EPOCH FROM (now() - started_at)) * 1000)::int,
                 results = CAST(:results AS jsonb), objective = :objective, q = :q, modules = :modules, nodf = :nodf,
-                null_mean = :nullMean, null_sd = :nullSd, z = :z, q_rel = :qRel, p = :p,
+                null_model = :nullModel, null_mean = :nullMean, null_sd = :nullSd, z = :z, q_rel = :qRel, p = :p,
                 algorithm_name = :algName, algorithm_version = :algVersion, seed = :seed, error = NULL, updated_at = now()
           WHERE id = :id`,
         {
           replacements: {
             id: run.id,
-            results: JSON.stringify({ phase: "complete", analysis, nullQs }),
+            results: JSON.stringify({ phase: "complete", analysis, nullQs, nullQsByModel }),
+            nullModel: n?.model ?? null,
             objective: analysis.modularity.objective,
             q: analysis.modularity.Q,
             modules: analysis.modularity.modules,
@@ -218,6 +230,7 @@ async function writeSuccess(run: RunState, hash: string, analysis: AnalysisResul
           transaction,
         },
       );
+      await writeNullFigures(run.id, analysis, transaction);
     });
   } catch (err) {
     // Another run of the same network and settings succeeded first (unique index): keep that one.
@@ -242,6 +255,11 @@ export async function handleJob(job: PgBoss.JobWithMetadata<MetricsJobData>): Pr
     // Interrupted by this process stopping: the queue retries the job elsewhere or at the next start.
     if (stopping) throw err;
     const message = errorMessage(err);
+    if (err instanceof ConfigurationError) {
+      logger.warn({ runId, err: message }, "metrics run refused: configuration error (not retried)");
+      await markRunFailed(runId, err.message, "configuration");
+      return;
+    }
     const run = await loadRun(runId);
     const lastAttempt = job.retryCount >= job.retryLimit || (run?.attempts ?? 0) >= MAX_ATTEMPTS;
     logger.warn({ runId, attempt: job.retryCount + 1, lastAttempt, err: message }, "metrics job failed");

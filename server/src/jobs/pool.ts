@@ -4,7 +4,8 @@
  */
 import { availableParallelism } from "node:os";
 import { Piscina } from "piscina";
-import type { MetricsTask, ObservedResult } from "./compute";
+import { ConfigurationError, isConfigurationFailure, type MetricsTask, type ObservedResult } from "./compute";
+import type { NullReplicate } from "../../../shared/network/significance";
 
 let pool: Piscina | undefined;
 
@@ -24,12 +25,19 @@ function metricsPool(): Piscina {
   return pool;
 }
 
-export function runObserved(task: Omit<Extract<MetricsTask, { kind: "observed" }>, "kind">): Promise<ObservedResult> {
-  return metricsPool().run({ ...task, kind: "observed" }) as Promise<ObservedResult>;
+/** Runs a task; a configuration error of the thread is thrown as ConfigurationError (never retried). */
+async function runChecked<T>(task: MetricsTask): Promise<T> {
+  const res = (await metricsPool().run(task)) as unknown;
+  if (isConfigurationFailure(res)) throw new ConfigurationError(res.configurationError);
+  return res as T;
 }
 
-export function runNulls(task: Omit<Extract<MetricsTask, { kind: "nulls" }>, "kind">): Promise<Array<number | null>> {
-  return metricsPool().run({ ...task, kind: "nulls" }) as Promise<Array<number | null>>;
+export function runObserved(task: Omit<Extract<MetricsTask, { kind: "observed" }>, "kind">): Promise<ObservedResult> {
+  return runChecked<ObservedResult>({ ...task, kind: "observed" });
+}
+
+export function runNulls(task: Omit<Extract<MetricsTask, { kind: "nulls" }>, "kind">): Promise<Array<NullReplicate | null>> {
+  return runChecked<Array<NullReplicate | null>>({ ...task, kind: "nulls" });
 }
 
 export async function closePool(): Promise<void> {

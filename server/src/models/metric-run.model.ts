@@ -25,6 +25,9 @@ export class MetricRun extends Model<InferAttributes<MetricRun>, InferCreationAt
   declare objective: CreationOptional<string | null>;
   declare q: CreationOptional<number | null>;
   declare modules: CreationOptional<number | null>;
+  /** The primary null model (z, qRel and p are its figures; metric_run_nulls holds every model's). */
+  declare nullModel: CreationOptional<string | null>;
+  declare errorKind: CreationOptional<"configuration" | "computation" | null>;
   declare nullMean: CreationOptional<number | null>;
   declare nullSd: CreationOptional<number | null>;
   declare z: CreationOptional<number | null>;
@@ -57,6 +60,8 @@ export function initMetricRun(sequelize: Sequelize): void {
       objective: { type: DataTypes.TEXT },
       q: { type: DataTypes.DOUBLE },
       modules: { type: DataTypes.INTEGER },
+      nullModel: { type: DataTypes.TEXT },
+      errorKind: { type: DataTypes.TEXT },
       nullMean: { type: DataTypes.DOUBLE },
       nullSd: { type: DataTypes.DOUBLE },
       z: { type: DataTypes.DOUBLE },

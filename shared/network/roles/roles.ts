@@ -17,8 +17,8 @@
  * - directed one-mode: in- and out-links both count (κ_is = links to or from module s).
  * - self-loops / cannibal links are left out (they link a node to itself, not to a module).
  * - sd uses n − 1 (sample standard deviation). z is null when the comparison group has fewer than two
- *   nodes or sd = 0 (all nodes of the group have the same within-module degree, so none stands out); for
- *   the role, a null z counts as below the threshold (no node can be a hub of such a group).
+ *   nodes or sd = 0 (all nodes of the group have the same within-module degree, so none stands out); such
+ *   a node gets no role (role null), so every node with a role has both z and P and can be plotted.
  * - isolated nodes (k = 0): z, P and role are null and they are left out of their module's mean and sd.
  */
 import { checkPartition, nodeCount, nodeLabel } from "../graph";
@@ -165,7 +165,7 @@ export function nodeRoles(net: Network, partition: Partition | ArrayLike<number>
       degree: deg[v],
       z,
       participation,
-      role: classifyRole(z, participation, zT, pT),
+      role: z === null ? null : classifyRole(z, participation, zT, pT),
     };
   }
   return out;

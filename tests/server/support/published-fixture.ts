@@ -8,8 +8,9 @@
 import { createHash } from "node:crypto";
 import { readFileSync } from "node:fs";
 import { join } from "node:path";
-import { analyzeNetwork, nullReplicateQ, parseNetworkText, serializeNetwork, basicMetrics } from "../../../shared/network/index";
-import { defaultNullModel } from "../../../shared/network/analyze";
+import { analyzeNetwork, nullReplicateStats, parseNetworkText, serializeNetwork, basicMetrics, type NullReplicate } from "../../../shared/network/index";
+import { resolveNullModels, type AnalysisResult } from "../../../shared/network/analyze";
+import { writeNullFigures } from "../../../server/src/jobs/null-figures";
 import type { NetworkMetadata, StudyMetadata, VersionState } from "../../../shared/types/dataset";
 import type { PipelineSettings } from "../../../shared/types/pipeline";
 import { hashPassword } from "../../../server/src/lib/passwords";
@@ -85,20 +86,34 @@ export const NETWORK_MD: NetworkMetadata = {
   samplingEffort: { value: 120, unit: "observation hours" },
 };
 
-/** The engine's analysis as the pipeline would store it: `{ analysis, nullQs }`. */
+const analysisCache = new Map<string, { analysis: AnalysisResult; nullQs: number[]; nullQsByModel: Record<string, number[]> }>();
+
+/**
+ * The engine's analysis as the pipeline would store it: `{ analysis, nullQs, nullQsByModel }` (every null
+ * model of the standard set; nullQs are the primary's). Cached per file, kind and direction.
+ */
 export function analysisFor(text: string, kind: "bipartite" | "unipartite" = "bipartite", directed = false, fileName = "net.csv") {
   const { network } = parseNetworkText(text, { fileName, kind, directed });
-  const s = FIXTURE_SETTINGS;
-  // the engine's default objective by kind (analyze.ts)
-  const objective = network.kind === "bipartite" ? "barber" : network.directed ? "newman-directed" : "newman";
-  const nullModel = defaultNullModel(network);
-  const nullQs: number[] = [];
-  for (let r = 0; r < s.nulls; r++) {
-    const q = nullReplicateQ(network, { model: nullModel, seed: s.seed, replicate: r, restarts: s.restarts, objective, annealing: "auto" });
-    if (q !== null) nullQs.push(q);
+  const key = `${kind}|${directed}|${fileName}|${text}`;
+  let cached = analysisCache.get(key);
+  if (!cached) {
+    const s = FIXTURE_SETTINGS;
+    // the engine's default objective by kind (analyze.ts)
+    const objective = network.kind === "bipartite" ? "barber" : network.directed ? "newman-directed" : "newman";
+    const choice = resolveNullModels(network);
+    const nullReplicates: Record<string, Array<NullReplicate | null>> = {};
+    const nullQsByModel: Record<string, number[]> = {};
+    for (const model of choice.models) {
+      const reps: Array<NullReplicate | null> = [];
+      for (let r = 0; r < s.nulls; r++) reps.push(nullReplicateStats(network, { model, seed: s.seed, replicate: r, restarts: s.restarts, objective, annealing: "auto" }));
+      nullReplicates[model] = reps;
+      nullQsByModel[model] = reps.flatMap((x) => (x ? [x.q] : []));
+    }
+    const analysis = analyzeNetwork(network, { restarts: s.restarts, seed: s.seed, nulls: s.nulls, nullReplicates });
+    cached = { analysis, nullQs: nullQsByModel[choice.primary], nullQsByModel };
+    analysisCache.set(key, cached);
   }
-  const analysis = analyzeNetwork(network, { restarts: s.restarts, seed: s.seed, nulls: nullQs.length, nullQs, nullModel });
-  return { network, analysis, nullQs };
+  return { network, ...cached };
 }
 
 let accessionCounter = 0;
@@ -157,8 +172,8 @@ export async function createFixtureDataset(opts: FixtureOptions = {}) {
     if (wantMetrics === "queued") {
       await MetricRun.create({ networkId: net.id, settings: FIXTURE_SETTINGS as unknown as Record<string, unknown>, settingsHash: hash, status: "queued" });
     } else if (wantMetrics) {
-      const { analysis, nullQs } = analysisFor(spec.text, kind, spec.directed ?? false, spec.fileName);
-      await MetricRun.create({
+      const { analysis, nullQs, nullQsByModel } = analysisFor(spec.text, kind, spec.directed ?? false, spec.fileName);
+      const run = await MetricRun.create({
         networkId: net.id,
         settings: FIXTURE_SETTINGS as unknown as Record<string, unknown>,
         settingsHash: hash,
@@ -169,7 +184,8 @@ export async function createFixtureDataset(opts: FixtureOptions = {}) {
         startedAt: new Date("2025-03-14T10:01:00Z"),
         finishedAt: new Date("2025-03-14T10:01:05Z"),
         durationMs: analysis.elapsedMs,
-        results: { analysis, nullQs } as unknown as Record<string, unknown>,
+        results: { phase: "complete", analysis, nullQs, nullQsByModel } as unknown as Record<string, unknown>,
+        nullModel: analysis.null?.model ?? null,
         objective: analysis.modularity.objective,
         q: analysis.modularity.Q,
         modules: analysis.modularity.modules,
@@ -180,6 +196,7 @@ export async function createFixtureDataset(opts: FixtureOptions = {}) {
         p: analysis.null?.p ?? null,
         nodf: analysis.nodf,
       });
+      await writeNullFigures(run.id, analysis);
     }
   }
   await AuditLog.create({ actorId: owner.id, action: "version.submitted", entityType: "dataset_version", entityId: String(version.id), datasetId: dataset.id, details: { number: version.number } });

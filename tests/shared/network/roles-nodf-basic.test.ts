@@ -90,7 +90,7 @@ describe("node roles (Guimerà & Amaral 2005; Olesen et al. 2007 thresholds)", (
     for (const r of roles) expect(r.z).toBeNull();
     expect(roles[2].participation).toBeCloseTo(4 / 9, 14);
     expect(roles[0].participation).toBe(0);
-    expect(roles.every((r) => r.role === "peripheral")).toBe(true);
+    expect(roles.every((r) => r.role === null)).toBe(true); // z undefined: no role, so no point without a role is counted
   });
 
   it("isolated nodes get null z, P and role and are left out of their module's statistics", () => {

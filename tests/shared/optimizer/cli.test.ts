@@ -35,8 +35,11 @@ describe("npm run analyze", () => {
     expect(out.modularity.partition["1"]).toBe(0);
     expect(out.modularity.restarts).toMatchObject({ n: 5 });
     for (const k of ["min", "median", "max", "bestShare"]) expect(typeof out.modularity.restarts[k]).toBe("number");
-    expect(out.null).toMatchObject({ model: "er", n: 3 });
-    for (const k of ["mean", "sd", "z", "qRel", "deltaQ", "p"]) expect(typeof out.null[k]).toBe("number");
+    expect(out.null).toMatchObject({ model: "curveball", n: 3 });
+    for (const k of ["mean", "sd", "z", "qRel", "deltaQ", "p", "zSe", "pSe"]) expect(typeof out.null[k]).toBe("number");
+    // Every null model of the standard set, each with its name; the primary first and equal to `null`.
+    expect(out.nulls.map((f: { model: string }) => f.model)).toEqual(["curveball", "er"]);
+    expect(out.nulls[0]).toMatchObject({ ...out.null, primary: true });
     expect(typeof out.nodf).toBe("number");
     expect(out.roles.nodes).toHaveLength(34);
     expect(out.algorithm).toMatchObject({ seed: 7, version: expect.stringMatching(/^tanglebank-engine /) });

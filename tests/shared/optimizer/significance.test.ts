@@ -1,8 +1,8 @@
 import { Worker } from "node:worker_threads";
 import { describe, expect, it } from "vitest";
-import { analyzeNetwork, defaultNullModel } from "../../../shared/network/analyze";
+import { analyzeNetwork, resolveNullModels } from "../../../shared/network/analyze";
 import { serializeNetwork } from "../../../shared/network/parse/index";
-import { nullReplicateNetwork, nullReplicateQ, summarizeNulls } from "../../../shared/network/significance";
+import { nullReplicateNetwork, nullReplicateQ, nullReplicateStats, summarizeNulls, zStandardError } from "../../../shared/network/significance";
 import { bipartite, createRng, davis, karate, randomMatrix } from "./helpers";
 
 describe("summarizeNulls", () => {
@@ -84,29 +84,40 @@ describe("null replicates", () => {
     const k = karate();
     const s = { restarts: 4, nulls: 6, seed: 9, annealing: "off" as const };
     const here = analyzeNetwork(k, s);
-    const elsewhere = [5, 4, 3, 2, 1, 0]
-      .map((r) => nullReplicateQ(k, { model: "er", seed: 9, replicate: r, restarts: 4, objective: "newman", annealing: "off" })!)
-      .reverse();
-    const passed = analyzeNetwork(k, { ...s, nullQs: elsewhere });
+    const choice = resolveNullModels(k);
+    const nullReplicates = Object.fromEntries(
+      choice.models.map((model) => [
+        model,
+        [5, 4, 3, 2, 1, 0].map((r) => nullReplicateStats(k, { model, seed: 9, replicate: r, restarts: 4, objective: "newman", annealing: "off" })).reverse(),
+      ]),
+    );
+    const passed = analyzeNetwork(k, { ...s, nullReplicates });
     expect({ ...passed, elapsedMs: 0 }).toEqual({ ...here, elapsedMs: 0 });
     expect(here.null!.n).toBe(6);
-    expect(here.null!.model).toBe("er");
-    // Karate is far more modular than random graphs of its size and connectance (z well above 2).
+    // One-mode undirected: fixed degrees (the configuration model) is the primary, Erdős–Rényi the liberal comparison.
+    expect(here.null!.model).toBe("curveball");
+    expect(here.nulls!.map((f) => [f.model, f.primary])).toEqual([["curveball", true], ["er", false]]);
+    // Karate is far more modular than random graphs of its size and degrees (z well above 2; p at its floor 1/7).
     expect(here.null!.z!).toBeGreaterThan(2);
     expect(here.null!.p).toBeCloseTo(1 / 7, 12);
+    expect(here.null!.pAtFloor).toBe(true);
+    expect(here.null!.zSe).toBeCloseTo(zStandardError(here.null!.z!, 6), 12);
   });
 
-  it("chooses Patefield for integer-weighted data and ER otherwise", () => {
+  it("the standard set fits each kind of data, with fixed degrees as the primary null", () => {
     const rng = createRng(3);
-    expect(defaultNullModel(davis())).toBe("er");
-    expect(defaultNullModel(bipartite(randomMatrix(rng, 5, 6, 0.5, 7)))).toBe("patefield");
-    expect(defaultNullModel(bipartite([[0.5, 1], [1, 2]]))).toBe("er");
+    expect(resolveNullModels(davis())).toMatchObject({ dataKind: "binary-bipartite", primary: "curveball", models: ["curveball", "probabilistic", "er"] });
+    expect(resolveNullModels(bipartite(randomMatrix(rng, 5, 6, 0.5, 7)))).toMatchObject({ dataKind: "integer-bipartite", models: ["curveball", "totals-connectance", "er"] });
+    expect(resolveNullModels(bipartite([[0.5, 1], [1, 2]]))).toMatchObject({ dataKind: "real-bipartite", models: ["curveball", "weight-shuffle", "er"] });
+    expect(() => resolveNullModels(davis(), { nullModels: ["patefield"] })).toThrow(/binary/);
+    expect(() => resolveNullModels(karate(), { nullModel: "totals-connectance" })).toThrow(/undirected/);
   });
 
-  it("optimizes Patefield replicates of a weighted network and keeps its totals", () => {
+  it("optimizes Patefield replicates of a weighted network when asked and keeps its totals", () => {
     const w = bipartite(randomMatrix(createRng(11), 8, 10, 0.5, 5));
-    const res = analyzeNetwork(w, { restarts: 3, nulls: 4, seed: 5 });
+    const res = analyzeNetwork(w, { restarts: 3, nulls: 4, seed: 5, nullModel: "patefield" });
     expect(res.null!.model).toBe("patefield");
+    expect(res.nulls!.map((f) => f.model)).toEqual(["patefield"]);
     expect(res.null!.n).toBe(4);
     const nul = nullReplicateNetwork(w, "patefield", 5, 0);
     const total = (n: typeof w) => n.weights.reduce((s, x) => s + x, 0);

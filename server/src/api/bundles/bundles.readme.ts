@@ -4,6 +4,7 @@
  * needs before comparing networks. Formulas follow shared/network/README.md.
  */
 import type { PipelineSettings } from "../../../../shared/types/pipeline";
+import { nullModelsText } from "../../jobs/settings";
 
 export interface ReadmeInput {
   settings: PipelineSettings;
@@ -23,10 +24,7 @@ export function bundleReadme(r: ReadmeInput): string {
     s.objective === "auto"
       ? "auto: Barber's bipartite modularity Q_B for bipartite networks, Leicht–Newman directed modularity for directed one-mode networks, Newman–Girvan Q otherwise"
       : s.objective;
-  const nullModel =
-    s.nullModel === "auto"
-      ? "auto: Patefield (fixed row and column totals, the multiple-hypergeometric law) for integer-weighted bipartite or directed networks; Erdős–Rényi (same number of nodes and links, links placed uniformly) otherwise"
-      : s.nullModel;
+  const nullModel = nullModelsText(s);
   return `Tanglebank bundle — ${r.title}
 Generated ${r.generated.toISOString()} from ${r.publicUrl}
 ${r.count} network${r.count === 1 ? "" : "s"}.

@@ -26,6 +26,11 @@ export async function startBatch(req: Request, res: Response) {
   res.status(201).json(await service.startBatch(req.user!.id, settings, force));
 }
 
+export async function previewBatch(req: Request, res: Response) {
+  const { settings, force } = v.parseBatchStart(req.body, await getPipelineSettings());
+  res.json(await service.previewBatch(settings, force));
+}
+
 export async function getBatch(req: Request, res: Response) {
   res.json(await service.getBatch(v.parseId(req.params.id, "batch")));
 }

@@ -11,6 +11,7 @@ pipelineRouter.put("/settings", admin, c.putSettings);
 pipelineRouter.get("/queue", admin, c.queueProgress);
 pipelineRouter.get("/batches", admin, c.listBatches);
 pipelineRouter.post("/batches", admin, c.startBatch);
+pipelineRouter.post("/batches/preview", admin, c.previewBatch);
 pipelineRouter.get("/batches/current", admin, c.currentBatch);
 pipelineRouter.get("/batches/:id", admin, c.getBatch);
 pipelineRouter.get("/batches/:id/failures", admin, c.batchFailures);

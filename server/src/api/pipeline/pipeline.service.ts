@@ -9,7 +9,7 @@
  */
 import { QueryTypes } from "sequelize";
 import { ENGINE_VERSION } from "../../../../shared/network/version";
-import type { BatchProgress, NetworkRunRow, PipelineSettings, PipelineSettingsResponse, QueuePhaseCounts, QueueProgress, RunFailure } from "../../../../shared/types/pipeline";
+import type { BatchPreview, BatchProgress, NetworkRunRow, PipelineSettings, PipelineSettingsResponse, QueuePhaseCounts, QueueProgress, RunFailure } from "../../../../shared/types/pipeline";
 import type { NetworkMetricsSummary } from "../../../../shared/types/dataset";
 import { sequelize } from "../../db/sequelize";
 import { ApiError } from "../../lib/api-error";
@@ -20,6 +20,7 @@ import { finishBatchIfDone } from "../../jobs/metrics-worker";
 import { sendRunJobs } from "../../jobs/queue";
 import { createQueuedRuns, type QueuedRun } from "../../jobs/runs";
 import { DEFAULT_PIPELINE_SETTINGS, getPipelineSettings, normalizeSettings, setPipelineSettings, settingsHash } from "../../jobs/settings";
+import { assertSettingsFitPublished } from "../../jobs/settings-compat";
 
 export async function readSettings(): Promise<PipelineSettingsResponse> {
   const settings = await getPipelineSettings();
@@ -27,6 +28,7 @@ export async function readSettings(): Promise<PipelineSettingsResponse> {
 }
 
 export async function updateSettings(actorId: number, settings: PipelineSettings): Promise<PipelineSettingsResponse> {
+  await assertSettingsFitPublished(settings);
   await sequelize().transaction(async (transaction) => {
     await setPipelineSettings(settings, transaction);
     await audit({ actorId, action: "pipeline.settings.update", entityType: "pipeline", entityId: "settings", details: { settings: normalizeSettings(settings) } }, transaction);
@@ -125,6 +127,7 @@ function afterCommitSend(runs: QueuedRun[]) {
 
 export async function startBatch(actorId: number, settings: PipelineSettings, force: boolean): Promise<BatchProgress> {
   const s = normalizeSettings(settings);
+  await assertSettingsFitPublished(s);
   const hash = settingsHash(s);
   const { batchId, runs } = await sequelize().transaction(async (transaction) => {
     await setPipelineSettings(s, transaction);
@@ -181,13 +184,47 @@ export async function batchFailures(batchId: number): Promise<{ data: RunFailure
   };
 }
 
+/**
+ * What "recompute all published networks" with these settings would do, for the confirmation: networks
+ * that would be queued, those already up to date (skipped unless forced), and how many networks would get
+ * different figures (their figures shown now come from other settings or would be recomputed) or their
+ * first figures.
+ */
+export async function previewBatch(settings: PipelineSettings, force: boolean): Promise<BatchPreview> {
+  const s = normalizeSettings(settings);
+  await assertSettingsFitPublished(s);
+  const hash = settingsHash(s);
+  const [row] = await sequelize().query<{ total: number; up_to_date: number; with_figures: number; active: number }>(
+    `SELECT count(*)::int AS total,
+            count(*) FILTER (WHERE EXISTS (SELECT 1 FROM metric_runs r WHERE r.network_id = n.id AND r.settings_hash = :hash AND r.status = 'succeeded'))::int AS up_to_date,
+            count(*) FILTER (WHERE EXISTS (SELECT 1 FROM metric_runs r WHERE r.network_id = n.id AND r.status = 'succeeded'))::int AS with_figures,
+            count(*) FILTER (WHERE EXISTS (SELECT 1 FROM metric_runs r WHERE r.network_id = n.id AND r.settings_hash = :hash AND r.status IN ('queued', 'running')))::int AS active
+       FROM networks n JOIN dataset_versions v ON v.id = n.version_id WHERE v.state = 'published'`,
+    { replacements: { hash }, type: QueryTypes.SELECT },
+  );
+  const skipped = force ? 0 : row.up_to_date;
+  const toCompute = row.total - skipped;
+  const firstFigures = row.total - row.with_figures;
+  return {
+    settings: s,
+    settingsHash: hash,
+    force,
+    networks: row.total,
+    toCompute,
+    skipped,
+    alreadyQueued: row.active,
+    figuresChange: Math.max(0, toCompute - firstFigures),
+    firstFigures,
+  };
+}
+
 /** Puts the failed runs of a batch back in the queue (attempts start again from 0). */
 export async function retryFailed(actorId: number, batchId: number): Promise<BatchProgress> {
   await getBatch(batchId);
   const runs = await sequelize().transaction(async (transaction) => {
     const rows = await sequelize().query<{ id: number; network_id: number; settings_hash: string }>(
       `UPDATE metric_runs SET status = 'queued', attempts = 0, error = NULL, started_at = NULL, finished_at = NULL,
-              duration_ms = NULL, results = NULL, q = NULL, modules = NULL, nodf = NULL, updated_at = now()
+              duration_ms = NULL, results = NULL, q = NULL, modules = NULL, nodf = NULL, error_kind = NULL, updated_at = now()
         WHERE batch_id = :batchId AND status = 'failed' RETURNING id, network_id, settings_hash`,
       { replacements: { batchId }, type: QueryTypes.SELECT, transaction },
     );

@@ -1,7 +1,7 @@
 import { useState } from "react";
 import { Button } from "../../../components/ui/form";
 import { BATCH_PAGE_SIZE, useBatches } from "../api/get-batches";
-import { formatDateTime, formatRate } from "../utils/format";
+import { formatDateTime, formatRate, nullModelsShort } from "../utils/format";
 
 /** Every batch, newest first, with its settings and outcome. */
 export function BatchHistory({ polling }: { polling: boolean }) {
@@ -39,7 +39,7 @@ export function BatchHistory({ polling }: { polling: boolean }) {
                   {b.startedBy && <span className="block text-xs text-stone-600">{b.startedBy.displayName}</span>}
                 </td>
                 <td className="px-3 py-2 text-stone-800">
-                  {b.settings.objective}, {b.settings.restarts} restarts, {b.settings.nullModel} × {b.settings.nulls}, seed {b.settings.seed}
+                  {b.settings.objective}, {b.settings.restarts} restarts, {nullModelsShort(b.settings.nullModels, (b.settings as { nullModel?: string }).nullModel)} × {b.settings.nulls}, seed {b.settings.seed}
                   {b.force ? ", forced" : ""}
                 </td>
                 <td className="px-3 py-2 text-stone-800">{b.status}</td>

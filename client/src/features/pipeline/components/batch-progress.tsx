@@ -2,7 +2,7 @@ import { Alert, Button } from "../../../components/ui/form";
 import type { BatchProgress } from "../../../../../shared/types/pipeline";
 import { useBatchFailures } from "../api/get-batch-failures";
 import { useRetryBatch } from "../api/retry-batch";
-import { formatDateTime, formatDuration, formatRate, percentFinished } from "../utils/format";
+import { formatDateTime, formatDuration, formatRate, nullModelsShort, percentFinished } from "../utils/format";
 
 function Stat({ label, value, tone }: { label: string; value: string; tone?: "bad" }) {
   return (
@@ -63,7 +63,7 @@ export function BatchProgressCard({ batch }: { batch: BatchProgress }) {
         </p>
       </div>
       <p className="mt-1 text-sm text-stone-700">
-        Objective {s.objective}, {s.restarts} restarts, null model {s.nullModel} × {s.nulls}, seed {s.seed}, annealing {s.annealing}
+        Objective {s.objective}, {s.restarts} restarts, {nullModelsShort(s.nullModels, (s as { nullModel?: string }).nullModel)} × {s.nulls} replicates, seed {s.seed}, annealing {s.annealing}
         {batch.force ? ", forced" : ""}.
       </p>
       <div className="mt-4">

@@ -1,6 +1,8 @@
 import { useEffect, useState } from "react";
 import { Alert, Button, SelectField, TextField, fieldErrorsOf } from "../../../components/ui/form";
-import type { PipelineSettings } from "../../../../../shared/types/pipeline";
+import type { BatchPreview, PipelineNullModelName, PipelineSettings } from "../../../../../shared/types/pipeline";
+import { NULL_MODEL_INFO, NULL_MODELS } from "../../../../../shared/network/null-models/index";
+import { usePreviewBatch } from "../api/preview-batch";
 import { usePipelineSettings } from "../api/get-pipeline-settings";
 import { useStartBatch } from "../api/start-batch";
 import { useUpdatePipelineSettings } from "../api/update-pipeline-settings";
@@ -11,12 +13,14 @@ const OBJECTIVES = [
   { value: "newman", label: "Newman–Girvan" },
   { value: "newman-directed", label: "Leicht–Newman (directed)" },
 ];
-const NULL_MODELS = [
-  { value: "auto", label: "Automatic, by data type" },
-  { value: "er", label: "Erdős–Rényi (same size and connectance)" },
-  { value: "curveball", label: "Curveball (fixed degrees)" },
-  { value: "patefield", label: "Patefield (fixed row and column totals)" },
+const NULL_CHOICES = [
+  { value: "standard", label: "Standard set of each kind of data (fixed degrees first)" },
+  ...NULL_MODELS.map((m) => ({ value: m, label: `Only: ${NULL_MODEL_INFO[m].title} (${m})` })),
 ];
+
+function nullChoiceOf(s: PipelineSettings): string {
+  return s.nullModels === "standard" ? "standard" : s.nullModels[0];
+}
 const ANNEALING = [
   { value: "auto", label: "Automatic (small networks only)" },
   { value: "on", label: "Always" },
@@ -31,13 +35,15 @@ export function PipelineSettingsForm({ batchRunning }: { batchRunning: boolean }
   const [s, setS] = useState<PipelineSettings | null>(null);
   const [force, setForce] = useState(false);
   const [notice, setNotice] = useState<string | null>(null);
+  const preview = usePreviewBatch();
+  const [confirm, setConfirm] = useState<BatchPreview | null>(null);
   useEffect(() => {
     if (current.data && !s) setS(current.data.settings);
   }, [current.data, s]);
 
   if (current.error) return <Alert tone="error">{current.error.message}</Alert>;
   if (!s || !current.data) return <p className="text-stone-700">Loading settings…</p>;
-  const errors = { ...fieldErrorsOf(save.error), ...Object.fromEntries(Object.entries(fieldErrorsOf(start.error)).map(([k, v]) => [k.replace(/^settings\//, ""), v])) };
+  const errors = { ...fieldErrorsOf(save.error), ...Object.fromEntries(Object.entries({ ...fieldErrorsOf(start.error), ...fieldErrorsOf(preview.error) }).map(([k, v]) => [k.replace(/^settings\//, ""), v])) };
   const num = (k: "restarts" | "nulls" | "seed") => (e: React.ChangeEvent<HTMLInputElement>) => setS({ ...s, [k]: e.target.value === "" ? NaN : Number(e.target.value) });
   const d = current.data.defaults;
 
@@ -59,15 +65,24 @@ export function PipelineSettingsForm({ batchRunning }: { batchRunning: boolean }
           if (submitter?.value === "save") {
             save.mutate(s, { onSuccess: () => setNotice("Settings saved. Start a batch to compute every network with them.") });
           } else {
-            start.mutate({ settings: s, force }, { onSuccess: (b) => setNotice(`Batch #${b.id} started: ${b.total} networks queued, ${b.skipped} already up to date.`) });
+            setConfirm(null);
+            preview.mutate({ settings: s, force }, { onSuccess: (p) => setConfirm(p) });
           }
         }}
       >
         <SelectField label="Modularity objective" name="objective" value={s.objective} options={OBJECTIVES} onChange={(e) => setS({ ...s, objective: e.target.value as PipelineSettings["objective"] })} />
-        <SelectField label="Null model" name="nullModel" value={s.nullModel} options={NULL_MODELS} onChange={(e) => setS({ ...s, nullModel: e.target.value as PipelineSettings["nullModel"] })} />
+        <SelectField
+          label="Null models"
+          name="nullModels"
+          value={nullChoiceOf(s)}
+          options={NULL_CHOICES}
+          onChange={(e) => setS({ ...s, nullModels: e.target.value === "standard" ? "standard" : [e.target.value as PipelineNullModelName] })}
+        />
         <p className="text-sm text-stone-600 sm:col-span-2">
-          Automatic objective: Barber's bipartite Q for bipartite networks, Leicht–Newman for directed food webs, Newman–Girvan otherwise. Automatic null
-          model: Patefield (fixed totals) for integer interaction counts, Erdős–Rényi (same size and connectance) otherwise.
+          Automatic objective: Barber's bipartite Q for bipartite networks, Leicht–Newman for directed food webs, Newman–Girvan otherwise. Standard null
+          models: fixed degrees (curveball; the configuration model for one-mode networks) as the primary null of every network, plus probabilistic
+          degrees for binary bipartite data, fixed totals and connectance for interaction counts, shuffled weights for non-integer weights, and
+          Erdős–Rényi (connectance only, liberal) for comparison. A single model that does not fit some published network is refused.
         </p>
         <TextField label="Optimizer restarts" name="restarts" type="number" min={1} max={1000} required value={Number.isNaN(s.restarts) ? "" : s.restarts} onChange={num("restarts")} hint={`Default ${d.restarts}. Null replicates get the same effort.`} error={errors.restarts} />
         <TextField label="Null replicates" name="nulls" type="number" min={0} max={10000} required value={Number.isNaN(s.nulls) ? "" : s.nulls} onChange={num("nulls")} hint={`Default ${d.nulls}; 0 skips z, Q_rel and p.`} error={errors.nulls} />
@@ -89,10 +104,41 @@ export function PipelineSettingsForm({ batchRunning }: { batchRunning: boolean }
         </div>
         {batchRunning && <p className="text-sm text-stone-700 sm:col-span-2">A batch is running; start the next one when it has finished.</p>}
       </form>
+      {confirm && (
+        <div role="alertdialog" aria-labelledby="confirm-heading" className="mt-4 rounded border border-amber-300 bg-amber-50 p-4 text-sm text-stone-900">
+          <h3 id="confirm-heading" className="font-semibold">
+            Recompute {confirm.toCompute} of {confirm.networks} published networks?
+          </h3>
+          <p className="mt-1">
+            The figures of <strong>{confirm.figuresChange}</strong> network{confirm.figuresChange === 1 ? "" : "s"} will change (they are shown now from
+            other settings or will be recomputed); {confirm.firstFigures} will get their first figures; {confirm.skipped} already computed with these
+            settings {confirm.skipped === 1 ? "is" : "are"} left out{confirm.alreadyQueued ? `; ${confirm.alreadyQueued} already waiting join the batch` : ""}.
+            Figures shown now stay visible until each network's new run succeeds.
+          </p>
+          <div className="mt-3 flex gap-3">
+            <Button
+              type="button"
+              busy={start.isPending}
+              onClick={() =>
+                start.mutate(
+                  { settings: confirm.settings, force: confirm.force },
+                  { onSuccess: (b) => { setConfirm(null); setNotice(`Batch #${b.id} started: ${b.total} networks queued, ${b.skipped} already up to date.`); } },
+                )
+              }
+            >
+              Yes, recompute {confirm.toCompute}
+            </Button>
+            <Button type="button" variant="secondary" onClick={() => setConfirm(null)}>
+              Cancel
+            </Button>
+          </div>
+        </div>
+      )}
       <div className="mt-4 space-y-2">
         {notice && <Alert tone="success">{notice}</Alert>}
         {save.error && <Alert tone="error" title="The settings were not saved">{save.error.message}</Alert>}
         {start.error && <Alert tone="error" title="The batch was not started">{start.error.message}</Alert>}
+        {preview.error && <Alert tone="error" title="The batch was not started">{preview.error.message}</Alert>}
       </div>
     </section>
   );

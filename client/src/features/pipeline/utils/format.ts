@@ -52,3 +52,10 @@ export function queueSummary(q: QueueProgress): string {
   if (q.active) return `No newly published network is waiting; the batch below is computing.${what}`;
   return `Nothing is waiting: every queued network has been computed with the current settings.${what}`;
 }
+
+/** The null-model setting in a few words (batch lists). */
+export function nullModelsShort(models: "standard" | string[] | undefined, legacy?: string): string {
+  if (models === "standard" || (!models && legacy === "auto")) return "standard null models";
+  if (Array.isArray(models)) return `null models ${models.join(", ")}`;
+  return legacy ? `null model ${legacy}` : "null models unknown";
+}
