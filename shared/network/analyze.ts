@@ -38,7 +38,7 @@ import {
   NULL_MODEL_INFO, isNullModelName, nullDataKind, nullModelProblem, nullModelLabel, standardNullModels,
   type NullDataKind, type NullModelName,
 } from "./null-models/index";
-import { optimizeModularity, type AnnealingMode, DEFAULT_RESTARTS, DEFAULT_SEED } from "./optimizer/optimize";
+import { optimizeModularity, type AnnealingMode, type Convergence, DEFAULT_RESTARTS, DEFAULT_SEED } from "./optimizer/optimize";
 import type { OptimizerObjective } from "./optimizer/quality-graph";
 import { nodeRoles, ROLE_THRESHOLDS, type NodeRoleName } from "./roles/roles";
 import { nullReplicateStats, summarizeNodf, summarizeNulls, type NodfNullSummary, type NullReplicate, type NullSummary } from "./significance";
@@ -171,7 +171,9 @@ export interface AnalysisResult {
     /** Nodes without links: each sits alone in the partition and is not counted in `modules`. */
     isolatedNodes: number;
     partition: Record<string, number>;
-    restarts: { n: number; min: number | null; median: number | null; max: number | null; bestShare: number | null; qs: number[] };
+    restarts: { n: number; min: number | null; median: number | null; max: number | null; bestShare: number | null; qs: number[]; passes: number[] };
+    /** Whether every optimizer run stopped because a pass no longer raised Q (not at a safety cap). */
+    convergence: Convergence;
   };
   /** Present when nulls > 0: the primary null model's figures; null (with nullSkippedReason) when modularity is undefined. */
   null?: (NullSummary & { model: NullModelName }) | null;
@@ -303,7 +305,9 @@ export function analyzeNetwork(net: Network, settings: AnalyzeSettings = {}): An
         max: opt.restarts.max,
         bestShare: shareReaching(opt.restarts.qs, opt.Q),
         qs: opt.restarts.qs,
+        passes: opt.restarts.passes,
       },
+      convergence: opt.convergence,
     },
     nodf: nest ? nest.nodf : null,
     nodfRows: nest ? nest.rows : null,

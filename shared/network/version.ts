@@ -3,4 +3,4 @@
  * code that produced it. Bump the minor version when an algorithm change can alter results for the same
  * input, settings and seed; bump the major version when the result format changes.
  */
-export const ENGINE_VERSION = "tanglebank-engine 2.0.0";
+export const ENGINE_VERSION = "tanglebank-engine 2.1.0";

@@ -15,6 +15,7 @@ export {
   type OptimizeOptions,
   type ModularityResult,
   type RestartSpread,
+  type Convergence,
 } from "./optimize";
 export * from "../significance";
 export * from "../analyze";

@@ -17,7 +17,12 @@
  *    refined sub-module into the module of step 1 that contains it.
  * Repeat until local moving leaves every aggregate node alone. When refinement merges nothing (possible
  * when no node is well connected), the pass aggregates on the unrefined partition, as Louvain does, so
- * the level count stays finite. Whole passes repeat from the previous result until Q stops rising.
+ * the level count stays finite. Whole passes repeat from the previous result until one no longer raises Q
+ * (convergence; PASS_CAP and LEVEL_CAP are safety caps only, and a run that reaches one says so).
+ *
+ * Cost: a pass is a few sweeps over the links of each level (local moving, two in refinement, one in
+ * aggregation). Nothing is allocated per move; level graphs and memberships live in the workspace (two
+ * sets of level buffers used in turn), so a pass allocates only its result.
  *
  * Determinism: all randomness comes from the injected generator; ties keep the current module or the
  * first candidate in CSR order; sums run in a fixed order. Math.exp is used only to weigh the random
@@ -30,16 +35,52 @@ import { graphQuality, renumber, type QualityGraph } from "./quality-graph";
 /** Randomness of the refinement step (θ of the paper; 0.01 is the authors' default). */
 export const REFINEMENT_THETA = 0.01;
 /**
- * Cap on whole passes per run. A pass starts from the previous pass's partition and can only raise Q;
- * a run stops at the first pass that does not. Structured networks settle within a few passes; on random
- * graphs (e.g. null replicates) each pass still adds a little (20,000-node random graph: Q 0.260 after
- * one pass — the same as a Louvain run —, 0.306 after 10, 0.309 after 20, 0.312 after 50), at ~65 ms a
- * pass there, so 20 passes bound the cost of a restart.
+ * Safety caps. A run repeats whole passes until one no longer raises Q (convergence); each accepted pass
+ * raises Q by more than a relative 1e-12, so a run always ends, and these caps only guard against a
+ * defect. A run that reaches either cap says so (`LeidenResult.converged` false, `capped`), and the
+ * optimizer's result carries it.
  */
-export const MAX_PASSES = 20;
+export const PASS_CAP = 1000;
+export const LEVEL_CAP = 1000;
+
+/** One level of one pass, as recorded by a {@link LeidenTrace} (benchmarks and diagnosis). */
+export interface LevelTrace {
+  pass: number;
+  level: number;
+  nodes: number;
+  /** Stored links of the level graph (each undirected link once). */
+  links: number;
+  /** Modules after local moving. */
+  modules: number;
+  /** Nodes taken from the local-moving queue (a sweep over all nodes counts `nodes`). */
+  visits: number;
+  /** Sub-modules after refinement (= nodes of the next level); null on the last level. */
+  refined: number | null;
+  moveMs: number;
+  refineMs: number;
+  aggregateMs: number;
+}
+
+/** Optional recorder of what a run did, level by level and pass by pass. */
+export interface LeidenTrace {
+  levels: LevelTrace[];
+  /** Q after each pass (the last one did not raise Q, unless a cap was reached). */
+  passQ: number[];
+}
+
+/** CSR buffers of one aggregated level, sized for the largest aggregate (reused level after level). */
+interface LevelBuffers {
+  ptr: Int32Array;
+  nbr: Int32Array;
+  ew: Float64Array;
+  self: Float64Array;
+  a: Float64Array;
+  b: Float64Array;
+}
 
 /** Scratch arrays sized for the largest level (the input graph); reused across levels and passes. */
 interface Workspace {
+  n: number;
   mark: Int32Array;
   stamp: number;
   nw: Float64Array;
@@ -57,10 +98,21 @@ interface Workspace {
   cand: Int32Array;
   candW: Float64Array;
   map: Int32Array;
+  refined: Int32Array;
+  wellConnected: Uint8Array;
+  /** Level memberships (two, used in turn) and the map from input nodes to level nodes. */
+  memb: [Int32Array, Int32Array];
+  toLevel: Int32Array;
+  /** Aggregation: module starts, members by module, fill pointers. */
+  start: Int32Array;
+  members: Int32Array;
+  /** Aggregated graphs, two used in turn (allocated on the first aggregation). */
+  levels: [LevelBuffers, LevelBuffers] | null;
 }
 
 function createWorkspace(n: number): Workspace {
   return {
+    n,
     mark: new Int32Array(n).fill(-1),
     stamp: 0,
     nw: new Float64Array(n),
@@ -78,6 +130,24 @@ function createWorkspace(n: number): Workspace {
     cand: new Int32Array(n),
     candW: new Float64Array(n),
     map: new Int32Array(n),
+    refined: new Int32Array(n),
+    wellConnected: new Uint8Array(n),
+    memb: [new Int32Array(n), new Int32Array(n)],
+    toLevel: new Int32Array(n),
+    start: new Int32Array(n + 1),
+    members: new Int32Array(n),
+    levels: null,
+  };
+}
+
+function levelBuffers(n: number, entries: number): LevelBuffers {
+  return {
+    ptr: new Int32Array(n + 1),
+    nbr: new Int32Array(entries),
+    ew: new Float64Array(entries),
+    self: new Float64Array(n),
+    a: new Float64Array(n),
+    b: new Float64Array(n),
   };
 }
 
@@ -104,9 +174,9 @@ function shuffle(ws: Workspace, n: number, rng: Rng): Int32Array {
 
 /**
  * Fast local moving (Algorithm A.2, MoveNodesFast). `memb` holds module ids in [0, n) and is updated
- * in place. Returns true when any node moved.
+ * in place. Returns the number of nodes taken from the queue.
  */
-export function moveNodesFast(g: QualityGraph, memb: Int32Array, rng: Rng, ws: Workspace, eps: number): boolean {
+export function moveNodesFast(g: QualityGraph, memb: Int32Array, rng: Rng, ws: Workspace, eps: number): number {
   const { n, ptr, nbr, ew, a, b, gamma } = g;
   const { modA, modB, modSize, empty, queue, inQueue, nw, mark, touched } = ws;
   modA.fill(0, 0, n);
@@ -129,12 +199,13 @@ export function moveNodesFast(g: QualityGraph, memb: Int32Array, rng: Rng, ws: W
   }
   let head = 0;
   let count = n;
-  let moved = false;
+  let visits = 0;
 
   while (count > 0) {
     const v = queue[head];
     head = head + 1 === n ? 0 : head + 1;
     count--;
+    visits++;
     inQueue[v] = 0;
 
     const cur = memb[v];
@@ -164,7 +235,6 @@ export function moveNodesFast(g: QualityGraph, memb: Int32Array, rng: Rng, ws: W
     const curGain = bestGain;
     for (let t = 1; t < nt; t++) {
       const c = touched[t];
-      if (c === cur) continue;
       const gain = nw[c] - gamma * (av * modB[c] + bv * modA[c]);
       if (gain > bestGain + eps && gain > curGain + eps) {
         best = c;
@@ -181,7 +251,6 @@ export function moveNodesFast(g: QualityGraph, memb: Int32Array, rng: Rng, ws: W
     modSize[best]++;
     if (best !== cur) {
       memb[v] = best;
-      moved = true;
       if (modSize[cur] === 0) empty[nEmpty++] = cur;
       for (let e = ptr[v]; e < ptr[v + 1]; e++) {
         const u = nbr[e];
@@ -195,12 +264,12 @@ export function moveNodesFast(g: QualityGraph, memb: Int32Array, rng: Rng, ws: W
       }
     }
   }
-  return moved;
+  return visits;
 }
 
 /**
  * Refinement (Algorithm A.2, RefinePartition / MergeNodesSubset). Returns the refined membership
- * (renumbered 0..K−1) and K.
+ * (renumbered 0..K−1; it lives in the workspace and is valid until the next refinement) and K.
  */
 export function refinePartition(
   g: QualityGraph,
@@ -220,22 +289,21 @@ export function refinePartition(
     SA[memb[v]] += a[v];
     SB[memb[v]] += b[v];
   }
-  const refined = new Int32Array(n);
+  const refined = ws.refined.subarray(0, n);
+  const wellConnectedNode = ws.wellConnected;
   for (let v = 0; v < n; v++) {
     refined[v] = v;
-    modA[v] = a[v];
-    modB[v] = b[v];
+    const av = a[v];
+    const bv = b[v];
+    modA[v] = av;
+    modB[v] = bv;
     modSize[v] = 1;
     let s = 0;
-    const c = memb[v];
-    for (let e = ptr[v]; e < ptr[v + 1]; e++) if (memb[nbr[e]] === c) s += ew[e];
-    cut[v] = s; // E({v}, S − {v})
-  }
-  const wellConnectedNode = new Uint8Array(n);
-  for (let v = 0; v < n; v++) {
     const S = memb[v];
-    const need = gamma * (a[v] * (SB[S] - b[v]) + b[v] * (SA[S] - a[v]));
-    wellConnectedNode[v] = cut[v] >= need - 1e-12 * Math.abs(need) ? 1 : 0;
+    for (let e = ptr[v]; e < ptr[v + 1]; e++) if (memb[nbr[e]] === S) s += ew[e];
+    cut[v] = s; // E({v}, S − {v})
+    const need = gamma * (av * (SB[S] - bv) + bv * (SA[S] - av));
+    wellConnectedNode[v] = s >= need - 1e-12 * Math.abs(need) ? 1 : 0;
   }
   const scale = REFINEMENT_THETA * meanWeight;
   const order = shuffle(ws, n, rng);
@@ -275,13 +343,15 @@ export function refinePartition(
       if (gain > maxGain) maxGain = gain;
     }
     if (nc === 0) continue;
-    let total = Math.exp(-maxGain / scale); // staying alone
+    const stay = Math.exp(-maxGain / scale); // staying alone
+    let total = stay;
     for (let t = 0; t < nc; t++) {
-      const w = Math.exp((candW[t] - maxGain) / scale);
+      const d = candW[t] - maxGain;
+      const w = d === 0 ? 1 : Math.exp(d / scale);
       candW[t] = w;
       total += w;
     }
-    let r = rng.next() * total - Math.exp(-maxGain / scale);
+    let r = rng.next() * total - stay;
     if (r < 0) continue; // stays a singleton
     let chosen = cand[nc - 1];
     for (let t = 0; t < nc; t++) {
@@ -303,34 +373,43 @@ export function refinePartition(
   return { refined, k };
 }
 
-/** Collapses each module of `memb` (ids 0..k−1) into one node; inner weight goes to the self weight. */
-export function aggregateGraph(g: QualityGraph, memb: Int32Array, k: number, ws: Workspace): QualityGraph {
+/**
+ * Collapses each module of `memb` (ids 0..k−1) into one node; inner weight goes to the self weight.
+ * Writes into `out` when given (the optimizer's level buffers), else into new arrays.
+ */
+export function aggregateGraph(g: QualityGraph, memb: Int32Array, k: number, ws: Workspace, out?: LevelBuffers): QualityGraph {
   const { n, ptr, nbr, ew, self, a, b } = g;
   const { mark, nw, touched } = ws;
-  const start = new Int32Array(k + 1);
+  const start = ws.start;
+  start.fill(0, 0, k + 1);
   for (let v = 0; v < n; v++) start[memb[v] + 1]++;
   for (let c = 0; c < k; c++) start[c + 1] += start[c];
-  const members = new Int32Array(n);
-  const fill = start.slice(0, k);
+  const members = ws.members;
+  const fill = ws.map; // fill pointers: a copy of the starts
+  for (let c = 0; c < k; c++) fill[c] = start[c];
   for (let v = 0; v < n; v++) members[fill[memb[v]]++] = v;
 
-  const nPtr = new Int32Array(k + 1);
-  const nNbr = new Int32Array(ptr[n]);
-  const nEw = new Float64Array(ptr[n]);
-  const nSelf = new Float64Array(k);
-  const nA = new Float64Array(k);
-  const nB = new Float64Array(k);
+  const buf = out ?? levelBuffers(k, ptr[n]);
+  const nPtr = buf.ptr;
+  const nNbr = buf.nbr;
+  const nEw = buf.ew;
+  const nSelf = buf.self;
+  const nA = buf.a;
+  const nB = buf.b;
+  nPtr[0] = 0;
   let pos = 0;
   for (let c = 0; c < k; c++) {
     const stamp = nextStamp(ws);
     let nt = 0;
     let innerW = 0;
     let sw = 0;
+    let sa = 0;
+    let sb = 0;
     for (let i = start[c]; i < start[c + 1]; i++) {
       const v = members[i];
       sw += self[v];
-      nA[c] += a[v];
-      nB[c] += b[v];
+      sa += a[v];
+      sb += b[v];
       for (let e = ptr[v]; e < ptr[v + 1]; e++) {
         const d = memb[nbr[e]];
         if (d === c) {
@@ -345,6 +424,8 @@ export function aggregateGraph(g: QualityGraph, memb: Int32Array, k: number, ws:
         nw[d] += ew[e];
       }
     }
+    nA[c] = sa;
+    nB[c] = sb;
     nSelf[c] = sw + innerW / 2;
     for (let t = 0; t < nt; t++) {
       nNbr[pos] = touched[t];
@@ -352,56 +433,113 @@ export function aggregateGraph(g: QualityGraph, memb: Int32Array, k: number, ws:
     }
     nPtr[c + 1] = pos;
   }
+  const sized = out !== undefined || pos < nNbr.length;
   return {
     n: k,
-    ptr: nPtr,
-    nbr: nNbr.slice(0, pos),
-    ew: nEw.slice(0, pos),
-    self: nSelf,
-    a: nA,
-    b: nB,
+    ptr: out ? nPtr.subarray(0, k + 1) : nPtr,
+    nbr: sized ? nNbr.subarray(0, pos) : nNbr,
+    ew: sized ? nEw.subarray(0, pos) : nEw,
+    self: out ? nSelf.subarray(0, k) : nSelf,
+    a: out ? nA.subarray(0, k) : nA,
+    b: out ? nB.subarray(0, k) : nB,
     alpha: g.alpha,
     gamma: g.gamma,
     totalW: g.totalW,
   };
 }
 
+interface PassOutcome {
+  membership: Int32Array;
+  /** The level cap was reached before local moving settled. */
+  capped: boolean;
+}
+
 /**
- * One Leiden pass from `initial` (or singletons) on graph g0; returns the membership of g0's nodes,
- * renumbered.
+ * One Leiden pass from `memb0` on graph g0; returns the membership of g0's nodes, renumbered.
  */
-function leidenPass(g0: QualityGraph, memb0: Int32Array, rng: Rng, ws: Workspace, eps: number, meanWeight: number): Int32Array {
+function leidenPass(
+  g0: QualityGraph,
+  memb0: Int32Array,
+  rng: Rng,
+  ws: Workspace,
+  eps: number,
+  meanWeight: number,
+  trace: LeidenTrace | undefined,
+  pass: number,
+): PassOutcome {
+  const n0 = g0.n;
   let g = g0;
-  let memb = memb0.slice();
-  const map = new Int32Array(g0.n);
-  for (let i = 0; i < g0.n; i++) map[i] = i;
-  for (let level = 0; level < 1000; level++) {
-    moveNodesFast(g, memb, rng, ws, eps);
+  let side = 0;
+  let memb = ws.memb[side].subarray(0, n0);
+  memb.set(memb0);
+  const map = ws.toLevel;
+  for (let i = 0; i < n0; i++) map[i] = i;
+  if (!ws.levels || ws.levels[0].nbr.length < g0.ptr[n0] || ws.levels[0].a.length < n0) {
+    ws.levels = [levelBuffers(n0, g0.ptr[n0]), levelBuffers(n0, g0.ptr[n0])];
+  }
+  let capped = true;
+  for (let level = 0; level < LEVEL_CAP; level++) {
+    const t0 = trace ? performance.now() : 0;
+    const visits = moveNodesFast(g, memb, rng, ws, eps);
     const k = renumber(memb, ws.map);
-    if (k === g.n) break;
+    const t1 = trace ? performance.now() : 0;
+    if (k === g.n) {
+      if (trace) trace.levels.push(levelTrace(pass, level, g, k, visits, null, t1 - t0, 0, 0));
+      capped = false;
+      break;
+    }
     let { refined, k: kr } = refinePartition(g, memb, rng, ws, meanWeight);
     if (kr === g.n) {
       // Refinement merged nothing: aggregate on the unrefined partition (each aggregate node its own module).
       refined = memb;
       kr = k;
     }
-    const agg = aggregateGraph(g, refined, kr, ws);
-    const next = new Int32Array(kr);
+    const t2 = trace ? performance.now() : 0;
+    const agg = aggregateGraph(g, refined, kr, ws, ws.levels[level & 1]);
+    const next = ws.memb[1 - side].subarray(0, kr);
     for (let v = 0; v < g.n; v++) next[refined[v]] = memb[v];
-    for (let i = 0; i < g0.n; i++) map[i] = refined[map[i]];
+    for (let i = 0; i < n0; i++) map[i] = refined[map[i]];
+    if (trace) trace.levels.push(levelTrace(pass, level, g, k, visits, kr, t1 - t0, t2 - t1, performance.now() - t2));
     g = agg;
+    side = 1 - side;
     memb = next;
   }
-  const out = new Int32Array(g0.n);
-  for (let i = 0; i < g0.n; i++) out[i] = memb[map[i]];
+  const out = new Int32Array(n0);
+  for (let i = 0; i < n0; i++) out[i] = memb[map[i]];
   renumber(out, ws.map);
-  return out;
+  return { membership: out, capped };
+}
+
+function levelTrace(
+  pass: number,
+  level: number,
+  g: QualityGraph,
+  modules: number,
+  visits: number,
+  refined: number | null,
+  moveMs: number,
+  refineMs: number,
+  aggregateMs: number,
+): LevelTrace {
+  return { pass, level, nodes: g.n, links: g.ptr[g.n] / 2, modules, visits, refined, moveMs, refineMs, aggregateMs };
 }
 
 export interface LeidenResult {
   membership: Int32Array;
   Q: number;
   passes: number;
+  /** True when the last pass raised Q no further (false only if a safety cap was reached). */
+  converged: boolean;
+  /** Which safety cap stopped the run, if any. */
+  capped?: "passes" | "levels";
+}
+
+export interface LeidenOptions {
+  /** Start partition (default: singletons). */
+  initial?: Int32Array;
+  /** Scratch space of createWorkspace(g.n), reused across runs on graphs of at most that size. */
+  workspace?: Workspace;
+  trace?: LeidenTrace;
 }
 
 /** Mean weight of a stored undirected link (E entries), the unit of the refinement randomness. */
@@ -417,13 +555,14 @@ function meanLinkWeight(g: QualityGraph): number {
  * Runs Leiden passes from `initial` (default: singletons) until a pass no longer raises Q.
  * Q never decreases: local moving only accepts gains and aggregation preserves Q.
  */
-export function leiden(g: QualityGraph, rng: Rng, initial?: Int32Array, workspace?: Workspace): LeidenResult {
-  const ws = workspace ?? createWorkspace(g.n);
+export function leiden(g: QualityGraph, rng: Rng, options: LeidenOptions = {}): LeidenResult {
+  const ws = options.workspace && options.workspace.n >= g.n ? options.workspace : createWorkspace(g.n);
+  const trace = options.trace;
   const eps = 1e-13 * Math.max(g.totalW, 1e-300);
   const meanW = meanLinkWeight(g);
   let memb: Int32Array;
-  if (initial) {
-    memb = initial.slice();
+  if (options.initial) {
+    memb = options.initial.slice();
     renumber(memb, ws.map);
   } else {
     memb = new Int32Array(g.n);
@@ -431,19 +570,28 @@ export function leiden(g: QualityGraph, rng: Rng, initial?: Int32Array, workspac
   }
   let q = graphQuality(g, memb);
   let passes = 0;
-  for (; passes < MAX_PASSES; ) {
-    const next = leidenPass(g, memb, rng, ws, eps, meanW);
+  let converged = false;
+  let capped: LeidenResult["capped"];
+  while (passes < PASS_CAP) {
+    const pass = leidenPass(g, memb, rng, ws, eps, meanW, trace, passes);
     passes++;
+    const next = pass.membership;
     const qn = graphQuality(g, next);
+    trace?.passQ.push(qn);
+    if (pass.capped) capped = "levels";
     if (qn > q + 1e-12 * Math.max(1, Math.abs(q))) {
       memb = next;
       q = qn;
     } else {
       if (qn >= q) memb = next;
+      converged = !pass.capped;
       break;
     }
   }
-  return { membership: memb, Q: graphQuality(g, memb), passes };
+  if (!converged && !capped) capped = "passes";
+  const out: LeidenResult = { membership: memb, Q: graphQuality(g, memb), passes, converged };
+  if (capped) out.capped = capped;
+  return out;
 }
 
 export { createWorkspace, type Workspace };

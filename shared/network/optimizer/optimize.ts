@@ -28,7 +28,7 @@ import type { Network, Partition } from "../types";
 import { createRng, deriveSeed } from "../random";
 import { ENGINE_VERSION } from "../version";
 import { anneal, ANNEALING_DEFAULTS } from "./annealing";
-import { createWorkspace, leiden, MAX_PASSES, REFINEMENT_THETA } from "./leiden";
+import { createWorkspace, leiden, LEVEL_CAP, PASS_CAP, REFINEMENT_THETA } from "./leiden";
 import {
   buildQualityGraph,
   graphQuality,
@@ -64,6 +64,20 @@ export interface RestartSpread {
   max: number | null;
   /** Share of restarts whose Q equals the best restart's Q (within 1e-10). */
   bestShare: number | null;
+  /** Leiden passes of each restart, in restart order (the last pass of each raised Q no further). */
+  passes: number[];
+}
+
+/**
+ * Whether every Leiden run (restarts and the pass after annealing) ran until a whole pass no longer
+ * raised Q. `capped` counts runs stopped by a safety cap instead (PASS_CAP passes or LEVEL_CAP levels in
+ * a pass); it is 0 unless something is wrong, and a stored result that says otherwise should be looked at.
+ */
+export interface Convergence {
+  converged: boolean;
+  capped: number;
+  passCap: number;
+  levelCap: number;
 }
 
 export interface ModularityResult {
@@ -74,6 +88,7 @@ export interface ModularityResult {
   modules: number;
   partition: Partition;
   restarts: RestartSpread;
+  convergence: Convergence;
   algorithm: {
     name: string;
     version: string;
@@ -83,7 +98,9 @@ export interface ModularityResult {
       annealing: AnnealingMode;
       annealed: boolean;
       refinementTheta: number;
-      maxPasses: number;
+      /** Passes repeat until one no longer raises Q; these caps only guard against a defect. */
+      passCap: number;
+      levelCap: number;
       annealingF: number;
       annealingCooling: number;
       annealingMaxNodes: number;
@@ -106,6 +123,10 @@ function checkOptions(restarts: number, seed: number, annealing: string) {
   if (annealing !== "auto" && annealing !== "on" && annealing !== "off") {
     throw new RangeError(`annealing must be "auto", "on" or "off", got ${String(annealing)}`);
   }
+}
+
+function convergence(capped: number): Convergence {
+  return { converged: capped === 0, capped, passCap: PASS_CAP, levelCap: LEVEL_CAP };
 }
 
 function median(xs: number[]): number {
@@ -155,7 +176,8 @@ export function optimizeModularity(net: Network, options: OptimizeOptions = {}):
       annealing,
       annealed,
       refinementTheta: REFINEMENT_THETA,
-      maxPasses: MAX_PASSES,
+      passCap: PASS_CAP,
+      levelCap: LEVEL_CAP,
       annealingF: ANNEALING_DEFAULTS.f,
       annealingCooling: ANNEALING_DEFAULTS.cooling,
       annealingMaxNodes: ANNEALING_MAX_NODES,
@@ -171,18 +193,23 @@ export function optimizeModularity(net: Network, options: OptimizeOptions = {}):
       undefinedReason: "the network has no links (total weight 0), so modularity is undefined (division by m = 0)",
       modules: g.n,
       partition,
-      restarts: { n: 0, qs: [], min: null, median: null, max: null, bestShare: null },
+      restarts: { n: 0, qs: [], min: null, median: null, max: null, bestShare: null, passes: [] },
+      convergence: convergence(0),
       algorithm: algorithm(false),
     };
   }
 
   const ws = createWorkspace(g.n);
   const qs: number[] = [];
+  const passes: number[] = [];
+  let capped = 0;
   let best: Int32Array | null = null;
   let bestQ = -Infinity;
   for (let r = 0; r < restarts; r++) {
-    const res = leiden(g, createRng(deriveSeed(seed, r)), undefined, ws);
+    const res = leiden(g, createRng(deriveSeed(seed, r)), { workspace: ws });
     qs.push(res.Q);
+    passes.push(res.passes);
+    if (!res.converged) capped++;
     options.onRestart?.(r, res.Q);
     if (res.Q > bestQ + 1e-12) {
       bestQ = res.Q;
@@ -203,7 +230,8 @@ export function optimizeModularity(net: Network, options: OptimizeOptions = {}):
   if (doAnneal) {
     const rng = createRng(deriveSeed(seed, ANNEALING_STREAM));
     const annealed = anneal(g, memb, rng);
-    const polished = leiden(g, rng, annealed.membership, ws);
+    const polished = leiden(g, rng, { initial: annealed.membership, workspace: ws });
+    if (!polished.converged) capped++;
     if (polished.Q > bestQ + 1e-12) memb = polished.membership;
   }
   memb = memb.slice();
@@ -214,7 +242,8 @@ export function optimizeModularity(net: Network, options: OptimizeOptions = {}):
     Q: graphQuality(g, memb),
     modules,
     partition: memb,
-    restarts: { n: restarts, qs, min: qMin, median: median(qs), max: qMax, bestShare },
+    restarts: { n: restarts, qs, min: qMin, median: median(qs), max: qMax, bestShare, passes },
+    convergence: convergence(capped),
     algorithm: algorithm(doAnneal),
   };
 }
