@@ -20,6 +20,7 @@ import { MailCatcher, setCurrentMailCatcher } from "../server/src/lib/mail-catch
 import { shutdownServerResources, startServer } from "../server/src/index";
 import { ROOT_DIR } from "../server/src/config/paths";
 import { startupTasks, shutdownTasks } from "../server/src/startup";
+import { DataciteStandIn } from "../server/src/lib/datacite/stand-in";
 
 const say = (msg: string) => console.log(`\x1b[1;32m[tanglebank]\x1b[0m ${msg}`);
 const EXIT_CANNOT_RESTART = 78;
@@ -45,6 +46,16 @@ async function main(): Promise<() => Promise<void>> {
     resetMailer();
   }
 
+  // The local DataCite stand-in (unless TB_DATACITE_API_URL names a real service): demo DOIs, prefix 10.5072.
+  let datacite: DataciteStandIn | undefined;
+  if (cfg.datacite.enabled && cfg.datacite.standIn) {
+    datacite = new DataciteStandIn({ repositoryId: cfg.datacite.repositoryId, password: cfg.datacite.password, prefix: cfg.datacite.prefix, storeFile: join(ROOT_DIR, ".data", "datacite.json") });
+    const port = await datacite.listen(cfg.datacite.standInPort);
+    process.env.TB_DATACITE_PORT = String(port);
+    resetConfig();
+    say(`Local DataCite stand-in (REST API) on ${datacite.url}, DOI prefix ${cfg.datacite.prefix} (test DOIs: they never resolve publicly)`);
+  }
+
   const { url, close } = await startServer();
   for (const task of startupTasks) await task({ log: say });
 
@@ -61,6 +72,7 @@ ${DEMO_ACCOUNTS.map((a) => `    ${a.role.padEnd(10)} ${a.email.padEnd(32)} ${a.d
     for (const task of shutdownTasks) await task().catch(() => undefined);
     await close();
     await catcher.close();
+    await datacite?.close();
     await shutdownServerResources();
   };
 }

@@ -14,5 +14,8 @@ shutdownTasks.unshift(stopMetricsWorkerTask);
 import { startCatalogueTask, stopCatalogueTask } from "./api/catalogue/catalogue.startup";
 startupTasks.push(startCatalogueTask);
 shutdownTasks.unshift(stopCatalogueTask);
+import { startDoiWorkerTask, stopDoiWorkerTask } from "./jobs/dois.startup";
+startupTasks.push(startDoiWorkerTask);
+shutdownTasks.unshift(stopDoiWorkerTask);
 import { seedDemoScenarioTask } from "./db/seeders/demo-scenario";
 startupTasks.push(seedDemoScenarioTask);

@@ -192,6 +192,14 @@ export interface VersionSummary {
   networkCount: number;
 }
 
+/** A DOI as pages show it: "pending" until DataCite has registered it (then `url` resolves). */
+export interface DoiSummary {
+  doi: string;
+  state: "pending" | "registered";
+  /** The resolver URL, e.g. https://doi.org/10.5072/tb-000042.v2 */
+  url: string;
+}
+
 export interface DatasetDetail {
   id: number;
   accession: string | null;
@@ -204,4 +212,6 @@ export interface DatasetDetail {
   versions: VersionSummary[];
   networks: NetworkSummary[];
   withdrawal: { at: string; reason: string } | null;
+  /** DOIs of the shown version and of the dataset as a whole (the concept DOI: always the latest version); null before publication. */
+  dois: { version: DoiSummary | null; concept: DoiSummary | null };
 }

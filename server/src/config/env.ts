@@ -19,6 +19,32 @@ export interface Config {
   /** Rate limits (requests per window) */
   authRateLimit: number;
   apiRateLimit: number;
+  /** DOIs through DataCite's REST API (README: "DOIs and ORCID"). */
+  datacite: {
+    enabled: boolean;
+    /** The REST API base, e.g. https://api.datacite.org; by default the local stand-in on `standInPort`. */
+    apiUrl: string;
+    /** Port of the local DataCite stand-in that `npm start` runs (0: any free port). */
+    standInPort: number;
+    /** Whether apiUrl is the local stand-in (started by `npm start`) rather than a configured service. */
+    standIn: boolean;
+    repositoryId: string;
+    password: string;
+    /** DOI prefix, e.g. 10.5072 (DataCite's test prefix: such DOIs never resolve). */
+    prefix: string;
+    /** Resolver base of DOI links, e.g. https://doi.org/ */
+    resolver: string;
+  };
+  /** Sign-in with ORCID through OpenID Connect. */
+  orcid: {
+    enabled: boolean;
+    /** Issuer of the OpenID provider, e.g. https://orcid.org; by default the local stand-in on `standInPort`. */
+    issuer: string;
+    standInPort: number;
+    standIn: boolean;
+    clientId: string;
+    clientSecret: string;
+  };
 }
 
 function int(name: string, fallback: number, min = 0, max = Number.MAX_SAFE_INTEGER): number {
@@ -34,6 +60,63 @@ function int(name: string, fallback: number, min = 0, max = Number.MAX_SAFE_INTE
 function str(name: string, fallback: string): string {
   const raw = process.env[name];
   return raw === undefined || raw === "" ? fallback : raw;
+}
+
+function onOff(name: string, fallback: boolean): boolean {
+  const raw = str(name, fallback ? "on" : "off").toLowerCase();
+  if (!["on", "off"].includes(raw)) throw new Error(`Invalid environment variable ${name}=${JSON.stringify(raw)}: expected on or off`);
+  return raw === "on";
+}
+
+function httpUrl(name: string, value: string): string {
+  let u: URL;
+  try {
+    u = new URL(value);
+  } catch {
+    throw new Error(`Invalid environment variable ${name}=${JSON.stringify(value)}: expected an http(s) URL`);
+  }
+  if (u.protocol !== "http:" && u.protocol !== "https:") throw new Error(`Invalid environment variable ${name}=${JSON.stringify(value)}: expected an http(s) URL`);
+  return value.replace(/\/+$/, "");
+}
+
+/** Development values of the local stand-ins; refused in production. */
+export const STAND_IN_SECRETS = { dataCitePassword: "northmoor-datacite-demo", orcidClientSecret: "northmoor-orcid-demo-secret" } as const;
+
+function dataciteConfig(nodeEnv: Config["nodeEnv"]): Config["datacite"] {
+  const enabled = onOff("TB_DOI", true);
+  const standInPort = int("TB_DATACITE_PORT", 2626, 0, 65535);
+  const configured = process.env.TB_DATACITE_API_URL;
+  const standIn = !configured;
+  const apiUrl = httpUrl("TB_DATACITE_API_URL", configured || `http://127.0.0.1:${standInPort}`);
+  const prefix = str("TB_DOI_PREFIX", "10.5072");
+  if (!/^10\.\d{4,9}$/.test(prefix)) throw new Error(`Invalid environment variable TB_DOI_PREFIX=${JSON.stringify(prefix)}: expected a DOI prefix such as 10.5072`);
+  const repositoryId = str("TB_DATACITE_REPOSITORY_ID", "NORTHMOOR.TANGLEBANK");
+  const password = str("TB_DATACITE_PASSWORD", nodeEnv === "production" ? "" : STAND_IN_SECRETS.dataCitePassword);
+  if (nodeEnv === "production" && enabled) {
+    if (standIn) throw new Error("TB_DATACITE_API_URL must be set in production (e.g. https://api.datacite.org), or DOIs turned off with TB_DOI=off");
+    if (!process.env.TB_DATACITE_REPOSITORY_ID || !password || password === STAND_IN_SECRETS.dataCitePassword) {
+      throw new Error("TB_DATACITE_REPOSITORY_ID and TB_DATACITE_PASSWORD must be set in production (the repository account DataCite gave you)");
+    }
+  }
+  const resolver = httpUrl("TB_DOI_RESOLVER", str("TB_DOI_RESOLVER", "https://doi.org")) + "/";
+  return { enabled, apiUrl, standInPort, standIn, repositoryId, password, prefix, resolver };
+}
+
+function orcidConfig(nodeEnv: Config["nodeEnv"]): Config["orcid"] {
+  const enabled = onOff("TB_ORCID", true);
+  const standInPort = int("TB_ORCID_PORT", 2627, 0, 65535);
+  const configured = process.env.TB_ORCID_ISSUER;
+  const standIn = !configured;
+  const issuer = httpUrl("TB_ORCID_ISSUER", configured || `http://127.0.0.1:${standInPort}`);
+  const clientId = str("TB_ORCID_CLIENT_ID", "APP-NORTHMOORDEMO01");
+  const clientSecret = str("TB_ORCID_CLIENT_SECRET", nodeEnv === "production" ? "" : STAND_IN_SECRETS.orcidClientSecret);
+  if (nodeEnv === "production" && enabled) {
+    if (standIn) throw new Error("TB_ORCID_ISSUER must be set in production (https://orcid.org), or ORCID sign-in turned off with TB_ORCID=off");
+    if (!process.env.TB_ORCID_CLIENT_ID || !clientSecret || clientSecret === STAND_IN_SECRETS.orcidClientSecret) {
+      throw new Error("TB_ORCID_CLIENT_ID and TB_ORCID_CLIENT_SECRET must be set in production (the client ORCID registered for you)");
+    }
+  }
+  return { enabled, issuer, standInPort, standIn, clientId, clientSecret };
 }
 
 export function loadConfig(): Config {
@@ -73,6 +156,8 @@ export function loadConfig(): Config {
     logLevel: str("LOG_LEVEL", nodeEnv === "test" ? "silent" : "info"),
     authRateLimit: int("TB_AUTH_RATE_LIMIT", 20, 1),
     apiRateLimit: int("TB_API_RATE_LIMIT", 600, 1),
+    datacite: dataciteConfig(nodeEnv),
+    orcid: orcidConfig(nodeEnv),
   };
   return cfg;
 }

@@ -14,6 +14,7 @@ import { ApiError } from "../../lib/api-error";
 import { hasRole } from "../../middlewares/require-role";
 import { Dataset, DatasetVersion, Network, StoredFile, User } from "../../models";
 import { getCurrentMetrics } from "../../jobs/metrics-read";
+import { doisOfDataset } from "../../jobs/dois";
 import { config } from "../../config/env";
 
 export interface Viewer {
@@ -105,6 +106,7 @@ export async function buildDatasetDetail(dataset: Dataset, version: DatasetVersi
       metrics: metrics.get(n.id) ?? null,
     };
   });
+  const dois = await doisOfDataset(dataset.id);
   const withdrawal = version.state === "withdrawn" ? { at: iso(version.withdrawnAt) ?? "", reason: version.withdrawalReason ?? "" } : null;
   return {
     id: dataset.id,
@@ -116,6 +118,7 @@ export async function buildDatasetDetail(dataset: Dataset, version: DatasetVersi
     versions: visibleVersions.map((v) => versionSummary(v, counts.get(v.id) ?? 0)),
     networks: netSummaries,
     withdrawal,
+    dois: { version: dois.versions.get(version.number) ?? null, concept: dois.concept },
   };
 }
 

@@ -9,7 +9,8 @@
  * every problem otherwise: curators' corrections are saved unvalidated). Publishing assigns the accession
  * on first publication only (`TB-` + six digits
  * from the sequence accession_seq, so never reused), freezes the version and queues the metrics of every
- * network, all in one transaction.
+ * network, all in one transaction. It also reserves the dataset's DOIs (concept and version), which a job
+ * registers with DataCite after the commit (jobs/dois.ts), so a DataCite outage never blocks publishing.
  */
 import { Op, QueryTypes } from "sequelize";
 import { ApiError } from "../../lib/api-error";
@@ -20,6 +21,7 @@ import { config } from "../../config/env";
 import { AuditLog, Dataset, DatasetVersion, Network, Review, User } from "../../models";
 import { enqueueNetworkMetrics } from "../../jobs/enqueue";
 import { notifyCatalogueChanged } from "../catalogue/catalogue.events";
+import { requestDoiSync, reserveDois } from "../../jobs/dois";
 import { sendMail } from "../../emails/mailer";
 import { reviewDecisionEmail, type DecisionKind } from "../../emails/templates/review-decision";
 import type { Viewer } from "../datasets/datasets.service";
@@ -178,6 +180,8 @@ export async function decide(versionId: number, viewer: Viewer, input: { decisio
       // the matrix CSVs bundles copy (bundles.stored-csv.ts): the version is frozen from now on
       await storeMatrixCsvs(nets.map((n) => n.id), t);
       await enqueueNetworkMetrics(nets.map((n) => n.id), { transaction: t });
+      // DOIs: names reserved now, registered with DataCite by a job after the commit
+      await reserveDois(dataset.id, dataset.accession!, version.id, version.number, t);
       await notifyCatalogueChanged(dataset.id, t);
     }
     await Review.create({ versionId: version.id, curatorId: viewer.id, decision: input.decision, comment }, { transaction: t });
@@ -224,6 +228,8 @@ export async function withdrawDataset(accession: string, viewer: Viewer, reasonR
       { where: { id: { [Op.in]: published.map((v) => v.id) } }, transaction: t },
     );
     await notifyCatalogueChanged(dataset.id, t);
+    // the DOIs stay and keep resolving (to the tombstone); their metadata says the version was withdrawn
+    await requestDoiSync(dataset.id, t);
     await audit({ actorId: viewer.id, action: "dataset.withdraw", entityType: "dataset", entityId: dataset.id, datasetId: dataset.id, details: { accession, reason, versions: published.map((v) => v.number) } }, t);
     return { dataset, latest: published.sort((a, b) => b.number - a.number)[0], at };
   });
