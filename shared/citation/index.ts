@@ -6,6 +6,8 @@
  * word is taken as the family name ("Rowan Hale" → Hale, Rowan). Text citations use "Family G." initials.
  * The formats follow DataCite's recommended data citation (Creator (Year): Title. Version. Publisher.
  * Identifier), BibTeX's @misc entry (the type every BibTeX style knows) and the RIS tag list (TY DATA).
+ * With a registered DOI the identifier is the DOI's resolver URL (text), a `doi` field (BibTeX) and a DO
+ * tag (RIS); without one (not yet registered) the page URL stands in.
  */
 import type { Creator, StudyMetadata } from "../types/dataset";
 
@@ -17,6 +19,13 @@ export interface CitationInput {
   version: number;
   year: number;
   url: string;
+  /** The version's registered DOI, e.g. "10.5072/tb-000042.v2" (omitted while pending). */
+  doi?: string | null;
+}
+
+/** The resolver URL of a DOI. */
+export function doiUrl(doi: string): string {
+  return `https://doi.org/${doi}`;
 }
 
 export interface PersonName {
@@ -55,7 +64,7 @@ function oneLine(s: string): string {
 export function formatCitationText(input: CitationInput): string {
   const authors = input.metadata.creators.map(textAuthor).join(", ") || PUBLISHER;
   const title = oneLine(input.metadata.title).replace(/[.]+$/, "");
-  return `${authors} (${input.year}) ${title}. Version ${input.version}. ${PUBLISHER}. ${input.accession}. ${input.url}`;
+  return `${authors} (${input.year}) ${title}. Version ${input.version}. ${PUBLISHER}. ${input.accession}. ${input.doi ? doiUrl(input.doi) : input.url}`;
 }
 
 const BIBTEX_SPECIAL: Record<string, string> = {
@@ -97,6 +106,7 @@ export function toBibTeX(input: CitationInput): string {
     ["publisher", PUBLISHER],
     ["howpublished", `${PUBLISHER}, accession ${escapeBibTeX(input.accession)}`],
     ["version", String(input.version)],
+    ...(input.doi ? ([["doi", escapeBibTeX(input.doi)]] as Array<[string, string]>) : []),
     ["url", input.url],
     ["note", `Dataset ${escapeBibTeX(input.accession)}, version ${input.version}`],
   ];
@@ -123,6 +133,7 @@ export function toRIS(input: CitationInput): string {
   lines.push(risLine("ET", `Version ${input.version}`));
   lines.push(risLine("ID", `${input.accession}-v${input.version}`));
   lines.push(risLine("AN", input.accession));
+  if (input.doi) lines.push(risLine("DO", input.doi));
   lines.push(risLine("UR", input.url));
   for (const k of input.metadata.keywords ?? []) lines.push(risLine("KW", k));
   if (input.metadata.description) lines.push(risLine("AB", input.metadata.description));

@@ -2,7 +2,7 @@
  * The contract of `GET /api/v1/network-views/:accession/:version/:position`: exactly what the network view
  * plots (matrix ordered by module, null distribution, roles) plus the metrics summary and provenance.
  */
-import type { NetworkMetadata, NetworkMetricsSummary, NetworkShape, VersionState } from "./dataset";
+import type { DoiSummary, NetworkMetadata, NetworkMetricsSummary, NetworkShape, VersionState } from "./dataset";
 
 export interface ModuleRow {
   module: number;
@@ -31,6 +31,8 @@ export interface NetworkView extends NetworkShape {
   ref: string;
   accession: string;
   version: number;
+  /** The version's DOI (pending until DataCite has registered it). */
+  doi: DoiSummary | null;
   versionState: VersionState;
   latestPublishedVersion: number | null;
   position: number;
@@ -100,6 +102,8 @@ export interface Tombstone {
   citation: string;
   reason: string;
   withdrawnAt: string;
+  /** The version's registered DOI: it still resolves, to this tombstone. */
+  doi?: string | null;
 }
 
 /** One catalogue network on the coverage map: `GET /api/v1/network-views/map?<catalogue filters>`. */

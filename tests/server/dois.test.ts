@@ -14,7 +14,7 @@ import { sequelize } from "../../server/src/db/sequelize";
 import { DataciteStandIn } from "../../server/src/lib/datacite/stand-in";
 import { DataciteClient, DataciteError } from "../../server/src/lib/datacite/client";
 import { DATACITE_SCHEMA_VERSION } from "../../server/src/lib/datacite/required-fields";
-import { sendDoiJob, startDoiWorker, stopDoiWorker, syncDatasetDois } from "../../server/src/jobs/dois";
+import { startDoiWorker, stopDoiWorker, syncDatasetDois } from "../../server/src/jobs/dois";
 import { stopQueue } from "../../server/src/jobs/queue";
 import type { MailCatcher } from "../../server/src/lib/mail-catcher";
 import { resetDatabase } from "../setup/db";
@@ -22,6 +22,8 @@ import { agentFor, createUser, type SignedInAgent } from "./support/accounts";
 import { startMailCatcher } from "./support/stack";
 import { decide, makeDraft, submit } from "./support/deposit-helpers";
 import { waitFor } from "./support/wait";
+import { unzip } from "./support/unzip";
+import { datasetHtmlRenderer } from "../../server/src/api/network-views/dataset-html";
 
 const PUBLIC_URL = "http://tanglebank.test:3000";
 let app: ReturnType<typeof createApp>;
@@ -159,7 +161,7 @@ describe("registration after publishing", () => {
 
   it("a retried job sends nothing again, and a job that failed after DataCite stored the DOI updates instead of creating", async () => {
     const writes = datacite.writes.length;
-    await sendDoiJob(datasetId);
+    // the job's handler run again, as a retried or duplicate job would
     expect(await syncDatasetDois(datasetId)).toEqual({ created: [], updated: [], unchanged: [v1Doi, conceptDoi] });
     // as if the job had died between DataCite's answer and our commit
     await sequelize().query(`UPDATE dataset_dois SET state = 'pending', sent_hash = NULL, synced_at = NULL WHERE dataset_id = :datasetId`, { replacements: { datasetId } });
@@ -168,6 +170,36 @@ describe("registration after publishing", () => {
     expect(r.updated.sort()).toEqual([conceptDoi, v1Doi].sort());
     expect(datacite.creations.get(v1Doi)).toBe(1);
     expect(datacite.writes.slice(writes).every((w) => w.method === "PUT" && w.status === 200)).toBe(true);
+  });
+
+  it("the citation chain carries the registered DOI: JSON-LD, API, network page, bundle CITATIONS.bib and datapackage.json, the publication e-mail", async () => {
+    const html = await datasetHtmlRenderer(`/datasets/${accession}/v/1`, "<html><head><title>x</title></head><body></body></html>");
+    const ld = JSON.parse(/<script type="application\/ld\+json">([\s\S]*?)<\/script>/.exec(html!)![1]) as Record<string, unknown>;
+    expect((ld.identifier as unknown[])[0]).toEqual({ "@type": "PropertyValue", propertyID: "DOI", value: v1Doi, url: `https://doi.org/${v1Doi}` });
+    expect(ld.sameAs).toBe(`https://doi.org/${v1Doi}`);
+    expect(ld.citation).toContain(`https://doi.org/${v1Doi}`);
+
+    const view = await request(app).get(`/api/v1/network-views/${accession}/1/1`);
+    expect(view.body.doi).toEqual({ doi: v1Doi, state: "registered", url: `https://doi.org/${v1Doi}` });
+
+    const zip = await request(app)
+      .get("/api/v1/bundles")
+      .query({ refs: `${accession}/v1/1` })
+      .buffer(true)
+      .parse((res, cb) => {
+        const chunks: Buffer[] = [];
+        res.on("data", (c: Buffer) => chunks.push(c));
+        res.on("end", () => cb(null, Buffer.concat(chunks)));
+      });
+    expect(zip.status).toBe(200);
+    const files = await unzip(zip.body as Buffer);
+    expect(files.get("CITATIONS.bib")).toContain(`doi = {${v1Doi}}`);
+    const pkg = JSON.parse(files.get("datapackage.json")!) as { resources: Array<{ path: string; sources: Array<{ title: string; path: string }> }> };
+    expect(pkg.resources.find((r) => r.path.endsWith(".csv") && r.path !== "metrics.csv" && r.path !== "networks.csv")!.sources).toContainEqual({ title: `DOI ${v1Doi}`, path: `https://doi.org/${v1Doi}` });
+
+    const mail = await catcher.waitFor((m) => m.subject.startsWith(`Published: ${accession}`));
+    expect(mail.text).toContain(`DOI of this version: ${v1Doi}`);
+    expect(mail.text).toContain(conceptDoi);
   });
 
   it("a new version gets its own DOI; the concept DOI lists both and follows the latest version", async () => {

@@ -113,3 +113,24 @@ describe("toRIS", () => {
     expect(ris).toContain("AB  - Invented demo data. Two lines.\r\n");
   });
 });
+
+describe("a registered DOI in every format", () => {
+  const withDoi: CitationInput = { ...input, doi: "10.5072/tb-000042.v2" };
+
+  it("text: the DOI's resolver URL is the identifier", () => {
+    expect(formatCitationText(withDoi)).toMatch(/\. Tanglebank\. TB-000042\. https:\/\/doi\.org\/10\.5072\/tb-000042\.v2$/);
+    expect(formatCitationText(input)).toMatch(/https:\/\/tanglebank\.test\/datasets\/TB-000042\/v\/2$/);
+  });
+
+  it("BibTeX: a doi field that the parser reads back", () => {
+    const parsed = parseBibTeX(toBibTeX(withDoi), { sentenceCase: false });
+    expect(parsed.errors).toEqual([]);
+    expect(parsed.entries[0].fields.doi).toBe("10.5072/tb-000042.v2");
+    expect(parseBibTeX(toBibTeX(input), { sentenceCase: false }).entries[0].fields.doi).toBeUndefined();
+  });
+
+  it("RIS: a DO tag that citation-js reads as the DOI", () => {
+    const items = new Cite(toRIS(withDoi)).data as Array<CslItem & { DOI?: string }>;
+    expect(items[0].DOI).toBe("10.5072/tb-000042.v2");
+  });
+});

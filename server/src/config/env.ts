@@ -32,8 +32,6 @@ export interface Config {
     password: string;
     /** DOI prefix, e.g. 10.5072 (DataCite's test prefix: such DOIs never resolve). */
     prefix: string;
-    /** Resolver base of DOI links, e.g. https://doi.org/ */
-    resolver: string;
   };
   /** Sign-in with ORCID through OpenID Connect. */
   orcid: {
@@ -98,8 +96,7 @@ function dataciteConfig(nodeEnv: Config["nodeEnv"]): Config["datacite"] {
       throw new Error("TB_DATACITE_REPOSITORY_ID and TB_DATACITE_PASSWORD must be set in production (the repository account DataCite gave you)");
     }
   }
-  const resolver = httpUrl("TB_DOI_RESOLVER", str("TB_DOI_RESOLVER", "https://doi.org")) + "/";
-  return { enabled, apiUrl, standInPort, standIn, repositoryId, password, prefix, resolver };
+  return { enabled, apiUrl, standInPort, standIn, repositoryId, password, prefix };
 }
 
 function orcidConfig(nodeEnv: Config["nodeEnv"]): Config["orcid"] {

@@ -22,6 +22,7 @@ import { logger } from "../lib/logger";
 import { DataciteClient } from "../lib/datacite/client";
 import { attributesHash, conceptDoiAttributes, conceptDoiName, versionDoiAttributes, versionDoiName, type DoiDatasetInput } from "../lib/datacite/metadata";
 import type { StudyMetadata } from "../../../shared/types/dataset";
+import { doiUrl } from "../../../shared/citation";
 import { getBoss } from "./queue";
 
 export const DOI_QUEUE = "doi-sync";
@@ -254,8 +255,16 @@ export async function doisOfDataset(datasetId: number): Promise<{ concept: DoiIn
     `SELECT x.doi, x.state, v.number FROM dataset_dois x LEFT JOIN dataset_versions v ON v.id = x.version_id WHERE x.dataset_id = :datasetId`,
     { replacements: { datasetId }, type: QueryTypes.SELECT },
   );
-  const resolver = config().datacite.resolver;
-  const info = (r: (typeof rows)[number]): DoiInfo => ({ doi: r.doi, state: r.state, url: `${resolver}${r.doi}` });
+  const info = (r: (typeof rows)[number]): DoiInfo => ({ doi: r.doi, state: r.state, url: doiUrl(r.doi) });
   const concept = rows.find((r) => r.number === null);
   return { concept: concept ? info(concept) : null, versions: new Map(rows.filter((r) => r.number !== null).map((r) => [r.number!, info(r)])) };
+}
+
+/** The registered DOI of a version (null while pending or when it has none). */
+export async function registeredVersionDoi(versionId: number): Promise<string | null> {
+  const [row] = await sequelize().query<{ doi: string }>(`SELECT doi FROM dataset_dois WHERE version_id = :versionId AND state = 'registered'`, {
+    replacements: { versionId },
+    type: QueryTypes.SELECT,
+  });
+  return row?.doi ?? null;
 }

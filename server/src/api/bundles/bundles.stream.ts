@@ -15,7 +15,7 @@ import type { Writable } from "node:stream";
 import { ZipArchive } from "archiver";
 import { QueryTypes } from "sequelize";
 import { ENGINE_VERSION } from "../../../../shared/network/version";
-import { licenceUrl, toBibTeX } from "../../../../shared/citation";
+import { doiUrl, licenceUrl, toBibTeX } from "../../../../shared/citation";
 import type { StudyMetadata } from "../../../../shared/types/dataset";
 import { config } from "../../config/env";
 import { sequelize } from "../../db/sequelize";
@@ -366,6 +366,17 @@ export async function writeBundle(out: Writable, opts: BundleOptions): Promise<{
     archive.append(csv, { name, date: generated });
     appended++;
   };
+  // registered DOIs of the bundle's dataset versions ("TB-000042/2" → DOI), for datapackage.json's sources
+  const versionKeys = [...new Set(networks.map((n) => `${n.accession}/${n.version}`))];
+  const versionDois = new Map<string, string>();
+  for (let i = 0; i < versionKeys.length; i += 500) {
+    const rows = await sequelize().query<{ key: string; doi: string }>(
+      `SELECT d.accession || '/' || v.number AS key, x.doi FROM dataset_dois x JOIN dataset_versions v ON v.id = x.version_id JOIN datasets d ON d.id = v.dataset_id
+        WHERE x.state = 'registered' AND (d.accession || '/' || v.number) IN (:keys)`,
+      { replacements: { keys: versionKeys.slice(i, i + 500) }, type: QueryTypes.SELECT },
+    );
+    for (const r of rows) versionDois.set(r.key, r.doi);
+  }
   const resourcesFile = join(dir, "resources.jsonl");
   const metricsFile = join(dir, "metrics.csv");
   const networksFile = join(dir, "networks.csv");
@@ -418,6 +429,7 @@ export async function writeBundle(out: Writable, opts: BundleOptions): Promise<{
         }
         const licence = e.licence || "unknown";
         licences.add(licence);
+        const doi = versionDois.get(`${net.accession}/${net.version}`);
         resourceLines.push(
           (firstResource ? "" : ",\n") +
             "    " +
@@ -430,7 +442,10 @@ export async function writeBundle(out: Writable, opts: BundleOptions): Promise<{
               mediatype: "text/csv",
               encoding: "utf-8",
               licenses: [licenseObj(licence)],
-              sources: [{ title: `${net.accession} version ${net.version}`, path: `${publicUrl}/datasets/${net.accession}/v/${net.version}` }],
+              sources: [
+                { title: `${net.accession} version ${net.version}`, path: `${publicUrl}/datasets/${net.accession}/v/${net.version}` },
+                ...(doi ? [{ title: `DOI ${doi}`, path: doiUrl(doi) }] : []),
+              ],
             }).slice(0, -1) +
             `,"schema":{"fields":[${e.kind === "bipartite" ? NODE_FIELD_BIPARTITE : NODE_FIELD_ONE_MODE}${fields}],"primaryKey":["node"]}}`,
         );
@@ -484,8 +499,9 @@ export async function writeBundle(out: Writable, opts: BundleOptions): Promise<{
     async function* citations() {
       const versions = [...new Set(networks.map((n) => `${n.accession}/${n.version}`))];
       for (let i = 0; i < versions.length && !signal.aborted; i += 500) {
-        const rows = await sequelize().query<{ accession: string; number: number; metadata: StudyMetadata; published_at: Date | null }>(
-          `SELECT d.accession, v.number, v.metadata, v.published_at FROM dataset_versions v JOIN datasets d ON d.id = v.dataset_id
+        const rows = await sequelize().query<{ accession: string; number: number; metadata: StudyMetadata; published_at: Date | null; doi: string | null }>(
+          `SELECT d.accession, v.number, v.metadata, v.published_at, x.doi FROM dataset_versions v JOIN datasets d ON d.id = v.dataset_id
+             LEFT JOIN dataset_dois x ON x.version_id = v.id AND x.state = 'registered'
            WHERE (d.accession || '/' || v.number) IN (:keys) ORDER BY d.accession, v.number`,
           { replacements: { keys: versions.slice(i, i + 500) }, type: QueryTypes.SELECT },
         );
@@ -497,6 +513,7 @@ export async function writeBundle(out: Writable, opts: BundleOptions): Promise<{
               version: r.number,
               year: (r.published_at ? new Date(r.published_at) : generated).getUTCFullYear(),
               url: `${publicUrl}/datasets/${r.accession}/v/${r.number}`,
+              doi: r.doi,
             }),
           )
           .join("\n");

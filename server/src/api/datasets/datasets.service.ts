@@ -14,7 +14,7 @@ import { ApiError } from "../../lib/api-error";
 import { hasRole } from "../../middlewares/require-role";
 import { Dataset, DatasetVersion, Network, StoredFile, User } from "../../models";
 import { getCurrentMetrics } from "../../jobs/metrics-read";
-import { doisOfDataset } from "../../jobs/dois";
+import { doisOfDataset, registeredVersionDoi } from "../../jobs/dois";
 import { config } from "../../config/env";
 
 export interface Viewer {
@@ -127,11 +127,14 @@ export interface Tombstone {
   citation: string;
   reason: string;
   withdrawnAt: string;
+  /** The version's registered DOI: it still resolves, to the tombstone. */
+  doi: string | null;
 }
 
-function tombstoneError(dataset: Dataset, v: DatasetVersion): ApiError {
+async function tombstoneError(dataset: Dataset, v: DatasetVersion): Promise<ApiError> {
   const meta = v.metadata as unknown as StudyMetadata;
   const accession = dataset.accession ?? "";
+  const doi = await registeredVersionDoi(v.id);
   let citation: string;
   try {
     citation = formatCitationText({
@@ -140,11 +143,12 @@ function tombstoneError(dataset: Dataset, v: DatasetVersion): ApiError {
       version: v.number,
       year: new Date(v.publishedAt ?? v.withdrawnAt ?? Date.now()).getUTCFullYear(),
       url: `${config().publicUrl}/datasets/${accession}`,
+      doi,
     });
   } catch {
     citation = `${meta.title ?? ""}. ${accession} v${v.number}. Tanglebank.`;
   }
-  const body: Tombstone = { accession, citation, reason: v.withdrawalReason ?? "", withdrawnAt: iso(v.withdrawnAt) ?? "" };
+  const body: Tombstone = { accession, citation, reason: v.withdrawalReason ?? "", withdrawnAt: iso(v.withdrawnAt) ?? "", doi };
   return new TombstoneError(body);
 }
 
@@ -170,13 +174,13 @@ export async function findPublishedVersion(accession: string, number?: number): 
   if (number !== undefined) {
     const v = versions.find((x) => x.number === number);
     if (!v) throw ApiError.notFound(`${accession} has no published version ${number}.`);
-    if (v.state === "withdrawn") throw tombstoneError(dataset, v);
+    if (v.state === "withdrawn") throw await tombstoneError(dataset, v);
     return { dataset, version: v };
   }
   const published = versions.filter((v) => v.state === "published");
   if (published.length) return { dataset, version: published[published.length - 1] };
   const withdrawn = versions.filter((v) => v.state === "withdrawn");
-  if (withdrawn.length) throw tombstoneError(dataset, withdrawn[withdrawn.length - 1]);
+  if (withdrawn.length) throw await tombstoneError(dataset, withdrawn[withdrawn.length - 1]);
   throw ApiError.notFound(`No dataset ${accession}.`);
 }
 

@@ -1,7 +1,8 @@
 /**
  * Server-side HTML for dataset addresses (/datasets/TB-000042, /datasets/TB-000042/v/2, and the network
  * views below them), so that a crawler that runs no script sees what the page is: a schema.org/Dataset
- * JSON-LD block (https://schema.org/Dataset; Google's dataset guidelines list the same properties) and
+ * JSON-LD block (https://schema.org/Dataset; Google's dataset guidelines list the same properties; a
+ * registered DOI is the first `identifier`, a PropertyValue, and `sameAs` its resolver URL) and
  * descriptive meta tags. A withdrawn version gets a tombstone description and `noindex`; drafts and
  * unknown accessions get the plain app shell (the app then shows its 404).
  *
@@ -18,6 +19,7 @@ import { ApiError } from "../../lib/api-error";
 import { Network } from "../../models";
 import { citationFor, GoneError, resolveVersion, versionUrl } from "./network-views.access";
 import { publicLocality } from "../../lib/public-locality";
+import { doisOfDataset } from "../../jobs/dois";
 
 const PATH_RE = /^\/datasets\/(TB-\d{6})(?:\/v\/(\d{1,6}))?(?:\/networks\/\d{1,6})?\/?$/;
 
@@ -41,12 +43,15 @@ function shorten(s: string, n = 300): string {
 }
 
 export async function buildDatasetJsonLd(accession: string, versionNumber: number | undefined) {
-  const { version } = await resolveVersion(accession, versionNumber, undefined);
+  const { dataset, version } = await resolveVersion(accession, versionNumber, undefined);
   const md = version.metadata as unknown as StudyMetadata;
+  const dois = await doisOfDataset(dataset.id);
+  const versionDoi = dois.versions.get(version.number);
+  const doi = versionDoi?.state === "registered" ? versionDoi : null;
   const networks = await Network.findAll({ where: { versionId: version.id }, order: [["position", "ASC"]] });
   const url = versionUrl(accession, version.number);
   const base = config().publicUrl;
-  const citation = citationFor(accession, version);
+  const citation = citationFor(accession, version, doi?.doi ?? null);
 
   const places = new Map<string, Record<string, unknown>>();
   let start: string | null = null;
@@ -91,7 +96,9 @@ export async function buildDatasetJsonLd(accession: string, versionNumber: numbe
     name: md.title,
     description: md.description && md.description.length >= 50 ? md.description : `${md.description ?? ""} Interaction network data in Tanglebank (${accession}, version ${version.number}).`.trim(),
     url,
-    identifier: [accession, `${accession}/v${version.number}`, url],
+    // the DOI first (a PropertyValue, as schema.org's Dataset guidance shows), then our own identifiers
+    identifier: [...(doi ? [{ "@type": "PropertyValue", propertyID: "DOI", value: doi.doi, url: doi.url }] : []), accession, `${accession}/v${version.number}`, url],
+    ...(doi ? { sameAs: doi.url } : {}),
     version: String(version.number),
     creator: creators,
     license: licenceUrl(md.licence),

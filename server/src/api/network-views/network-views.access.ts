@@ -11,6 +11,7 @@ import { config } from "../../config/env";
 import { ApiError } from "../../lib/api-error";
 import { hasRole } from "../../middlewares/require-role";
 import { Dataset, DatasetVersion } from "../../models";
+import { registeredVersionDoi } from "../../jobs/dois";
 import type { AuthUser } from "../../types";
 
 export const ACCESSION_RE = /^TB-\d{6}$/;
@@ -36,7 +37,8 @@ function yearOf(d: Date | null | undefined): number {
   return (d ?? new Date()).getUTCFullYear();
 }
 
-export function citationFor(accession: string, version: DatasetVersion): string {
+/** The text citation of a version; `doi` is its registered DOI (null while pending). */
+export function citationFor(accession: string, version: DatasetVersion, doi: string | null = null): string {
   const md = version.metadata as unknown as StudyMetadata;
   return formatCitationText({
     metadata: { title: md.title ?? accession, creators: Array.isArray(md.creators) ? md.creators : [] },
@@ -44,14 +46,17 @@ export function citationFor(accession: string, version: DatasetVersion): string 
     version: version.number,
     year: yearOf(version.publishedAt),
     url: versionUrl(accession, version.number),
+    doi,
   });
 }
 
-export function tombstoneOf(accession: string, version: DatasetVersion): Tombstone {
+export async function tombstoneOf(accession: string, version: DatasetVersion): Promise<Tombstone> {
+  const doi = await registeredVersionDoi(version.id);
   return {
     accession,
     version: version.number,
-    citation: citationFor(accession, version),
+    doi,
+    citation: citationFor(accession, version, doi),
     reason: version.withdrawalReason ?? "Withdrawn by a curator.",
     withdrawnAt: (version.withdrawnAt ?? version.updatedAt).toISOString(),
   };
@@ -91,7 +96,7 @@ export async function resolveVersion(accession: string, versionNumber: number | 
     version = await DatasetVersion.findOne({ where: { datasetId: dataset.id, number: versionNumber } });
   }
   if (!version) throw ApiError.notFound(`No published version of ${accession}${versionNumber ? ` numbered ${versionNumber}` : ""}.`);
-  if (version.state === "withdrawn") throw new GoneError(tombstoneOf(accession, version));
+  if (version.state === "withdrawn") throw new GoneError(await tombstoneOf(accession, version));
   if (version.state !== "published" && !mayReadUnpublished(user, dataset)) {
     throw ApiError.notFound(`No published version of ${accession} numbered ${version.number}.`);
   }

@@ -5,6 +5,7 @@
  * The run's `results` hold the engine's `analyzeNetwork` output under `analysis` (older rows: at the top
  * level); null Q values under `nullQs` (or `analysis.nullQs`) when the pipeline kept them.
  */
+import { doisOfDataset } from "../../jobs/dois";
 import type { CanonicalNetworkJson } from "../../../../shared/network/parse/serialize";
 import type { AnalysisResult } from "../../../../shared/network/analyze";
 import type { NetworkMetadata, NetworkMetricsSummary, StudyMetadata } from "../../../../shared/types/dataset";
@@ -79,7 +80,7 @@ async function currentRun(networkId: number): Promise<{ summary: NetworkMetricsS
 }
 
 export async function getNetworkView(accession: string, versionNumber: number, position: number, user: AuthUser | undefined): Promise<NetworkView> {
-  const { version, latestPublishedVersion } = await resolveVersion(accession, versionNumber, user);
+  const { dataset, version, latestPublishedVersion } = await resolveVersion(accession, versionNumber, user);
   const net = await Network.unscoped().findOne({ where: { versionId: version.id, position } });
   if (!net) throw ApiError.notFound(`${accession} v${version.number} has no network ${position}.`);
   const file = await StoredFile.findByPk(net.fileId);
@@ -107,10 +108,12 @@ export async function getNetworkView(accession: string, versionNumber: number, p
   const { roles, thresholds } = rolesOf(analysis);
   const study = version.metadata as unknown as StudyMetadata;
   const md = net.metadata as unknown as NetworkMetadata;
+  const doi = (await doisOfDataset(dataset.id)).versions.get(version.number) ?? null;
   return {
     ref: `${accession}/v${version.number}/${position}`,
     accession,
     version: version.number,
+    doi,
     versionState: version.state,
     latestPublishedVersion,
     position,

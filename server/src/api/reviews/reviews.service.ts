@@ -21,7 +21,7 @@ import { config } from "../../config/env";
 import { AuditLog, Dataset, DatasetVersion, Network, Review, User } from "../../models";
 import { enqueueNetworkMetrics } from "../../jobs/enqueue";
 import { notifyCatalogueChanged } from "../catalogue/catalogue.events";
-import { requestDoiSync, reserveDois } from "../../jobs/dois";
+import { doisOfDataset, requestDoiSync, reserveDois } from "../../jobs/dois";
 import { sendMail } from "../../emails/mailer";
 import { reviewDecisionEmail, type DecisionKind } from "../../emails/templates/review-decision";
 import type { Viewer } from "../datasets/datasets.service";
@@ -115,6 +115,8 @@ async function mailDepositor(kind: DecisionKind, dataset: Dataset, version: Data
   try {
     const owner = await User.findByPk(dataset.ownerId);
     if (!owner) return;
+    const dois = kind === "publish" ? await doisOfDataset(dataset.id) : null;
+    const versionDoi = dois?.versions.get(version.number);
     await sendMail(
       owner.email,
       reviewDecisionEmail({
@@ -125,6 +127,7 @@ async function mailDepositor(kind: DecisionKind, dataset: Dataset, version: Data
         comment,
         depositor: owner.displayName,
         url: decisionUrl(kind, dataset.accession ?? null, version.id),
+        dois: versionDoi && dois?.concept ? { version: versionDoi.doi, concept: dois.concept.doi } : null,
       }),
     );
   } catch (err) {

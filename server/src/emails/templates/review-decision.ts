@@ -1,10 +1,21 @@
 /** To the depositor: a curator's decision on their submission, or a withdrawal. */
 import type { EmailContent } from "../mailer";
 import { reviewEmail } from "./review-layout";
+import { doiUrl } from "../../../../shared/citation";
 
 export type DecisionKind = "publish" | "request_changes" | "decline" | "withdraw";
 
-export function reviewDecisionEmail(d: { kind: DecisionKind; title: string; versionNumber: number; accession: string | null; comment: string | null; depositor: string; url: string }): EmailContent {
+export function reviewDecisionEmail(d: {
+  kind: DecisionKind;
+  title: string;
+  versionNumber: number;
+  accession: string | null;
+  comment: string | null;
+  depositor: string;
+  url: string;
+  /** Publication: the DOIs reserved for the version and for the dataset (registered with DataCite just after). */
+  dois?: { version: string; concept: string } | null;
+}): EmailContent {
   const greeting = `Dear ${d.depositor},`;
   const quote = d.comment ? { label: d.kind === "request_changes" ? "The curator's comments" : d.kind === "publish" ? "The curator's note" : "Reason", text: d.comment } : undefined;
   switch (d.kind) {
@@ -12,7 +23,14 @@ export function reviewDecisionEmail(d: { kind: DecisionKind; title: string; vers
       return reviewEmail({
         subject: `Published: ${d.accession} ${d.title}`,
         greeting,
-        paragraphs: [`“${d.title}” version ${d.versionNumber} is published as ${d.accession}. Its networks are queued for the metrics pipeline; the figures appear on the dataset page when computed.`],
+        paragraphs: [
+          `“${d.title}” version ${d.versionNumber} is published as ${d.accession}. Its networks are queued for the metrics pipeline; the figures appear on the dataset page when computed.`,
+          ...(d.dois
+            ? [
+                `DOI of this version: ${d.dois.version} (${doiUrl(d.dois.version)}); DOI of the dataset, always resolving to its latest version: ${d.dois.concept}. They are being registered with DataCite and resolve within minutes. Cite the version DOI in your data availability statement.`,
+              ]
+            : []),
+        ],
         quote,
         action: { label: "Open the dataset page", url: d.url },
       });

@@ -12,6 +12,8 @@ export interface DatasetTombstone {
   reason: string;
   withdrawnAt: string;
   version?: number;
+  /** The version's registered DOI, which still resolves (to the tombstone). */
+  doi?: string | null;
 }
 
 export type DatasetAnswer = { kind: "dataset"; dataset: DatasetDetail } | { kind: "withdrawn"; tombstone: DatasetTombstone };

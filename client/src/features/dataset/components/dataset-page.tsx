@@ -6,6 +6,7 @@ import { paths } from "../../../config/paths";
 import { useDataset } from "../api/get-dataset";
 import { useDatasetHistory } from "../api/get-dataset-history";
 import { CitationBlock } from "./citation-block";
+import { DoiLine } from "../../../components/ui/doi";
 import { HistorySection, LocalitySection, NetworksSection, StudySection, TombstoneView, VersionsSection } from "./dataset-sections";
 
 export function DatasetPage({ accession, version, isCurator }: { accession: string; version: number | null; isCurator: boolean }) {
@@ -20,6 +21,7 @@ export function DatasetPage({ accession, version, isCurator }: { accession: stri
       version: d.version.number,
       year: new Date(d.version.publishedAt ?? Date.now()).getUTCFullYear(),
       url: `${window.location.origin}${paths.datasetVersion.href(d.accession, d.version.number)}`,
+      doi: d.dois.version?.state === "registered" ? d.dois.version.doi : null,
     };
   }, [d]);
   useEffect(() => {
@@ -52,6 +54,12 @@ export function DatasetPage({ accession, version, isCurator }: { accession: stri
         </p>
         <h1 className="mt-1 text-2xl font-bold text-moss-700 md:text-3xl">{ds.metadata.title}</h1>
         <p className="mt-1 text-stone-800">{ds.metadata.creators.map((c) => c.name).join(", ")}</p>
+        {(ds.dois.version || ds.dois.concept) && (
+          <p className="mt-1 flex flex-wrap gap-x-4 text-sm text-stone-800">
+            <DoiLine doi={ds.dois.version} label={`DOI of version ${ds.version.number}`} />
+            <DoiLine doi={ds.dois.concept} label="DOI of all versions" note="(always the latest)" />
+          </p>
+        )}
         {ds.version.state !== "published" && (
           <p className="mt-2 rounded border border-lichen-600 bg-lichen-300/40 p-2 text-sm text-stone-900">
             This version is {ds.version.state.replace("_", " ")}: only its depositor and curators can see it.

@@ -1,4 +1,5 @@
 /** Parts of the dataset page: study header, locality with locator map, networks, versions, audit history, tombstone. */
+import { doiUrl } from "../../../../../shared/citation";
 import { Link } from "react-router-dom";
 import type { DatasetDetail, Locality, NetworkSummary } from "../../../../../shared/types/dataset";
 import type { AuditEntry } from "../../../../../shared/types/network-view";
@@ -352,6 +353,15 @@ export function TombstoneView({ t }: { t: DatasetTombstone }) {
       <p className="mt-1 text-stone-800">{t.reason}</p>
       <h2 className="mt-4 font-semibold text-stone-900">Citation</h2>
       <p className="mt-1 rounded bg-stone-50 p-3 text-stone-900">{t.citation}</p>
+      {t.doi && (
+        <p className="mt-2 text-sm text-stone-800">
+          Its DOI{" "}
+          <a className="font-mono text-moss-700 underline" href={doiUrl(t.doi)} rel="noopener">
+            {t.doi}
+          </a>{" "}
+          still resolves, to this page: DOIs are never deleted.
+        </p>
+      )}
     </section>
   );
 }

@@ -1,4 +1,5 @@
 /** /datasets/:accession/v/:n/networks/:pos — one network: metrics with formulas, matrix, null distribution, roles, modules, downloads. */
+import { DoiLine } from "../../../components/ui/doi";
 import { Link, useParams } from "react-router-dom";
 import { startTransition, useEffect, useState } from "react";
 import { paths } from "../../../config/paths";
@@ -74,6 +75,11 @@ export function NetworkViewPage() {
           {view.weighted ? `, weighted (${view.metadata.weightMeaning})` : ", binary"} · {view.metadata.locality?.placeName}
           {view.metadata.samplingEffort ? ` · sampling effort ${view.metadata.samplingEffort.value} ${view.metadata.samplingEffort.unit}` : ""}
         </p>
+        {view.doi && (
+          <p className="mt-1 text-sm text-stone-800">
+            <DoiLine doi={view.doi} label={`Cite the dataset version: DOI`} />
+          </p>
+        )}
         {view.versionState !== "published" && (
           <p className="mt-2 rounded border border-lichen-600 bg-lichen-300/40 p-2 text-sm text-stone-900">This version is {view.versionState.replace("_", " ")}: only its depositor and curators can see it.</p>
         )}
