@@ -64,14 +64,25 @@ export function createRng(seed: number): Rng {
     next: () => nextUint32() / 4294967296,
     nextInt(n: number): number {
       if (!(n >= 1) || n > 4294967296) throw new RangeError(`nextInt: n must be in [1, 2^32], got ${n}`);
-      // Rejection sampling removes modulo bias.
-      const limit = 4294967296 - (4294967296 % n);
+      // Rejection sampling removes modulo bias: draws at or above limit = 2^32 − (2^32 mod n) are
+      // redrawn, and the result is x mod n.
+      const limit = 4294967296 - mod(4294967296, n);
       let x: number;
       do x = nextUint32();
       while (x >= limit);
-      return x % n;
+      return mod(x, n);
     },
   };
+}
+
+/**
+ * x mod n for integers 0 ≤ x ≤ 2^32 and 1 ≤ n ≤ 2^32, exactly as x % n, by a floating-point division: the
+ * rounded quotient is off by at most one, which the correction repairs. (The % operator on numbers
+ * beyond 2^31 goes through a slow library call.)
+ */
+function mod(x: number, n: number): number {
+  const r = x - Math.floor(x / n) * n;
+  return r < 0 ? r + n : r >= n ? r - n : r;
 }
 
 function rotl(x: number, k: number): number {

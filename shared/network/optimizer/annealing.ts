@@ -148,7 +148,13 @@ export function anneal(g: QualityGraph, initial: Int32Array, rng: Rng, options: 
   let temps = 0;
 
   function accept(dq: number): boolean {
-    return dq >= 0 || rng.next() < Math.exp(dq / T);
+    if (dq >= 0) return true;
+    const u = rng.next(); // a multiple of 2^−32
+    const x = dq / T;
+    // Below x = −23, exp(x) < 1.1e-10 < 2^−32: only u = 0 can fall below it (the same outcome as the
+    // plain comparison, without the exponential for the many hopeless moves of a cold system).
+    if (x < -23) return u === 0 && Math.exp(x) > 0;
+    return u < Math.exp(x);
   }
 
   for (; temps < maxTemperatures; temps++) {
