@@ -5,9 +5,13 @@
  * Author names: a creator's `name` is one string. "Family, Given" is read as written; otherwise the last
  * word is taken as the family name ("Rowan Hale" → Hale, Rowan). Text citations use "Family G." initials.
  * The formats follow DataCite's recommended data citation (Creator (Year): Title. Version. Publisher.
- * Identifier), BibTeX's @misc entry (the type every BibTeX style knows) and the RIS tag list (TY DATA).
+ * Identifier), BibTeX's @dataset entry (biblatex's type for data, which reference managers import as a
+ * dataset; classic BibTeX styles print an unknown type as @misc) and the RIS tag list (TY DATA).
  * With a registered DOI the identifier is the DOI's resolver URL (text), a `doi` field (BibTeX) and a DO
  * tag (RIS); without one (not yet registered) the page URL stands in.
+ *
+ * The source publication a depositor entered (a free-text citation and an optional DOI) becomes an entry of
+ * its own (`sourceToBibTeX`), named by the dataset entry's `related` field.
  */
 import type { Creator, StudyMetadata } from "../types/dataset";
 
@@ -90,8 +94,13 @@ export function bibTeXKey(accession: string, version: number): string {
   return `${accession.replace(/[^A-Za-z0-9-]/g, "")}-v${version}`;
 }
 
-/** One BibTeX @misc entry. */
-export function toBibTeX(input: CitationInput): string {
+/** Key of the source publication's entry of a dataset version, e.g. "TB-000042-v2-source". */
+export function sourceBibTeXKey(accession: string, version: number): string {
+  return `${bibTeXKey(accession, version)}-source`;
+}
+
+/** One BibTeX @dataset entry; `relatedKey` names the entry of its source publication, when there is one. */
+export function toBibTeX(input: CitationInput, relatedKey?: string): string {
   const authors = input.metadata.creators
     .map((c) => {
       const { family, given } = splitName(c.name);
@@ -104,7 +113,6 @@ export function toBibTeX(input: CitationInput): string {
     ["title", `{${escapeBibTeX(input.metadata.title)}}`],
     ["year", String(input.year)],
     ["publisher", PUBLISHER],
-    ["howpublished", `${PUBLISHER}, accession ${escapeBibTeX(input.accession)}`],
     ["version", String(input.version)],
     ...(input.doi ? ([["doi", escapeBibTeX(input.doi)]] as Array<[string, string]>) : []),
     ["url", input.url],
@@ -112,8 +120,35 @@ export function toBibTeX(input: CitationInput): string {
   ];
   if (input.metadata.keywords?.length) fields.push(["keywords", input.metadata.keywords.map(escapeBibTeX).join(", ")]);
   if (input.metadata.licence) fields.push(["copyright", input.metadata.licence]);
+  if (relatedKey) fields.push(["related", relatedKey]);
+  return entry("dataset", bibTeXKey(input.accession, input.version), fields);
+}
+
+function entry(type: string, key: string, fields: Array<[string, string]>): string {
   const body = fields.map(([k, v]) => `  ${k} = {${v}}`).join(",\n");
-  return `@misc{${bibTeXKey(input.accession, input.version)},\n${body}\n}\n`;
+  return `@${type}{${key},\n${body}\n}\n`;
+}
+
+/** A DOI as its bare name ("10.1234/abc"), from a bare DOI, a "doi:" form or a doi.org address. */
+export function bareDoi(doi: string): string {
+  return doi.trim().replace(/^(?:https?:\/\/(?:dx\.)?doi\.org\/|doi:\s*)/i, "");
+}
+
+/**
+ * The source publication of a dataset version as a BibTeX @misc entry: the citation as the depositor wrote
+ * it (as the title, so that it shows in a reference list as written), its year when the citation holds one
+ * (the first four-digit year from 1600 on), the DOI and its address. Null when no citation was entered.
+ */
+export function sourceToBibTeX(publication: { citation?: string; doi?: string } | undefined, accession: string, version: number): string | null {
+  const citation = publication?.citation?.trim();
+  if (!citation) return null;
+  const fields: Array<[string, string]> = [["title", `{${escapeBibTeX(citation)}}`]];
+  const year = /\b(1[6-9]\d\d|20\d\d)\b/.exec(citation)?.[1];
+  if (year) fields.push(["year", year]);
+  const doi = publication?.doi ? bareDoi(publication.doi) : "";
+  if (doi) fields.push(["doi", escapeBibTeX(doi)], ["url", doiUrl(doi)]);
+  fields.push(["note", `Source publication of ${PUBLISHER} dataset ${escapeBibTeX(accession)}, version ${version}`]);
+  return entry("misc", sourceBibTeXKey(accession, version), fields);
 }
 
 function risLine(tag: string, value: string): string {
@@ -145,4 +180,10 @@ export function toRIS(input: CitationInput): string {
 /** SPDX licence page for a licence id. */
 export function licenceUrl(licence: string): string {
   return `https://spdx.org/licenses/${licence}.html`;
+}
+
+/** The dataset entry followed by its source publication's entry (when a citation was entered), linked by `related`. */
+export function datasetBibTeX(input: CitationInput): string {
+  const source = sourceToBibTeX(input.metadata.publication, input.accession, input.version);
+  return toBibTeX(input, source ? sourceBibTeXKey(input.accession, input.version) : undefined) + (source ? "\n" + source : "");
 }

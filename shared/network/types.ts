@@ -3,7 +3,8 @@
  * optimizer and the null models. Pure data: no Node, DOM or database types.
  *
  * Storage is compressed sparse rows (CSR) over the non-zero cells of the matrix:
- * - bipartite: rows are the lower level (e.g. plants), columns the higher level (e.g. pollinators);
+ * - bipartite: the rows are the row nodes and the columns the column nodes, one kind of node each (e.g. plants
+ *   and pollinators, as the depositor names them);
  *   cell (i, j) is the interaction of row node i with column node j.
  * - unipartite: rows and columns are the same S nodes (`colLabels === rowLabels`); cell (i, j) is a link
  *   from i to j. An undirected network stores each link in both directions (symmetric CSR), a self-loop once.
@@ -17,9 +18,9 @@ export interface Network {
   directed: boolean;
   /** True when any non-zero cell differs from 1. */
   weighted: boolean;
-  /** Bipartite: row-level node labels; unipartite: all node labels. */
+  /** Bipartite: labels of the row nodes; unipartite: all node labels. */
   rowLabels: string[];
-  /** Bipartite: column-level node labels; unipartite: the same array as rowLabels. */
+  /** Bipartite: labels of the column nodes; unipartite: the same array as rowLabels. */
   colLabels: string[];
   /** Length rowLabels.length + 1; row i's cells are rowPtr[i] .. rowPtr[i+1]-1. */
   rowPtr: Uint32Array;

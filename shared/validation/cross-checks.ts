@@ -18,8 +18,8 @@ export function networkCrossChecks(meta: Record<string, unknown>, facts: Network
   }
   const blank = (v: unknown) => typeof v !== "string" || v.trim() === "";
   if (facts.kind === "bipartite") {
-    if (blank(meta.rowLevel)) out.push({ path: "/rowLevel", message: "Row level is required for a bipartite network: name the rows' level, e.g. plants." });
-    if (blank(meta.colLevel)) out.push({ path: "/colLevel", message: "Column level is required for a bipartite network: name the columns' level, e.g. pollinators." });
+    if (blank(meta.rowLevel)) out.push({ path: "/rowLevel", message: "Say what the row nodes are for a bipartite network, e.g. plants." });
+    if (blank(meta.colLevel)) out.push({ path: "/colLevel", message: "Say what the column nodes are for a bipartite network, e.g. pollinators." });
   } else if (facts.directed && blank(meta.directionMeaning)) {
     out.push({ path: "/directionMeaning", message: "Direction meaning is required for a directed network: say what a link from row to column means, e.g. row eats column." });
   }

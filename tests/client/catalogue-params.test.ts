@@ -4,7 +4,7 @@
  */
 import { describe, expect, it } from "vitest";
 import { filterOnly, hasFilters, listValues, toggleValue, withParams } from "../../client/src/features/catalogue/utils/catalogue-params";
-import { bundleUrlForFilter, bundleUrlForRefs, formatBytes } from "../../client/src/features/bundles/utils/bundle-url";
+import { bundleUrlForFilter, bundleUrlForRefs, DEFAULT_PARTS, formatBytes } from "../../client/src/features/bundles/utils/bundle-url";
 
 describe("catalogue URL parameters", () => {
   it("toggles facet values as a comma list and goes back to page 1", () => {
@@ -25,8 +25,11 @@ describe("catalogue URL parameters", () => {
     expect(bundleUrlForFilter(filterOnly(p))).toBe("/api/v1/bundles?q=moor&zMin=1.5");
     expect(bundleUrlForRefs(["TB-000001/v1/2", "TB-000003/v2/1"])).toBe("/api/v1/bundles?refs=TB-000001%2Fv1%2F2,TB-000003%2Fv2%2F1");
     // compressed packing is asked for explicitly; stored files are the server's default
-    expect(bundleUrlForFilter(filterOnly(p), "small")).toBe("/api/v1/bundles?q=moor&zMin=1.5&compression=small");
-    expect(bundleUrlForRefs(["TB-000001/v1/2"], "small")).toBe("/api/v1/bundles?refs=TB-000001%2Fv1%2F2&compression=small");
+    expect(bundleUrlForFilter(filterOnly(p), { packing: "small", parts: DEFAULT_PARTS })).toBe("/api/v1/bundles?q=moor&zMin=1.5&compression=small");
+    expect(bundleUrlForRefs(["TB-000001/v1/2"], { packing: "small", parts: DEFAULT_PARTS })).toBe("/api/v1/bundles?refs=TB-000001%2Fv1%2F2&compression=small");
+    // optional parts other than the server's default are named, in a fixed order; none is an empty include
+    expect(bundleUrlForRefs(["TB-000001/v1/2"], { packing: "fast", parts: ["originals", "edges", "partitions"] })).toBe("/api/v1/bundles?refs=TB-000001%2Fv1%2F2&include=partitions%2Cedges%2Coriginals");
+    expect(bundleUrlForFilter(filterOnly(p), { packing: "fast", parts: [] })).toBe("/api/v1/bundles?q=moor&zMin=1.5&include=");
   });
 
   it("formats sizes", () => {

@@ -93,7 +93,7 @@ describe("dataset pages", () => {
     const [download] = await Promise.all([page.waitForEvent("download"), page.keyboard.press("Enter")]);
     expect(download.suggestedFilename()).toBe("TB-000001-v2.bib");
     const text = readFileSync((await download.path())!, "utf8");
-    expect(text).toMatch(/^@misc\{TB-000001-v2,/);
+    expect(text).toMatch(/^@dataset\{TB-000001-v2,/);
   });
 
   it("tells readers of an old version that a newer one exists, and shows curators the audit history", async () => {

@@ -55,8 +55,8 @@ async function fillNetwork(card: Locator, m: { name: string; rows: string; cols:
   await card.getByLabel("Network name").fill(m.name);
   await card.getByLabel("Interaction type").selectOption("pollination");
   await card.getByLabel("What the weights mean").selectOption("visit-count");
-  await card.getByLabel("Row level").fill(m.rows);
-  await card.getByLabel("Column level").fill(m.cols);
+  await card.getByLabel("Row nodes are").fill(m.rows);
+  await card.getByLabel("Column nodes are").fill(m.cols);
   await card.getByLabel("Place name").fill(m.place);
   await card.getByLabel("Country code").fill("gb");
   await card.getByLabel("Latitude").fill(m.lat);

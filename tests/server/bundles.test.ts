@@ -119,8 +119,19 @@ describe("bundle contents", () => {
       const header = parseCsv(files.get(r.path)!, { to_line: 1 })[0] as string[];
       expect(r.schema.fields.map((f: { name: string }) => f.name)).toEqual(header);
     }
+    // the default optional parts (partitions, roles, null distributions) come with every bundle
     expect(names).toEqual(
-      ["CITATIONS.bib", "README.txt", "datapackage.json", "metrics.csv", "networks.csv", ...[...a.networkIds.map((_, i) => `networks/${a.accession}_v1_${i + 1}.csv`), `networks/${b.accession}_v1_1.csv`]].sort(),
+      [
+        "CITATIONS.bib",
+        "README.txt",
+        "datapackage.json",
+        "metrics.csv",
+        "networks.csv",
+        "partitions.csv",
+        "roles.csv",
+        "null_distribution.csv",
+        ...[...a.networkIds.map((_, i) => `networks/${a.accession}_v1_${i + 1}.csv`), `networks/${b.accession}_v1_1.csv`],
+      ].sort(),
     );
     // withdrawn: absent everywhere
     for (const content of files.values()) expect(content).not.toContain(withdrawn.accession);
@@ -159,7 +170,8 @@ describe("bundle contents", () => {
       expect(num(m.p)).toBe(row.p);
       expect(num(m.NODF)).toBe(row.nodf);
     });
-    expect(Object.keys(metrics[0])).toEqual(expect.arrayContaining(["accession", "version", "network", "kind", "S", "I", "J", "L", "C", "Q", "modules", "null_mean", "null_sd", "z", "Q_rel", "p", "NODF", "algorithm", "seed"]));
+    expect(Object.keys(metrics[0])).toEqual(expect.arrayContaining(["network_ref", "accession", "version", "network", "kind", "S", "I", "J", "L", "C", "Q", "modules", "null_mean", "null_sd", "z", "Q_rel", "p", "NODF", "algorithm", "seed"]));
+    for (const m of metrics) expect(m.network_ref).toBe(`${m.accession}/v${m.version}/${m.network}`);
 
     // networks.csv: public coordinates only (1° grid for the coastal site)
     const nets = parseCsv(files.get("networks.csv")!, { columns: true }) as Array<Record<string, string>>;
@@ -167,7 +179,7 @@ describe("bundle contents", () => {
     expect([Number(coast.decimal_latitude), Number(coast.decimal_longitude)]).toEqual([58, 11]);
     expect(files.get("networks.csv")).not.toContain("57.6789");
 
-    expect(files.get("CITATIONS.bib")).toContain(`@misc{${a.accession}-v1`);
+    expect(files.get("CITATIONS.bib")).toContain(`@dataset{${a.accession}-v1`);
     expect(files.get("README.txt")).toMatch(/Raw Q is not comparable/);
     expect(files.get("README.txt")).toMatch(/null replicates/);
   });
@@ -275,6 +287,16 @@ describe("bundle contents", () => {
     expect(res.body.details).toEqual([
       { path: "refs/0", message: `${withdrawn.accession}/v1/1 was withdrawn and cannot be bundled.` },
       { path: "refs/1", message: "TB-999999/v1/1 is not a published network." },
+    ]);
+    // the estimate lists them instead (the page offers to drop them) and counts the others
+    const agent0 = request.agent(app);
+    const s0 = await agent0.get("/api/v1/auth/session");
+    const est = await agent0.post("/api/v1/bundles/estimate").set("x-csrf-token", s0.body.csrfToken).send({ refs: [`${withdrawn.accession}/v1/1`, `${b.accession}/v1/1`, "TB-999999/v1/1"] });
+    expect(est.status).toBe(200);
+    expect(est.body.count).toBe(1);
+    expect(est.body.unavailable.map((u: { ref: string; reason: string }) => [u.ref, u.reason])).toEqual([
+      [`${withdrawn.accession}/v1/1`, "withdrawn"],
+      ["TB-999999/v1/1", "not_published"],
     ]);
     const bad = await request(app).get("/api/v1/bundles").query({ refs: "TB-1/v1" });
     expect(bad.status).toBe(400);

@@ -195,7 +195,7 @@ describe("registration after publishing", () => {
     const files = await unzip(zip.body as Buffer);
     expect(files.get("CITATIONS.bib")).toContain(`doi = {${v1Doi}}`);
     const pkg = JSON.parse(files.get("datapackage.json")!) as { resources: Array<{ path: string; sources: Array<{ title: string; path: string }> }> };
-    expect(pkg.resources.find((r) => r.path.endsWith(".csv") && r.path !== "metrics.csv" && r.path !== "networks.csv")!.sources).toContainEqual({ title: `DOI ${v1Doi}`, path: `https://doi.org/${v1Doi}` });
+    expect(pkg.resources.find((r) => r.path.startsWith("networks/"))!.sources).toContainEqual({ title: `DOI ${v1Doi}`, path: `https://doi.org/${v1Doi}` });
 
     const mail = await catcher.waitFor((m) => m.subject.startsWith(`Published: ${accession}`));
     expect(mail.text).toContain(`DOI of this version: ${v1Doi}`);

@@ -7,7 +7,7 @@ import { describe, expect, it } from "vitest";
 import { parse as parseBibTeX } from "@retorquere/bibtex-parser";
 import { Cite } from "@citation-js/core";
 import "@citation-js/plugin-ris";
-import { formatCitationText, splitName, toBibTeX, toRIS, escapeBibTeX, type CitationInput } from "../../shared/citation";
+import { datasetBibTeX, formatCitationText, splitName, toBibTeX, toRIS, escapeBibTeX, type CitationInput } from "../../shared/citation";
 
 const input: CitationInput = {
   metadata: {
@@ -65,8 +65,10 @@ describe("toBibTeX", () => {
     expect(parsed.errors).toEqual([]);
     expect(parsed.entries).toHaveLength(1);
     const e = parsed.entries[0];
-    expect(e.type).toBe("misc");
+    expect(e.type).toBe("dataset");
     expect(e.key).toBe("TB-000042-v2");
+    expect(e.fields.version).toBe("2");
+    expect(e.fields.publisher).toEqual(["Tanglebank"]);
     expect(e.fields.title).toBe("Flower visitors of the Verrin Hills: 50% of links & {modules}_2019");
     expect(e.fields.year).toBe("2025");
     expect(e.fields.url).toBe(input.url);
@@ -77,6 +79,28 @@ describe("toBibTeX", () => {
       ["Okafor", "Inès Adaeze"],
       ["van der Strand", "Pavel"],
     ]);
+  });
+
+  it("adds the source publication as an entry of its own, named by the dataset entry's related field (DOI given in any of its usual forms)", () => {
+    for (const doi of ["10.1111/oik.05123", "https://doi.org/10.1111/oik.05123", "doi:10.1111/oik.05123"]) {
+      const withSource = { ...input, metadata: { ...input.metadata, publication: { citation: "Hale R & Okafor I (2021) Modules of heath {pollination}. Oikos 130:1–12.", doi } } };
+      const parsed = parseBibTeX(datasetBibTeX(withSource), { sentenceCase: false });
+      expect(parsed.errors).toEqual([]);
+      expect(parsed.entries.map((e) => [e.type, e.key])).toEqual([
+        ["dataset", "TB-000042-v2"],
+        ["misc", "TB-000042-v2-source"],
+      ]);
+      expect(parsed.entries[0].fields.related).toBe("TB-000042-v2-source");
+      const src = parsed.entries[1].fields;
+      expect(src.title).toBe("Hale R & Okafor I (2021) Modules of heath {pollination}. Oikos 130:1–12.");
+      expect(src.doi).toBe("10.1111/oik.05123");
+      expect(src.url).toBe("https://doi.org/10.1111/oik.05123");
+      expect(src.year).toBe("2021");
+    }
+    // no citation entered: the dataset entry alone, without a related field
+    const alone = parseBibTeX(datasetBibTeX(input), { sentenceCase: false });
+    expect(alone.entries.map((e) => e.type)).toEqual(["dataset"]);
+    expect(alone.entries[0].fields.related).toBeUndefined();
   });
 
   it("keeps a broken title from breaking the entry (unbalanced braces are escaped)", () => {

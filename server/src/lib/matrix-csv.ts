@@ -12,6 +12,7 @@
  * never produce a malformed file: it throws instead.
  */
 import type { CanonicalNetworkJson } from "../../../shared/network/parse/serialize";
+import { MATRIX_CORNER } from "../../../shared/network/parse/write";
 
 const COMMA = 0x2c;
 const NEWLINE = 0x0a;
@@ -55,10 +56,10 @@ function fail(msg: string): never {
 }
 
 /**
- * `corner` is the text of the header's first cell (the engine writes it empty; bundles name it "node" so
- * that the first column has a name in the Table Schema). One Buffer of exactly the CSV's size.
+ * `corner` is the text of the header's first cell: `node` (MATRIX_CORNER), as the engine writes it and as the
+ * Table Schema of a bundle names the first column. One Buffer of exactly the CSV's size.
  */
-export function matrixCsvFromCanonical(json: unknown, corner = ""): Buffer {
+export function matrixCsvFromCanonical(json: unknown, corner = MATRIX_CORNER): Buffer {
   const parts = [...matrixCsvPieces(json, corner, Infinity).pieces];
   return parts.length === 1 ? parts[0] : Buffer.concat(parts);
 }
@@ -70,7 +71,7 @@ export function matrixCsvFromCanonical(json: unknown, corner = ""): Buffer {
  * MatrixCsvError before anything is sent); only a column index out of order or range is found while the
  * pieces are written (MatrixCsvError from the iterator).
  */
-export function matrixCsvPieces(json: unknown, corner = "", chunkBytes = 1024 * 1024): { bytes: number; pieces: Generator<Buffer> } {
+export function matrixCsvPieces(json: unknown, corner = MATRIX_CORNER, chunkBytes = 1024 * 1024): { bytes: number; pieces: Generator<Buffer> } {
   const c = json as CanonicalNetworkJson;
   if (!c || typeof c !== "object" || c.v !== 1) fail("unknown canonical form");
   const rows = c.rows;

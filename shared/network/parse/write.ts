@@ -1,8 +1,9 @@
 /**
  * CSV writers for downloads and bundles. Both round-trip through `parseNetworkText`:
  * - `networkToMatrixCsv`: incidence matrix (bipartite) or square adjacency matrix (one-mode; an undirected
- *   network is written symmetric, a self-loop once on the diagonal). The corner cell is empty; absent cells
- *   are written as 0. Every node, isolated ones included, survives the round trip, in the same order.
+ *   network is written symmetric, a self-loop once on the diagonal). The corner cell (the header's first
+ *   cell) is `node`, the name of the first column, which holds the row nodes' labels: one convention for
+ *   every matrix CSV Tanglebank writes (downloads, the API and bundles). Absent cells are written as 0. Every node, isolated ones included, survives the round trip, in the same order.
  * - `networkToEdgeListCsv`: header `source,target` (plus `weight` when weighted); one line per stored
  *   link, an undirected link once (source ≤ target in node order). Isolated nodes cannot be written in an
  *   edge list, and node order becomes order of first appearance.
@@ -10,6 +11,9 @@
  * JavaScript's shortest round-trip form. Lines end with "\n".
  */
 import type { Network } from "../types";
+
+/** The header's first cell of every matrix CSV: the name of the column of row labels. */
+export const MATRIX_CORNER = "node";
 
 export interface CsvWriteOptions {
   /** Field delimiter (default ","). */
@@ -29,7 +33,7 @@ export function networkToMatrixCsv(net: Network, options: CsvWriteOptions = {}):
   const J = net.kind === "bipartite" ? net.colLabels.length : I;
   const cols = net.kind === "bipartite" ? net.colLabels : net.rowLabels;
   const lines: string[] = [];
-  lines.push(["", ...cols.map((c) => quote(c, d))].join(d));
+  lines.push([MATRIX_CORNER, ...cols.map((c) => quote(c, d))].join(d));
   const cells: string[] = new Array(J + 1);
   for (let i = 0; i < I; i++) {
     cells[0] = quote(net.rowLabels[i], d);

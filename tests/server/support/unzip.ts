@@ -1,18 +1,18 @@
-/** Reads every entry of a zip (with yauzl) into a map of file name → UTF-8 text. */
+/** Reads every entry of a zip (with yauzl) into a map of file name → bytes, or → UTF-8 text. */
 import yauzl from "yauzl";
 
-export function unzip(buf: Buffer): Promise<Map<string, string>> {
+export function unzipBuffers(buf: Buffer): Promise<Map<string, Buffer>> {
   return new Promise((resolve, reject) => {
     yauzl.fromBuffer(buf, { lazyEntries: true }, (err, zip) => {
       if (err || !zip) return reject(err ?? new Error("not a zip"));
-      const out = new Map<string, string>();
+      const out = new Map<string, Buffer>();
       zip.on("entry", (entry: yauzl.Entry) => {
         zip.openReadStream(entry, (e, stream) => {
           if (e || !stream) return reject(e ?? new Error(`cannot read ${entry.fileName}`));
           const parts: Buffer[] = [];
           stream.on("data", (c: Buffer) => parts.push(c));
           stream.on("end", () => {
-            out.set(entry.fileName, Buffer.concat(parts).toString("utf8"));
+            out.set(entry.fileName, Buffer.concat(parts));
             zip.readEntry();
           });
         });
@@ -22,4 +22,9 @@ export function unzip(buf: Buffer): Promise<Map<string, string>> {
       zip.readEntry();
     });
   });
+}
+
+export async function unzip(buf: Buffer): Promise<Map<string, string>> {
+  const files = await unzipBuffers(buf);
+  return new Map([...files].map(([name, bytes]) => [name, bytes.toString("utf8")]));
 }

@@ -3,5 +3,9 @@ import { CataloguePage } from "../../features/catalogue/components/catalogue-pag
 import { BundleActions } from "../../features/bundles/components/bundle-actions";
 
 export function Component() {
-  return <CataloguePage actions={({ selected, filter, total }) => <BundleActions selected={selected} filter={filter} total={total} />} />;
+  return (
+    <CataloguePage
+      actions={({ selected, filter, total, dropFromSelection }) => <BundleActions selected={selected} filter={filter} total={total} onDropUnavailable={dropFromSelection} />}
+    />
+  );
 }

@@ -1,5 +1,5 @@
 /**
- * The network-level metadata form (fields of schemas/network.schema.json): interaction, weights, level
+ * The network-level metadata form (fields of schemas/network.schema.json): interaction, weights, row and column node
  * names (bipartite) or direction (directed one-mode), locality with coordinate generalisation for
  * sensitive sites, habitat, dates, sampling.
  */
@@ -41,8 +41,8 @@ export function NetworkForm({ value, onChange, errors, kind, directed, disabled 
       </div>
       {kind === "bipartite" ? (
         <div className="grid gap-4 md:grid-cols-2">
-          <Text label="Row level" required value={value.rowLevel} onChange={(rowLevel) => set({ rowLevel })} error={errors["/rowLevel"]} hint="e.g. plants" disabled={disabled} />
-          <Text label="Column level" required value={value.colLevel} onChange={(colLevel) => set({ colLevel })} error={errors["/colLevel"]} hint="e.g. pollinators" disabled={disabled} />
+          <Text label="Row nodes are" required value={value.rowLevel} onChange={(rowLevel) => set({ rowLevel })} error={errors["/rowLevel"]} hint="e.g. plants" disabled={disabled} />
+          <Text label="Column nodes are" required value={value.colLevel} onChange={(colLevel) => set({ colLevel })} error={errors["/colLevel"]} hint="e.g. pollinators" disabled={disabled} />
         </div>
       ) : directed ? (
         <Text label="What a link from row to column means" required value={value.directionMeaning} onChange={(directionMeaning) => set({ directionMeaning })} error={errors["/directionMeaning"]} hint="Conventions differ between studies, e.g. “row eats column”." disabled={disabled} />

@@ -5,6 +5,7 @@
  */
 import type { PipelineSettings } from "../../../../shared/types/pipeline";
 import { nullModelsText } from "../../jobs/settings";
+import { BUNDLE_PARTS, DEFAULT_PARTS, type BundlePart } from "./bundles.parts";
 
 export interface ReadmeInput {
   settings: PipelineSettings;
@@ -16,6 +17,38 @@ export interface ReadmeInput {
   title: string;
   /** How the zip was packed (compression=fast|small); omitted: not said. */
   compression?: "fast" | "small";
+  /** The optional parts this bundle holds (default DEFAULT_PARTS). */
+  parts?: ReadonlySet<BundlePart>;
+}
+
+const PART_TEXT: Record<BundlePart, string> = {
+  partitions: `  partitions.csv     The best partition of every network with current metrics: network_ref, objective,
+                     node, side (row, column, or node for one-mode networks), module (0, 1, …; network
+                     pages show module + 1). Q recomputed from it with the formula below is the Q of
+                     metrics.csv.`,
+  roles: `  roles.csv          Node roles in that partition: network_ref, node, side, module, degree, within-module
+                     degree z, participation coefficient P, role (peripheral, connector, module-hub,
+                     network-hub; thresholds z = 2.5, P = 0.62, Olesen et al. 2007, PNAS 104:19891).`,
+  nulls: `  null_distribution.csv
+                     Every null replicate behind null_mean, null_sd, z, Q_rel and p: network_ref,
+                     null_model, replicate r, seed (the run's), replicate_seed (the seed of the replicate's
+                     generator, derived from seed and r) and its optimised Q; every null model the
+                     pipeline computed, the primary one first. The primary model's mean and sd (n − 1) are
+                     metrics.csv's null_mean and null_sd.`,
+  edges: `  edges.csv          Every link of every network as an edge list: network_ref, source (row node), target
+                     (column node), weight (1 in binary networks). An undirected one-mode link appears once.`,
+  originals: `  originals/         The files as their depositors uploaded them, byte for byte, in originals/ACCESSION_vVERSION_NETWORK/
+                     (datapackage.json gives each one's SHA-256).`,
+};
+
+function partsText(parts: ReadonlySet<BundlePart>): string {
+  const chosen = BUNDLE_PARTS.filter((p) => parts.has(p));
+  const left = BUNDLE_PARTS.filter((p) => !parts.has(p));
+  return [
+    ...chosen.map((p) => PART_TEXT[p]),
+    `  (Optional parts ${chosen.length ? `in this bundle: ${chosen.join(", ")}` : "in this bundle: none"}${left.length ? `; left out: ${left.join(", ")}` : ""}. Choose them with
+   include=${BUNDLE_PARTS.join(",")} — without include a bundle holds ${DEFAULT_PARTS.join(", ")}.)`,
+  ].join("\n");
 }
 
 export function bundleReadme(r: ReadmeInput): string {
@@ -32,17 +65,31 @@ ${r.count} network${r.count === 1 ? "" : "s"}.
 FILES
   datapackage.json   Frictionless Data Package: one resource per file, with licences, sources and a
                      Table Schema (column names and types) for every CSV.
-  networks/*.csv     One matrix per network, named ACCESSION_vVERSION_NETWORK.csv. Bipartite: rows are
-                     the lower level (e.g. plants), columns the higher level (e.g. pollinators); one-mode:
-                     a square matrix, a link from row to column. First column "node" holds the row
-                     labels; cells are weights (0 = no link).
-  metrics.csv        One row per network: accession, version, network, kind, S, I, J, L, C, Q, modules,
-                     objective, null model, replicates, null mean, sd, z, Q_rel, p, NODF, algorithm, seed.
-                     Empty cells: not computed (e.g. a network without links, or metrics still pending).
-  networks.csv       Network metadata (interaction type, habitat, locality, dates, sampling). Coordinates
-                     are the public ones: sensitive sites are rounded to the grid their curator chose
-                     (column coordinate_generalisation).
-  CITATIONS.bib      One BibTeX entry per dataset version. Please cite every dataset you use.
+  networks/*.csv     One matrix per network, named ACCESSION_vVERSION_NETWORK.csv (see MATRIX CSV below).
+  metrics.csv        One row per network: network_ref, accession, version, network, kind, S, I, J, L, C,
+                     Q, modules, objective, null model, replicates, null mean, sd, z, Q_rel, p, NODF,
+                     algorithm, seed. Empty cells: not computed (e.g. a network without links, or metrics
+                     still pending).
+  networks.csv       Network metadata (interaction type, what the row and column nodes are, habitat,
+                     locality, dates, sampling). Coordinates are the public ones: sensitive sites are
+                     rounded to the grid their curator chose (column coordinate_generalisation).
+${partsText(r.parts ?? new Set(DEFAULT_PARTS))}
+  CITATIONS.bib      A BibTeX @dataset entry for every dataset version, and an entry for the publication
+                     its data come from when the depositor named one (linked by the field "related").
+                     Please cite every dataset you use, and its source publication.
+
+  Every table about networks starts with network_ref (e.g. TB-000042/v2/3: accession, version, network
+  number), the key that joins metrics.csv, networks.csv and the other tables.
+
+MATRIX CSV (the same in this bundle and in the API's data.csv)
+  The header's first cell is "node"; the rest of the header names the column nodes. Each further line is
+  one row node: its label, then one cell per column node holding the link's weight (0 = no link; 1 for a
+  link of a binary network). Labels holding a comma, a quote, a line break or outer spaces are quoted
+  (RFC 4180); lines end with a line feed; the text is UTF-8.
+  Bipartite networks: the row nodes are one side of the network and the column nodes the other; what they
+  are in each network (e.g. plants and pollinators, hosts and parasitoids) is in networks.csv, columns
+  row_nodes and column_nodes. One-mode networks (food webs): a square matrix with the same nodes as rows
+  and columns, a link going from the row node to the column node; an undirected network is symmetric.
 ${
   r.compression === "fast"
     ? `
@@ -80,7 +127,9 @@ HOW THE METRICS WERE COMPUTED
      from it, so the same data, settings and engine version give the same partition on any machine.
   Significance: ${s.nulls} null replicates from the null model
        ${nullModel},
-     each optimized with the same settings. null mean and sd (n − 1) of their Q;
+     each optimized with the same settings. Replicate r draws its null network from a generator seeded
+     with replicate_seed = derive(seed, "null", r) (shared/network/random.ts of the engine; the same r for
+     every null model). null mean and sd (n − 1) of their Q;
      z = (Q − mean)/sd; Q_rel = (Q − mean)/mean; p = (1 + #{Q_null ≥ Q})/(n + 1).
   NODF: nestedness by overlap and decreasing fill, 0–100 (Almeida-Neto et al. 2008, Oikos 117:1227).
 

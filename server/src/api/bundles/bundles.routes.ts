@@ -3,19 +3,21 @@
  *
  * | route            | who    | answer                                                                 |
  * |------------------|--------|------------------------------------------------------------------------|
- * | POST /estimate   | anyone | `{ count, estimatedBytes, limit }` (uncompressed size estimate)        |
+ * | POST /estimate   | anyone | `{ count, estimatedBytes, limit, unavailable }` (size estimate; refs that cannot be bundled listed) |
  * | GET /            | anyone | application/zip, streamed (query: `refs=…` or catalogue filters)       |
  * | POST /           | anyone | application/zip, streamed (body: `{ refs: [...] }` or `{ filter }`)   |
  * At most 5,000 networks (413 beyond); refs that are not published → 422; withdrawn never included.
  * Both take `compression=fast|small` (query or body; default fast = files stored uncompressed, small =
- * deflated, about a seventh of the size at about three times the server's time).
+ * deflated, about a seventh of the size at about three times the server's time) and `include` (the
+ * optional parts, bundles.parts.ts; default partitions,roles,nulls; `include=` for none).
  */
 import { Router, type Request, type Response } from "express";
 import { logger } from "../../lib/logger";
 import { apiRateLimit } from "../../middlewares/api-rate-limit";
-import { BUNDLE_LIMIT, estimateBytes, parseSelection, resolveSelection, type Selection } from "./bundles.selection";
+import { BUNDLE_LIMIT, estimateBytes, parseSelection, resolveSelection, type Selection, type UnavailableRef } from "./bundles.selection";
 import { BUNDLE_COMPRESSIONS, writeBundle, type BundleCompression } from "./bundles.stream";
 import { ApiError } from "../../lib/api-error";
+import { takeParts } from "./bundles.parts";
 
 export const bundlesRouter = Router();
 bundlesRouter.use(apiRateLimit);
@@ -25,9 +27,12 @@ function bodyOf(req: Request): Record<string, unknown> {
 }
 
 bundlesRouter.post("/estimate", async (req, res) => {
-  const sel = parseSelection(takeCompression(bodyOf(req)).rest);
-  const nets = await resolveSelection(sel, { enforceLimit: false });
-  res.json({ count: nets.length, estimatedBytes: estimateBytes(nets), limit: BUNDLE_LIMIT, overLimit: nets.length > BUNDLE_LIMIT });
+  const { parts, rest } = takeParts(takeCompression(bodyOf(req)).rest);
+  const sel = parseSelection(rest);
+  // references that cannot be bundled are listed (the page offers to drop them), not an error here
+  const unavailable: UnavailableRef[] = [];
+  const nets = await resolveSelection(sel, { enforceLimit: false, unavailable });
+  res.json({ count: nets.length, estimatedBytes: estimateBytes(nets, parts), limit: BUNDLE_LIMIT, overLimit: nets.length > BUNDLE_LIMIT, include: [...parts], unavailable });
 });
 
 /** Takes `compression` out of the input (the rest is the selection); fast unless asked. */
@@ -39,7 +44,8 @@ function takeCompression(input: Record<string, unknown>): { compression: BundleC
 }
 
 async function stream(req: Request, res: Response, input: Record<string, unknown>) {
-  const { compression, rest } = takeCompression(input);
+  const { compression, rest: afterCompression } = takeCompression(input);
+  const { parts, rest } = takeParts(afterCompression);
   const sel: Selection = parseSelection(rest);
   const nets = await resolveSelection(sel);
   const title = sel.kind === "refs" ? `selection of ${nets.length} network${nets.length === 1 ? "" : "s"}` : `${nets.length} networks matching a catalogue filter`;
@@ -56,7 +62,7 @@ async function stream(req: Request, res: Response, input: Record<string, unknown
   res.setHeader("X-Bundle-Networks", String(nets.length));
   res.setHeader("Cache-Control", "no-store");
   try {
-    const { aborted } = await writeBundle(res, { networks: nets, title, signal: controller.signal, compression });
+    const { aborted } = await writeBundle(res, { networks: nets, title, signal: controller.signal, compression, parts });
     if (aborted) res.destroy();
   } catch (err) {
     logger.error({ err }, "bundle failed while streaming");

@@ -8,6 +8,7 @@ import { sequelize } from "../../db/sequelize";
 import { ApiError, type ErrorDetail } from "../../lib/api-error";
 import { matchCatalogue } from "../catalogue/catalogue.service";
 import { parseCatalogueQuery, type CatalogueQuery } from "../catalogue/catalogue.validation";
+import { DEFAULT_PARTS, type BundlePart } from "./bundles.parts";
 
 export const BUNDLE_LIMIT = 5000;
 export const REF_RE = /^(TB-\d{6})\/v(\d{1,6})\/(\d{1,5})$/;
@@ -54,8 +55,19 @@ export interface SelectedNetwork {
   weighted: boolean;
 }
 
-/** The networks of a selection, in catalogue order (refs: in the order given). */
-export async function resolveSelection(sel: Selection, opts: { enforceLimit?: boolean } = {}): Promise<SelectedNetwork[]> {
+/** A reference that cannot be bundled, and why. */
+export interface UnavailableRef {
+  ref: string;
+  reason: "withdrawn" | "not_published";
+  message: string;
+}
+
+/**
+ * The networks of a selection, in catalogue order (refs: in the order given). References that cannot be
+ * bundled (withdrawn, or not a published network) are an error (422 naming each), unless `unavailable` is
+ * given: then they are collected there and left out.
+ */
+export async function resolveSelection(sel: Selection, opts: { enforceLimit?: boolean; unavailable?: UnavailableRef[] } = {}): Promise<SelectedNetwork[]> {
   let ids: number[];
   if (sel.kind === "filter") {
     const { matches } = await matchCatalogue(sel.query);
@@ -73,12 +85,21 @@ export async function resolveSelection(sel: Selection, opts: { enforceLimit?: bo
       { replacements: { refs: sel.refs }, type: QueryTypes.SELECT },
     );
     const errors: ErrorDetail[] = [];
+    const bad = new Set<string>();
     for (const r of rows) {
-      if (r.state === "withdrawn") errors.push({ path: `refs/${refsOrder.get(r.ref)}`, message: `${r.ref} was withdrawn and cannot be bundled.` });
-      else if (r.state !== "published" || r.network_id === null) errors.push({ path: `refs/${refsOrder.get(r.ref)}`, message: `${r.ref} is not a published network.` });
+      const u: UnavailableRef | null =
+        r.state === "withdrawn"
+          ? { ref: r.ref, reason: "withdrawn", message: `${r.ref} was withdrawn and cannot be bundled.` }
+          : r.state !== "published" || r.network_id === null
+            ? { ref: r.ref, reason: "not_published", message: `${r.ref} is not a published network.` }
+            : null;
+      if (!u) continue;
+      bad.add(r.ref);
+      errors.push({ path: `refs/${refsOrder.get(r.ref)}`, message: u.message });
+      opts.unavailable?.push(u);
     }
-    if (errors.length) throw ApiError.unprocessable(`${errors.length} of the references cannot be bundled.`, errors.slice(0, 50));
-    ids = rows.map((r) => r.network_id);
+    if (errors.length && !opts.unavailable) throw ApiError.unprocessable(`${errors.length} of the references cannot be bundled.`, errors.slice(0, 50));
+    ids = rows.filter((r) => !bad.has(r.ref)).map((r) => r.network_id);
   }
   if (!ids.length) return [];
   const out: SelectedNetwork[] = [];
@@ -125,13 +146,20 @@ export async function resolveSelection(sel: Selection, opts: { enforceLimit?: bo
 
 /**
  * Estimated size of a bundle's files before compression: each network's matrix CSV (cells of "0," plus
- * labels, weights written longer), one metrics and one metadata line per network, and the fixed files.
+ * labels, weights written longer), one metrics and one metadata line per network, the fixed files, and
+ * the optional parts: a line per node (partitions, roles), per null replicate (about 100), per link
+ * (edges), and the original file (about as long as its edge list).
  */
-export function estimateBytes(nets: SelectedNetwork[]): number {
+export function estimateBytes(nets: SelectedNetwork[], parts: ReadonlySet<BundlePart> = new Set(DEFAULT_PARTS)): number {
   let total = 24_000; // README, datapackage header, CSV headers
   for (const n of nets) {
     total += matrixCsvBytes(n);
     total += 200 + 600 + 40 * ((n.nCols ?? n.nNodes) + 1) + 400; // metrics.csv line, networks.csv line, datapackage resource and schema, citation share
+    if (parts.has("partitions")) total += 50 * n.nNodes;
+    if (parts.has("roles")) total += 80 * n.nNodes;
+    if (parts.has("nulls")) total += 100 * 70;
+    if (parts.has("edges")) total += 50 * n.nLinks;
+    if (parts.has("originals")) total += 400 + 30 * n.nLinks;
   }
   return total;
 }

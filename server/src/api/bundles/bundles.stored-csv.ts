@@ -15,13 +15,14 @@ import { QueryTypes, type Transaction } from "sequelize";
 import { sequelize } from "../../db/sequelize";
 import { logger } from "../../lib/logger";
 import { matrixCsvFromCanonical, MatrixCsvError } from "../../lib/matrix-csv";
+import { MATRIX_CORNER } from "../../../../shared/network/parse/write";
 
 /** Version of the writer below (raise it when the bundle's matrix CSV changes). */
 export const MATRIX_CSV_FORMAT = 1;
 /** Networks with more matrix cells than this have no stored CSV (1,000,000 cells ≈ 2 MB of CSV). */
 export const MATRIX_CSV_MAX_CELLS = 1_000_000;
-/** Text of the header's first cell: the Table Schema names the label column "node". */
-export const MATRIX_CSV_CORNER = "node";
+/** Text of the header's first cell: the Table Schema names the label column "node" (every matrix CSV does). */
+export const MATRIX_CSV_CORNER = MATRIX_CORNER;
 /** Bytes of CSV written by one statement (so a dataset of large networks is not held in memory at once). */
 const STATEMENT_BYTES = 8 * 1024 * 1024;
 

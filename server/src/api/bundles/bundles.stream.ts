@@ -1,7 +1,8 @@
 /**
  * Streams a bundle as a zip (archiver 8 ZipArchive): README.txt, datapackage.json (Frictionless Data
- * Package with a Table Schema per CSV), one matrix CSV per network, metrics.csv, networks.csv and
- * CITATIONS.bib. Memory stays flat whatever the number of networks: networks are read from the database
+ * Package with a Table Schema per CSV), one matrix CSV per network, metrics.csv, networks.csv,
+ * CITATIONS.bib, and the optional parts chosen (bundles.parts.ts: partitions, node roles, null
+ * distributions, edge lists, original files). Memory stays flat whatever the number of networks: networks are read from the database
  * in batches, each batch is appended only when the archive has consumed the previous one (which waits
  * for the HTTP response to drain), and the large files are streamed from async generators. A client
  * that disconnects stops the work (no further batches are read).
@@ -15,7 +16,7 @@ import type { Writable } from "node:stream";
 import { ZipArchive } from "archiver";
 import { QueryTypes } from "sequelize";
 import { ENGINE_VERSION } from "../../../../shared/network/version";
-import { doiUrl, licenceUrl, toBibTeX } from "../../../../shared/citation";
+import { datasetBibTeX, doiUrl, licenceUrl } from "../../../../shared/citation";
 import type { StudyMetadata } from "../../../../shared/types/dataset";
 import { config } from "../../config/env";
 import { sequelize } from "../../db/sequelize";
@@ -28,6 +29,21 @@ import { csvHeaderLabels, matrixCsvPieces, quote } from "../../lib/matrix-csv";
 import { bundleMatrixCsv, MATRIX_CSV_CORNER, MATRIX_CSV_FORMAT, MATRIX_CSV_MAX_CELLS } from "./bundles.stored-csv";
 import type { CanonicalNetworkJson } from "../../../../shared/network/parse/serialize";
 import { useNativeCrc32 } from "./bundles.crc";
+import {
+  DEFAULT_PARTS,
+  edgeLines,
+  fetchParts,
+  formatOf,
+  MEDIATYPES,
+  nullLines,
+  originalPath,
+  PART_TABLES,
+  partitionLines,
+  roleLines,
+  type BundlePart,
+  type NetworkParts,
+  type TableField,
+} from "./bundles.parts";
 
 useNativeCrc32();
 
@@ -45,14 +61,17 @@ const PREFETCH_BYTES = 12 * 1024 * 1024;
 /** zlib level of compression=small (zlib's default). */
 const SMALL_LEVEL = 6;
 
+const REF_FIELD: [string, "string", string, (e: CatalogueEntry) => unknown] = ["network_ref", "string", "Network reference: accession/version/network, e.g. TB-000042/v2/3 (joins every table of the bundle)", (e) => e.ref];
+
 export const METRICS_FIELDS: Array<[string, "string" | "integer" | "number", string, (e: CatalogueEntry) => unknown]> = [
+  REF_FIELD,
   ["accession", "string", "Dataset accession", (e) => e.accession],
   ["version", "integer", "Dataset version number", (e) => e.version],
   ["network", "integer", "Network number within the version", (e) => e.position],
   ["kind", "string", "bipartite or unipartite (directed or not)", (e) => (e.kind === "unipartite" ? (e.directed ? "unipartite-directed" : "unipartite") : "bipartite")],
   ["S", "integer", "Number of nodes", (e) => e.nNodes],
-  ["I", "integer", "Rows (lower level) of a bipartite network", (e) => e.nRows],
-  ["J", "integer", "Columns (higher level) of a bipartite network", (e) => e.nCols],
+  ["I", "integer", "Row nodes of a bipartite network (what they are: networks.csv, row_nodes)", (e) => e.nRows],
+  ["J", "integer", "Column nodes of a bipartite network (what they are: networks.csv, column_nodes)", (e) => e.nCols],
   ["L", "integer", "Number of links (non-zero cells; an undirected link once)", (e) => e.nLinks],
   ["C", "number", "Connectance", (e) => e.connectance],
   ["Q", "number", "Optimised modularity of the best partition found", (e) => e.q],
@@ -72,6 +91,7 @@ export const METRICS_FIELDS: Array<[string, "string" | "integer" | "number", str
 ];
 
 export const NETWORK_FIELDS: Array<[string, "string" | "integer" | "number" | "boolean" | "date", string, (e: CatalogueEntry) => unknown]> = [
+  REF_FIELD,
   ["accession", "string", "Dataset accession", (e) => e.accession],
   ["version", "integer", "Dataset version number", (e) => e.version],
   ["network", "integer", "Network number within the version", (e) => e.position],
@@ -84,8 +104,8 @@ export const NETWORK_FIELDS: Array<[string, "string" | "integer" | "number" | "b
   ["directed", "boolean", "Directed links", (e) => e.directed],
   ["weighted", "boolean", "Weighted links", (e) => e.weighted],
   ["weight_meaning", "string", "What the weights mean", (e) => e.weightMeaning],
-  ["row_level", "string", "Bipartite: name of the row level", (e) => e.rowLevel],
-  ["col_level", "string", "Bipartite: name of the column level", (e) => e.colLevel],
+  ["row_nodes", "string", "Bipartite: what the row nodes of the matrix are (e.g. plants)", (e) => e.rowLevel],
+  ["column_nodes", "string", "Bipartite: what the column nodes of the matrix are (e.g. pollinators)", (e) => e.colLevel],
   ["habitat", "string", "Habitat", (e) => e.habitat],
   ["country_code", "string", "Country (ISO 3166-1 alpha-2)", (e) => e.countryCode],
   ["locality", "string", "Place name", (e) => e.placeName],
@@ -110,8 +130,13 @@ function tableSchema(fields: Array<[string, string, string, unknown]>) {
   return { fields: fields.map(([name, type, description]) => ({ name, type, description })), missingValues: [""] };
 }
 
-const NODE_FIELD_BIPARTITE = JSON.stringify({ name: "node", type: "string", description: "Row (lower level) node" });
-const NODE_FIELD_ONE_MODE = JSON.stringify({ name: "node", type: "string", description: "Node (row: source of a link)" });
+/** Table Schema of a part's table: its fields, and network_ref pointing at metrics.csv. */
+function partSchema(fields: TableField[]) {
+  return { ...tableSchema(fields.map((f) => [...f, null])), foreignKeys: [{ fields: "network_ref", reference: { resource: "metrics", fields: "network_ref" } }] };
+}
+
+const NODE_FIELD_BIPARTITE = JSON.stringify({ name: "node", type: "string", description: "Row node (the other columns are the column nodes; cells are weights, 0 = no link)" });
+const NODE_FIELD_ONE_MODE = JSON.stringify({ name: "node", type: "string", description: "Node (a link goes from the row node to the column node; cells are weights, 0 = no link)" });
 
 /**
  * `,{"name":…,"type":"number"}` for every column of a matrix CSV (its header's labels after the corner
@@ -168,6 +193,8 @@ export interface BundleOptions {
   compression?: BundleCompression;
   /** Networks read from the database at a time (default 50; fewer when they are large). */
   batchSize?: number;
+  /** Optional parts (bundles.parts.ts); default DEFAULT_PARTS. */
+  parts?: ReadonlySet<BundlePart>;
 }
 
 export const BUNDLE_COMPRESSIONS = ["fast", "small"] as const;
@@ -235,6 +262,7 @@ export async function writeBundle(out: Writable, opts: BundleOptions): Promise<{
   const { networks, signal } = opts;
   const BATCH = opts.batchSize ?? DEFAULT_BATCH;
   const store = (opts.compression ?? "fast") === "fast";
+  const parts: ReadonlySet<BundlePart> = opts.parts ?? new Set(DEFAULT_PARTS);
   const archive = store ? new ZipArchive({ store: true }) : new ZipArchive({ zlib: { level: SMALL_LEVEL } });
   let processed = 0;
   let wake: (() => void) | null = null;
@@ -335,7 +363,9 @@ export async function writeBundle(out: Writable, opts: BundleOptions): Promise<{
           else older.push(id);
         }
         if (older.length) entries.push(...(await loadCatalogueRows({ networkIds: older, anyPublishedVersion: true })));
-        return entries;
+        // the optional parts of these networks (their current runs' results, edges, original files)
+        const extras = parts.size ? await fetchParts(entries, parts) : new Map<number, NetworkParts>();
+        return { entries, extras };
       }),
     ]);
   };
@@ -381,18 +411,30 @@ export async function writeBundle(out: Writable, opts: BundleOptions): Promise<{
   const metricsFile = join(dir, "metrics.csv");
   const networksFile = join(dir, "networks.csv");
   const [resources, metricsOut, networksOut] = await Promise.all([open(resourcesFile, "w"), open(metricsFile, "w"), open(networksFile, "w")]);
+  // one temporary file per chosen table part (partitions.csv, roles.csv, null_distribution.csv, edges.csv)
+  const partTables = (Object.keys(PART_TABLES) as Array<keyof typeof PART_TABLES>).filter((k) => parts.has(k));
+  const partOut = new Map(await Promise.all(partTables.map(async (k) => [k, await open(join(dir, PART_TABLES[k].path), "w")] as const)));
+  const closeAll = () => Promise.all([resources.close(), metricsOut.close(), networksOut.close(), ...[...partOut.values()].map((f) => f.close())]);
   try {
-    add(bundleReadme({ settings, settingsHash: settingsHash(settings), engineVersion: ENGINE_VERSION, count: networks.length, generated, publicUrl, title: opts.title, compression: store ? "fast" : "small" }), "README.txt");
-    await Promise.all([metricsOut.write(METRICS_FIELDS.map((f) => f[0]).join(",") + "\n"), networksOut.write(NETWORK_FIELDS.map((f) => f[0]).join(",") + "\n")]);
+    add(
+      bundleReadme({ settings, settingsHash: settingsHash(settings), engineVersion: ENGINE_VERSION, count: networks.length, generated, publicUrl, title: opts.title, compression: store ? "fast" : "small", parts }),
+      "README.txt",
+    );
+    await Promise.all([
+      metricsOut.write(METRICS_FIELDS.map((f) => f[0]).join(",") + "\n"),
+      networksOut.write(NETWORK_FIELDS.map((f) => f[0]).join(",") + "\n"),
+      ...partTables.map((k) => partOut.get(k)!.write(PART_TABLES[k].fields.map((f) => f[0]).join(",") + "\n")),
+    ]);
     const licences = new Set<string>();
     let firstResource = true;
 
     for (let b = 0; ahead.length && !signal.aborted && !failure; b++) {
       const next = ahead.shift()!;
       aheadBytes -= next.bytes;
-      const [rows, entries] = await next.rows;
+      const [rows, { entries, extras }] = await next.rows;
       refill();
       const byId = new Map(rows.map((r) => [r.network_id, r]));
+      const partLines = new Map<keyof typeof PART_TABLES, string[]>(partTables.map((k) => [k, []]));
       const entryOf = new Map(entries.map((e) => [e.networkId, e]));
       const { from, to } = batches[b];
       await waitFor(appended - (to - from));
@@ -452,20 +494,53 @@ export async function writeBundle(out: Writable, opts: BundleOptions): Promise<{
         firstResource = false;
         metricLines.push(METRICS_FIELDS.map((f) => csvCell(f[3](e))).join(","));
         networkLines.push(NETWORK_FIELDS.map((f) => csvCell(f[3](e))).join(","));
+        const extra = extras.get(net.networkId);
+        if (extra) {
+          if (parts.has("partitions")) partLines.get("partitions")!.push(...partitionLines(net.ref, extra));
+          if (parts.has("roles")) partLines.get("roles")!.push(...roleLines(net.ref, extra));
+          if (parts.has("nulls")) partLines.get("nulls")!.push(...nullLines(net.ref, extra));
+          if (parts.has("edges") && extra.canonical) partLines.get("edges")!.push(...edgeLines(net.ref, extra.canonical));
+          if (parts.has("originals") && extra.original) {
+            const o = extra.original;
+            const opath = originalPath(net.ref, o.name);
+            addNetwork(o.bytes, opath);
+            const format = formatOf(o.name);
+            resourceLines.push(
+              ",\n    " +
+                JSON.stringify({
+                  path: opath,
+                  name: resourceName(opath.replace(/^originals\//, "original-")),
+                  title: `${net.ref}: the file as deposited (${o.name})`,
+                  profile: "data-resource",
+                  format,
+                  ...(MEDIATYPES[format] ? { mediatype: MEDIATYPES[format] } : {}),
+                  bytes: o.bytes.length,
+                  hash: `sha256:${o.sha256}`,
+                  licenses: [licenseObj(licence)],
+                  sources: [
+                    { title: `${net.accession} version ${net.version}`, path: `${publicUrl}/datasets/${net.accession}/v/${net.version}` },
+                    ...(doi ? [{ title: `DOI ${doi}`, path: doiUrl(doi) }] : []),
+                  ],
+                }),
+            );
+          }
+        }
       }
       if (resourceLines.length) {
         await resources.write(resourceLines.join(""));
         await metricsOut.write(metricLines.join("\n") + "\n");
         await networksOut.write(networkLines.join("\n") + "\n");
       }
+      for (const [k, lines] of partLines) if (lines.length) await partOut.get(k)!.write(lines.join("\n") + "\n");
     }
     await Promise.all(ahead.map((a) => a.rows.catch(() => undefined)));
-    await Promise.all([resources.close(), metricsOut.close(), networksOut.close()]);
+    await closeAll();
     if (failure) throw failure;
     if (signal.aborted) return { aborted: true, bytes: archive.pointer() };
 
     add(createReadStream(metricsFile), "metrics.csv");
     add(createReadStream(networksFile), "networks.csv");
+    for (const k of partTables) add(createReadStream(join(dir, PART_TABLES[k].path)), PART_TABLES[k].path);
 
     // datapackage.json: header, the resources gathered above, then the two tables' resources
     const licenceList = [...licences].sort();
@@ -480,8 +555,9 @@ export async function writeBundle(out: Writable, opts: BundleOptions): Promise<{
       sources: [{ title: "Tanglebank", path: publicUrl }],
     };
     const tables = [
-      { path: "metrics.csv", name: "metrics", title: "Current metrics of every network", schema: tableSchema(METRICS_FIELDS) },
+      { path: "metrics.csv", name: "metrics", title: "Current metrics of every network", schema: { ...tableSchema(METRICS_FIELDS), primaryKey: "network_ref" } },
       { path: "networks.csv", name: "networks", title: "Metadata of every network", schema: tableSchema(NETWORK_FIELDS) },
+      ...partTables.map((k) => ({ path: PART_TABLES[k].path, name: PART_TABLES[k].name, title: PART_TABLES[k].title, schema: partSchema(PART_TABLES[k].fields) })),
     ].map((t) => ({ ...t, profile: "tabular-data-resource", format: "csv", mediatype: "text/csv", encoding: "utf-8", licenses: licenceList.map(licenseObj), sources: head.sources }));
     add(
       fromGenerator(
@@ -495,7 +571,7 @@ export async function writeBundle(out: Writable, opts: BundleOptions): Promise<{
       "datapackage.json",
     );
 
-    // CITATIONS.bib: one entry per dataset version
+    // CITATIONS.bib: one @dataset entry per dataset version, followed by its source publication's entry
     async function* citations() {
       const versions = [...new Set(networks.map((n) => `${n.accession}/${n.version}`))];
       for (let i = 0; i < versions.length && !signal.aborted; i += 500) {
@@ -507,7 +583,7 @@ export async function writeBundle(out: Writable, opts: BundleOptions): Promise<{
         );
         yield rows
           .map((r) =>
-            toBibTeX({
+            datasetBibTeX({
               metadata: { ...r.metadata, title: r.metadata.title ?? r.accession, creators: Array.isArray(r.metadata.creators) ? r.metadata.creators : [] },
               accession: r.accession,
               version: r.number,
@@ -529,7 +605,7 @@ export async function writeBundle(out: Writable, opts: BundleOptions): Promise<{
     throw err;
   } finally {
     signal.removeEventListener("abort", onAbort);
-    await Promise.all([resources.close(), metricsOut.close(), networksOut.close()]).catch(() => undefined);
+    await closeAll().catch(() => undefined);
     await rm(dir, { recursive: true, force: true }).catch(() => undefined);
   }
 }

@@ -7,6 +7,7 @@ import { ENGINE_VERSION } from "../../../../shared/network/version";
 import { config } from "../../config/env";
 import { CATALOGUE_PARAMS } from "../catalogue/catalogue.validation";
 import { BUNDLE_LIMIT } from "../bundles/bundles.selection";
+import { BUNDLE_PARTS, DEFAULT_PARTS } from "../bundles/bundles.parts";
 
 /** Resources used only by the web client (accounts, deposits, review, administration): not part of the public API. */
 export const INTERNAL_PREFIXES = ["/auth/", "/account", "/users", "/outbox", "/deposits", "/reviews", "/admin", "/pipeline", "/metrics-admin", "/network-views/history"];
@@ -218,6 +219,11 @@ export function openapiDocument(): Json {
             refs: { type: "array", items: { type: "string", pattern: "^TB-[0-9]{6}/v[0-9]+/[0-9]+$" }, example: ["TB-000001/v1/1", "TB-000002/v1/3"] },
             filter: { type: "object", description: "Catalogue filter parameters, e.g. { \"interactionType\": \"pollination\", \"country\": \"NO\" }", additionalProperties: true },
             compression: { type: "string", enum: ["fast", "small"], default: "fast", description: "Bundles only. fast: files stored uncompressed (about seven times larger, sent about three times as fast); small: deflated" },
+            include: {
+              description: `Bundles only: the optional parts, a list or a comma-separated string of ${BUNDLE_PARTS.join(", ")}. Default (absent): ${DEFAULT_PARTS.join(", ")}; empty: none.`,
+              oneOf: [{ type: "string" }, { type: "array", items: { type: "string", enum: [...BUNDLE_PARTS] } }],
+              example: "partitions,roles,nulls,edges",
+            },
           },
         },
         ApiToken: {
@@ -243,7 +249,7 @@ export function openapiDocument(): Json {
         get: {
           tags: ["Networks"],
           operationId: "getNetworkCsv",
-          summary: "The network as CSV: a matrix (first column 'node'-less corner, rows × columns) or an edge list",
+          summary: "The network as CSV: a matrix (header's first cell 'node', then the column nodes; one line per row node) or an edge list",
           parameters: [...NETWORK_REF_PARAMS, queryParam("layout", "matrix (default, keeps isolated nodes) or edgelist", { type: "string", enum: ["matrix", "edgelist"] })],
           responses: { 200: { description: "CSV", content: { "text/csv": { schema: { type: "string" } } } }, 404: error("Not found"), 410: error("Withdrawn") },
         },
@@ -296,7 +302,20 @@ export function openapiDocument(): Json {
           operationId: "estimateBundle",
           summary: "How many networks a selection holds and the estimated (uncompressed) size of its bundle",
           requestBody: { content: { "application/json": { schema: ref("Selection") } } },
-          responses: { 200: json({ type: "object", properties: { count: { type: "integer" }, estimatedBytes: { type: "integer" }, limit: { type: "integer" }, overLimit: { type: "boolean" } } }), 400: error("Bad selection"), 422: error("Some references are not published networks") },
+          responses: {
+            200: json({
+              type: "object",
+              properties: {
+                count: { type: "integer", description: "Networks the bundle would hold (references that cannot be bundled left out)" },
+                estimatedBytes: { type: "integer" },
+                limit: { type: "integer" },
+                overLimit: { type: "boolean" },
+                include: { type: "array", items: { type: "string" } },
+                unavailable: { type: "array", description: "References that cannot be bundled (a download naming them answers 422)", items: { type: "object", properties: { ref: { type: "string" }, reason: { type: "string", enum: ["withdrawn", "not_published"] }, message: { type: "string" } } } },
+              },
+            }),
+            400: error("Bad selection"),
+          },
         },
       },
       "/bundles": {
@@ -304,8 +323,9 @@ export function openapiDocument(): Json {
           tags: ["Bundles"],
           operationId: "downloadBundle",
           summary: "Download a bundle (zip) of a selection (refs) or of every network matching catalogue filters",
-          description: `The zip holds datapackage.json (Frictionless Data Package with a Table Schema per CSV), networks/ACCESSION_vN_POS.csv (matrices), metrics.csv, networks.csv (public coordinates), CITATIONS.bib and README.txt (how every metric was computed). At most ${BUNDLE_LIMIT} networks (413 beyond).`,
+          description: `The zip holds datapackage.json (Frictionless Data Package with a Table Schema per CSV), networks/ACCESSION_vN_POS.csv (matrices: header's first cell "node", then the column nodes; one line per row node, as /networks/…/data.csv), metrics.csv, networks.csv (public coordinates), CITATIONS.bib (a @dataset entry per version and its source publication) and README.txt (how every metric was computed), plus the optional parts chosen with include: partitions.csv, roles.csv, null_distribution.csv, edges.csv, originals/. Every table about networks starts with network_ref (TB-000042/v2/3). At most ${BUNDLE_LIMIT} networks (413 beyond).`,
           parameters: [
+            queryParam("include", `Optional parts, comma-separated: ${BUNDLE_PARTS.join(", ")}. Absent: ${DEFAULT_PARTS.join(", ")}; empty: none`, { type: "string" }, "partitions,roles,nulls,edges,originals"),
             queryParam("refs", "Comma-separated network references; without it, the catalogue filters below select the networks", { type: "string" }, "TB-000001/v1/1,TB-000001/v1/2"),
             queryParam("compression", "fast (default): files stored uncompressed, about seven times larger but sent about three times as fast; small: deflated (zlib level 6), for slow connections", { type: "string", enum: ["fast", "small"], default: "fast" }, "small"),
             ...filterParameters,

@@ -7,9 +7,11 @@ export interface BundleEstimate {
   estimatedBytes: number;
   limit: number;
   overLimit: boolean;
+  /** References of the selection that cannot be bundled (withdrawn, or not published), left out of count. */
+  unavailable: Array<{ ref: string; reason: "withdrawn" | "not_published"; message: string }>;
 }
 
-export type BundleSelection = { refs: string[] } | { filter: Record<string, string> };
+export type BundleSelection = ({ refs: string[] } | { filter: Record<string, string> }) & { include?: string };
 
 export const bundleKeys = {
   all: ["bundles"] as const,

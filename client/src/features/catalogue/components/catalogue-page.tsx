@@ -20,6 +20,8 @@ export interface CatalogueActionsContext {
   /** How many networks match the filters. */
   total: number;
   clearSelection: () => void;
+  /** Takes these references out of the selection. */
+  dropFromSelection: (refs: string[]) => void;
 }
 
 const FILTER_TITLES: Record<ListFilter, string> = {
@@ -289,7 +291,7 @@ export function CataloguePage({ actions }: { actions?: (ctx: CatalogueActionsCon
                 </button>
               </>
             )}
-            {actions?.({ selected, filter: filterOnly(params), total, clearSelection: clear })}
+            {actions?.({ selected, filter: filterOnly(params), total, clearSelection: clear, dropFromSelection: (refs) => setMany(refs, false) })}
           </div>
           {catalogue.error && <Alert tone="error">{catalogue.error.message}</Alert>}
           <div className="overflow-x-auto rounded-lg bg-white ring-1 ring-stone-200">

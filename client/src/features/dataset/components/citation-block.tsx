@@ -1,6 +1,6 @@
 /** How to cite this version: text with a copy button, BibTeX and RIS downloads (shared/citation). */
 import { useMemo, useState } from "react";
-import { formatCitationText, toBibTeX, toRIS, type CitationInput } from "../../../../../shared/citation";
+import { datasetBibTeX, formatCitationText, toRIS, type CitationInput } from "../../../../../shared/citation";
 
 function download(name: string, type: string, text: string) {
   const url = URL.createObjectURL(new Blob([text], { type }));
@@ -17,6 +17,7 @@ const btn = "rounded border border-moss-700 px-3 py-1.5 text-sm font-semibold te
 
 export function CitationBlock({ input }: { input: CitationInput }) {
   const text = useMemo(() => formatCitationText(input), [input]);
+  const bib = useMemo(() => datasetBibTeX(input), [input]);
   const [copied, setCopied] = useState<"idle" | "done" | "failed">("idle");
   const base = `${input.accession}-v${input.version}`;
   async function copy() {
@@ -39,7 +40,7 @@ export function CitationBlock({ input }: { input: CitationInput }) {
         <button type="button" className={btn} onClick={copy}>
           Copy citation
         </button>
-        <button type="button" className={btn} onClick={() => download(`${base}.bib`, "application/x-bibtex", toBibTeX(input))}>
+        <button type="button" className={btn} onClick={() => download(`${base}.bib`, "application/x-bibtex", bib)}>
           Download BibTeX
         </button>
         <button type="button" className={btn} onClick={() => download(`${base}.ris`, "application/x-research-info-systems", toRIS(input))}>
@@ -51,7 +52,7 @@ export function CitationBlock({ input }: { input: CitationInput }) {
       </div>
       <details className="mt-2 text-sm">
         <summary className="cursor-pointer font-semibold text-moss-700">Show BibTeX</summary>
-        <pre className="mt-2 overflow-auto rounded bg-stone-50 p-2 text-xs">{toBibTeX(input)}</pre>
+        <pre className="mt-2 overflow-auto rounded bg-stone-50 p-2 text-xs">{bib}</pre>
       </details>
     </section>
   );

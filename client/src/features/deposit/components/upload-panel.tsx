@@ -185,7 +185,7 @@ export function UploadPanel({ versionId }: { versionId: number }) {
             {(["bipartite", "unipartite"] as const).map((k) => (
               <label key={k} className="flex items-center gap-1.5">
                 <input type="radio" name="kind" value={k} checked={kind === k} onChange={() => { setKind(k); if (k === "bipartite") setDirected(false); void choose(files, k, k === "bipartite" ? false : directed); }} />
-                {k === "bipartite" ? "bipartite (two levels)" : "one-mode (e.g. food web)"}
+                {k === "bipartite" ? "bipartite (row nodes and column nodes of two kinds)" : "one-mode (e.g. food web)"}
               </label>
             ))}
           </div>

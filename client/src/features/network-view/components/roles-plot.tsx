@@ -51,7 +51,7 @@ export function RolesPlot({ view }: { view: NetworkView }) {
       }
       table={{
         caption: "Node roles",
-        columns: ["node", "level", "module", "degree", "z", "P", "role"],
+        columns: ["node", "side", "module", "degree", "z", "P", "role"],
         rows: view.roles.map((r) => [r.label, levelName(r.level), r.module + 1, r.degree, fmt(r.z, 3), fmt(r.P, 3), ROLE_LABEL[r.role ?? ""] ?? "—"]),
       }}
     >
