@@ -22,6 +22,8 @@ export interface CatalogueFacets {
   connectance: RangeFacet;
   Q: RangeFacet;
   z: RangeFacet;
+  /** Matching networks per field marked not recorded (coordinates, elevation, dates, habitat, samplingEffort). */
+  notRecorded: FacetValue[];
 }
 
 /** The public shape of a catalogue row. */

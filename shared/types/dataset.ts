@@ -32,14 +32,14 @@ export interface Locality {
   placeName: string;
   /** ISO 3166-1 alpha-2 */
   countryCode: string;
-  /** WGS84 decimal degrees (Darwin Core decimalLatitude / decimalLongitude). */
-  decimalLatitude: number;
-  decimalLongitude: number;
+  /** WGS84 decimal degrees (Darwin Core decimalLatitude / decimalLongitude); absent when not recorded. */
+  decimalLatitude?: number | null;
+  decimalLongitude?: number | null;
   /** Darwin Core coordinatePrecision, decimal degrees. */
   coordinatePrecision?: number;
   /** metres above sea level */
   elevation?: number;
-  generalisation: CoordinateGeneralisation;
+  generalisation?: CoordinateGeneralisation;
 }
 
 /** Network-level metadata. */
@@ -53,13 +53,16 @@ export interface NetworkMetadata {
   /** Directed one-mode networks: what a link from row to column means, e.g. "row eats column". */
   directionMeaning?: string;
   locality: Locality;
-  habitat: string;
-  /** ISO dates YYYY-MM-DD */
-  startDate: string;
-  endDate: string;
+  /** Absent when not recorded (see notRecorded). */
+  habitat?: string;
+  /** ISO dates YYYY-MM-DD; absent when not recorded. */
+  startDate?: string;
+  endDate?: string;
   samplingProtocol: string;
   samplingEffort?: { value: number; unit: string };
   taxonomicResolution?: string;
+  /** Fields not known, each with the reason (coordinates, elevation, dates, habitat, samplingEffort). */
+  notRecorded?: Partial<Record<"coordinates" | "elevation" | "dates" | "habitat" | "samplingEffort", string>>;
   /** How cells without a number were read (set from the file at upload; see network.schema.json). */
   missingValues?: MissingValuesRecord;
 }

@@ -3,3 +3,5 @@ export * from "./messages";
 export * from "./mini-validator";
 export * from "./cross-checks";
 export * from "./coordinates";
+export * from "./not-recorded";
+export * from "./doi";

@@ -54,12 +54,16 @@ const LABELS: Record<string, string> = {
   value: "Amount",
   unit: "Unit",
   taxonomicResolution: "Taxonomic resolution",
+  notRecorded: "Not recorded",
+  coordinates: "Coordinates",
+  dates: "Sampling dates",
+  missingValues: "Cells without a number",
 };
 
 /** What a pattern-checked field must look like. */
 const PATTERN_HINTS: Record<string, string> = {
   orcid: "must be an ORCID iD of 16 characters with hyphens, e.g. 0000-0002-1825-0097",
-  doi: "must be a DOI without the resolver, e.g. 10.1234/abc.5678",
+  doi: "must be a DOI such as 10.1234/abc.5678 (doi:10.1234/abc.5678 or https://doi.org/10.1234/abc.5678 are accepted too); leave it empty when the publication has none",
   countryCode: "must be a two-letter ISO 3166-1 code in capitals, e.g. NO",
 };
 

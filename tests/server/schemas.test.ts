@@ -70,11 +70,17 @@ describe("schema examples", () => {
 });
 
 describe("cross-field rules", () => {
+  // The metadata below leaves out coordinates, dates and habitat: their "given or not recorded" rule is
+  // tested in tests/server/not-recorded.test.ts; here only the other rules.
+  const OTHER = new Set(["/endDate", "/rowLevel", "/colLevel", "/directionMeaning"]);
+  const paths = (meta: Record<string, unknown>, facts: Parameters<typeof networkCrossChecks>[1]) =>
+    networkCrossChecks({ notRecorded: { dates: "not in the source" }, ...meta }, facts).map((e) => e.path).filter((p) => OTHER.has(p));
   it("flags an end date before the start date and missing level names", () => {
-    expect(networkCrossChecks({ startDate: "2020-05-02", endDate: "2020-05-01", rowLevel: "plants", colLevel: "bees" }, { kind: "bipartite", directed: false }).map((e) => e.path)).toEqual(["/endDate"]);
-    expect(networkCrossChecks({}, { kind: "bipartite", directed: false }).map((e) => e.path)).toEqual(["/rowLevel", "/colLevel"]);
-    expect(networkCrossChecks({}, { kind: "unipartite", directed: true }).map((e) => e.path)).toEqual(["/directionMeaning"]);
-    expect(networkCrossChecks({}, { kind: "unipartite", directed: false })).toEqual([]);
+    expect(paths({ startDate: "2020-05-02", endDate: "2020-05-01", rowLevel: "plants", colLevel: "bees", notRecorded: {} }, { kind: "bipartite", directed: false })).toEqual(["/endDate"]);
+    expect(paths({}, { kind: "bipartite", directed: false })).toEqual(["/rowLevel", "/colLevel"]);
+    expect(paths({}, { kind: "unipartite", directed: true })).toEqual(["/directionMeaning"]);
+    expect(paths({}, { kind: "unipartite", directed: false })).toEqual([]);
+    expect(networkCrossChecks({ habitat: "heath", startDate: "2020-05-01", endDate: "2020-05-02", locality: { decimalLatitude: 1, decimalLongitude: 2, generalisation: "exact" } }, { kind: "unipartite", directed: false })).toEqual([]);
   });
 });
 

@@ -55,7 +55,7 @@ export function StudyForm({ value, onChange, errors, disabled }: { value: StudyD
       />
       <div className="grid gap-4 md:grid-cols-[2fr_1fr]">
         <Text label="Source publication (citation)" value={value.publication?.citation} onChange={(citation) => set({ publication: { ...value.publication, citation } as StudyDraft["publication"] })} error={errors["/publication/citation"] ?? errors["/publication"]} disabled={disabled} />
-        <Text label="Publication DOI" value={value.publication?.doi} onChange={(doi) => set({ publication: { ...value.publication, doi } as StudyDraft["publication"] })} error={errors["/publication/doi"]} hint="e.g. 10.1234/abc.5678" disabled={disabled} />
+        <Text label="Publication DOI" value={value.publication?.doi} onChange={(doi) => set({ publication: { ...value.publication, doi } as StudyDraft["publication"] })} error={errors["/publication/doi"]} hint="e.g. 10.1234/abc.5678, doi:10.1234/abc.5678 or https://doi.org/10.1234/abc.5678 (stored as 10.1234/abc.5678)" disabled={disabled} />
       </div>
       <Text label="Funding" value={value.funding} onChange={(funding) => set({ funding })} error={errors["/funding"]} disabled={disabled} />
     </div>

@@ -4,7 +4,7 @@
  */
 import studySchema from "../../../../schemas/study.schema.json";
 import networkSchema from "../../../../schemas/network.schema.json";
-import { humanizeSchemaErrors, networkCrossChecks, validateWithSchema, type JsonSchema, type NetworkFacts } from "../../../../shared/validation";
+import { humanizeSchemaErrors, networkCrossChecks, NOT_RECORDED_LABELS, NOT_RECORDED_PATHS, validateWithSchema, withNormalisedDoi, type JsonSchema, type NetworkFacts, type NotRecordedField } from "../../../../shared/validation";
 
 export type FieldErrors = Record<string, string>;
 
@@ -30,12 +30,20 @@ export function prune<T>(value: T): T {
 }
 
 export function studyErrors(meta: unknown): FieldErrors {
-  return toMap(humanizeSchemaErrors(validateWithSchema(studySchema as JsonSchema, prune(meta))));
+  return toMap(humanizeSchemaErrors(validateWithSchema(studySchema as JsonSchema, withNormalisedDoi(prune(meta)))));
 }
 
 export function networkErrors(meta: unknown, facts: NetworkFacts): FieldErrors {
   const m = prune(meta) as Record<string, unknown>;
-  return toMap([...humanizeSchemaErrors(validateWithSchema(networkSchema as JsonSchema, m)), ...networkCrossChecks(m, facts)]);
+  let list = [...humanizeSchemaErrors(validateWithSchema(networkSchema as JsonSchema, m)), ...networkCrossChecks(m, facts)];
+  // A "not recorded" box ticked with no reason yet: ask for the reason, not for the value.
+  const nr = ((meta as Record<string, unknown> | null)?.notRecorded ?? {}) as Record<string, unknown>;
+  for (const f of Object.keys(nr) as NotRecordedField[]) {
+    if (!(f in NOT_RECORDED_PATHS) || String(nr[f] ?? "").trim() !== "") continue;
+    list = list.filter((e) => !NOT_RECORDED_PATHS[f].includes(e.path));
+    list.push({ path: `/notRecorded/${f}`, message: `Say why ${NOT_RECORDED_LABELS[f].toLowerCase()} ${f === "dates" || f === "coordinates" ? "are" : "is"} not recorded (e.g. not given in the source publication).` });
+  }
+  return toMap(list);
 }
 
 function at(value: unknown, pointer: string): unknown {

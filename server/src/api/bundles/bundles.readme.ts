@@ -73,6 +73,9 @@ FILES
   networks.csv       Network metadata (interaction type, what the row and column nodes are, habitat,
                      locality, dates, sampling). Coordinates are the public ones: sensitive sites are
                      rounded to the grid their curator chose (column coordinate_generalisation).
+                     Fields a depositor did not know (coordinates, elevation, dates, habitat, sampling
+                     effort) are empty, never invented, and the column not_recorded says which and why
+                     (habitat then reads "not recorded").
 ${partsText(r.parts ?? new Set(DEFAULT_PARTS))}
   CITATIONS.bib      A BibTeX @dataset entry for every dataset version, and an entry for the publication
                      its data come from when the depositor named one (linked by the field "related").

@@ -119,6 +119,7 @@ export const NETWORK_FIELDS: Array<[string, "string" | "integer" | "number" | "b
   ["sampling_effort", "number", "Sampling effort", (e) => e.samplingEffortValue],
   ["sampling_effort_unit", "string", "Unit of the sampling effort", (e) => e.samplingEffortUnit],
   ["taxonomic_resolution", "string", "Taxonomic resolution", (e) => e.taxonomicResolution],
+  ["not_recorded", "string", "Fields the depositor marked not recorded, with the reason (their columns are empty; never a made-up value)", (e) => e.notRecordedText || null],
 ];
 
 export function csvCell(v: unknown): string {

@@ -8,6 +8,7 @@
 import { QueryTypes, type Transaction } from "sequelize";
 import { sequelize } from "../../db/sequelize";
 import { publicCoordinates } from "./public-locality";
+import { NOT_RECORDED, notRecordedList, notRecordedText, type NotRecordedField } from "../../../../shared/validation/not-recorded";
 import { getPipelineSettings, settingsHash } from "../../jobs/settings";
 
 export interface CatalogueEntry {
@@ -29,7 +30,12 @@ export interface CatalogueEntry {
   weightMeaning: string | null;
   rowLevel: string | null;
   colLevel: string | null;
+  /** The habitat, or "not recorded" when the depositor marked it so. */
   habitat: string | null;
+  /** Fields marked not recorded (coordinates, elevation, dates, habitat, samplingEffort). */
+  notRecorded: NotRecordedField[];
+  /** "Habitat: reason; Sampling dates: reason" for tables. */
+  notRecordedText: string;
   countryCode: string | null;
   placeName: string | null;
   /** Public (generalised) coordinates. */
@@ -167,6 +173,7 @@ function toEntry(r: RawRow): CatalogueEntry {
   const effort = (m.samplingEffort ?? null) as Record<string, unknown> | null;
   const coords = publicCoordinates(loc);
   const startDate = str(m.startDate);
+  const notRecorded = notRecordedList(m).map((x) => x.field);
   const endDate = str(m.endDate);
   return {
     networkId: r.network_id,
@@ -186,12 +193,14 @@ function toEntry(r: RawRow): CatalogueEntry {
     weightMeaning: str(m.weightMeaning),
     rowLevel: str(m.rowLevel),
     colLevel: str(m.colLevel),
-    habitat: str(m.habitat),
+    habitat: str(m.habitat) ?? (notRecorded.includes("habitat") ? NOT_RECORDED : null),
+    notRecorded,
+    notRecordedText: notRecordedText(m),
     countryCode: str(loc.countryCode)?.toUpperCase() ?? null,
     placeName: str(loc.placeName),
     latitude: coords.latitude,
     longitude: coords.longitude,
-    generalisation: coords.latitude !== null || coords.longitude !== null ? coords.generalisation : str(loc.generalisation),
+    generalisation: coords.latitude !== null || coords.longitude !== null ? (coords.generalisation ?? null) : str(loc.generalisation),
     elevation: num(loc.elevation),
     startDate,
     endDate,

@@ -8,6 +8,7 @@ import type { CatalogueEntry } from "./catalogue.rows";
 import { catalogueStore } from "./catalogue.store";
 import type { CatalogueQuery, Range, SortKey } from "./catalogue.validation";
 import type { CatalogueFacets, CatalogueRow, FacetValue, RangeFacet } from "../../../../shared/types/catalogue";
+import { NOT_RECORDED_FIELDS } from "../../../../shared/validation/not-recorded";
 
 export type { CatalogueFacets, CatalogueRow, FacetValue, RangeFacet };
 
@@ -43,6 +44,13 @@ export function toRow(e: CatalogueEntry): CatalogueRow {
     nodf: e.nodf,
     metricsStatus: e.runId ? "succeeded" : "none",
   };
+}
+
+/** How many matching networks have each field marked not recorded (fields with none are left out). */
+function notRecordedFacet(matches: CatalogueEntry[]): FacetValue[] {
+  const counts = new Map<string, number>(NOT_RECORDED_FIELDS.map((f) => [f, 0]));
+  for (const e of matches) for (const f of e.notRecorded) counts.set(f, (counts.get(f) ?? 0) + 1);
+  return [...counts].filter(([, c]) => c > 0).map(([value, count]) => ({ value, count }));
 }
 
 const CATEGORICAL = ["interactionType", "kind", "weighted", "habitat", "country", "licence"] as const;
@@ -258,8 +266,10 @@ export async function matchCatalogue(q: CatalogueQuery, opts: { limit?: number }
     connectance: rf(2),
     Q: rf(3),
     z: rf(4),
+    notRecorded: [],
   };
   const matches = matchIdx.map((i) => all[i]);
+  facets.notRecorded = notRecordedFacet(matches);
   const total = matches.length;
   const limit = Math.min(total, opts.limit ?? total);
   if (q.sort === "accession" && q.order !== "desc") return { matches: limit < total ? matches.slice(0, limit) : matches, total, facets };

@@ -15,6 +15,7 @@ import type { VersionState } from "../../../../shared/types/dataset";
 import { ApiError, type ErrorDetail } from "../../lib/api-error";
 import { audit } from "../../lib/audit";
 import { networkFindings, studyFindings } from "../../lib/schemas";
+import { withNormalisedDoi } from "../../../../shared/validation/doi";
 import { sequelize } from "../../db/sequelize";
 import { config } from "../../config/env";
 import { logger } from "../../lib/logger";
@@ -117,7 +118,7 @@ export async function getDeposit(versionId: number, viewer: Viewer): Promise<Dep
 
 /** Creates a dataset with its first version as a draft (metadata may be partial). */
 export async function createDeposit(viewer: Viewer, metadata: unknown = {}): Promise<DepositDetail> {
-  const meta = checkMetadataObject(metadata ?? {}, "Study metadata");
+  const meta = withNormalisedDoi(checkMetadataObject(metadata ?? {}, "Study metadata"));
   const { dataset, version } = await tx(async (t) => {
     const dataset = await Dataset.create({ ownerId: viewer.id }, { transaction: t });
     const version = await DatasetVersion.create({ datasetId: dataset.id, number: 1, state: "draft", metadata: meta }, { transaction: t });
@@ -166,7 +167,7 @@ export async function listMyDeposits(viewer: Viewer): Promise<DepositListItem[]>
 }
 
 export async function updateStudyMetadata(versionId: number, viewer: Viewer, metadata: unknown): Promise<DepositDetail> {
-  const meta = checkMetadataObject(metadata, "Study metadata");
+  const meta = withNormalisedDoi(checkMetadataObject(metadata, "Study metadata"));
   const { dataset, version } = await tx(async (t) => {
     const r = await loadOwnEditable(versionId, viewer, t);
     await bump(r.version, t, { metadata: meta });

@@ -20,6 +20,7 @@ import { Network } from "../../models";
 import { citationFor, GoneError, resolveVersion, versionUrl } from "./network-views.access";
 import { publicLocality } from "../../lib/public-locality";
 import { doisOfDataset } from "../../jobs/dois";
+import { notRecordedList } from "../../../../shared/validation/not-recorded";
 
 const PATH_RE = /^\/datasets\/(TB-\d{6})(?:\/v\/(\d{1,6}))?(?:\/networks\/\d{1,6})?\/?$/;
 
@@ -76,6 +77,13 @@ export async function buildDatasetJsonLd(accession: string, versionNumber: numbe
               }
             : {}),
         });
+      }
+      // What is not known is said, never filled in: "Coordinates not recorded: reason."
+      const notes = notRecordedList(nm).map((x) => `${x.label} not recorded: ${x.reason}`);
+      if (notes.length) {
+        const place = places.get(key)!;
+        const prev = typeof place.description === "string" ? place.description.split("\n") : [];
+        place.description = [...new Set([...prev, ...notes])].join("\n");
       }
     }
     if (nm.startDate && (!start || nm.startDate < start)) start = nm.startDate;

@@ -14,6 +14,7 @@
  */
 import { Op, QueryTypes } from "sequelize";
 import { ApiError } from "../../lib/api-error";
+import { withNormalisedDoi } from "../../../../shared/validation/doi";
 import { audit } from "../../lib/audit";
 import { logger } from "../../lib/logger";
 import { sequelize } from "../../db/sequelize";
@@ -205,8 +206,9 @@ export async function correctStudyMetadata(versionId: number, viewer: Viewer, me
     const { dataset, version } = await loadCuratorEditable(versionId, viewer, t);
     if (lockVersion !== undefined && lockVersion !== version.lockVersion) throw ApiError.conflict("The submission changed since you opened it; reload and correct again.");
     const before = version.metadata;
-    await version.update({ metadata: metadata as Record<string, unknown>, lockVersion: version.lockVersion + 1 }, { transaction: t });
-    await audit({ actorId: viewer.id, action: "review.metadata.correct", entityType: "dataset_version", entityId: version.id, datasetId: dataset.id, details: { before, after: metadata } }, t);
+    const after = withNormalisedDoi(metadata as Record<string, unknown>);
+    await version.update({ metadata: after, lockVersion: version.lockVersion + 1 }, { transaction: t });
+    await audit({ actorId: viewer.id, action: "review.metadata.correct", entityType: "dataset_version", entityId: version.id, datasetId: dataset.id, details: { before, after } }, t);
   });
   return reviewDetail(versionId, viewer);
 }

@@ -11,6 +11,7 @@ import { paths } from "../../../config/paths";
 import { useCatalogue, type CatalogueFacets, type CatalogueRow, type FacetValue } from "../api/get-catalogue";
 import { LIST_FILTERS, PAGE_SIZE, RANGE_FILTERS, filterOnly, hasFilters, listValues, toggleValue, valueLabel, withParams, type ListFilter } from "../utils/catalogue-params";
 import { useSelection } from "../utils/selection";
+import { NOT_RECORDED_LABELS, type NotRecordedField } from "../../../../../shared/validation/not-recorded";
 
 export interface CatalogueActionsContext {
   /** Selected network references, across pages. */
@@ -269,6 +270,20 @@ export function CataloguePage({ actions }: { actions?: (ctx: CatalogueActionsCon
             <FacetGroup key={name} name={name} values={facets?.[name] ?? []} chosen={listValues(params, name)} onToggle={(v) => update(toggleValue(params, name, v))} />
           ))}
           <RangeFilters params={params} facets={facets} onApply={(next) => update(withParams(params, { ...next, page: undefined }))} />
+          {facets && facets.notRecorded.length > 0 && (
+            <div className="text-sm">
+              <h3 className="font-semibold text-stone-800">Not recorded</h3>
+              <p className="text-xs text-stone-600">Matching networks whose depositor marked a field unknown (left out of range filters).</p>
+              <ul className="mt-1">
+                {facets.notRecorded.map((f) => (
+                  <li key={f.value} className="flex justify-between">
+                    <span>{NOT_RECORDED_LABELS[f.value as NotRecordedField] ?? f.value}</span>
+                    <span className="tabular-nums text-stone-700">{f.count}</span>
+                  </li>
+                ))}
+              </ul>
+            </div>
+          )}
         </aside>
 
         <section aria-labelledby="results-heading" className="min-w-0 space-y-3">

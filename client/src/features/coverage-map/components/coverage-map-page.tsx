@@ -113,7 +113,11 @@ export function CoverageMapPage() {
       )}
       <ChartFigure
         id="coverage"
-        title={q.data ? `${q.data.meta.placed} of ${q.data.meta.total} matching networks placed` : "Loading networks…"}
+        title={
+          q.data
+            ? `${q.data.meta.placed} of ${q.data.meta.total} matching networks placed${q.data.meta.total > q.data.meta.placed ? ` (${q.data.meta.total - q.data.meta.placed} with coordinates not recorded)` : ""}`
+            : "Loading networks…"
+        }
         caption={
           q.data
             ? `North of the Tropic of Cancer: ${lat.north}; in the tropics: ${lat.tropics}; south of the Tropic of Capricorn: ${lat.south}. By country: ${[...byCountry.entries()]

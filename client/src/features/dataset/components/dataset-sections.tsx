@@ -8,6 +8,7 @@ import { WorldMap } from "../../../components/charts/world-map";
 import { ChartFigure } from "../../../components/charts/chart-figure";
 import { interactionTypeColour, interactionTypeLabel } from "../../../components/charts/theme";
 import type { DatasetTombstone } from "../api/get-dataset";
+import { ValueOrNotRecorded } from "../../../components/metadata/not-recorded";
 
 const fmt = (v: number | null | undefined, d = 3) => (v === null || v === undefined || !Number.isFinite(v) ? "—" : v.toFixed(d));
 const card = "rounded-lg bg-white p-4 ring-1 ring-stone-200";
@@ -95,7 +96,8 @@ export function StudySection({ d }: { d: DatasetDetail }) {
 
 interface Site {
   loc: Locality;
-  habitat: string;
+  /** A network of the site, for what its metadata marks not recorded. */
+  meta: NetworkSummary["metadata"];
   networks: NetworkSummary[];
 }
 
@@ -104,10 +106,11 @@ export function sitesOf(d: DatasetDetail): Site[] {
   for (const n of d.networks) {
     const loc = n.metadata.locality;
     if (!loc) continue;
-    const key = `${loc.placeName}|${loc.decimalLatitude}|${loc.decimalLongitude}|${n.metadata.habitat}`;
+    const nr = n.metadata.notRecorded ?? {};
+    const key = `${loc.placeName}|${loc.decimalLatitude}|${loc.decimalLongitude}|${n.metadata.habitat}|${nr.coordinates}|${nr.habitat}|${nr.elevation}`;
     const s = m.get(key);
     if (s) s.networks.push(n);
-    else m.set(key, { loc, habitat: n.metadata.habitat, networks: [n] });
+    else m.set(key, { loc, meta: n.metadata, networks: [n] });
   }
   return [...m.values()];
 }
@@ -119,10 +122,10 @@ export function LocalitySection({ d }: { d: DatasetDetail }) {
     .filter((s) => typeof s.loc.decimalLatitude === "number" && typeof s.loc.decimalLongitude === "number")
     .map((s, i) => ({
       id: String(i),
-      latitude: s.loc.decimalLatitude,
-      longitude: s.loc.decimalLongitude,
+      latitude: s.loc.decimalLatitude as number,
+      longitude: s.loc.decimalLongitude as number,
       colour: "#b88a1c",
-      title: `${s.loc.placeName}: ${coord(s.loc.decimalLatitude, "N", "S")}, ${coord(s.loc.decimalLongitude, "E", "W")}`,
+      title: `${s.loc.placeName}: ${coord(s.loc.decimalLatitude as number, "N", "S")}, ${coord(s.loc.decimalLongitude as number, "E", "W")}`,
     }));
   return (
     <section aria-labelledby="loc-h" className={card}>
@@ -138,11 +141,25 @@ export function LocalitySection({ d }: { d: DatasetDetail }) {
                 {s.loc.countryCode && `, ${s.loc.countryCode}`}
               </p>
               <p className="text-stone-800">
-                {coord(s.loc.decimalLatitude, "N", "S")}, {coord(s.loc.decimalLongitude, "E", "W")} (WGS84, {GENERALISATION[s.loc.generalisation] ?? s.loc.generalisation})
+                {typeof s.loc.decimalLatitude === "number" && typeof s.loc.decimalLongitude === "number" ? (
+                  <>
+                    {coord(s.loc.decimalLatitude, "N", "S")}, {coord(s.loc.decimalLongitude, "E", "W")} (WGS84, {GENERALISATION[s.loc.generalisation ?? "0.1"] ?? s.loc.generalisation})
+                  </>
+                ) : (
+                  <>
+                    Coordinates: <ValueOrNotRecorded meta={s.meta} field="coordinates" value={null} />
+                  </>
+                )}
                 {s.loc.elevation !== undefined && s.loc.elevation !== null && ` · elevation ${s.loc.elevation} m`}
+                {s.meta.notRecorded?.elevation && (
+                  <>
+                    {" "}
+                    · elevation <ValueOrNotRecorded meta={s.meta} field="elevation" value={null} />
+                  </>
+                )}
               </p>
               <p className="text-stone-700">
-                Habitat: {s.habitat} · networks {s.networks.map((n) => n.position).join(", ")}
+                Habitat: <ValueOrNotRecorded meta={s.meta} field="habitat" value={s.meta.habitat} /> · networks {s.networks.map((n) => n.position).join(", ")}
               </p>
             </li>
           ))}
@@ -218,6 +235,9 @@ export function NetworksSection({ d }: { d: DatasetDetail }) {
                       {n.metadata.name || n.originalName}
                     </Link>
                     <span className="block font-mono text-xs text-stone-600">{n.ref}</span>
+                    <span className="block text-xs text-stone-700">
+                      Sampled <ValueOrNotRecorded meta={n.metadata} field="dates" value={n.metadata.startDate ? `${n.metadata.startDate} to ${n.metadata.endDate ?? "?"}` : null} />
+                    </span>
                   </td>
                   <td className="px-2 py-1">
                     <span className="inline-block h-2.5 w-2.5 rounded-full" style={{ background: interactionTypeColour[n.metadata.interactionType] ?? "#000" }} aria-hidden="true" />{" "}

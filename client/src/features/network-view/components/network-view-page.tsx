@@ -10,6 +10,7 @@ import { MetricsPanel } from "./metrics-panel";
 import { ModuleTable } from "./module-table";
 import { NullHistogram } from "./null-histogram";
 import { RolesPlot } from "./roles-plot";
+import { ValueOrNotRecorded } from "../../../components/metadata/not-recorded";
 
 const btn = "inline-block rounded border border-moss-700 px-3 py-1.5 text-sm font-semibold text-moss-700 hover:bg-moss-50";
 
@@ -73,7 +74,19 @@ export function NetworkViewPage() {
           <span className="font-mono">{ref}</span> · {view.datasetTitle} · {view.metadata.interactionType} · {view.kind}
           {view.directed ? ", directed" : ""}
           {view.weighted ? `, weighted (${view.metadata.weightMeaning})` : ", binary"} · {view.metadata.locality?.placeName}
-          {view.metadata.samplingEffort ? ` · sampling effort ${view.metadata.samplingEffort.value} ${view.metadata.samplingEffort.unit}` : ""}
+        </p>
+        <p className="mt-1 text-sm text-stone-700">
+          Habitat <ValueOrNotRecorded meta={view.metadata} field="habitat" value={view.metadata.habitat} /> · sampled{" "}
+          <ValueOrNotRecorded meta={view.metadata} field="dates" value={view.metadata.startDate ? `${view.metadata.startDate} to ${view.metadata.endDate ?? "?"}` : null} />
+          {(view.metadata.samplingEffort || view.metadata.notRecorded?.samplingEffort) && (
+            <>
+              {" "}
+              · sampling effort{" "}
+              <ValueOrNotRecorded meta={view.metadata} field="samplingEffort" value={view.metadata.samplingEffort ? `${view.metadata.samplingEffort.value} ${view.metadata.samplingEffort.unit}` : null} />
+            </>
+          )}
+          {view.metadata.missingValues?.markerCells ? ` · ${view.metadata.missingValues.markerCells} cell(s) marked ${(view.metadata.missingValues.markers ?? []).join(", ")} in the file read as ${view.metadata.missingValues.markerMeaning === "not-observed" ? "not observed" : "no interaction"}` : ""}
+          {view.metadata.missingValues?.blankMeaning === "not-observed" ? ` · ${view.metadata.missingValues.blankCells} empty cell(s) read as not observed` : ""}
         </p>
         {view.doi && (
           <p className="mt-1 text-sm text-stone-800">

@@ -16,6 +16,7 @@ import { Alert, Button } from "../../../components/ui/form";
 import { useReview, useReviewCanonical } from "../api/get-review";
 import { correctNetwork, correctStudy, decide, useReviewMutation, useWithdrawDataset, type Decision } from "../api/mutations";
 import type { ReviewDetail } from "../api/types";
+import { ValueOrNotRecorded } from "../../../components/metadata/not-recorded";
 
 const ACTION_LABELS: Record<string, string> = {
   "deposit.create": "Draft created",
@@ -87,13 +88,33 @@ function NetworkBlock({ r, n }: { r: ReviewDetail; n: NetworkSummary }) {
             <Field label="Interaction">{m.interactionType}</Field>
             <Field label="Weights">{m.weightMeaning}</Field>
             {n.kind === "bipartite" ? <Field label="Levels">{`${m.rowLevel ?? "?"} (rows) / ${m.colLevel ?? "?"} (columns)`}</Field> : n.directed ? <Field label="Direction">{m.directionMeaning}</Field> : null}
-            <Field label="Locality">
-              {loc ? `${loc.placeName ?? "?"}, ${loc.countryCode ?? "?"} · ${loc.decimalLatitude ?? "?"}, ${loc.decimalLongitude ?? "?"} (exact; public: ${loc.generalisation === "exact" ? "exact" : `rounded to ${loc.generalisation}°`})${loc.elevation !== undefined ? ` · ${loc.elevation} m` : ""}` : null}
+            <Field label="Locality">{loc ? `${loc.placeName ?? "?"}, ${loc.countryCode ?? "?"}` : null}</Field>
+            <Field label="Coordinates">
+              <ValueOrNotRecorded
+                meta={m}
+                field="coordinates"
+                value={loc && (loc.decimalLatitude != null || loc.decimalLongitude != null) ? `${loc.decimalLatitude ?? "?"}, ${loc.decimalLongitude ?? "?"} (exact; public: ${loc.generalisation === "exact" ? "exact" : `rounded to ${loc.generalisation ?? "?"}°`})` : null}
+              />
             </Field>
-            <Field label="Habitat">{m.habitat}</Field>
-            <Field label="Dates">{m.startDate || m.endDate ? `${m.startDate ?? "?"} to ${m.endDate ?? "?"}` : null}</Field>
+            <Field label="Elevation">
+              <ValueOrNotRecorded meta={m} field="elevation" value={loc?.elevation !== undefined && loc?.elevation !== null ? `${loc.elevation} m` : null} />
+            </Field>
+            <Field label="Habitat">
+              <ValueOrNotRecorded meta={m} field="habitat" value={m.habitat} />
+            </Field>
+            <Field label="Dates">
+              <ValueOrNotRecorded meta={m} field="dates" value={m.startDate || m.endDate ? `${m.startDate ?? "?"} to ${m.endDate ?? "?"}` : null} />
+            </Field>
             <Field label="Sampling">{m.samplingProtocol}</Field>
-            <Field label="Effort">{m.samplingEffort ? `${m.samplingEffort.value} ${m.samplingEffort.unit}` : null}</Field>
+            <Field label="Effort">
+              <ValueOrNotRecorded meta={m} field="samplingEffort" value={m.samplingEffort ? `${m.samplingEffort.value} ${m.samplingEffort.unit}` : null} />
+            </Field>
+            {m.missingValues && (
+              <Field label="Cells without a number">
+                {m.missingValues.markerCells ? `${m.missingValues.markerCells} marked ${(m.missingValues.markers ?? []).join(", ")}: ${m.missingValues.markerMeaning === "not-observed" ? "not observed" : "no interaction"}; ` : ""}
+                {`${m.missingValues.blankCells} empty: ${m.missingValues.blankMeaning === "not-observed" ? "not observed" : "no interaction"}`}
+              </Field>
+            )}
             <Field label="Taxonomic resolution">{m.taxonomicResolution}</Field>
           </dl>
           {canCorrect && !editing && (
