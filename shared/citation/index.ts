@@ -187,3 +187,56 @@ export function datasetBibTeX(input: CitationInput): string {
   const source = sourceToBibTeX(input.metadata.publication, input.accession, input.version);
   return toBibTeX(input, source ? sourceBibTeXKey(input.accession, input.version) : undefined) + (source ? "\n" + source : "");
 }
+
+/** What a collection's citation needs (a saved set of networks; its owner is its author). */
+export interface CollectionCitationInput {
+  name: string;
+  description?: string;
+  owner: string;
+  code: string;
+  revision: number;
+  networks: number;
+  year: number;
+  url: string;
+}
+
+/** e.g. "Hale R (2026) Heath webs for the 2026 meta-analysis. Tanglebank collection TBC-000012, revision 3 (24 networks). https://…" */
+export function formatCollectionCitation(c: CollectionCitationInput): string {
+  const author = textAuthor({ name: c.owner }) || PUBLISHER;
+  return `${author} (${c.year}) ${oneLine(c.name).replace(/[.]+$/, "")}. ${PUBLISHER} collection ${c.code}, revision ${c.revision} (${c.networks} network${c.networks === 1 ? "" : "s"}). ${c.url}`;
+}
+
+/** A collection as a BibTeX @dataset entry (key e.g. "TBC-000012-r3"). */
+export function collectionToBibTeX(c: CollectionCitationInput): string {
+  const { family, given } = splitName(c.owner);
+  const fields: Array<[string, string]> = [
+    ["author", given ? `${escapeBibTeX(family)}, ${escapeBibTeX(given)}` : `{${escapeBibTeX(family || PUBLISHER)}}`],
+    ["title", `{${escapeBibTeX(c.name)}}`],
+    ["year", String(c.year)],
+    ["publisher", PUBLISHER],
+    ["version", `revision ${c.revision}`],
+    ["url", c.url],
+    ["note", `${PUBLISHER} collection ${escapeBibTeX(c.code)}, revision ${c.revision}: ${c.networks} network${c.networks === 1 ? "" : "s"}; cite the datasets it holds too`],
+  ];
+  return entry("dataset", `${c.code.replace(/[^A-Za-z0-9-]/g, "")}-r${c.revision}`, fields);
+}
+
+/** A collection as one RIS record (TY DATA). */
+export function collectionToRIS(c: CollectionCitationInput): string {
+  const { family, given } = splitName(c.owner);
+  const lines = [
+    risLine("TY", "DATA"),
+    risLine("AU", given ? `${family}, ${given}` : family),
+    risLine("TI", c.name),
+    risLine("PY", String(c.year)),
+    risLine("PB", PUBLISHER),
+    risLine("ET", `Revision ${c.revision}`),
+    risLine("ID", `${c.code}-r${c.revision}`),
+    risLine("AN", c.code),
+    risLine("UR", c.url),
+    risLine("N1", `${c.networks} network${c.networks === 1 ? "" : "s"}`),
+  ];
+  if (c.description) lines.push(risLine("AB", c.description));
+  lines.push("ER  - ");
+  return lines.join("\r\n") + "\r\n";
+}

@@ -30,6 +30,13 @@ const ROUTES: ProtectedRoute[] = [
   { method: "get", path: "/api/v1/outbox", min: "admin" },
   { method: "get", path: "/api/v1/outbox/1", min: "admin" },
   // --- other features: add your routes below ---
+  // collections (signed in; codes that do not exist answer 404 after the check)
+  { method: "get", path: "/api/v1/collections", min: "depositor" },
+  { method: "post", path: "/api/v1/collections", min: "depositor", body: { name: "" } },
+  { method: "patch", path: "/api/v1/collections/TBC-999999", min: "depositor", body: {} },
+  { method: "delete", path: "/api/v1/collections/TBC-999999", min: "depositor" },
+  { method: "post", path: "/api/v1/collections/TBC-999999/members", min: "depositor", body: { refs: [] } },
+  { method: "delete", path: "/api/v1/collections/TBC-999999/members/TB-000001/v1/1", min: "depositor" },
   // personal API tokens (signed in; revoking a token id that does not exist answers 404 after the check)
   { method: "get", path: "/api/v1/tokens", min: "depositor" },
   { method: "post", path: "/api/v1/tokens", min: "depositor", body: { name: "" } },

@@ -7,7 +7,7 @@ import { describe, expect, it } from "vitest";
 import { parse as parseBibTeX } from "@retorquere/bibtex-parser";
 import { Cite } from "@citation-js/core";
 import "@citation-js/plugin-ris";
-import { datasetBibTeX, formatCitationText, splitName, toBibTeX, toRIS, escapeBibTeX, type CitationInput } from "../../shared/citation";
+import { collectionToBibTeX, collectionToRIS, formatCollectionCitation, datasetBibTeX, formatCitationText, splitName, toBibTeX, toRIS, escapeBibTeX, type CitationInput } from "../../shared/citation";
 
 const input: CitationInput = {
   metadata: {
@@ -156,5 +156,30 @@ describe("a registered DOI in every format", () => {
   it("RIS: a DO tag that citation-js reads as the DOI", () => {
     const items = new Cite(toRIS(withDoi)).data as Array<CslItem & { DOI?: string }>;
     expect(items[0].DOI).toBe("10.5072/tb-000042.v2");
+  });
+});
+
+describe("collection citations", () => {
+  const c = { name: "Heath webs for the 2026 meta-analysis", description: "24 plant–pollinator webs.", owner: "Rowan Hale", code: "TBC-000012", revision: 3, networks: 24, year: 2026, url: "https://tanglebank.test/collections/TBC-000012?revision=3" };
+
+  it("names the owner, year, name, code, revision, size and address", () => {
+    expect(formatCollectionCitation(c)).toBe(
+      "Hale R (2026) Heath webs for the 2026 meta-analysis. Tanglebank collection TBC-000012, revision 3 (24 networks). https://tanglebank.test/collections/TBC-000012?revision=3",
+    );
+  });
+
+  it("BibTeX: a @dataset entry a BibTeX parser reads back; RIS: a dataset record citation-js reads back", () => {
+    const parsed = parseBibTeX(collectionToBibTeX(c), { sentenceCase: false });
+    expect(parsed.errors).toEqual([]);
+    const e = parsed.entries[0];
+    expect([e.type, e.key]).toEqual(["dataset", "TBC-000012-r3"]);
+    expect(e.fields.title).toBe(c.name);
+    expect(e.fields.url).toBe(c.url);
+    expect((e.fields.author as Array<{ lastName: string }>)[0].lastName).toBe("Hale");
+    const items = new Cite(collectionToRIS(c)).data as CslItem[];
+    expect(items[0].type).toBe("dataset");
+    expect(items[0].title).toBe(c.name);
+    expect(items[0].URL).toBe(c.url);
+    expect(items[0].author.map((a) => a.family)).toEqual(["Hale"]);
   });
 });

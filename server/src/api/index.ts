@@ -15,6 +15,7 @@ import { datasetsRouter } from "./datasets/datasets.routes";
 import { depositsRouter } from "./deposits/deposits.routes";
 import { reviewsRouter } from "./reviews/reviews.routes";
 import { pipelineRouter } from "./pipeline/pipeline.routes";
+import { collectionsRouter } from "./collections/collections.routes";
 
 export function apiRouter(): Router {
   const r = Router();
@@ -33,5 +34,6 @@ export function apiRouter(): Router {
   r.use("/deposits", depositsRouter);
   r.use("/reviews", reviewsRouter);
   r.use("/pipeline", pipelineRouter);
+  r.use("/collections", collectionsRouter);
   return r;
 }

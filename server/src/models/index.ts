@@ -3,6 +3,7 @@ import type { Sequelize } from "sequelize";
 import { sequelize as appSequelize } from "../db/sequelize";
 import { ApiToken, initApiToken } from "./api-token.model";
 import { AuditLog, initAuditLog } from "./audit-log.model";
+import { Collection, CollectionMember, initCollection } from "./collection.model";
 import { Dataset, initDataset } from "./dataset.model";
 import { DatasetVersion, initDatasetVersion } from "./dataset-version.model";
 import { MetricBatch, initMetricBatch } from "./metric-batch.model";
@@ -28,6 +29,7 @@ export function initModels(seq: Sequelize = appSequelize()): Sequelize {
   initReview(seq);
   initMetricBatch(seq);
   initMetricRun(seq);
+  initCollection(seq);
 
   User.hasMany(UserToken, { foreignKey: "userId", as: "tokens" });
   UserToken.belongsTo(User, { foreignKey: "userId", as: "user" });
@@ -51,8 +53,12 @@ export function initModels(seq: Sequelize = appSequelize()): Sequelize {
   MetricBatch.hasMany(MetricRun, { foreignKey: "batchId", as: "runs" });
   MetricRun.belongsTo(MetricBatch, { foreignKey: "batchId", as: "batch" });
 
+  Collection.belongsTo(User, { foreignKey: "ownerId", as: "owner" });
+  Collection.hasMany(CollectionMember, { foreignKey: "collectionId", as: "members" });
+  CollectionMember.belongsTo(Network, { foreignKey: "networkId", as: "network" });
+
   initialised = seq;
   return seq;
 }
 
-export { ApiToken, AuditLog, Dataset, DatasetVersion, MetricBatch, MetricRun, Network, Review, StoredFile, User, UserToken };
+export { ApiToken, AuditLog, Collection, CollectionMember, Dataset, DatasetVersion, MetricBatch, MetricRun, Network, Review, StoredFile, User, UserToken };

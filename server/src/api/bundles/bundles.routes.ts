@@ -18,6 +18,7 @@ import { BUNDLE_LIMIT, estimateBytes, parseSelection, resolveSelection, type Sel
 import { BUNDLE_COMPRESSIONS, writeBundle, type BundleCompression } from "./bundles.stream";
 import { ApiError } from "../../lib/api-error";
 import { takeParts } from "./bundles.parts";
+import { collectionRefs, parseRevision } from "../collections/collections.service";
 
 export const bundlesRouter = Router();
 bundlesRouter.use(apiRateLimit);
@@ -26,8 +27,23 @@ function bodyOf(req: Request): Record<string, unknown> {
   return req.body && typeof req.body === "object" && !Array.isArray(req.body) ? (req.body as Record<string, unknown>) : {};
 }
 
+/**
+ * `collection=TBC-000012` (and `revision=N`) selects a collection's members of that revision: its published
+ * networks (withdrawn members are left out, and the bundle's title says how many).
+ */
+async function expandCollection(req: Request, input: Record<string, unknown>): Promise<{ input: Record<string, unknown>; title?: string }> {
+  const { collection, revision, ...rest } = input;
+  if (collection === undefined) return { input };
+  const c = await collectionRefs(String(collection), req.user, parseRevision(revision));
+  if (!c.refs.length) {
+    throw ApiError.unprocessable(`${String(collection)} has no published network to bundle${c.withdrawn.length ? ` (its ${c.withdrawn.length} members were withdrawn)` : ""}.`, [{ path: "collection", message: "no published members" }]);
+  }
+  const left = c.withdrawn.length ? `; ${c.withdrawn.length} withdrawn member${c.withdrawn.length === 1 ? "" : "s"} left out (${c.withdrawn.join(", ")})` : "";
+  return { input: { ...rest, refs: c.refs }, title: `collection ${String(collection)} revision ${c.revision}, "${c.name}" (${c.refs.length} networks${left})` };
+}
+
 bundlesRouter.post("/estimate", async (req, res) => {
-  const { parts, rest } = takeParts(takeCompression(bodyOf(req)).rest);
+  const { parts, rest } = takeParts(takeCompression((await expandCollection(req, bodyOf(req))).input).rest);
   const sel = parseSelection(rest);
   // references that cannot be bundled are listed (the page offers to drop them), not an error here
   const unavailable: UnavailableRef[] = [];
@@ -43,12 +59,13 @@ function takeCompression(input: Record<string, unknown>): { compression: BundleC
   throw ApiError.badRequest(`compression must be ${BUNDLE_COMPRESSIONS.join(" or ")}.`, [{ path: "compression", message: `"${String(compression)}" is not ${BUNDLE_COMPRESSIONS.join(" or ")}` }]);
 }
 
-async function stream(req: Request, res: Response, input: Record<string, unknown>) {
+async function stream(req: Request, res: Response, raw: Record<string, unknown>) {
+  const { input, title: collectionTitle } = await expandCollection(req, raw);
   const { compression, rest: afterCompression } = takeCompression(input);
   const { parts, rest } = takeParts(afterCompression);
   const sel: Selection = parseSelection(rest);
   const nets = await resolveSelection(sel);
-  const title = sel.kind === "refs" ? `selection of ${nets.length} network${nets.length === 1 ? "" : "s"}` : `${nets.length} networks matching a catalogue filter`;
+  const title = collectionTitle ?? (sel.kind === "refs" ? `selection of ${nets.length} network${nets.length === 1 ? "" : "s"}` : `${nets.length} networks matching a catalogue filter`);
   const controller = new AbortController();
   const onClose = () => {
     if (!res.writableFinished) controller.abort();

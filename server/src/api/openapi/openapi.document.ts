@@ -226,6 +226,26 @@ export function openapiDocument(): Json {
             },
           },
         },
+        CollectionInput: {
+          type: "object",
+          required: ["name"],
+          properties: { name: { type: "string", maxLength: 200 }, description: { type: "string", maxLength: 5000 }, visibility: { type: "string", enum: ["public", "private"], default: "private" }, refs: { type: "array", items: { type: "string" } }, filter: { type: "object", additionalProperties: true } },
+        },
+        Collection: {
+          type: "object",
+          description: "A saved set of networks of exact versions; revision rises with every change of its members",
+          properties: {
+            code: { type: "string", example: "TBC-000001" },
+            name: { type: "string" },
+            description: { type: "string" },
+            visibility: { type: "string", enum: ["public", "private"] },
+            revision: { type: "integer" },
+            shownRevision: { type: "integer" },
+            memberCount: { type: "integer" },
+            withdrawnCount: { type: "integer" },
+            members: { type: "array", items: { type: "object", properties: { ref: { type: "string" }, state: { type: "string", enum: ["published", "withdrawn"] }, withdrawal: { type: ["object", "null"] } } } },
+          },
+        },
         ApiToken: {
           type: "object",
           properties: { id: { type: "integer" }, name: { type: "string" }, prefix: { type: "string", example: "tb_AbCd" }, createdAt: { type: "string", format: "date-time" }, lastUsedAt: { type: ["string", "null"], format: "date-time" }, revokedAt: { type: ["string", "null"], format: "date-time" } },
@@ -339,6 +359,34 @@ export function openapiDocument(): Json {
           requestBody: { content: { "application/json": { schema: ref("Selection") } } },
           responses: { 200: zip, 400: error("Bad selection"), 413: error(`More than ${BUNDLE_LIMIT} networks`), 422: error("Some references are not published networks") },
         },
+      },
+      "/collections": {
+        get: { tags: ["Collections"], operationId: "listMyCollections", summary: "Your collections (saved sets of networks), newest first", security: [{ session: [] }, { bearerToken: [] }], responses: { 200: json({ type: "object", properties: { data: { type: "array", items: ref("Collection") } } }), 401: error("Sign in") } },
+        post: {
+          tags: ["Collections"],
+          operationId: "createCollection",
+          summary: "Save networks as a collection: explicit references, or every network matching a catalogue filter (frozen to their versions)",
+          security: [{ session: [] }, { bearerToken: [] }],
+          requestBody: { content: { "application/json": { schema: ref("CollectionInput") } } },
+          responses: { 201: json(ref("Collection")), 400: error("Missing name, or neither refs nor filter"), 401: error("Sign in"), 422: error("Some references are not published networks") },
+        },
+      },
+      "/collections/{code}": {
+        get: {
+          tags: ["Collections"],
+          operationId: "getCollection",
+          summary: "A collection with its members (exact versions; withdrawn members with their tombstone). Private: owner only (404 otherwise)",
+          parameters: [pathParam("code", "Collection code", "TBC-000001"), queryParam("revision", "Members of an earlier revision", { type: "integer", minimum: 1 }, 1)],
+          responses: { 200: json(ref("Collection")), 404: error("No such collection, or a private one") },
+        },
+        patch: { tags: ["Collections"], operationId: "updateCollection", summary: "Rename, describe, make public or private (owner)", security: [{ session: [] }, { bearerToken: [] }], parameters: [pathParam("code", "Collection code", "TBC-000001")], requestBody: { content: { "application/json": { schema: { type: "object", properties: { name: { type: "string" }, description: { type: "string" }, visibility: { type: "string", enum: ["public", "private"] } } } } } }, responses: { 200: json(ref("Collection")), 403: error("Not the owner") } },
+        delete: { tags: ["Collections"], operationId: "deleteCollection", summary: "Delete a collection (owner)", security: [{ session: [] }, { bearerToken: [] }], parameters: [pathParam("code", "Collection code", "TBC-000001")], responses: { 204: { description: "Deleted" }, 403: error("Not the owner") } },
+      },
+      "/collections/{code}/members": {
+        post: { tags: ["Collections"], operationId: "addCollectionMembers", summary: "Add published networks (owner): a new revision", security: [{ session: [] }, { bearerToken: [] }], parameters: [pathParam("code", "Collection code", "TBC-000001")], requestBody: { content: { "application/json": { schema: { type: "object", required: ["refs"], properties: { refs: { type: "array", items: { type: "string" } } } } } } }, responses: { 200: json(ref("Collection")), 403: error("Not the owner"), 422: error("Some references are not published networks") } },
+      },
+      "/collections/{code}/members/{accession}/{version}/{position}": {
+        delete: { tags: ["Collections"], operationId: "removeCollectionMember", summary: "Remove a member (owner): a new revision", security: [{ session: [] }, { bearerToken: [] }], parameters: [pathParam("code", "Collection code", "TBC-000001"), pathParam("accession", "Accession", "TB-000001"), pathParam("version", "Version (v1, v2, …)", "v1"), pathParam("position", "Network number", "1")], responses: { 200: json(ref("Collection")), 403: error("Not the owner"), 404: error("Not a member") } },
       },
       "/tokens": {
         get: { tags: ["Tokens"], operationId: "listTokens", summary: "Your API tokens (prefix, name, created, last used, revoked)", security: [{ session: [] }, { bearerToken: [] }], responses: { 200: json({ type: "object", properties: { data: { type: "array", items: ref("ApiToken") } } }), 401: error("Sign in") } },
