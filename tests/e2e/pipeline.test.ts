@@ -45,6 +45,10 @@ describe("metrics pipeline page", () => {
     await page.getByLabel("Null replicates").fill("5");
     await page.getByLabel("Seed").fill("3");
     await page.getByRole("button", { name: "Recompute all published networks" }).click();
+    // A confirmation says how many networks will be computed and how many figures will change.
+    const confirm = page.getByRole("alertdialog", { name: "Recompute 4 of 4 published networks?" });
+    await confirm.waitFor();
+    await confirm.getByRole("button", { name: "Yes, recompute 4" }).click();
     await page.getByText(/Batch #1 started: 4 networks queued/).waitFor();
     const bar = page.getByRole("progressbar", { name: "Batch 1 progress" });
     await bar.waitFor();

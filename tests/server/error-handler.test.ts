@@ -17,6 +17,24 @@ import { isDatabaseUnavailable } from "../../server/src/lib/db-errors";
 const app = createApp();
 afterAll(shutdownServerResources);
 
+/**
+ * The smallest valid production configuration (a long session secret; DOIs and ORCID sign-in off, since
+ * production refuses the local stand-ins' settings). Returns a function that puts the environment back.
+ */
+function productionConfig(): () => void {
+  const keys = ["NODE_ENV", "SESSION_SECRET", "TB_DOI", "TB_ORCID"] as const;
+  const saved = Object.fromEntries(keys.map((k) => [k, process.env[k]]));
+  Object.assign(process.env, { NODE_ENV: "production", SESSION_SECRET: "x".repeat(40), TB_DOI: "off", TB_ORCID: "off" });
+  resetConfig();
+  return () => {
+    for (const k of keys) {
+      if (saved[k] === undefined) delete process.env[k];
+      else process.env[k] = saved[k];
+    }
+    resetConfig();
+  };
+}
+
 describe("error pipeline", () => {
   it.each(["/api/v1/datasets/%E0%A4%A", "/api/v1/network-views/TB-000001/v1/%ZZ", "/api/v1/networks/TB-000001/v1/%ZZ"])("%s: a path that is not valid percent-encoding is a 400", async (path) => {
     const res = await request(app).get(path);
@@ -32,11 +50,7 @@ describe("error pipeline", () => {
   });
 
   it("in production the health check does not pass on the database driver's message", async () => {
-    const prev = process.env.NODE_ENV;
-    const prevSecret = process.env.SESSION_SECRET;
-    process.env.NODE_ENV = "production";
-    process.env.SESSION_SECRET = "x".repeat(40);
-    resetConfig();
+    const restore = productionConfig();
     const spy = vi.spyOn(sequelize(), "query").mockRejectedValueOnce(new Error('password authentication failed for user "tanglebank" at 10.1.2.3:5432'));
     try {
       const res = await request(app).get("/api/v1/health");
@@ -45,19 +59,12 @@ describe("error pipeline", () => {
       expect(JSON.stringify(res.body)).not.toMatch(/tanglebank|10\.1\.2\.3|password/);
     } finally {
       spy.mockRestore();
-      process.env.NODE_ENV = prev;
-      if (prevSecret === undefined) delete process.env.SESSION_SECRET;
-      else process.env.SESSION_SECRET = prevSecret;
-      resetConfig();
+      restore();
     }
   });
 
   it("in production a server error says nothing of the internals", async () => {
-    const prev = process.env.NODE_ENV;
-    const prevSecret = process.env.SESSION_SECRET;
-    process.env.NODE_ENV = "production";
-    process.env.SESSION_SECRET = "x".repeat(40);
-    resetConfig();
+    const restore = productionConfig();
     try {
       const mini = express();
       mini.get("/boom", () => {
@@ -69,10 +76,7 @@ describe("error pipeline", () => {
       expect(JSON.stringify(res.body)).not.toMatch(/secret_table|\/srv\/app/);
       expect(res.body).toEqual({ code: "internal", message: "Something went wrong on our side." });
     } finally {
-      process.env.NODE_ENV = prev;
-      if (prevSecret === undefined) delete process.env.SESSION_SECRET;
-      else process.env.SESSION_SECRET = prevSecret;
-      resetConfig();
+      restore();
     }
   });
 
