@@ -2,6 +2,7 @@ import type { NextFunction, Request, Response } from "express";
 import type { ListResponse } from "../../../../shared/types/api";
 import { config } from "../../config/env";
 import * as s from "./deposits.service";
+import { ApiError } from "../../lib/api-error";
 import { expandUpload } from "./deposits.upload";
 import { idParam, networkChanges, uploadOptions } from "./deposits.validation";
 import { originalFileType } from "../../lib/file-type";
@@ -68,4 +69,21 @@ export async function networkFile(req: Request, res: Response) {
 
 export async function networkCanonical(req: Request, res: Response) {
   res.json(await s.getDepositNetworkCanonical(idParam(req.params.id, "deposit"), idParam(req.params.networkId, "network"), viewer(req)));
+}
+
+export async function metadataSheet(req: Request, res: Response) {
+  const sheet = await s.getMetadataSheet(idParam(req.params.id, "deposit"), viewer(req));
+  res.attachment(sheet.name).type("text/csv; charset=utf-8").send(sheet.csv);
+}
+
+export async function uploadMetadataSheet(req: Request, res: Response) {
+  res.json(await s.applyMetadataSheet(idParam(req.params.id, "deposit"), viewer(req), (req.body as { csv?: unknown } | undefined)?.csv));
+}
+
+export async function applyBlocks(req: Request, res: Response) {
+  const b = (req.body ?? {}) as { from?: unknown; blocks?: unknown };
+  const names = Object.keys(s.BLOCKS);
+  const blocks = Array.isArray(b.blocks) ? b.blocks.map(String) : [];
+  if (!blocks.length || blocks.some((x) => !names.includes(x))) throw ApiError.badRequest(`blocks must list some of ${names.join(", ")}.`, [{ path: "/blocks", message: `Some of ${names.join(", ")}.` }]);
+  res.json(await s.applyBlocks(idParam(req.params.id, "deposit"), viewer(req), idParam(b.from, "network"), blocks as s.BlockName[]));
 }

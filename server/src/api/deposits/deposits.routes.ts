@@ -18,6 +18,9 @@ depositsRouter.delete("/:id", c.remove); // owner, drafts only
 depositsRouter.put("/:id/metadata", c.updateMetadata); // owner, draft or changes requested
 depositsRouter.post("/:id/networks", c.uploadTarget, uploadFiles, c.upload); // owner (checked before the body is read); multipart "files" (+ kind, directed, format)
 depositsRouter.put("/:id/networks/order", c.reorder); // owner; { order: [networkId…] }
+depositsRouter.post("/:id/networks/apply", c.applyBlocks); // owner; { from: networkId, blocks: ["locality", "habitat", "dates", "sampling"] }
+depositsRouter.get("/:id/metadata-sheet", c.metadataSheet); // owner or curator: CSV, one row per network
+depositsRouter.put("/:id/metadata-sheet", c.uploadMetadataSheet); // owner; { csv } → every network filled, problems per cell
 depositsRouter.patch("/:id/networks/:networkId", c.updateNetwork); // owner; { metadata?, kind?, directed?, format? }
 depositsRouter.delete("/:id/networks/:networkId", c.deleteNetwork); // owner
 depositsRouter.get("/:id/networks/:networkId/file", c.networkFile); // owner or curator: original bytes

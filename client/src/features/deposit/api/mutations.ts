@@ -27,6 +27,17 @@ export const uploadNetworks = (id: number, files: File[], opts: { kind: string; 
 };
 export const updateNetwork = (id: number, networkId: number, changes: { metadata?: unknown; kind?: string; directed?: boolean } & FileReadOptions) =>
   apiFetch<DepositDetail>(`/deposits/${id}/networks/${networkId}`, { method: "PATCH", json: changes });
+export interface SheetCellProblem {
+  row: number;
+  column: number | null;
+  columnName: string;
+  field: string;
+  network: number;
+  message: string;
+}
+export const uploadMetadataSheet = (id: number, csv: string) => apiFetch<{ deposit: DepositDetail; cells: SheetCellProblem[]; rows: number }>(`/deposits/${id}/metadata-sheet`, { method: "PUT", json: { csv } });
+export type BlockName = "locality" | "habitat" | "dates" | "sampling";
+export const applyBlocks = (id: number, from: number, blocks: BlockName[]) => apiFetch<DepositDetail>(`/deposits/${id}/networks/apply`, { method: "POST", json: { from, blocks } });
 export const deleteNetwork = (id: number, networkId: number) => apiFetch<DepositDetail>(`/deposits/${id}/networks/${networkId}`, { method: "DELETE" });
 export const reorderNetworks = (id: number, order: number[]) => apiFetch<DepositDetail>(`/deposits/${id}/networks/order`, { method: "PUT", json: { order } });
 export const submitDeposit = (id: number) => apiFetch<DepositDetail>(`/deposits/${id}/submit`, { method: "POST", json: {} });

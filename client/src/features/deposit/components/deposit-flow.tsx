@@ -15,6 +15,7 @@ import { createDeposit, reorderNetworks, submitDeposit, updateStudyMetadata, use
 import { STATE_LABELS, type DepositDetail } from "../api/types";
 import { NetworkCard } from "./network-card";
 import { UploadPanel } from "./upload-panel";
+import { MetadataSheetPanel } from "./metadata-sheet-panel";
 
 const STEPS = ["Study", "Networks", "Review and submit"] as const;
 
@@ -87,12 +88,13 @@ function NetworksStep({ deposit, showAll, onNext }: { deposit: DepositDetail; sh
         2. Networks
       </h2>
       {deposit.editable && <UploadPanel versionId={deposit.versionId} />}
+      {deposit.networks.length > 0 && <MetadataSheetPanel deposit={deposit} />}
       {deposit.networks.length === 0 ? (
         <p className="text-stone-700">No network yet.</p>
       ) : (
         <ol className="grid gap-4" aria-label="Networks of this deposit">
           {deposit.networks.map((n, i) => (
-            <NetworkCard key={n.id} versionId={deposit.versionId} n={n} count={deposit.networks.length} editable={deposit.editable} showAll={showAll} onMove={(dir) => move(i, dir)} />
+            <NetworkCard key={n.id} deposit={deposit} n={n} count={deposit.networks.length} editable={deposit.editable} showAll={showAll} onMove={(dir) => move(i, dir)} />
           ))}
         </ol>
       )}

@@ -6,7 +6,9 @@ import { NetworkForm, type NetworkDraft } from "../../../components/metadata/net
 import { networkErrors, prune, visibleErrors } from "../../../components/metadata/validate";
 import { Alert, Button } from "../../../components/ui/form";
 import { useNetworkCanonical } from "../api/get-network-canonical";
-import { deleteNetwork, updateNetwork, useDepositMutation } from "../api/mutations";
+import { applyBlocks, deleteNetwork, updateNetwork, useDepositMutation, type BlockName } from "../api/mutations";
+import type { DepositDetail } from "../api/types";
+import { networkStatus } from "./metadata-sheet-panel";
 
 export function NetworkSummaryLine({ n }: { n: NetworkSummary }) {
   return (
@@ -88,13 +90,47 @@ function FileQuestions({ versionId, n }: { versionId: number; n: NetworkSummary 
   );
 }
 
-export function NetworkCard({ versionId, n, count, editable, showAll, onMove }: { versionId: number; n: NetworkSummary; count: number; editable: boolean; showAll: boolean; onMove: (dir: -1 | 1) => void }) {
+const BLOCK_LABELS: Array<[BlockName, string]> = [
+  ["locality", "locality"],
+  ["habitat", "habitat"],
+  ["dates", "dates"],
+  ["sampling", "sampling protocol and effort"],
+];
+
+/** Copies chosen blocks of this network's saved metadata to every other network of the deposit. */
+function ApplyToAll({ versionId, n, count }: { versionId: number; n: NetworkSummary; count: number }) {
+  const [blocks, setBlocks] = useState<BlockName[]>(["locality", "sampling"]);
+  const m = useDepositMutation(() => applyBlocks(versionId, n.id, blocks));
+  if (count < 2) return null;
+  return (
+    <details className="mt-3 text-sm">
+      <summary className="cursor-pointer font-semibold text-moss-700">Apply to all networks</summary>
+      <fieldset className="mt-2 flex flex-wrap items-center gap-4">
+        <legend className="sr-only">Blocks to copy from network {n.position}</legend>
+        {BLOCK_LABELS.map(([b, label]) => (
+          <label key={b} className="flex items-center gap-1.5">
+            <input type="checkbox" checked={blocks.includes(b)} onChange={(e) => setBlocks(e.target.checked ? [...blocks, b] : blocks.filter((x) => x !== b))} /> {label}
+          </label>
+        ))}
+        <Button type="button" variant="secondary" className="px-3 py-1 text-sm" disabled={!blocks.length} busy={m.isPending} onClick={() => m.mutate(undefined)}>
+          Copy the saved {blocks.length ? blocks.join(", ") : "blocks"} of network {n.position} to the other {count - 1}
+        </Button>
+      </fieldset>
+      {m.isSuccess && <p role="status" className="mt-1 text-moss-700">Copied to the other networks (their other fields are unchanged).</p>}
+      {m.error && <p role="alert" className="mt-1 text-red-800">{m.error.message}</p>}
+    </details>
+  );
+}
+
+export function NetworkCard({ deposit, n, count, editable, showAll, onMove }: { deposit: DepositDetail; n: NetworkSummary; count: number; editable: boolean; showAll: boolean; onMove: (dir: -1 | 1) => void }) {
+  const versionId = deposit.versionId;
   const [draft, setDraft] = useState<NetworkDraft>(n.metadata as NetworkDraft);
   const [saved, setSaved] = useState(false);
+  const status = networkStatus(deposit, n.id);
   useEffect(() => setDraft(n.metadata as NetworkDraft), [n.id, n.metadata]);
   const save = useDepositMutation((meta: unknown) => updateNetwork(versionId, n.id, { metadata: meta }));
   const del = useDepositMutation(() => deleteNetwork(versionId, n.id));
-  const errors = visibleErrors(networkErrors(draft, { kind: n.kind, directed: n.directed }), draft, showAll);
+  const errors = visibleErrors(networkErrors(draft, { kind: n.kind, directed: n.directed }), draft, showAll || saved);
   return (
     <li className="rounded-lg bg-white p-5 shadow-sm ring-1 ring-stone-200">
       <div className="flex flex-wrap items-start gap-4">
@@ -141,11 +177,16 @@ export function NetworkCard({ versionId, n, count, editable, showAll, onMove }: 
         {editable && (
           <div className="mt-4 flex items-center gap-3">
             <Button busy={save.isPending}>Save network {n.position}</Button>
-            {saved && <span role="status" className="text-sm font-semibold text-moss-700">Saved.</span>}
+            {saved && (
+              <span role="status" className={`text-sm font-semibold ${status.problems ? "text-stone-900" : "text-moss-700"}`}>
+                {status.problems ? `Saved with ${status.problems} problem${status.problems === 1 ? "" : "s"} (marked above).` : "Saved, complete."}
+              </span>
+            )}
           </div>
         )}
         {save.error && <div className="mt-3"><Alert tone="error" title={save.error.message} /></div>}
       </form>
+      {editable && <ApplyToAll versionId={versionId} n={n} count={count} />}
     </li>
   );
 }
