@@ -21,6 +21,8 @@ import { shutdownServerResources, startServer } from "../server/src/index";
 import { ROOT_DIR } from "../server/src/config/paths";
 import { startupTasks, shutdownTasks } from "../server/src/startup";
 import { DataciteStandIn } from "../server/src/lib/datacite/stand-in";
+import { OrcidStandIn } from "../server/src/lib/orcid/stand-in";
+import { CALLBACK_PATH as ORCID_CALLBACK_PATH } from "../server/src/api/auth/orcid.service";
 
 const say = (msg: string) => console.log(`\x1b[1;32m[tanglebank]\x1b[0m ${msg}`);
 const EXIT_CANNOT_RESTART = 78;
@@ -57,6 +59,18 @@ async function main(): Promise<() => Promise<void>> {
   }
 
   const { url, close } = await startServer();
+
+  // The local ORCID stand-in (unless TB_ORCID_ISSUER names the real one): sign in as a demo researcher.
+  let orcid: OrcidStandIn | undefined;
+  if (cfg.orcid.enabled && cfg.orcid.standIn) {
+    const publicUrl = process.env.PUBLIC_URL ? config().publicUrl : url;
+    orcid = new OrcidStandIn({ clientId: cfg.orcid.clientId, clientSecret: cfg.orcid.clientSecret, redirectUris: [`${publicUrl}${ORCID_CALLBACK_PATH}`] });
+    const port = await orcid.listen(cfg.orcid.standInPort);
+    process.env.TB_ORCID_PORT = String(port);
+    if (!process.env.PUBLIC_URL) process.env.PUBLIC_URL = url;
+    resetConfig();
+    say(`Local ORCID stand-in (OpenID provider) on ${orcid.issuer}: "Sign in with ORCID" lists the demo researchers`);
+  }
   for (const task of startupTasks) await task({ log: say });
 
   console.log(`
@@ -73,6 +87,7 @@ ${DEMO_ACCOUNTS.map((a) => `    ${a.role.padEnd(10)} ${a.email.padEnd(32)} ${a.d
     await close();
     await catcher.close();
     await datacite?.close();
+    await orcid?.close();
     await shutdownServerResources();
   };
 }

@@ -13,6 +13,10 @@ declare module "express-session" {
   interface SessionData {
     userId?: number;
     csrfToken?: string;
+    /** An ORCID sign-in under way: what the callback must see again (OpenID Connect state, nonce, PKCE). */
+    orcidFlow?: { state: string; nonce: string; verifier: string; intent: "sign-in" | "link"; userId?: number; next?: string; at: number };
+    /** An ORCID iD just verified that no account has yet: the sign-up page completes it. */
+    orcidPending?: { orcid: string; givenName: string; familyName: string; at: number };
   }
 }
 

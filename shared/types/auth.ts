@@ -11,12 +11,23 @@ export interface SessionUser {
 export interface SessionInfo {
   user: SessionUser | null;
   csrfToken: string;
+  /** Whether "Sign in with ORCID" is offered. */
+  orcidSignIn?: boolean;
+}
+
+/** An ORCID iD verified at sign-in that has no account yet (GET /auth/orcid/pending). */
+export interface OrcidPending {
+  orcid: string;
+  givenName: string;
+  familyName: string;
 }
 
 /** The signed-in person's own profile (GET/PATCH /api/v1/account). */
 export interface AccountProfile extends SessionUser {
   affiliation: string | null;
   orcid: string | null;
+  /** The iD was linked through ORCID's sign-in (not typed by hand). */
+  orcidVerified: boolean;
   createdAt: string;
 }
 

@@ -217,4 +217,6 @@ export interface DatasetDetail {
   withdrawal: { at: string; reason: string } | null;
   /** DOIs of the shown version and of the dataset as a whole (the concept DOI: always the latest version); null before publication. */
   dois: { version: DoiSummary | null; concept: DoiSummary | null };
+  /** Creators' ORCID iDs (bare, upper case) that a Tanglebank account has verified through ORCID's sign-in. */
+  verifiedOrcids: string[];
 }

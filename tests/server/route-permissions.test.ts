@@ -25,6 +25,7 @@ const ROUTES: ProtectedRoute[] = [
   { method: "get", path: "/api/v1/account", min: "depositor" },
   { method: "patch", path: "/api/v1/account", min: "depositor", body: {} },
   { method: "put", path: "/api/v1/account/password", min: "depositor", body: {} },
+  { method: "delete", path: "/api/v1/account/orcid", min: "depositor" },
   { method: "get", path: "/api/v1/users", min: "admin" },
   { method: "patch", path: "/api/v1/users/1/role", min: "admin", body: { role: "depositor" } },
   { method: "get", path: "/api/v1/outbox", min: "admin" },

@@ -30,6 +30,7 @@ const routes: RouteObject[] = [
       // accounts
       { path: paths.signIn.path, lazy: () => import("./routes/accounts/sign-in") },
       { path: paths.signUp.path, lazy: () => import("./routes/accounts/sign-up") },
+      { path: paths.orcidSignUp.path, lazy: () => import("./routes/accounts/orcid-sign-up") },
       { path: paths.verifyEmail.path, lazy: () => import("./routes/accounts/verify-email") },
       { path: paths.forgotPassword.path, lazy: () => import("./routes/accounts/forgot-password") },
       { path: paths.resetPassword.path, lazy: () => import("./routes/accounts/reset-password") },

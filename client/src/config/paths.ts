@@ -13,6 +13,7 @@ export const paths = {
   outboxMessage: { path: "/admin/outbox/:id", href: (id: number) => `/admin/outbox/${id}` },
   signIn: { path: "/sign-in", href: (next?: string) => (next ? `/sign-in?next=${encodeURIComponent(next)}` : "/sign-in") },
   signUp: { path: "/sign-up", href: () => "/sign-up" },
+  orcidSignUp: { path: "/sign-up/orcid", href: () => "/sign-up/orcid" },
   verifyEmail: { path: "/verify-email", href: () => "/verify-email" },
   forgotPassword: { path: "/forgot-password", href: () => "/forgot-password" },
   resetPassword: { path: "/reset-password", href: () => "/reset-password" },

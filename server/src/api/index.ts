@@ -2,6 +2,7 @@
 import { Router } from "express";
 import { healthRouter } from "./health/health.routes";
 import { authRouter } from "./auth/auth.routes";
+import { orcidRouter } from "./auth/orcid.routes";
 import { networkViewsRouter } from "./network-views/network-views.routes";
 import { accountRouter } from "./account/account.routes";
 import { usersRouter } from "./users/users.routes";
@@ -20,6 +21,7 @@ import { collectionsRouter } from "./collections/collections.routes";
 export function apiRouter(): Router {
   const r = Router();
   r.use("/health", healthRouter);
+  r.use("/auth/orcid", orcidRouter);
   r.use("/auth", authRouter);
   r.use("/network-views", networkViewsRouter);
   r.use("/account", accountRouter);

@@ -10,6 +10,8 @@ export class User extends Model<InferAttributes<User>, InferCreationAttributes<U
   declare displayName: string;
   declare affiliation: CreationOptional<string | null>;
   declare orcid: CreationOptional<string | null>;
+  /** Set when the iD came from ORCID's sign-in (verified), null when typed by hand. */
+  declare orcidVerifiedAt: CreationOptional<Date | null>;
   declare role: CreationOptional<Role>;
   declare emailVerifiedAt: CreationOptional<Date | null>;
   declare createdAt: CreationOptional<Date>;
@@ -25,6 +27,7 @@ export function initUser(sequelize: Sequelize): void {
       displayName: { type: DataTypes.TEXT, allowNull: false },
       affiliation: { type: DataTypes.TEXT },
       orcid: { type: DataTypes.TEXT },
+      orcidVerifiedAt: { type: DataTypes.DATE },
       role: { type: DataTypes.ENUM(...ROLES), allowNull: false, defaultValue: "depositor" },
       emailVerifiedAt: { type: DataTypes.DATE },
       createdAt: DataTypes.DATE,

@@ -15,3 +15,7 @@ export async function changePassword(req: Request, res: Response) {
   await service.changePassword(req.user!.id, currentPassword, newPassword, req.sessionID);
   res.status(204).end();
 }
+
+export async function unlinkOrcid(req: Request, res: Response) {
+  res.json(await service.unlinkOrcid(req.user!.id));
+}

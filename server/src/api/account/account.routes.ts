@@ -14,3 +14,4 @@ export const accountRouter = Router();
 accountRouter.get("/", requireSignedIn, c.show);
 accountRouter.patch("/", requireSignedIn, sessionOnly, c.update);
 accountRouter.put("/password", requireSignedIn, sessionOnly, c.changePassword);
+accountRouter.delete("/orcid", requireSignedIn, sessionOnly, c.unlinkOrcid);

@@ -15,6 +15,7 @@ export function toProfile(u: User): AccountProfile {
     emailVerified: u.emailVerifiedAt !== null,
     affiliation: u.affiliation ?? null,
     orcid: u.orcid ?? null,
+    orcidVerified: !!u.orcid && u.orcidVerifiedAt !== null,
     createdAt: u.createdAt.toISOString(),
   };
 }
@@ -31,6 +32,9 @@ export async function getProfile(userId: number): Promise<AccountProfile> {
 
 export async function updateProfile(userId: number, patch: { displayName?: string; affiliation?: string | null; orcid?: string | null }): Promise<AccountProfile> {
   const u = await load(userId);
+  if (patch.orcid !== undefined && u.orcidVerifiedAt && (patch.orcid ?? "").toUpperCase() !== (u.orcid ?? "").toUpperCase()) {
+    throw ApiError.conflict("Your ORCID iD was verified through ORCID: unlink it first to type another one.", [{ path: "orcid", message: "Unlink the verified iD first." }]);
+  }
   await u.update(patch);
   return toProfile(u);
 }
@@ -47,4 +51,15 @@ export async function changePassword(userId: number, currentPassword: string, ne
     await audit({ actorId: u.id, action: "user.password_changed", entityType: "user", entityId: u.id }, t);
     await endSessions(u.id, keepSid, t);
   });
+}
+
+/** Removes the verified ORCID iD from the account (it can be linked again). */
+export async function unlinkOrcid(userId: number): Promise<AccountProfile> {
+  const u = await load(userId);
+  await sequelize().transaction(async (t) => {
+    const before = u.orcid;
+    await u.update({ orcid: null, orcidVerifiedAt: null }, { transaction: t });
+    await audit({ actorId: u.id, action: "user.orcid_unlinked", entityType: "user", entityId: u.id, details: { orcid: before } }, t);
+  });
+  return toProfile(u);
 }

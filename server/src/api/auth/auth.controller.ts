@@ -4,13 +4,14 @@ import { csrfToken } from "../../middlewares/csrf";
 import { toAuthUser } from "../../middlewares/authenticate";
 import * as v from "./auth.validation";
 import * as service from "./auth.service";
+import { config } from "../../config/env";
 
 const regenerate = (req: Request) => new Promise<void>((resolve, reject) => req.session.regenerate((err) => (err ? reject(err) : resolve())));
 const save = (req: Request) => new Promise<void>((resolve, reject) => req.session.save((err) => (err ? reject(err) : resolve())));
 const destroy = (req: Request) => new Promise<void>((resolve, reject) => req.session.destroy((err) => (err ? reject(err) : resolve())));
 
 export function session(req: Request, res: Response) {
-  res.json({ user: req.user ?? null, csrfToken: req.session ? csrfToken(req) : "" });
+  res.json({ user: req.user ?? null, csrfToken: req.session ? csrfToken(req) : "", orcidSignIn: config().orcid.enabled });
 }
 
 export async function signUp(req: Request, res: Response) {

@@ -15,6 +15,7 @@ import { hasRole } from "../../middlewares/require-role";
 import { Dataset, DatasetVersion, Network, StoredFile, User } from "../../models";
 import { getCurrentMetrics } from "../../jobs/metrics-read";
 import { doisOfDataset, registeredVersionDoi } from "../../jobs/dois";
+import { verifiedOrcids } from "../auth/orcid.service";
 import { config } from "../../config/env";
 
 export interface Viewer {
@@ -107,6 +108,8 @@ export async function buildDatasetDetail(dataset: Dataset, version: DatasetVersi
     };
   });
   const dois = await doisOfDataset(dataset.id);
+  const creators = ((version.metadata as Partial<StudyMetadata> | null)?.creators ?? []) as StudyMetadata["creators"];
+  const verified = await verifiedOrcids(Array.isArray(creators) ? creators.map((c) => c?.orcid ?? "").filter(Boolean) : []);
   const withdrawal = version.state === "withdrawn" ? { at: iso(version.withdrawnAt) ?? "", reason: version.withdrawalReason ?? "" } : null;
   return {
     id: dataset.id,
@@ -119,6 +122,7 @@ export async function buildDatasetDetail(dataset: Dataset, version: DatasetVersi
     networks: netSummaries,
     withdrawal,
     dois: { version: dois.versions.get(version.number) ?? null, concept: dois.concept },
+    verifiedOrcids: [...verified],
   };
 }
 

@@ -15,6 +15,7 @@ import { Dataset, User } from "../../models";
 import { addNetworks, createDeposit, startNewVersion, submitDeposit, updateNetwork, updateStudyMetadata } from "../../api/deposits/deposits.service";
 import { decide, withdrawDataset } from "../../api/reviews/reviews.service";
 import type { Viewer } from "../../api/datasets/datasets.service";
+import { demoOrcidOf } from "./demo-researchers";
 
 const SEED = 20190501;
 
@@ -149,7 +150,11 @@ function studyFor(d: DatasetSpec, owner: User): StudyMetadata {
   return {
     title: d.title,
     description: d.description,
-    creators: [{ name: owner.displayName, affiliation: owner.affiliation ?? "Northmoor Field Station" }, { name: "Ada Quillfeather", affiliation: "Northmoor Field Station" }],
+    // made-up iDs of the ORCID stand-in's demo researchers (demo-researchers.ts)
+    creators: [
+      { name: owner.displayName, orcid: demoOrcidOf(owner.displayName), affiliation: owner.affiliation ?? "Northmoor Field Station" },
+      { name: "Ada Quillfeather", orcid: demoOrcidOf("Ada Quillfeather"), affiliation: "Northmoor Field Station" },
+    ],
     ...(d.doi ? { publication: { citation: `${owner.displayName} et al. (2024) ${d.title}. Northmoor Field Station Reports (invented) 7: 1–12.`, doi: d.doi } } : {}),
     licence: d.keywords.length % 2 ? "CC-BY-4.0" : "CC0-1.0",
     keywords: d.keywords,

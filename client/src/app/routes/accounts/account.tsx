@@ -5,6 +5,7 @@
 import { Alert, Card } from "../../../components/ui/form";
 import { useAccount } from "../../../features/account/api/get-account";
 import { ProfileForm } from "../../../features/account/components/profile-form";
+import { OrcidSection } from "../../../features/account/components/orcid-section";
 import { PasswordForm } from "../../../features/account/components/password-form";
 import { EmailStatus } from "../../../features/auth/components/email-status";
 import { SignOutButton } from "../../../features/auth/components/sign-out-button";
@@ -33,7 +34,8 @@ export function Component() {
       <Card title="E-mail address">
         <EmailStatus email={a.email} verified={a.emailVerified} />
       </Card>
-      <ProfileForm key={a.id} profile={a} />
+      <OrcidSection profile={a} />
+      <ProfileForm key={`${a.id}-${a.orcid ?? ""}`} profile={a} />
       <PasswordForm />
       <div id="account-extra" className="space-y-6">
         {/* Sections of other features (e.g. API tokens) go here. */}

@@ -16,7 +16,7 @@ export function ProfileForm({ profile }: { profile: AccountProfile }) {
           update.mutate({
             displayName: String(f.get("displayName") ?? ""),
             affiliation: String(f.get("affiliation") ?? "") || null,
-            orcid: String(f.get("orcid") ?? "") || null,
+            ...(profile.orcidVerified ? {} : { orcid: String(f.get("orcid") ?? "") || null }),
           });
         }}
       >
@@ -29,7 +29,8 @@ export function ProfileForm({ profile }: { profile: AccountProfile }) {
           name="orcid"
           defaultValue={profile.orcid ?? ""}
           placeholder="0000-0000-0000-0000"
-          hint="Optional. Offered when you list yourself as a creator of a dataset."
+          hint={profile.orcidVerified ? "Verified through ORCID (see above); unlink it there to change it." : "Optional. Offered when you list yourself as a creator of a dataset. Linking it through ORCID (above) verifies it."}
+          disabled={profile.orcidVerified}
           error={errors.orcid}
         />
         <Button busy={update.isPending}>Save profile</Button>

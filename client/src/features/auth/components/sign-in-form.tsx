@@ -5,6 +5,8 @@ import { useSignIn } from "../api/sign-in";
 import { useSession } from "../api/get-session";
 import { safeNext } from "../utils/links";
 import { AuthPanel } from "./auth-panel";
+import { OrcidButton } from "../../../components/ui/orcid-button";
+import { orcidErrorMessage } from "../../../lib/orcid";
 
 export function SignInForm() {
   const [params] = useSearchParams();
@@ -12,7 +14,10 @@ export function SignInForm() {
   const navigate = useNavigate();
   const signIn = useSignIn();
   const errors = fieldErrorsOf(signIn.error);
-  const current = useSession().data?.user;
+  const session = useSession().data;
+  const current = session?.user;
+  const orcidOffered = session?.orcidSignIn ?? false;
+  const orcidError = orcidErrorMessage(params.get("orcidError"));
   if (current && !signIn.isPending && !signIn.isSuccess) {
     return (
       <AuthPanel title="You are signed in">
@@ -52,6 +57,7 @@ export function SignInForm() {
           );
         }}
       >
+        {orcidError && <Alert tone="error" title="ORCID sign-in refused">{orcidError}</Alert>}
         {signIn.error && <Alert tone="error" title="Could not sign you in">{signIn.error.message}</Alert>}
         <TextField label="E-mail address" name="email" type="email" autoComplete="email" required error={errors.email} />
         <TextField label="Password" name="password" type="password" autoComplete="current-password" required error={errors.password} />
@@ -59,6 +65,12 @@ export function SignInForm() {
           {signIn.isPending ? "Signing in…" : "Sign in"}
         </Button>
       </form>
+      {orcidOffered && (
+        <div className="mt-6 border-t border-stone-200 pt-4">
+          <p className="mb-2 text-sm text-stone-700">Or use your ORCID iD: new here, you create your account from your ORCID record.</p>
+          <OrcidButton intent="sign-in" next={params.get("next") ? next : undefined} label="Sign in with ORCID" />
+        </div>
+      )}
     </AuthPanel>
   );
 }

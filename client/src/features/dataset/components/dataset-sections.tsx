@@ -47,6 +47,11 @@ export function StudySection({ d }: { d: DatasetDetail }) {
                     <a className="text-moss-700 underline" href={`https://orcid.org/${c.orcid.replace(/^https?:\/\/orcid\.org\//, "")}`} rel="noopener">
                       ORCID {c.orcid.replace(/^https?:\/\/orcid\.org\//, "")}
                     </a>
+                    {d.verifiedOrcids.includes(c.orcid.replace(/^https?:\/\/orcid\.org\//, "").toUpperCase()) && (
+                      <span className="ml-2 rounded bg-moss-50 px-1.5 py-0.5 text-xs font-semibold text-moss-800 ring-1 ring-moss-600" title="A Tanglebank account holding this iD verified it through ORCID's sign-in">
+                        ✓ verified
+                      </span>
+                    )}
                   </>
                 )}
               </li>
