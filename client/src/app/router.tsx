@@ -44,6 +44,9 @@ const routes: RouteObject[] = [
       { path: paths.networkView.path, lazy: () => import("./routes/datasets/network-view") },
       { path: paths.compare.path, lazy: () => import("./routes/compare") },
       { path: paths.coverageMap.path, lazy: () => import("./routes/coverage-map") },
+      // collections
+      { path: paths.collections.path, lazy: () => import("./routes/collections/my-collections") },
+      { path: paths.collection.path, lazy: () => import("./routes/collections/collection") },
       { path: "*", element: <NotFoundPage /> },
     ],
   },

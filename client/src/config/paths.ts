@@ -22,7 +22,19 @@ export const paths = {
   dataset: { path: "/datasets/:accession", href: (accession: string) => `/datasets/${accession}` },
   datasetVersion: { path: "/datasets/:accession/v/:n", href: (accession: string, n: number) => `/datasets/${accession}/v/${n}` },
   networkView: { path: "/datasets/:accession/v/:n/networks/:pos", href: (accession: string, n: number, pos: number) => `/datasets/${accession}/v/${n}/networks/${pos}` },
-  compare: { path: "/compare", href: (refs?: string[]) => (refs?.length ? `/compare?refs=${refs.join(",")}` : "/compare") },
+  compare: {
+    path: "/compare",
+    href: (refs?: string[], opts: { collection?: string; revision?: number } = {}) => {
+      const q = new URLSearchParams();
+      if (refs?.length) q.set("refs", refs.join(","));
+      if (opts.collection) q.set("collection", opts.collection);
+      if (opts.revision) q.set("revision", String(opts.revision));
+      const s = q.toString().replace(/%2F/g, "/").replace(/%2C/g, ",");
+      return s ? `/compare?${s}` : "/compare";
+    },
+  },
+  collections: { path: "/collections", href: () => "/collections" },
+  collection: { path: "/collections/:code", href: (code: string, revision?: number) => `/collections/${code}${revision ? `?revision=${revision}` : ""}` },
   coverageMap: { path: "/map", href: () => "/map" },
   // catalogue and API
   apiDocs: { path: "/api-docs", href: () => "/api-docs" },

@@ -15,6 +15,7 @@ const NAV: NavItem[] = [
   { label: "Catalogue", to: paths.catalogue.href() },
   { label: "Map", to: paths.coverageMap.href() },
   { label: "Compare", to: paths.compare.href() },
+  { label: "Collections", to: paths.collections.href() },
   { label: "Deposit", to: paths.deposit.href(), min: "depositor" },
   { label: "My deposits", to: paths.myDeposits.href(), min: "depositor" },
   { label: "Review queue", to: paths.reviewQueue.href(), min: "curator" },

@@ -1,6 +1,7 @@
 /**
- * Networks selected in the catalogue, kept across pages and reloads of the tab (sessionStorage), as
- * network references ("TB-000042/v2/3").
+ * Networks selected in the catalogue, as network references ("TB-000042/v2/3"): kept across pages,
+ * reloads and browser tabs until cleared (localStorage; another tab's change arrives by the `storage`
+ * event, so every open catalogue shows the same selection).
  */
 import { useCallback, useSyncExternalStore } from "react";
 
@@ -8,37 +9,58 @@ const KEY = "tanglebank.catalogue.selection";
 const listeners = new Set<() => void>();
 let cache: string[] | null = null;
 
+function parse(raw: string | null): string[] {
+  try {
+    const v = raw ? (JSON.parse(raw) as unknown) : [];
+    return Array.isArray(v) ? v.filter((x): x is string => typeof x === "string") : [];
+  } catch {
+    return [];
+  }
+}
+
 function read(): string[] {
   if (cache) return cache;
   try {
-    const raw = sessionStorage.getItem(KEY);
-    const v = raw ? (JSON.parse(raw) as unknown) : [];
-    cache = Array.isArray(v) ? v.filter((x): x is string => typeof x === "string") : [];
+    cache = parse(localStorage.getItem(KEY));
   } catch {
     cache = [];
   }
   return cache;
 }
 
-function write(refs: string[]): void {
-  cache = refs;
-  try {
-    sessionStorage.setItem(KEY, JSON.stringify(refs));
-  } catch {
-    // storage full or disabled: the selection lives as long as the page
-  }
+function notify(): void {
   for (const l of listeners) l();
 }
 
+function write(refs: string[]): void {
+  cache = refs;
+  try {
+    if (refs.length) localStorage.setItem(KEY, JSON.stringify(refs));
+    else localStorage.removeItem(KEY);
+  } catch {
+    // storage full or disabled: the selection lives as long as the page
+  }
+  notify();
+}
+
+/** Another tab changed the selection. */
+function onStorage(e: StorageEvent): void {
+  if (e.key !== KEY && e.key !== null) return;
+  cache = parse(e.newValue);
+  notify();
+}
+
+function subscribe(cb: () => void): () => void {
+  if (!listeners.size && typeof window !== "undefined") window.addEventListener("storage", onStorage);
+  listeners.add(cb);
+  return () => {
+    listeners.delete(cb);
+    if (!listeners.size && typeof window !== "undefined") window.removeEventListener("storage", onStorage);
+  };
+}
+
 export function useSelection() {
-  const selected = useSyncExternalStore(
-    (cb) => {
-      listeners.add(cb);
-      return () => listeners.delete(cb);
-    },
-    read,
-    () => [] as string[],
-  );
+  const selected = useSyncExternalStore(subscribe, read, () => [] as string[]);
   const toggle = useCallback((ref: string) => {
     const cur = read();
     write(cur.includes(ref) ? cur.filter((r) => r !== ref) : [...cur, ref]);
