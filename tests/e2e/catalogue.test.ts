@@ -102,7 +102,8 @@ describe("catalogue page", () => {
     for (const r of dp.resources) expect(entries.has(r.path)).toBe(true);
     expect(entries.get("metrics.csv")!.trim().split("\n").length).toBe(5);
 
-    // compressed packing: the same files, deflated
+    // compressed packing (in the bundle's options): the same files, deflated
+    await page.getByText("What goes in the bundle").click();
     await page.getByLabel("Packing").selectOption("small");
     const compressed = page.getByRole("link", { name: /Bundle selection/ });
     expect(await compressed.getAttribute("href")).toContain("compression=small");
