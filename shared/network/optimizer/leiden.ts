@@ -174,11 +174,13 @@ function shuffle(ws: Workspace, n: number, rng: Rng): Int32Array {
 
 /**
  * Fast local moving (Algorithm A.2, MoveNodesFast). `memb` holds module ids in [0, n) and is updated
- * in place. Returns the number of nodes taken from the queue.
+ * in place. Returns the number of nodes taken from the queue. Leaves in ws.cut, for every node v,
+ * E(v, S − v) with S its module (set at v's last visit, then updated as neighbours move), which
+ * refinement needs: every node is visited at least once, so this saves refinement a sweep over the links.
  */
 export function moveNodesFast(g: QualityGraph, memb: Int32Array, rng: Rng, ws: Workspace, eps: number): number {
   const { n, ptr, nbr, ew, a, b, gamma } = g;
-  const { modA, modB, modSize, empty, queue, inQueue, nw, mark, touched } = ws;
+  const { modA, modB, modSize, empty, queue, inQueue, nw, mark, touched, cut } = ws;
   modA.fill(0, 0, n);
   modB.fill(0, 0, n);
   modSize.fill(0, 0, n);
@@ -249,12 +251,17 @@ export function moveNodesFast(g: QualityGraph, memb: Int32Array, rng: Rng, ws: W
     modA[best] += av;
     modB[best] += bv;
     modSize[best]++;
+    // E(v, its module − v), kept up to date below as neighbours move: refinement starts from it.
+    cut[v] = mark[best] === stamp ? nw[best] : 0;
     if (best !== cur) {
       memb[v] = best;
       if (modSize[cur] === 0) empty[nEmpty++] = cur;
       for (let e = ptr[v]; e < ptr[v + 1]; e++) {
         const u = nbr[e];
-        if (!inQueue[u] && memb[u] !== best) {
+        const mu = memb[u];
+        if (mu === cur) cut[u] -= ew[e];
+        else if (mu === best) cut[u] += ew[e];
+        if (!inQueue[u] && mu !== best) {
           inQueue[u] = 1;
           let tail = head + count;
           if (tail >= n) tail -= n;
@@ -277,6 +284,8 @@ export function refinePartition(
   rng: Rng,
   ws: Workspace,
   meanWeight: number,
+  /** ws.cut already holds E(v, S − v) for `memb` (left there by moveNodesFast). */
+  cutKnown = false,
 ): { refined: Int32Array; k: number } {
   const { n, ptr, nbr, ew, a, b, gamma } = g;
   const { modA, modB, modSize, nw, mark, touched, cut, cand, candW } = ws;
@@ -298,10 +307,14 @@ export function refinePartition(
     modA[v] = av;
     modB[v] = bv;
     modSize[v] = 1;
-    let s = 0;
     const S = memb[v];
-    for (let e = ptr[v]; e < ptr[v + 1]; e++) if (memb[nbr[e]] === S) s += ew[e];
-    cut[v] = s; // E({v}, S − {v})
+    let s: number;
+    if (cutKnown) s = cut[v];
+    else {
+      s = 0;
+      for (let e = ptr[v]; e < ptr[v + 1]; e++) if (memb[nbr[e]] === S) s += ew[e];
+      cut[v] = s; // E({v}, S − {v})
+    }
     const need = gamma * (av * (SB[S] - bv) + bv * (SA[S] - av));
     wellConnectedNode[v] = s >= need - 1e-12 * Math.abs(need) ? 1 : 0;
   }
@@ -450,6 +463,8 @@ export function aggregateGraph(g: QualityGraph, memb: Int32Array, k: number, ws:
 
 interface PassOutcome {
   membership: Int32Array;
+  /** Q of the membership. */
+  q: number;
   /** The level cap was reached before local moving settled. */
   capped: boolean;
 }
@@ -478,6 +493,7 @@ function leidenPass(
     ws.levels = [levelBuffers(n0, g0.ptr[n0]), levelBuffers(n0, g0.ptr[n0])];
   }
   let capped = true;
+  let q = 0;
   for (let level = 0; level < LEVEL_CAP; level++) {
     const t0 = trace ? performance.now() : 0;
     const visits = moveNodesFast(g, memb, rng, ws, eps);
@@ -486,9 +502,17 @@ function leidenPass(
     if (k === g.n) {
       if (trace) trace.levels.push(levelTrace(pass, level, g, k, visits, null, t1 - t0, 0, 0));
       capped = false;
+      // Every node of this level is a module of its own: Q is (1) over the nodes, without a sweep of g0.
+      let inner = 0;
+      let nullTerm = 0;
+      for (let v = 0; v < g.n; v++) {
+        inner += g.self[v];
+        nullTerm += g.a[v] * g.b[v];
+      }
+      q = g.alpha * (inner - g.gamma * nullTerm);
       break;
     }
-    let { refined, k: kr } = refinePartition(g, memb, rng, ws, meanWeight);
+    let { refined, k: kr } = refinePartition(g, memb, rng, ws, meanWeight, true);
     if (kr === g.n) {
       // Refinement merged nothing: aggregate on the unrefined partition (each aggregate node its own module).
       refined = memb;
@@ -507,7 +531,8 @@ function leidenPass(
   const out = new Int32Array(n0);
   for (let i = 0; i < n0; i++) out[i] = memb[map[i]];
   renumber(out, ws.map);
-  return { membership: out, capped };
+  if (capped) q = graphQuality(g0, out);
+  return { membership: out, q, capped };
 }
 
 function levelTrace(
@@ -576,7 +601,7 @@ export function leiden(g: QualityGraph, rng: Rng, options: LeidenOptions = {}): 
     const pass = leidenPass(g, memb, rng, ws, eps, meanW, trace, passes);
     passes++;
     const next = pass.membership;
-    const qn = graphQuality(g, next);
+    const qn = pass.q;
     trace?.passQ.push(qn);
     if (pass.capped) capped = "levels";
     if (qn > q + 1e-12 * Math.max(1, Math.abs(q))) {
