@@ -37,6 +37,7 @@ import { enqueueNetworkMetrics } from "./enqueue";
 import { closePool, poolThreads, runNulls, runObserved } from "./pool";
 import { getBoss, METRICS_QUEUE, registerLocalWorker, RETRY_LIMIT, sendRunJobs, stopQueue, type MetricsJobData, type MetricsPhase } from "./queue";
 import { validateSettings } from "./settings";
+import { notifyFiguresIfDone } from "./figures-mail";
 
 /**
  * Job starts of one run (both phases, retries, and starts lost with killed workers) before the sweeper
@@ -85,7 +86,10 @@ export async function markRunFailed(runId: number, message: string, kind: "confi
       WHERE id = :runId AND status IN ('queued', 'running') RETURNING batch_id`,
     { replacements: { runId, message: message.slice(0, 4000), kind } },
   )) as [Array<{ batch_id: number | null }>, unknown];
-  if (rows[0]) await finishBatchIfDone(rows[0].batch_id);
+  if (rows[0]) {
+    await finishBatchIfDone(rows[0].batch_id);
+    await notifyFiguresIfDone(runId);
+  }
 }
 
 function errorMessage(err: unknown): string {
@@ -243,6 +247,7 @@ async function writeSuccess(run: RunState, hash: string, analysis: AnalysisResul
     } else throw err;
   }
   await finishBatchIfDone(run.batch_id);
+  await notifyFiguresIfDone(run.id);
 }
 
 /** The pg-boss handler: one job at a time; failure on the last attempt is recorded, not thrown. */

@@ -24,6 +24,7 @@ import { Dataset, DatasetVersion, Network, Review, StoredFile, User } from "../.
 import type { NetworkReadOptions } from "../../models/network.model";
 import { sendMail } from "../../emails/mailer";
 import { reviewSubmittedEmail } from "../../emails/templates/review-submitted";
+import { depositReceiptEmail } from "../../emails/templates/deposit-receipt";
 import { buildDatasetDetail, type Viewer } from "../datasets/datasets.service";
 import type { UploadedFile } from "./deposits.upload";
 import { cellOf, readSheet, writeSheet } from "./deposits.sheet";
@@ -475,7 +476,28 @@ export async function submitDeposit(versionId: number, viewer: Viewer): Promise<
     return { ...r, resubmission, networkCount: networks.length };
   });
   await notifyCurators(dataset, version, viewer, resubmission);
+  await sendReceipt(version, viewer, resubmission);
   return depositDetail(dataset, version, viewer);
+}
+
+/** The depositor's receipt: what arrived, when, and what happens next. */
+async function sendReceipt(version: DatasetVersion, depositor: Viewer, resubmission: boolean): Promise<void> {
+  try {
+    const owner = await User.findByPk(depositor.id);
+    if (!owner) return;
+    const networkCount = await Network.count({ where: { versionId: version.id } });
+    await sendMail(owner.email, depositReceiptEmail({
+      title: String(version.metadata?.title ?? "(untitled)"),
+      depositor: owner.displayName,
+      versionNumber: version.number,
+      networkCount,
+      resubmission,
+      at: version.submittedAt ? new Date(version.submittedAt) : new Date(),
+      url: `${config().publicUrl}/deposit/${version.id}`,
+    }));
+  } catch (err) {
+    logger.warn({ err }, "could not send the depositor a receipt");
+  }
 }
 
 async function notifyCurators(dataset: Dataset, version: DatasetVersion, depositor: Viewer, resubmission: boolean): Promise<void> {
