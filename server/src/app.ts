@@ -17,7 +17,7 @@ import { csrfProtection } from "./middlewares/csrf";
 import { apiNotFound, errorHandler } from "./middlewares/error-handler";
 import { apiRouter } from "./api";
 import { logger } from "./lib/logger";
-import { datasetHtmlRenderer } from "./api/network-views/dataset-html";
+import { datasetHtmlRenderer, datasetPageMissing } from "./api/network-views/dataset-html";
 
 
 /** Server-side renderers for specific client routes (e.g. JSON-LD on dataset pages); return null to skip. */
@@ -117,6 +117,11 @@ export function createApp(): Express {
           res.type("html").send(out);
           return;
         }
+      }
+      // an address of a dataset, version or network that does not exist (or is a draft): a real 404
+      if (await datasetPageMissing(req.path)) {
+        res.status(404).type("html").send(html.replace(/<\/head>/i, () => `<meta name="robots" content="noindex">\n</head>`));
+        return;
       }
       res.type("html").send(html);
     } catch (err) {

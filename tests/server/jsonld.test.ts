@@ -51,6 +51,20 @@ afterAll(async () => {
   await shutdownServerResources();
 });
 
+/** The few things read from a page head (title, meta content, canonical link), by pattern. */
+class JSDOMLike {
+  constructor(private html: string) {}
+  title() {
+    return /<title>([^<]*)<\/title>/.exec(this.html)?.[1].replace(/&amp;/g, "&") ?? null;
+  }
+  meta(name: string) {
+    return new RegExp(`<meta (?:name|property)="${name}" content="([^"]*)"`).exec(this.html)?.[1].replace(/&amp;/g, "&") ?? null;
+  }
+  canonical() {
+    return /<link rel="canonical" href="([^"]*)"/.exec(this.html)?.[1] ?? null;
+  }
+}
+
 describe("dataset page HTML", () => {
   it("carries schema.org/Dataset JSON-LD with name, description, identifier, creator, license and citation", async () => {
     const html = await datasetHtmlRenderer("/datasets/TB-000001", shell);
@@ -147,6 +161,31 @@ describe("dataset page HTML", () => {
     expect(desc).toContain("Reason: Duplicate of TB-000001.");
     expect(desc).toContain("TB-000003");
     expect(html).toContain('<meta name="robots" content="noindex">');
+  });
+
+  it("answers HTTP 404 (with noindex) for unknown accessions, versions and networks and for drafts; 200 for real pages", async () => {
+    if (!existsSync(join(CLIENT_DIST, "index.html"))) return expect.fail("build the client first (npx vite build)");
+    for (const path of ["/datasets/TB-000099", "/datasets/TB-000001/v/7", "/datasets/TB-000001/v/1/networks/9", "/datasets/TB-000004"]) {
+      const res = await request(app).get(path);
+      expect(res.status, path).toBe(404);
+      expect(res.text, path).toContain('<meta name="robots" content="noindex">');
+      expect(res.text, path).toContain('<div id="root">'); // the app shows its own not-found page
+    }
+    expect((await request(app).get("/datasets/TB-000001/v/1/networks/1")).status).toBe(200);
+    expect((await request(app).get("/catalogue")).status).toBe(200);
+  });
+
+  it("gives a network page its own title, description and canonical link", async () => {
+    const html = (await datasetHtmlRenderer("/datasets/TB-000001/v/1/networks/1", shell))!;
+    const doc = new JSDOMLike(html);
+    expect(doc.title()).toBe("Upper meadow (TB-000001/v1/1) · Tanglebank");
+    expect(doc.meta("og:title")).toBe("Upper meadow (TB-000001/v1/1) · Tanglebank");
+    expect(doc.meta("description")).toMatch(/^Upper meadow \(TB-000001\/v1\/1\): a pollination network of \d+ plants × \d+ pollinators, \d+ links at Verrin Hills/);
+    expect(doc.canonical()).toMatch(/\/datasets\/TB-000001\/v\/1\/networks\/1$/);
+    // the dataset page keeps its own
+    const ds = new JSDOMLike((await datasetHtmlRenderer("/datasets/TB-000001/v/1", shell))!);
+    expect(ds.canonical()).toMatch(/\/datasets\/TB-000001\/v\/1$/);
+    expect(ds.title()).not.toContain("Upper meadow");
   });
 
   it("leaves drafts, unknown accessions and other addresses to the app shell", async () => {

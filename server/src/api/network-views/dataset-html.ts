@@ -22,7 +22,7 @@ import { publicLocality } from "../../lib/public-locality";
 import { doisOfDataset } from "../../jobs/dois";
 import { notRecordedList } from "../../../../shared/validation/not-recorded";
 
-const PATH_RE = /^\/datasets\/(TB-\d{6})(?:\/v\/(\d{1,6}))?(?:\/networks\/\d{1,6})?\/?$/;
+const PATH_RE = /^\/datasets\/(TB-\d{6})(?:\/v\/(\d{1,6}))?(?:\/networks\/(\d{1,6}))?\/?$/;
 
 /** JSON safe inside <script>: no "<", ">" or "&" can appear literally. */
 export function jsonForScript(value: unknown): string {
@@ -164,6 +164,48 @@ function metaTags(title: string, description: string, url: string, extra = ""): 
     .join("\n");
 }
 
+/**
+ * A network page's own title, description and canonical address: its name, reference, kind and size,
+ * place and years, and its current Q and z, then the dataset it belongs to.
+ */
+async function networkHead(accession: string, versionNumber: number, position: number, datasetTitle: string, datasetUrl: string) {
+  const { version } = await resolveVersion(accession, versionNumber, undefined);
+  const n = await Network.findOne({ where: { versionId: version.id, position } });
+  if (!n) return null;
+  const nm = n.metadata as unknown as NetworkMetadata;
+  const ref = `${accession}/v${version.number}/${position}`;
+  const name = nm.name ?? `Network ${position}`;
+  const url = `${config().publicUrl}/datasets/${accession}/v/${version.number}/networks/${position}`;
+  const size =
+    n.kind === "bipartite"
+      ? `${n.nRows} ${nm.rowLevel ?? "row nodes"} × ${n.nCols} ${nm.colLevel ?? "column nodes"}`
+      : `${n.nNodes} nodes${n.directed ? ", directed" : ""}`;
+  const where = nm.locality?.placeName ? ` at ${nm.locality.placeName}${nm.locality.countryCode ? ` (${nm.locality.countryCode})` : ""}` : "";
+  const when = nm.startDate ? `, ${nm.startDate.slice(0, 4)}${nm.endDate && nm.endDate.slice(0, 4) !== nm.startDate.slice(0, 4) ? `–${nm.endDate.slice(0, 4)}` : ""}` : "";
+  const type = (nm.interactionType ?? "interaction").replace(/-/g, " ");
+  const description = `${name} (${ref}): a ${type} network of ${size}, ${n.nLinks} links${where}${when}. Module-ordered matrix, null distribution and node roles. From the dataset “${datasetTitle}”.`;
+  const title = `${name} (${ref}) · Tanglebank`;
+  return { title, description, url, datasetUrl };
+}
+
+/**
+ * True when a dataset, version or network address names nothing that may be shown (an unknown accession,
+ * version or network, or a draft): the server answers it with HTTP 404 (the app then shows its page).
+ */
+export async function datasetPageMissing(path: string): Promise<boolean> {
+  const m = PATH_RE.exec(path);
+  if (!m) return false;
+  try {
+    const { version } = await resolveVersion(m[1], m[2] ? Number(m[2]) : undefined, undefined);
+    if (m[3] && !(await Network.findOne({ where: { versionId: version.id, position: Number(m[3]) }, attributes: ["id"] }))) return true;
+    return false;
+  } catch (err) {
+    if (err instanceof GoneError) return false;
+    if (err instanceof ApiError && err.status === 404) return true;
+    throw err;
+  }
+}
+
 export const datasetHtmlRenderer: HtmlRenderer = async (path, indexHtml) => {
   const m = PATH_RE.exec(path);
   if (!m) return null;
@@ -171,6 +213,14 @@ export const datasetHtmlRenderer: HtmlRenderer = async (path, indexHtml) => {
   const versionNumber = m[2] ? Number(m[2]) : undefined;
   try {
     const { ld, md, version, url } = await buildDatasetJsonLd(accession, versionNumber);
+    if (m[3]) {
+      // a network page: its own title, description and canonical address; the dataset's JSON-LD stays
+      const net = await networkHead(accession, version.number, Number(m[3]), md.title, url);
+      if (!net) return null;
+      const head =
+        metaTags(net.title, shorten(net.description), net.url, `<link rel="up" href="${escapeHtml(url)}">`) + `\n<script type="application/ld+json">${jsonForScript(ld)}</script>`;
+      return injectHead(indexHtml, head, net.title);
+    }
     const title = `${md.title} (${accession} v${version.number}) · Tanglebank`;
     const head = metaTags(title, shorten(md.description ?? md.title), url) + `\n<script type="application/ld+json">${jsonForScript(ld)}</script>`;
     return injectHead(indexHtml, head, title);
