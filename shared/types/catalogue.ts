@@ -21,9 +21,15 @@ export interface CatalogueFacets {
   nodes: RangeFacet;
   connectance: RangeFacet;
   Q: RangeFacet;
+  /** z and p of the null model in `nullModel`. */
   z: RangeFacet;
   /** Matching networks per field marked not recorded (coordinates, elevation, dates, habitat, samplingEffort). */
   notRecorded: FacetValue[];
+  p: RangeFacet;
+  /** The null model the z column and the z/p filters use. */
+  nullModel: string;
+  /** The null models with figures in the catalogue and how many networks have each. */
+  nullModels: FacetValue[];
 }
 
 /** The public shape of a catalogue row. */
@@ -52,11 +58,22 @@ export interface CatalogueRow {
   C: number | null;
   Q: number | null;
   modules: number | null;
+  /** The null model of z, zSe, qRel, deltaQ, p (the one the query chose; the same for every row). */
+  nullModel: string;
   z: number | null;
+  zSe: number | null;
   qRel: number | null;
+  deltaQ: number | null;
   p: number | null;
+  /** p is the floor 1/(n + 1) of its n nulls: read "p ≤". */
+  pAtFloor: boolean;
+  nullN: number | null;
+  /** The network's primary null model. */
+  primaryNull: string | null;
   nodf: number | null;
   metricsStatus: "succeeded" | "none";
+  /** False when the figures are the last good run of older settings (a newer computation failed or is pending). */
+  currentSettings: boolean | null;
 }
 
 export interface CataloguePage {

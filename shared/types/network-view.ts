@@ -51,8 +51,12 @@ export interface NetworkView extends NetworkShape {
   rowModules: number[] | null;
   colModules: number[] | null;
   modules: ModuleRow[];
-  /** Q of each null replicate, when the pipeline kept them. */
+  /** Q of each null replicate of the primary null model, when the pipeline kept them. */
   nullQs: number[] | null;
+  /** Q of each null replicate per null model (model name → values). */
+  nullQsByModel: Record<string, number[]> | null;
+  /** Every metrics run of this network, newest first. */
+  runHistory: RunHistoryRow[];
   roles: RoleRow[] | null;
   roleThresholds: { z: number; p: number } | null;
   provenance: {
@@ -65,6 +69,24 @@ export interface NetworkView extends NetworkShape {
     durationMs: number | null;
     file: { name: string; sha256: string; size: number; format: "matrix" | "edgelist" };
   };
+}
+
+/** One metrics run of a network (the network page's run history). */
+export interface RunHistoryRow {
+  runId: number;
+  status: "queued" | "running" | "succeeded" | "failed" | "superseded";
+  /** The run whose figures the page shows. */
+  shown: boolean;
+  createdAt: string;
+  finishedAt: string | null;
+  engineVersion: string | null;
+  settings: { objective: string; restarts: number; nulls: number; seed: number; nullModels: "standard" | string[] };
+  /** The null models this run stored figures for, primary first. */
+  nullModelsComputed: string[];
+  Q: number | null;
+  errorKind: "configuration" | "computation" | null;
+  /** Curators and admins only. */
+  error?: string | null;
 }
 
 /** One light row per network for the compare view: `GET /api/v1/network-views/summaries?refs=…`. */

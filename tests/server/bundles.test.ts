@@ -165,12 +165,14 @@ describe("bundle contents", () => {
       expect(Number(m.L)).toBe(row.n_links);
       expect(Number(m.C)).toBeCloseTo(row.connectance, 12);
       expect(num(m.Q)).toBe(row.q);
-      expect(num(m.z)).toBe(row.z);
-      expect(num(m.Q_rel)).toBe(row.q_rel);
-      expect(num(m.p)).toBe(row.p);
+      expect(num(m.curveball_z)).toBe(row.z);
+      expect(m.primary_null_model).toBe(row.q === null ? "" : "curveball");
+      expect(m.er_z).toBe(""); // a model the run did not compute stays empty, never borrowed from another
+      expect(num(m.curveball_Q_rel)).toBe(row.q_rel);
+      expect(num(m.curveball_p)).toBe(row.p);
       expect(num(m.NODF)).toBe(row.nodf);
     });
-    expect(Object.keys(metrics[0])).toEqual(expect.arrayContaining(["network_ref", "accession", "version", "network", "kind", "S", "I", "J", "L", "C", "Q", "modules", "null_mean", "null_sd", "z", "Q_rel", "p", "NODF", "algorithm", "seed"]));
+    expect(Object.keys(metrics[0])).toEqual(expect.arrayContaining(["network_ref", "accession", "version", "network", "kind", "S", "I", "J", "L", "C", "Q", "modules", "primary_null_model", "curveball_mean", "curveball_sd", "curveball_z", "curveball_z_se", "curveball_Q_rel", "curveball_p", "curveball_p_at_floor", "er_z", "totals_connectance_p", "NODF", "algorithm", "seed", "settings_current"]));
     for (const m of metrics) expect(m.network_ref).toBe(`${m.accession}/v${m.version}/${m.network}`);
 
     // networks.csv: public coordinates only (1° grid for the coastal site)
@@ -180,7 +182,9 @@ describe("bundle contents", () => {
     expect(files.get("networks.csv")).not.toContain("57.6789");
 
     expect(files.get("CITATIONS.bib")).toContain(`@dataset{${a.accession}-v1`);
-    expect(files.get("README.txt")).toMatch(/Raw Q is not comparable/);
+    expect(files.get("README.txt")).toMatch(/Raw Q depends on network size/);
+    expect(files.get("README.txt")).not.toMatch(/compare z or Q_rel|null_model = auto|null model auto/);
+    expect(files.get("README.txt")).toMatch(/curveball_z/);
     expect(files.get("README.txt")).toMatch(/null replicates/);
   });
 

@@ -16,6 +16,9 @@ import { startMetricsWorker, stopMetricsWorker } from "../../server/src/jobs/met
 import { setPipelineSettings } from "../../server/src/jobs/settings";
 import { MetricRun } from "../../server/src/models";
 import { resetDatabase } from "../setup/db";
+import request from "supertest";
+import { catalogueStore } from "../../server/src/api/catalogue/catalogue.store";
+import { unzip } from "./support/unzip";
 import { agentFor, createUser, type SignedInAgent } from "./support/accounts";
 import { clearQueue, publishMatrices, randomMatrix } from "./support/pipeline-fixtures";
 import { waitFor } from "./support/wait";
@@ -37,6 +40,12 @@ afterAll(async () => {
   await stopMetricsWorker();
   await shutdownServerResources();
 });
+
+function binaryParser(res: request.Response, cb: (err: Error | null, body: Buffer) => void) {
+  const chunks: Buffer[] = [];
+  res.on("data", (c: Buffer) => chunks.push(c));
+  res.on("end", () => cb(null, Buffer.concat(chunks)));
+}
 
 describe("null-model settings in the pipeline", () => {
   let accession: string;
@@ -95,9 +104,52 @@ describe("null-model settings in the pipeline", () => {
     const staff = (await getCurrentMetrics([networkId], { showErrors: true })).get(networkId)!;
     expect(staff.newer!.error).toMatch(/Patefield/);
 
-    // The public API shows the same: the good figures, the failed attempt, no error text.
-    const api = await admin.agent.get(`/api/v1/networks/${accession}/1/1/metrics`);
+    // Every read path keeps the good figures: the public API, the catalogue (marked as older settings),
+    // the network view (with the failed attempt in its run history), the bundle's metrics.csv.
+    const api = await request(app).get(`/api/v1/networks/${accession}/v1/1/metrics`);
     expect(api.status).toBe(200);
+    expect(api.body.metrics).toMatchObject({ Q: good.Q, nullModel: "curveball", newer: { status: "failed" } });
+    expect(JSON.stringify(api.body)).not.toMatch(/Patefield's null model needs|does not fit this network/);
+    catalogueStore.invalidate();
+    const cat = await request(app).get("/api/v1/catalogue").query({ q: "", nodesMin: 0 });
+    const row = cat.body.data.find((r: { ref: string }) => r.ref === `${accession}/v1/1`);
+    expect(row).toMatchObject({ Q: good.Q, z: good.z, nullModel: "curveball", currentSettings: false });
+    const view = await request(app).get(`/api/v1/network-views/${accession}/1/1`);
+    expect(view.body.metrics.Q).toBe(good.Q);
+    expect(view.body.runHistory.map((h: { status: string }) => h.status)).toEqual(["failed", "succeeded"]);
+    expect(view.body.runHistory[0].error).toBeUndefined();
+    const zip = await request(app).get("/api/v1/bundles").query({ refs: `${accession}/v1/1` }).buffer(true).parse(binaryParser);
+    const metricsCsv = (await unzip(zip.body as Buffer)).get("metrics.csv")!;
+    expect(metricsCsv).toContain(String(good.Q));
     await setPipelineSettings(LIGHT);
+  });
+});
+
+describe("the catalogue's z column uses one null model at a time", () => {
+  it("every row's z is the chosen model's; a network without that model has no z; unknown models are refused", async () => {
+    catalogueStore.invalidate();
+    const pub = await publishMatrices([randomMatrix(9, 6, 8, 0.4)]);
+    const id = pub.networkIds[0];
+    await enqueueNetworkMetrics([id]);
+    const m = await waitFor(async () => {
+      const x = (await getCurrentMetrics([id])).get(id)!;
+      return x.status === "succeeded" && x.currentSettings && x;
+    }, "the standard set");
+    catalogueStore.invalidate();
+    const ref = `${pub.accession}/v1/1`;
+    for (const model of ["curveball", "probabilistic", "er"]) {
+      const res = await request(app).get("/api/v1/catalogue").query({ nullModel: model, pageSize: 200 });
+      expect(res.status).toBe(200);
+      expect(res.body.meta.facets.nullModel).toBe(model);
+      for (const r of res.body.data) expect(r.nullModel).toBe(model);
+      const row = res.body.data.find((r: { ref: string }) => r.ref === ref);
+      const fig = m.nulls!.find((f) => f.model === model)!;
+      expect([row.z, row.p, row.qRel]).toEqual([fig.z, fig.p, fig.qRel]);
+    }
+    const none = await request(app).get("/api/v1/catalogue").query({ nullModel: "totals-connectance", zMin: -1000 });
+    expect(none.body.meta.total).toBe(0);
+    const bad = await request(app).get("/api/v1/catalogue").query({ nullModel: "auto" });
+    expect(bad.status).toBe(400);
+    expect(bad.body.details[0].path).toBe("nullModel");
   });
 });

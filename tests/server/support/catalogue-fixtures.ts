@@ -187,8 +187,12 @@ export async function publishDataset(opts: {
   return { datasetId, accession, versionId: v.id, version: number, networkIds };
 }
 
+/**
+ * A succeeded run with headline figures; its significance figures are stored as the primary null model's
+ * (curveball, fixed degrees) in metric_run_nulls, as the pipeline stores them.
+ */
 export async function addRun(networkId: number, m: FixtureMetrics): Promise<MetricRun> {
-  return MetricRun.create({
+  const run = await MetricRun.create({
     networkId,
     settings: { ...DEFAULT_PIPELINE_SETTINGS },
     settingsHash: m.settingsHash ?? CURRENT_HASH,
@@ -199,7 +203,8 @@ export async function addRun(networkId: number, m: FixtureMetrics): Promise<Metr
     startedAt: new Date(),
     finishedAt: new Date(),
     durationMs: 12,
-    results: { null: { model: "er", n: 100 } },
+    results: { analysis: { null: { model: "curveball", n: 100 } } },
+    nullModel: "curveball",
     objective: "barber",
     q: m.q,
     modules: m.modules ?? 3,
@@ -210,4 +215,21 @@ export async function addRun(networkId: number, m: FixtureMetrics): Promise<Metr
     p: m.p ?? null,
     nodf: m.nodf ?? null,
   });
+  await MetricRun.sequelize!.query(
+    `INSERT INTO metric_run_nulls (run_id, model, is_primary, n, mean, sd, z, q_rel, delta_q, p, p_at_floor)
+     VALUES (:runId, 'curveball', true, 100, :mean, :sd, :z, :qRel, :deltaQ, :p, :floor)`,
+    {
+      replacements: {
+        runId: run.id,
+        mean: m.nullMean ?? 0.2,
+        sd: m.nullSd ?? 0.05,
+        z: m.z ?? null,
+        qRel: m.qRel ?? null,
+        deltaQ: m.q === null || m.q === undefined ? null : m.q - (m.nullMean ?? 0.2),
+        p: m.p ?? null,
+        floor: m.p !== null && m.p !== undefined && Math.abs(m.p - 1 / 101) < 1e-12,
+      },
+    },
+  );
+  return run;
 }

@@ -4,8 +4,23 @@
  * needs before comparing networks. Formulas follow shared/network/README.md.
  */
 import type { PipelineSettings } from "../../../../shared/types/pipeline";
-import { nullModelsText } from "../../jobs/settings";
+import { nullModelGlossary, nullModelsText } from "../../jobs/settings";
 import { BUNDLE_PARTS, DEFAULT_PARTS, type BundlePart } from "./bundles.parts";
+import { FIGURE_CAUTIONS, NODF_CAUTION, RESOLUTION_LIMIT_CAUTION } from "../../../../shared/figures/cautions";
+
+const wrap = (text: string, indent: string, width = 100): string => {
+  const words = text.split(/\s+/);
+  const lines: string[] = [];
+  let line = "";
+  for (const w of words) {
+    if (line && (indent + line + " " + w).length > width) {
+      lines.push(indent + line);
+      line = w;
+    } else line = line ? `${line} ${w}` : w;
+  }
+  if (line) lines.push(indent + line);
+  return lines.join("\n");
+};
 
 export interface ReadmeInput {
   settings: PipelineSettings;
@@ -57,7 +72,6 @@ export function bundleReadme(r: ReadmeInput): string {
     s.objective === "auto"
       ? "auto: Barber's bipartite modularity Q_B for bipartite networks, Leicht–Newman directed modularity for directed one-mode networks, Newman–Girvan Q otherwise"
       : s.objective;
-  const nullModel = nullModelsText(s);
   return `Tanglebank bundle — ${r.title}
 Generated ${r.generated.toISOString()} from ${r.publicUrl}
 ${r.count} network${r.count === 1 ? "" : "s"}.
@@ -67,9 +81,12 @@ FILES
                      Table Schema (column names and types) for every CSV.
   networks/*.csv     One matrix per network, named ACCESSION_vVERSION_NETWORK.csv (see MATRIX CSV below).
   metrics.csv        One row per network: network_ref, accession, version, network, kind, S, I, J, L, C,
-                     Q, modules, objective, null model, replicates, null mean, sd, z, Q_rel, p, NODF,
-                     algorithm, seed. Empty cells: not computed (e.g. a network without links, or metrics
-                     still pending).
+                     Q, modules, objective, primary_null_model, then one explicit column set per null
+                     model, named with the model: MODEL_n, MODEL_mean, MODEL_sd, MODEL_z, MODEL_z_se,
+                     MODEL_Q_rel, MODEL_delta_Q, MODEL_p, MODEL_p_at_floor (e.g. curveball_z, er_p) — a
+                     column never mixes null models; then NODF, algorithm, seed, settings hash,
+                     settings_current. Empty cells: not computed (a model outside the network's standard
+                     set, a network without links, or metrics still pending).
   networks.csv       Network metadata (interaction type, what the row and column nodes are, habitat,
                      locality, dates, sampling). Coordinates are the public ones: sensitive sites are
                      rounded to the grid their curator chose (column coordinate_generalisation).
@@ -128,23 +145,30 @@ HOW THE METRICS WERE COMPUTED
      2005, Nature 433:895) when annealing is "${s.annealing}" (auto: networks of at most 200 linked
      nodes), kept only when it raises Q. Seed ${s.seed}; restart r and null replicate r use seeds derived
      from it, so the same data, settings and engine version give the same partition on any machine.
-  Significance: ${s.nulls} null replicates from the null model
-       ${nullModel},
+  Significance: ${s.nulls} null replicates from each null model of
+${wrap(nullModelsText(s), "       ")},
      each optimized with the same settings. Replicate r draws its null network from a generator seeded
      with replicate_seed = derive(seed, "null", r) (shared/network/random.ts of the engine; the same r for
-     every null model). null mean and sd (n − 1) of their Q;
-     z = (Q − mean)/sd; Q_rel = (Q − mean)/mean; p = (1 + #{Q_null ≥ Q})/(n + 1).
+     every null model). MODEL_mean and MODEL_sd (n − 1) of their Q;
+     z = (Q − mean)/sd with Monte Carlo error z_se = sqrt(1/n + z²/(2(n − 1))); Q_rel = (Q − mean)/mean;
+     ΔQ = Q − mean; p = (1 + #{Q_null ≥ Q})/(n + 1); when no null reaches Q (p_at_floor), p is the floor
+     1/(n + 1) of n nulls: read it as p ≤ that value. Null networks are the same kind of object as the
+     observed one (weighted data: the observed weights shuffled over the null's links).
+  Null models (what each keeps and does not):
+${nullModelGlossary().map((g) => wrap(g, "     ")).join("\n")}
   NODF: nestedness by overlap and decreasing fill, 0–100 (Almeida-Neto et al. 2008, Oikos 117:1227).
 
 CAUTIONS
-  - Raw Q is not comparable across networks of different size, connectance and sampling effort: compare
-    z or Q_rel, and read them together with S, C and the sampling effort in networks.csv.
+${FIGURE_CAUTIONS.map((c) => wrap(c, "    ").replace(/^    /, "  - ")).join("\n")}
+${wrap(RESOLUTION_LIMIT_CAUTION, "    ").replace(/^    /, "  - ")}
+${wrap(NODF_CAUTION, "    ").replace(/^    /, "  - ")}
   - The optimizer is heuristic: near-equal partitions can differ between settings or engine versions
     while Q barely changes. Module membership of single nodes is the least stable part.
   - z is unstable when the null sd is near zero (very small or very dense networks).
   - Different objectives (Barber vs Newman–Girvan) give different numbers for the same network; compare
     only rows with the same objective.
-  - Metrics are those of the current pipeline settings at the time of download; older runs remain on
-    each network's page for provenance.
+  - Metrics are those of the current pipeline settings at the time of download; a network whose newer
+    run failed or is pending keeps its last successful figures (settings_current = false names them).
+    Every run stays in each network's run history on its page.
 `;
 }

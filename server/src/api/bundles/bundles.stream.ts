@@ -17,6 +17,7 @@ import { ZipArchive } from "archiver";
 import { QueryTypes } from "sequelize";
 import { ENGINE_VERSION } from "../../../../shared/network/version";
 import { datasetBibTeX, doiUrl, licenceUrl } from "../../../../shared/citation";
+import { NULL_MODEL_INFO, NULL_MODELS, type NullModelName } from "../../../../shared/network/null-models/index";
 import type { StudyMetadata } from "../../../../shared/types/dataset";
 import { config } from "../../config/env";
 import { sequelize } from "../../db/sequelize";
@@ -61,9 +62,34 @@ const PREFETCH_BYTES = 12 * 1024 * 1024;
 /** zlib level of compression=small (zlib's default). */
 const SMALL_LEVEL = 6;
 
-const REF_FIELD: [string, "string", string, (e: CatalogueEntry) => unknown] = ["network_ref", "string", "Network reference: accession/version/network, e.g. TB-000042/v2/3 (joins every table of the bundle)", (e) => e.ref];
+const REF_FIELD: MetricsField = ["network_ref", "string", "Network reference: accession/version/network, e.g. TB-000042/v2/3 (joins every table of the bundle)", (e) => e.ref];
 
-export const METRICS_FIELDS: Array<[string, "string" | "integer" | "number", string, (e: CatalogueEntry) => unknown]> = [
+type MetricsField = [string, "string" | "integer" | "number" | "boolean", string, (e: CatalogueEntry) => unknown];
+
+/**
+ * One explicit column set per null model (metrics.csv never mixes models in a column): the model name
+ * with "-" as "_" before each figure, e.g. curveball_z, totals_connectance_p. Empty when the network's
+ * run did not compute that model (it is not in its kind's standard set, or metrics are pending).
+ */
+function nullModelColumns(model: NullModelName): MetricsField[] {
+  const prefix = model.replaceAll("-", "_");
+  const info = NULL_MODEL_INFO[model];
+  const of = (e: CatalogueEntry) => e.nulls[model];
+  const what = `null model ${model} (${info.title}; keeps ${info.keeps})`;
+  return [
+    [`${prefix}_n`, "integer", `Null replicates of the ${what}`, (e) => of(e)?.n],
+    [`${prefix}_mean`, "number", `Mean Q of the ${model} null replicates`, (e) => of(e)?.mean],
+    [`${prefix}_sd`, "number", `Standard deviation (n − 1) of Q of the ${model} null replicates`, (e) => of(e)?.sd],
+    [`${prefix}_z`, "number", `z = (Q − null mean) / null sd against the ${model} null model`, (e) => of(e)?.z],
+    [`${prefix}_z_se`, "number", `Monte Carlo standard error of ${prefix}_z: sqrt(1/n + z²/(2(n − 1)))`, (e) => of(e)?.zSe],
+    [`${prefix}_Q_rel`, "number", `Q_rel = (Q − null mean) / null mean against the ${model} null model`, (e) => of(e)?.qRel],
+    [`${prefix}_delta_Q`, "number", `ΔQ = Q − null mean against the ${model} null model`, (e) => of(e)?.deltaQ],
+    [`${prefix}_p`, "number", `p = (1 + #{Q_null ≥ Q}) / (n + 1) against the ${model} null model`, (e) => of(e)?.p],
+    [`${prefix}_p_at_floor`, "boolean", `true when no ${model} null reached Q: ${prefix}_p is the floor 1/(n + 1), read it as "p ≤"`, (e) => of(e)?.pAtFloor],
+  ];
+}
+
+export const METRICS_FIELDS: MetricsField[] = [
   REF_FIELD,
   ["accession", "string", "Dataset accession", (e) => e.accession],
   ["version", "integer", "Dataset version number", (e) => e.version],
@@ -77,17 +103,13 @@ export const METRICS_FIELDS: Array<[string, "string" | "integer" | "number", str
   ["Q", "number", "Optimised modularity of the best partition found", (e) => e.q],
   ["modules", "integer", "Number of modules in the best partition", (e) => e.modules],
   ["objective", "string", "Modularity objective (newman, newman-directed, barber)", (e) => e.objective],
-  ["null_model", "string", "Null model of the significance test", (e) => e.nullModel],
-  ["null_n", "integer", "Null replicates", (e) => e.nullN],
-  ["null_mean", "number", "Mean Q of the null replicates", (e) => e.nullMean],
-  ["null_sd", "number", "Standard deviation of Q of the null replicates", (e) => e.nullSd],
-  ["z", "number", "z = (Q − null mean) / null sd", (e) => e.z],
-  ["Q_rel", "number", "Q_rel = (Q − null mean) / null mean", (e) => e.qRel],
-  ["p", "number", "Share of null replicates with Q ≥ observed Q ((k+1)/(n+1))", (e) => e.p],
+  ["primary_null_model", "string", "The primary null model of the network's kind (fixed degrees, curveball); its columns are the first to read", (e) => e.primaryNull],
+  ...NULL_MODELS.flatMap((m) => nullModelColumns(m)),
   ["NODF", "number", "Nestedness (NODF, 0–100)", (e) => e.nodf],
   ["algorithm", "string", "Algorithm name and version", (e) => (e.algorithmName ? `${e.algorithmName} ${e.algorithmVersion ?? ""}`.trim() : null)],
   ["seed", "integer", "Random seed of the run", (e) => e.seed],
   ["settings_hash", "string", "Pipeline settings hash of the run", (e) => e.settingsHash],
+  ["settings_current", "boolean", "true when the run used the current pipeline settings; false: the last successful run of older settings (a newer run failed or is pending)", (e) => (e.runId ? e.currentSettings : null)],
 ];
 
 export const NETWORK_FIELDS: Array<[string, "string" | "integer" | "number" | "boolean" | "date", string, (e: CatalogueEntry) => unknown]> = [

@@ -10,6 +10,20 @@ import { sequelize } from "../../db/sequelize";
 import { publicCoordinates } from "./public-locality";
 import { NOT_RECORDED, notRecordedList, notRecordedText, type NotRecordedField } from "../../../../shared/validation/not-recorded";
 import { getPipelineSettings, settingsHash } from "../../jobs/settings";
+import { readNullFigures } from "../../jobs/null-figures";
+
+/** One null model's figures of a catalogue network. */
+export interface CatalogueNullFigures {
+  n: number;
+  mean: number | null;
+  sd: number | null;
+  z: number | null;
+  zSe: number | null;
+  qRel: number | null;
+  deltaQ: number | null;
+  p: number | null;
+  pAtFloor: boolean;
+}
 
 export interface CatalogueEntry {
   networkId: number;
@@ -63,17 +77,16 @@ export interface CatalogueEntry {
   objective: string | null;
   q: number | null;
   modules: number | null;
-  nullMean: number | null;
-  nullSd: number | null;
-  z: number | null;
-  qRel: number | null;
-  p: number | null;
+  /** True when the figures come from the current settings (false: the last good run of older settings). */
+  currentSettings: boolean;
   nodf: number | null;
   algorithmName: string | null;
   algorithmVersion: string | null;
   seed: number | null;
-  nullModel: string | null;
-  nullN: number | null;
+  /** The primary null model of the run. */
+  primaryNull: string | null;
+  /** Figures per null model (model name → figures). */
+  nulls: Record<string, CatalogueNullFigures>;
 }
 
 /** Text fields for the search index (not kept in the catalogue rows to save memory). */
@@ -153,17 +166,12 @@ interface RawRow {
   objective: string | null;
   q: number | null;
   modules: number | null;
-  null_mean: number | null;
-  null_sd: number | null;
-  z: number | null;
-  q_rel: number | null;
-  p: number | null;
+  current_settings: boolean | null;
   nodf: number | null;
   algorithm_name: string | null;
   algorithm_version: string | null;
   seed: string | number | null;
   null_model: string | null;
-  null_n: number | null;
 }
 
 function toEntry(r: RawRow): CatalogueEntry {
@@ -222,17 +230,13 @@ function toEntry(r: RawRow): CatalogueEntry {
     objective: r.objective,
     q: num(r.q),
     modules: num(r.modules),
-    nullMean: num(r.null_mean),
-    nullSd: num(r.null_sd),
-    z: num(r.z),
-    qRel: num(r.q_rel),
-    p: num(r.p),
+    currentSettings: r.current_settings === true,
     nodf: num(r.nodf),
     algorithmName: r.algorithm_name,
     algorithmVersion: r.algorithm_version,
     seed: num(r.seed),
-    nullModel: r.null_model,
-    nullN: num(r.null_n),
+    primaryNull: r.null_model,
+    nulls: {},
   };
 }
 
@@ -243,21 +247,26 @@ export async function loadCatalogueRows(f: Filter = {}, transaction?: Transactio
     `SELECT n.id AS network_id, d.id AS dataset_id, v.id AS version_id, d.accession, v.number, n.position,
             v.metadata AS study, n.metadata AS meta, n.kind, n.directed, n.weighted, n.n_nodes, n.n_rows, n.n_cols,
             n.n_links, n.total_weight, n.connectance, v.published_at,
-            r.id AS run_id, r.settings_hash, r.objective, r.q, r.modules, r.null_mean, r.null_sd, r.z, r.q_rel, r.p, r.nodf,
-            r.algorithm_name, r.algorithm_version, r.seed,
-            COALESCE(r.results #>> '{null,model}', r.settings ->> 'nullModel') AS null_model,
-            COALESCE(r.results #>> '{null,n}', r.settings ->> 'nulls')::int AS null_n
+            r.id AS run_id, r.settings_hash, r.objective, r.q, r.modules, r.nodf,
+            r.algorithm_name, r.algorithm_version, r.seed, r.null_model, (r.settings_hash = :hash) AS current_settings
      ${publishedVersions(f)}
      LEFT JOIN LATERAL (
        SELECT mr.* FROM metric_runs mr
-       WHERE mr.network_id = n.id AND mr.status = 'succeeded' AND mr.settings_hash = :hash
-       ORDER BY mr.finished_at DESC NULLS LAST, mr.id DESC LIMIT 1
+       WHERE mr.network_id = n.id AND mr.status = 'succeeded'
+       ORDER BY (mr.settings_hash = :hash) DESC, mr.finished_at DESC NULLS LAST, mr.id DESC LIMIT 1
      ) r ON true
      WHERE ${whereClause(f)}
      ORDER BY d.accession, n.position`,
     { replacements: { hash, datasetIds: f.datasetIds ?? [], networkIds: f.networkIds ?? [] }, type: QueryTypes.SELECT, transaction },
   );
-  return rows.map(toEntry);
+  const entries = rows.map(toEntry);
+  const figures = await readNullFigures(entries.flatMap((e) => (e.runId ? [e.runId] : [])), transaction);
+  for (const e of entries) {
+    for (const f of (e.runId && figures.get(e.runId)) || []) {
+      e.nulls[f.model] = { n: f.n, mean: f.mean, sd: f.sd, z: f.z, zSe: f.zSe, qRel: f.qRel, deltaQ: f.deltaQ, p: f.p, pAtFloor: f.pAtFloor };
+    }
+  }
+  return entries;
 }
 
 /** Search documents (titles, descriptions, keywords, creators, localities, node names) for some or all datasets. */

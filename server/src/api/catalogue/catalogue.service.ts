@@ -6,13 +6,33 @@
 import { searchIndex } from "./catalogue.search-index";
 import type { CatalogueEntry } from "./catalogue.rows";
 import { catalogueStore } from "./catalogue.store";
-import type { CatalogueQuery, Range, SortKey } from "./catalogue.validation";
+import { DEFAULT_CATALOGUE_NULL_MODEL, type CatalogueQuery, type Range, type SortKey } from "./catalogue.validation";
+import { NULL_MODELS } from "../../../../shared/network/null-models/index";
+
+const nullCountCache = new WeakMap<CatalogueEntry[], FacetValue[]>();
+
+/** How many catalogue networks have figures of each null model (the reader's choice of the z column). */
+function nullModelCounts(all: CatalogueEntry[]): FacetValue[] {
+  const cached = nullCountCache.get(all);
+  if (cached) return cached;
+  const counts = new Map<string, number>();
+  for (const e of all) for (const m of Object.keys(e.nulls)) counts.set(m, (counts.get(m) ?? 0) + 1);
+  const out = NULL_MODELS.filter((m) => counts.has(m)).map((m) => ({ value: m, count: counts.get(m)! }));
+  nullCountCache.set(all, out);
+  return out;
+}
 import type { CatalogueFacets, CatalogueRow, FacetValue, RangeFacet } from "../../../../shared/types/catalogue";
 import { NOT_RECORDED_FIELDS } from "../../../../shared/validation/not-recorded";
 
 export type { CatalogueFacets, CatalogueRow, FacetValue, RangeFacet };
 
-export function toRow(e: CatalogueEntry): CatalogueRow {
+/** The catalogue's figures of one null model for a network (null when its run did not compute that model). */
+function nullOf(e: CatalogueEntry, model: string) {
+  return e.nulls[model] ?? null;
+}
+
+export function toRow(e: CatalogueEntry, nullModel: string = DEFAULT_CATALOGUE_NULL_MODEL): CatalogueRow {
+  const f = nullOf(e, nullModel);
   return {
     ref: e.ref,
     networkId: e.networkId,
@@ -38,11 +58,18 @@ export function toRow(e: CatalogueEntry): CatalogueRow {
     C: e.connectance,
     Q: e.q,
     modules: e.modules,
-    z: e.z,
-    qRel: e.qRel,
-    p: e.p,
+    nullModel,
+    z: f?.z ?? null,
+    zSe: f?.zSe ?? null,
+    qRel: f?.qRel ?? null,
+    deltaQ: f?.deltaQ ?? null,
+    p: f?.p ?? null,
+    pAtFloor: f?.pAtFloor ?? false,
+    nullN: f?.n ?? null,
+    primaryNull: e.primaryNull,
     nodf: e.nodf,
     metricsStatus: e.runId ? "succeeded" : "none",
+    currentSettings: e.runId ? e.currentSettings : null,
   };
 }
 
@@ -55,7 +82,7 @@ function notRecordedFacet(matches: CatalogueEntry[]): FacetValue[] {
 
 const CATEGORICAL = ["interactionType", "kind", "weighted", "habitat", "country", "licence"] as const;
 type Categorical = (typeof CATEGORICAL)[number];
-const RANGES = ["year", "nodes", "connectance", "Q", "z"] as const;
+const RANGES = ["year", "nodes", "connectance", "Q", "z", "p"] as const;
 type RangeName = (typeof RANGES)[number];
 
 function categoryValue(e: CatalogueEntry, f: Categorical): string | null {
@@ -75,7 +102,7 @@ function categoryValue(e: CatalogueEntry, f: Categorical): string | null {
   }
 }
 
-function rangeValue(e: CatalogueEntry, f: RangeName): number | null {
+function rangeValue(e: CatalogueEntry, f: RangeName, model: string): number | null {
   switch (f) {
     case "nodes":
       return e.nNodes;
@@ -84,7 +111,9 @@ function rangeValue(e: CatalogueEntry, f: RangeName): number | null {
     case "Q":
       return e.q;
     case "z":
-      return e.z;
+      return nullOf(e, model)?.z ?? null;
+    case "p":
+      return nullOf(e, model)?.p ?? null;
     case "year":
       return e.startYear;
   }
@@ -102,10 +131,13 @@ interface Columns {
   nums: Float64Array[];
   endYear: Float64Array;
 }
-const columnCache = new WeakMap<CatalogueEntry[], Columns>();
+const columnCache = new WeakMap<CatalogueEntry[], Map<string, Columns>>();
 
-function columnsOf(all: CatalogueEntry[]): Columns {
-  const cached = columnCache.get(all);
+/** Columns of one catalogue snapshot with z and p of one null model (never a mix). */
+function columnsOf(all: CatalogueEntry[], model: string): Columns {
+  let perModel = columnCache.get(all);
+  if (!perModel) columnCache.set(all, (perModel = new Map()));
+  const cached = perModel.get(model);
   if (cached) return cached;
   const n = all.length;
   const values = CATEGORICAL.map(() => [""]);
@@ -128,15 +160,15 @@ function columnsOf(all: CatalogueEntry[]): Columns {
       }
       codes[c][i] = code;
     }
-    for (let j = 0; j < RANGES.length; j++) nums[j][i] = rangeValue(e, RANGES[j]) ?? NaN;
+    for (let j = 0; j < RANGES.length; j++) nums[j][i] = rangeValue(e, RANGES[j], model) ?? NaN;
     endYear[i] = e.endYear ?? e.startYear ?? NaN;
   }
   const cols = { ids, values, codes, nums, endYear };
-  columnCache.set(all, cols);
+  perModel.set(model, cols);
   return cols;
 }
 
-function sortValue(e: CatalogueEntry, key: SortKey, hits: Map<number, number> | null): string | number | null {
+function sortValue(e: CatalogueEntry, key: SortKey, hits: Map<number, number> | null, model: string): string | number | null {
   switch (key) {
     case "accession":
       return null; // the base order
@@ -151,7 +183,7 @@ function sortValue(e: CatalogueEntry, key: SortKey, hits: Map<number, number> | 
     case "Q":
       return e.q;
     case "z":
-      return e.z;
+      return nullOf(e, model)?.z ?? null;
     case "year":
       return e.startYear;
     case "relevance":
@@ -177,7 +209,7 @@ const SEARCH_BIT = 1 << (CATEGORICAL.length + RANGES.length);
 export async function matchCatalogue(q: CatalogueQuery, opts: { limit?: number } = {}): Promise<MatchResult> {
   const all = await catalogueStore.entries();
   const hits = q.q ? await searchIndex.search(q.q) : null;
-  const cols = columnsOf(all);
+  const cols = columnsOf(all, q.nullModel);
   // allowed[c][code] = 1 when the reader chose that value (null: no filter on c)
   const allowed = CATEGORICAL.map((f, c) => {
     const v = q[f];
@@ -267,6 +299,9 @@ export async function matchCatalogue(q: CatalogueQuery, opts: { limit?: number }
     Q: rf(3),
     z: rf(4),
     notRecorded: [],
+    p: rf(5),
+    nullModel: q.nullModel,
+    nullModels: nullModelCounts(all),
   };
   const matches = matchIdx.map((i) => all[i]);
   facets.notRecorded = notRecordedFacet(matches);
@@ -284,7 +319,7 @@ export async function matchCatalogue(q: CatalogueQuery, opts: { limit?: number }
 function firstInOrder(matches: CatalogueEntry[], q: CatalogueQuery, hits: Map<number, number> | null, k: number): CatalogueEntry[] {
   const n = matches.length;
   const dir = q.order === "desc" ? -1 : 1;
-  const keys = matches.map((e) => sortValue(e, q.sort, hits));
+  const keys = matches.map((e) => sortValue(e, q.sort, hits, q.nullModel));
   const byAccession = q.sort === "accession";
   // < 0 when match a comes before match b
   const cmp = (a: number, b: number): number => {
@@ -350,7 +385,7 @@ export async function searchCatalogue(q: CatalogueQuery) {
   const start = (q.page - 1) * q.pageSize;
   const { matches, total, facets } = await matchCatalogue(q, { limit: start + q.pageSize });
   const body = {
-    data: matches.slice(start, start + q.pageSize).map(toRow),
+    data: matches.slice(start, start + q.pageSize).map((e) => toRow(e, q.nullModel)),
     meta: { total, page: q.page, pageSize: q.pageSize, facets },
   };
   pageCache.set(key, { all, generation, body });

@@ -3,6 +3,13 @@
  * Multi-valued filters accept repeated parameters or comma-separated lists.
  */
 import { ApiError, type ErrorDetail } from "../../lib/api-error";
+import { NULL_MODELS } from "../../../../shared/network/null-models/index";
+
+/**
+ * The null model of the catalogue's z column and z/p filters when the reader names none: fixed degrees
+ * (curveball), the primary null of every kind of data, so every network with metrics has it.
+ */
+export const DEFAULT_CATALOGUE_NULL_MODEL = "curveball";
 
 export const SORT_KEYS = ["accession", "title", "type", "S", "C", "Q", "z", "year", "relevance"] as const;
 export type SortKey = (typeof SORT_KEYS)[number];
@@ -24,7 +31,10 @@ export interface CatalogueQuery {
   nodes: Range;
   connectance: Range;
   Q: Range;
+  /** z and p of `nullModel` (one model for the whole column and filter). */
   z: Range;
+  p: Range;
+  nullModel: string;
   sort: SortKey;
   order: "asc" | "desc";
   page: number;
@@ -52,6 +62,9 @@ export const CATALOGUE_PARAMS = [
   "qMax",
   "zMin",
   "zMax",
+  "pMin",
+  "pMax",
+  "nullModel",
   "sort",
   "order",
   "page",
@@ -70,6 +83,15 @@ function scalar(v: unknown): string | undefined {
   if (Array.isArray(v)) return v.length ? String(v[v.length - 1]) : undefined;
   const s = String(v).trim();
   return s === "" ? undefined : s;
+}
+
+function nullModelParam(v: string | undefined, errors: ErrorDetail[]): string {
+  if (v === undefined) return DEFAULT_CATALOGUE_NULL_MODEL;
+  if (!(NULL_MODELS as readonly string[]).includes(v)) {
+    errors.push({ path: "nullModel", message: `nullModel must be one of ${NULL_MODELS.join(", ")}, got "${v}".` });
+    return DEFAULT_CATALOGUE_NULL_MODEL;
+  }
+  return v;
 }
 
 export function parseCatalogueQuery(raw: Record<string, unknown>): CatalogueQuery {
@@ -136,6 +158,8 @@ export function parseCatalogueQuery(raw: Record<string, unknown>): CatalogueQuer
     connectance: range("connectance", { min: 0, max: 1 }),
     Q: range("q"),
     z: range("z"),
+    p: range("p", { min: 0, max: 1 }),
+    nullModel: nullModelParam(scalar(raw.nullModel), errors),
     sort: (sortRaw as SortKey | undefined) ?? (q ? "relevance" : "accession"),
     order: (orderRaw as "asc" | "desc" | undefined) ?? (sortRaw === undefined && q ? "desc" : "asc"),
     page: number("page", { integer: true, min: 1 }) ?? 1,

@@ -76,7 +76,7 @@ export async function buildDatasetDetail(dataset: Dataset, version: DatasetVersi
     const rows = (await Network.count({ where: { versionId: { [Op.in]: visibleVersions.map((v) => v.id) } }, group: ["version_id"] })) as unknown as Array<{ version_id?: number; versionId?: number; count: number | string }>;
     for (const r of rows) counts.set(Number(r.version_id ?? r.versionId), Number(r.count));
   }
-  const metrics = opts.metrics !== false && (version.state === "published" || version.state === "withdrawn") ? await getCurrentMetrics(networks.map((n) => n.id)) : new Map();
+  const metrics = opts.metrics !== false && (version.state === "published" || version.state === "withdrawn") ? await getCurrentMetrics(networks.map((n) => n.id), { showErrors: viewer?.role === "curator" || viewer?.role === "admin" }) : new Map();
   const published = allVersions.filter((v) => v.state === "published");
   const netSummaries: NetworkSummary[] = networks.map((n) => {
     const file = (n as Network & { file?: StoredFile }).file;

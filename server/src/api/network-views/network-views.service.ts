@@ -9,7 +9,9 @@ import { doisOfDataset } from "../../jobs/dois";
 import type { CanonicalNetworkJson } from "../../../../shared/network/parse/serialize";
 import type { AnalysisResult } from "../../../../shared/network/analyze";
 import type { NetworkMetadata, NetworkMetricsSummary, StudyMetadata } from "../../../../shared/types/dataset";
-import type { AuditEntry, MapPointRow, ModuleRow, NetworkCompareRow, NetworkView, RoleRow } from "../../../../shared/types/network-view";
+import type { AuditEntry, MapPointRow, ModuleRow, NetworkCompareRow, NetworkView, RoleRow, RunHistoryRow } from "../../../../shared/types/network-view";
+import { QueryTypes } from "sequelize";
+import { sequelize } from "../../db/sequelize";
 import { getCurrentMetrics } from "../../jobs/metrics-read";
 import { ApiError } from "../../lib/api-error";
 import { AuditLog, Dataset, MetricRun, Network, StoredFile, User } from "../../models";
@@ -22,15 +24,74 @@ import { publicLocality } from "../../lib/public-locality";
 interface RunResults {
   analysis?: AnalysisResult;
   nullQs?: unknown;
+  nullQsByModel?: unknown;
 }
 
-function analysisOf(results: Record<string, unknown> | null | undefined): { analysis: AnalysisResult | null; nullQs: number[] | null } {
-  if (!results) return { analysis: null, nullQs: null };
+const numberList = (raw: unknown): number[] | null => (Array.isArray(raw) && raw.every((q) => typeof q === "number") ? (raw as number[]) : null);
+
+function analysisOf(results: Record<string, unknown> | null | undefined): { analysis: AnalysisResult | null; nullQs: number[] | null; nullQsByModel: Record<string, number[]> | null } {
+  if (!results) return { analysis: null, nullQs: null, nullQsByModel: null };
   const r = results as RunResults & Partial<AnalysisResult>;
   const analysis = (r.analysis ?? (r.modularity ? (r as AnalysisResult) : null)) as AnalysisResult | null;
-  const raw = r.nullQs ?? (analysis as (AnalysisResult & { nullQs?: unknown }) | null)?.nullQs;
-  const nullQs = Array.isArray(raw) && raw.every((q) => typeof q === "number") ? (raw as number[]) : null;
-  return { analysis, nullQs };
+  const nullQs = numberList(r.nullQs ?? (analysis as (AnalysisResult & { nullQs?: unknown }) | null)?.nullQs);
+  let byModel: Record<string, number[]> | null = null;
+  if (r.nullQsByModel && typeof r.nullQsByModel === "object") {
+    byModel = {};
+    for (const [model, qs] of Object.entries(r.nullQsByModel as Record<string, unknown>)) {
+      const list = numberList(qs);
+      if (list) byModel[model] = list;
+    }
+  } else if (nullQs && analysis?.null?.model) {
+    // Runs from before null-model sets kept the one model's values under nullQs.
+    byModel = { [analysis.null.model]: nullQs };
+  }
+  return { analysis, nullQs, nullQsByModel: byModel };
+}
+
+const isStaff = (user: AuthUser | undefined) => user?.role === "curator" || user?.role === "admin";
+
+/** Every run of a network, newest first: settings, null models, engine version, when; errors for staff only. */
+export async function runHistory(networkId: number, shownRunId: number | null, staff: boolean): Promise<RunHistoryRow[]> {
+  const rows = await sequelize().query<{
+    id: number;
+    status: RunHistoryRow["status"];
+    settings: Record<string, unknown>;
+    algorithm_version: string | null;
+    created_at: Date;
+    finished_at: Date | null;
+    error: string | null;
+    error_kind: "configuration" | "computation" | null;
+    models: string[] | null;
+    q: number | null;
+  }>(
+    `SELECT r.id, r.status, r.settings, r.algorithm_version, r.created_at, r.finished_at, r.error, r.error_kind, r.q,
+            (SELECT array_agg(n.model ORDER BY n.is_primary DESC, n.model) FROM metric_run_nulls n WHERE n.run_id = r.id) AS models
+       FROM metric_runs r WHERE r.network_id = :networkId ORDER BY r.id DESC LIMIT 100`,
+    { replacements: { networkId }, type: QueryTypes.SELECT },
+  );
+  return rows.map((r) => {
+    const s = r.settings ?? {};
+    const nullModels = s.nullModels ?? (s.nullModel === "auto" ? "standard" : s.nullModel ? [s.nullModel] : "standard");
+    return {
+      runId: r.id,
+      status: r.status,
+      shown: r.id === shownRunId,
+      createdAt: new Date(r.created_at).toISOString(),
+      finishedAt: r.finished_at ? new Date(r.finished_at).toISOString() : null,
+      engineVersion: r.algorithm_version,
+      settings: {
+        objective: String(s.objective ?? ""),
+        restarts: Number(s.restarts ?? 0),
+        nulls: Number(s.nulls ?? 0),
+        seed: Number(s.seed ?? 0),
+        nullModels: nullModels as RunHistoryRow["settings"]["nullModels"],
+      },
+      nullModelsComputed: r.models ?? [],
+      Q: r.q,
+      errorKind: r.status === "failed" ? (r.error_kind ?? "computation") : null,
+      ...(staff && r.status === "failed" ? { error: r.error } : {}),
+    };
+  });
 }
 
 /** The engine's node labels (analyze.ts): a bipartite column sharing a row's label is "label (column)". */
@@ -73,8 +134,8 @@ function rolesOf(analysis: AnalysisResult | null): { roles: RoleRow[] | null; th
   };
 }
 
-async function currentRun(networkId: number): Promise<{ summary: NetworkMetricsSummary; run: MetricRun | null }> {
-  const summary = (await getCurrentMetrics([networkId])).get(networkId) ?? { status: "none" as const };
+async function currentRun(networkId: number, staff: boolean): Promise<{ summary: NetworkMetricsSummary; run: MetricRun | null }> {
+  const summary = (await getCurrentMetrics([networkId], { showErrors: staff })).get(networkId) ?? { status: "none" as const };
   const run = summary.runId ? await MetricRun.findByPk(summary.runId) : null;
   return { summary, run };
 }
@@ -85,8 +146,10 @@ export async function getNetworkView(accession: string, versionNumber: number, p
   if (!net) throw ApiError.notFound(`${accession} v${version.number} has no network ${position}.`);
   const file = await StoredFile.findByPk(net.fileId);
   const c = net.canonical as CanonicalNetworkJson;
-  const { summary, run } = await currentRun(net.id);
-  const { analysis, nullQs } = analysisOf(run?.results);
+  const staff = isStaff(user);
+  const { summary, run } = await currentRun(net.id, staff);
+  const { analysis, nullQs, nullQsByModel } = analysisOf(run?.results);
+  const history = await runHistory(net.id, summary.runId ?? null, staff);
   const partition = analysis?.modularity?.partition ?? null;
 
   const rows = c.rows;
@@ -138,6 +201,8 @@ export async function getNetworkView(accession: string, versionNumber: number, p
     colModules,
     modules,
     nullQs,
+    nullQsByModel,
+    runHistory: history,
     roles,
     roleThresholds: thresholds,
     provenance: {
@@ -207,7 +272,7 @@ export async function getCompareRows(refs: string[], user: AuthUser | undefined)
     if (!net) throw ApiError.notFound(`No network ${ref}.`);
     found.push({ ref, net, title: (version.metadata as unknown as StudyMetadata).title });
   }
-  const metrics = await getCurrentMetrics(found.map((f) => f.net.id));
+  const metrics = await getCurrentMetrics(found.map((f) => f.net.id), { showErrors: isStaff(user) });
   return found.map(({ ref, net, title }) => {
     const md = net.metadata as unknown as NetworkMetadata;
     return {

@@ -297,7 +297,7 @@ export async function listRuns(q: { status?: string; batchId?: number; page: num
 export async function networkMetrics(networkId: number): Promise<{ current: NetworkMetricsSummary; runs: NetworkRunRow[] }> {
   const [exists] = await sequelize().query(`SELECT id FROM networks WHERE id = :networkId`, { replacements: { networkId }, type: QueryTypes.SELECT });
   if (!exists) throw ApiError.notFound("No such network.");
-  const current = (await getCurrentMetrics([networkId])).get(networkId)!;
+  const current = (await getCurrentMetrics([networkId], { showErrors: true })).get(networkId)!;
   const rows = await sequelize().query<RunListRow>(`${RUN_SELECT} WHERE r.network_id = :networkId ORDER BY r.id DESC`, {
     replacements: { networkId },
     type: QueryTypes.SELECT,
