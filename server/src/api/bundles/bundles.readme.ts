@@ -159,9 +159,9 @@ ${nullModelGlossary().map((g) => wrap(g, "     ")).join("\n")}
   NODF: nestedness by overlap and decreasing fill, 0–100 (Almeida-Neto et al. 2008, Oikos 117:1227).
 
 CAUTIONS
-${FIGURE_CAUTIONS.map((c) => wrap(c, "    ").replace(/^    /, "  - ")).join("\n")}
-${wrap(RESOLUTION_LIMIT_CAUTION, "    ").replace(/^    /, "  - ")}
-${wrap(NODF_CAUTION, "    ").replace(/^    /, "  - ")}
+${FIGURE_CAUTIONS.map((c) => wrap(c, "    ").replace(/^ {4}/, "  - ")).join("\n")}
+${wrap(RESOLUTION_LIMIT_CAUTION, "    ").replace(/^ {4}/, "  - ")}
+${wrap(NODF_CAUTION, "    ").replace(/^ {4}/, "  - ")}
   - The optimizer is heuristic: near-equal partitions can differ between settings or engine versions
     while Q barely changes. Module membership of single nodes is the least stable part.
   - z is unstable when the null sd is near zero (very small or very dense networks).
