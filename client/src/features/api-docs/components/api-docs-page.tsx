@@ -3,6 +3,7 @@
  * section with examples in curl, R and Python, then every operation grouped by tag with its parameters
  * and answers.
  */
+import { FigureCautions } from "../../../components/figures/significance";
 import { Link } from "react-router-dom";
 import { Alert } from "../../../components/ui/form";
 import { paths } from "../../../config/paths";
@@ -153,10 +154,14 @@ metrics <- read.csv("bundle/metrics.csv")`}</Code>
         <Code label="Python">{`import urllib.request, zipfile
 urllib.request.urlretrieve("${base}/bundles?country=NO", "bundle.zip")
 zipfile.ZipFile("bundle.zip").extractall("bundle")`}</Code>
-        <p className="mt-3 rounded border-l-4 border-lichen-600 bg-lichen-300/30 p-3 text-sm text-stone-900">
-          Raw Q is not comparable across networks of different size, connectance and sampling effort: compare z or Q_rel. Each bundle&apos;s README.txt says how every metric was
-          computed.
-        </p>
+        <div className="mt-3 rounded border-l-4 border-lichen-600 bg-lichen-300/30 p-3 text-sm text-stone-900">
+          <p>
+            Every z, Q_rel, ΔQ and p comes with its null model: in the API the top-level figures are the primary null&apos;s (<code>nullModel</code>) and{" "}
+            <code>nulls</code> lists every model; the catalogue&apos;s <code>nullModel</code> parameter picks the one model of its z and p; metrics.csv has one column
+            set per model (e.g. <code>curveball_z</code>). Each bundle&apos;s README.txt says how every metric was computed.
+          </p>
+          <FigureCautions modules className="mt-1" />
+        </div>
       </section>
 
       <nav aria-label="API sections" className="text-sm">

@@ -3,6 +3,7 @@
  * table (every setting in the URL, so a link reproduces the view), and a selection kept across pages.
  * Actions on the selection or on everything matching (bundles) are passed in by the route.
  */
+import { FigureCautions, fmtPFloor, fmtZ, isLiberal, nullInfo, nullLabel, nullTitle } from "../../../components/figures/significance";
 import { useMemo, useState, type ReactNode } from "react";
 import { Link, useSearchParams } from "react-router-dom";
 import { createColumnHelper, flexRender, getCoreRowModel, useReactTable, type SortingState } from "@tanstack/react-table";
@@ -85,9 +86,12 @@ function RangeFilters({ params, facets, onApply }: { params: URLSearchParams; fa
           next[r.min] = String(f.get(r.min) ?? "").trim();
           next[r.max] = String(f.get(r.max) ?? "").trim();
         }
+        const model = String(f.get("nullModel") ?? "");
+        next.nullModel = model === DEFAULT_NULL_MODEL ? "" : model;
         onApply(next);
       }}
     >
+      <NullModelChoice params={params} facets={facets} />
       {RANGE_FILTERS.map((r) => {
         const facet = facets?.[r.key];
         const hint = facet && facet.min !== null ? `${+facet.min.toFixed(3)} – ${+facet.max!.toFixed(3)} among matches` : "no values among matches";
@@ -118,6 +122,41 @@ function RangeFilters({ params, facets, onApply }: { params: URLSearchParams; fa
 
 const col = createColumnHelper<CatalogueRow>();
 
+/** The catalogue's null model when the URL names none (the API's default, the primary null of every kind). */
+const DEFAULT_NULL_MODEL = "curveball";
+
+/** Which null model the z and p columns and the z/p filters use: one for every row, never a mix. */
+function NullModelChoice({ params, facets }: { params: URLSearchParams; facets: CatalogueFacets | undefined }) {
+  const chosen = params.get("nullModel") ?? DEFAULT_NULL_MODEL;
+  const available = facets?.nullModels ?? [];
+  const options = available.some((f) => f.value === chosen) ? available : [{ value: chosen, count: 0 }, ...available];
+  return (
+    <div>
+      <label htmlFor="catalogue-null-model" className="block text-sm font-bold text-stone-800">
+        Null model of z and p
+      </label>
+      <select
+        id="catalogue-null-model"
+        name="nullModel"
+        defaultValue={chosen}
+        key={chosen}
+        className="mt-1 block w-full rounded border border-stone-400 bg-white px-2 py-1 text-sm"
+      >
+        {options.map((o) => (
+          <option key={o.value} value={o.value}>
+            {nullLabel(o.value)}
+            {isLiberal(o.value) ? ", liberal" : ""} — {o.count} networks
+          </option>
+        ))}
+      </select>
+      <p className="mt-1 text-xs text-stone-600">
+        One model for every row and filter. {nullInfo(chosen) ? `Keeps ${nullInfo(chosen)!.keeps}.` : ""}
+        {isLiberal(chosen) && nullInfo(chosen) ? ` Liberal: ${nullInfo(chosen)!.caution}.` : ""}
+      </p>
+    </div>
+  );
+}
+
 export function CataloguePage({ actions }: { actions?: (ctx: CatalogueActionsContext) => ReactNode }) {
   const [params, setParams] = useSearchParams();
   const search = params.toString();
@@ -126,6 +165,7 @@ export function CataloguePage({ actions }: { actions?: (ctx: CatalogueActionsCon
   const page = Math.max(1, Number(params.get("page")) || 1);
   const pageSize = Number(params.get("pageSize")) || PAGE_SIZE;
   const total = catalogue.data?.meta.total ?? 0;
+  const nullModel = params.get("nullModel") ?? DEFAULT_NULL_MODEL;
   const pages = Math.max(1, Math.ceil(total / pageSize));
   const rows = useMemo(() => catalogue.data?.data ?? [], [catalogue.data]);
   const sort = params.get("sort");
@@ -180,7 +220,23 @@ export function CataloguePage({ actions }: { actions?: (ctx: CatalogueActionsCon
       col.accessor("S", { header: "S", cell: (c) => c.getValue() }),
       col.accessor("C", { header: "C", cell: (c) => fmt(c.getValue(), 3) }),
       col.accessor("Q", { header: "Q", cell: (c) => fmt(c.getValue(), 3) }),
-      col.accessor("z", { header: "z", cell: (c) => fmt(c.getValue(), 2) }),
+      col.accessor("z", {
+        header: () => (
+          <>
+            z <span className="font-normal text-stone-600">({nullTitle(nullModel)})</span>
+          </>
+        ),
+        cell: (c) => (c.row.original.z === null ? "—" : fmtZ(c.getValue(), c.row.original.zSe)),
+      }),
+      col.accessor("p", {
+        header: () => (
+          <>
+            p <span className="font-normal text-stone-600">({nullTitle(nullModel)})</span>
+          </>
+        ),
+        enableSorting: false,
+        cell: (c) => fmtPFloor(c.getValue(), c.row.original.pAtFloor),
+      }),
       col.accessor("country", { header: "Country", enableSorting: false, cell: (c) => c.getValue() ?? "—" }),
       col.accessor((r) => r.startYear, {
         id: "year",
@@ -188,7 +244,7 @@ export function CataloguePage({ actions }: { actions?: (ctx: CatalogueActionsCon
         cell: (c) => (c.row.original.startYear === null ? "—" : c.row.original.endYear && c.row.original.endYear !== c.row.original.startYear ? `${c.row.original.startYear}–${c.row.original.endYear}` : String(c.row.original.startYear)),
       }),
     ],
-    [selected, allOnPage, pageRefs, setMany, toggle],
+    [selected, allOnPage, pageRefs, setMany, toggle, nullModel],
   );
 
   const table = useReactTable({
@@ -257,10 +313,13 @@ export function CataloguePage({ actions }: { actions?: (ctx: CatalogueActionsCon
         )}
       </form>
 
-      <p className="rounded border-l-4 border-lichen-600 bg-lichen-300/30 p-3 text-sm text-stone-900">
-        <strong>Caution:</strong> raw Q is not comparable across networks of different size, connectance and sampling effort. Compare z or Q<sub>rel</sub> (Q against the
-        network&apos;s own null model) instead.
-      </p>
+      <div className="rounded border-l-4 border-lichen-600 bg-lichen-300/30 p-3 text-sm text-stone-900">
+        <p>
+          <strong>What the figures control for.</strong> z and p in the table are against one null model, chosen under Filters: now{" "}
+          <strong>{nullLabel(nullModel)}</strong>. Networks without figures of that model show “—”.
+        </p>
+        <FigureCautions modules className="mt-1" />
+      </div>
 
       <div className="grid gap-4 lg:grid-cols-[16rem_1fr]">
         <aside aria-label="Filters" className="space-y-3 self-start rounded-lg bg-white p-4 ring-1 ring-stone-200">
@@ -341,7 +400,7 @@ export function CataloguePage({ actions }: { actions?: (ctx: CatalogueActionsCon
                 {table.getRowModel().rows.map((r) => (
                   <tr key={r.id} className={`border-b border-stone-100 last:border-0 ${selected.includes(r.id) ? "bg-moss-50" : ""}`}>
                     {r.getVisibleCells().map((c) => (
-                      <td key={c.id} className={`px-3 py-2 align-top ${["S", "C", "Q", "z"].includes(c.column.id) ? "text-right tabular-nums" : ""}`}>
+                      <td key={c.id} className={`px-3 py-2 align-top ${["S", "C", "Q", "z", "p"].includes(c.column.id) ? "text-right tabular-nums" : ""}`}>
                         {flexRender(c.column.columnDef.cell, c.getContext())}
                       </td>
                     ))}

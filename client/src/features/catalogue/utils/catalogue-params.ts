@@ -9,7 +9,8 @@ export const RANGE_FILTERS = [
   { key: "nodes", label: "Nodes (S)", min: "nodesMin", max: "nodesMax", step: "1" },
   { key: "connectance", label: "Connectance (C)", min: "connectanceMin", max: "connectanceMax", step: "0.01" },
   { key: "Q", label: "Modularity (Q)", min: "qMin", max: "qMax", step: "0.01" },
-  { key: "z", label: "z (Q against the null model)", min: "zMin", max: "zMax", step: "0.1" },
+  { key: "z", label: "z against the chosen null model", min: "zMin", max: "zMax", step: "0.1" },
+  { key: "p", label: "p against the chosen null model", min: "pMin", max: "pMax", step: "0.01" },
 ] as const;
 export const PAGE_SIZE = 25;
 

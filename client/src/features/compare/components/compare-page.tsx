@@ -1,6 +1,8 @@
 /**
- * /compare?refs=TB-000001/v1/1,… — networks side by side: Q or z (toggle) against connectance and against
- * S, coloured by interaction type; a metrics table; CSV and SVG exports. The selection lives in the URL.
+ * /compare?refs=TB-000001/v1/1,…&null=curveball — networks side by side: Q or z (toggle) against connectance
+ * and against S, coloured by interaction type; z, Q_rel and p against one chosen null model (named in the
+ * table and the export); the figure adjusted to the selection's mean size and connectance (utils/adjust.ts,
+ * method stated on the page); a metrics table; CSV and SVG exports. The selection lives in the URL.
  */
 import { useRef, useState, type FormEvent } from "react";
 import { Link, useSearchParams } from "react-router-dom";
@@ -12,14 +14,21 @@ import { Scatter, type ScatterPoint } from "../../../components/charts/scatter";
 import { interactionTypeColour, interactionTypeLabel } from "../../../components/charts/theme";
 import { useCompareRows } from "../api/get-compare-rows";
 import { compareCsv, downloadText, serializeSvg } from "../utils/export";
+import { adjustForSizeAndConnectance, MIN_ADJUST_NETWORKS } from "../utils/adjust";
+import { FigureCautions, NullBadge, fmtPFloor, fmtZ, isLiberal, nullInfo, nullLabel } from "../../../components/figures/significance";
+import { NULL_MODELS } from "../../../../../shared/network/null-models/index";
 
 type Measure = "Q" | "z";
 const REF_RE = /^TB-\d{6}\/v\d+\/\d+$/;
 const fmt = (v: number | null | undefined, d = 3) => (v === null || v === undefined || !Number.isFinite(v) ? "—" : v.toFixed(d));
 const btn = "rounded border border-moss-700 px-3 py-1.5 text-sm font-semibold text-moss-700 hover:bg-moss-50";
 
-function measureOf(r: NetworkCompareRow, m: Measure): number | null {
-  const v = m === "Q" ? r.metrics.Q : r.metrics.z;
+function figureOf(r: NetworkCompareRow, model: string) {
+  return r.metrics.nulls?.find((f) => f.model === model) ?? null;
+}
+
+function measureOf(r: NetworkCompareRow, m: Measure, model: string): number | null {
+  const v = m === "Q" ? r.metrics.Q : figureOf(r, model)?.z;
   return v === null || v === undefined || !Number.isFinite(v) ? null : v;
 }
 
@@ -27,6 +36,7 @@ export function ComparePage() {
   const [params, setParams] = useSearchParams();
   const refs = (params.get("refs") ?? "").split(",").map((s) => s.trim()).filter(Boolean);
   const measure: Measure = params.get("y") === "z" ? "z" : "Q";
+  const nullModel = (NULL_MODELS as readonly string[]).includes(params.get("null") ?? "") ? params.get("null")! : "curveball";
   const q = useCompareRows(refs);
   const [input, setInput] = useState("");
   const [inputError, setInputError] = useState<string | null>(null);
@@ -44,6 +54,12 @@ export function ComparePage() {
     p.set("y", m);
     setParams(p, { replace: true });
   }
+  function setNullModel(m: string) {
+    const p = new URLSearchParams(params);
+    if (m === "curveball") p.delete("null");
+    else p.set("null", m);
+    setParams(p, { replace: true });
+  }
   function add(e: FormEvent) {
     e.preventDefault();
     const r = input.trim();
@@ -56,14 +72,19 @@ export function ComparePage() {
 
   const rows = q.data ?? [];
   const types = [...new Set(rows.map((r) => r.interactionType))].sort();
-  const yLabel = measure === "Q" ? "Optimized modularity Q (unitless)" : "Modularity z-score (null-model sd units)";
-  const withY = rows.filter((r) => measureOf(r, measure) !== null);
+  const yLabel = measure === "Q" ? "Optimized modularity Q (unitless)" : `z against ${nullLabel(nullModel)} (null sd units)`;
+  const withY = rows.filter((r) => measureOf(r, measure, nullModel) !== null);
+  const modelsPresent = NULL_MODELS.filter((m) => rows.some((r) => figureOf(r, m)));
+  const adjusted = adjustForSizeAndConnectance(
+    withY.filter((r) => r.connectance !== null).map((r) => ({ id: r.ref, y: measureOf(r, measure, nullModel)!, S: r.nNodes, C: r.connectance! })),
+  );
+  const measureName = measure === "Q" ? "Q" : `z (${nullLabel(nullModel)})`;
   const point = (x: number): ((r: NetworkCompareRow) => ScatterPoint) => (r) => ({
     id: r.ref,
     x: x === 0 ? (r.connectance ?? 0) : r.nNodes,
-    y: measureOf(r, measure)!,
+    y: measureOf(r, measure, nullModel)!,
     colour: interactionTypeColour[r.interactionType] ?? "#000",
-    title: `${r.ref} ${r.name} (${interactionTypeLabel[r.interactionType] ?? r.interactionType}): ${measure} = ${fmt(measureOf(r, measure), measure === "Q" ? 3 : 2)}, C = ${fmt(r.connectance, 3)}, S = ${r.nNodes}`,
+    title: `${r.ref} ${r.name} (${interactionTypeLabel[r.interactionType] ?? r.interactionType}): ${measure} = ${fmt(measureOf(r, measure, nullModel), measure === "Q" ? 3 : 2)}, C = ${fmt(r.connectance, 3)}, S = ${r.nNodes}`,
   });
   const byC = withY.filter((r) => r.connectance !== null).map(point(0));
   const byS = withY.map(point(1));
@@ -76,8 +97,9 @@ export function ComparePage() {
       <header>
         <h1 className="text-2xl font-bold text-moss-700">Compare networks</h1>
         <p className="mt-1 max-w-3xl text-stone-700">
-          Networks side by side. Raw Q depends on size, connectance and sampling effort, so plot z (or read Q<sub>rel</sub> in the table) when the networks
-          differ in those.
+          Networks side by side. Every z, Q<sub>rel</sub>, ΔQ and p is against the one null model chosen below and named in the table and the export. No
+          figure is free of size or connectance, so the plots show them against S and C, and the table adds each figure adjusted to the selection&apos;s
+          mean size and connectance (method below).
         </p>
       </header>
 
@@ -147,11 +169,26 @@ export function ComparePage() {
             {(["Q", "z"] as const).map((m) => (
               <label key={m} className="flex items-center gap-1.5">
                 <input type="radio" name="measure" value={m} checked={measure === m} onChange={() => setMeasure(m)} />
-                {m === "Q" ? "modularity Q" : "z-score against the null model"}
+                {m === "Q" ? "modularity Q" : "z against the chosen null model"}
               </label>
             ))}
+            <label className="flex items-center gap-1.5">
+              <span className="font-semibold text-stone-800">Null model:</span>
+              <select value={nullModel} onChange={(e) => setNullModel(e.target.value)} className="rounded border border-stone-400 bg-white px-2 py-1 text-sm">
+                {(modelsPresent.length ? modelsPresent : ["curveball"]).map((m) => (
+                  <option key={m} value={m}>
+                    {nullLabel(m)}
+                    {isLiberal(m) ? ", liberal" : ""}
+                  </option>
+                ))}
+              </select>
+            </label>
             <span className="ml-auto flex flex-wrap gap-2">
-              <button type="button" className={btn} onClick={() => downloadText("tanglebank-compare.csv", "text/csv", compareCsv(rows))}>
+              <button
+                type="button"
+                className={btn}
+                onClick={() => downloadText("tanglebank-compare.csv", "text/csv", compareCsv(rows, nullModel, adjusted ? { measure: measureName, values: adjusted.adjusted } : null))}
+              >
                 Export table (CSV)
               </button>
               <button type="button" className={btn} onClick={() => svgC.current && downloadText(`tanglebank-compare-${measure}-vs-connectance.svg`, "image/svg+xml", serializeSvg(svgC.current))}>
@@ -164,7 +201,8 @@ export function ComparePage() {
           </fieldset>
           {objectives.size > 1 && measure === "Q" && (
             <p className="rounded border border-lichen-600 bg-lichen-300/40 p-2 text-sm text-stone-900">
-              These networks were scored with different modularity objectives ({[...objectives].join(", ")}): their Q values are different quantities. Compare z instead.
+              These networks were scored with different modularity objectives ({[...objectives].join(", ")}): their Q values are different quantities; compare
+              only networks of one objective, or their z against one null model (which still depends on size and connectance).
             </p>
           )}
           {withY.length < rows.length && (
@@ -199,7 +237,7 @@ export function ComparePage() {
                 <caption className="sr-only">Metrics of the compared networks</caption>
                 <thead>
                   <tr className="border-b border-stone-300">
-                    {["Network", "Type", "S", "L", "C", "Objective", "Q", "Modules", "z", "Qrel", "p", "NODF"].map((h) => (
+                    {["Network", "Type", "S", "L", "C", "Objective", "Q", "Modules", "Null model", "z ± MC error", "Qrel", "p", "NODF", "Adjusted"].map((h) => (
                       <th key={h} scope="col" className="px-2 py-1">
                         {h === "Qrel" ? (
                           <>
@@ -231,18 +269,47 @@ export function ComparePage() {
                         <td className="px-2 py-1">{m.objective ?? "—"}</td>
                         <td className="px-2 py-1 tabular-nums">{m.status === "succeeded" ? fmt(m.Q, 3) : m.status}</td>
                         <td className="px-2 py-1 tabular-nums">{m.modules ?? "—"}</td>
-                        <td className="px-2 py-1 tabular-nums">
-                          {fmt(m.z, 2)}
-                          {m.zUnstable ? " (unstable)" : ""}
+                        <td className="px-2 py-1 text-xs">
+                          {figureOf(r, nullModel) ? <NullBadge model={nullModel} primary={figureOf(r, nullModel)!.primary} /> : `no ${nullModel} figures`}
                         </td>
-                        <td className="px-2 py-1 tabular-nums">{fmt(m.qRel, 2)}</td>
-                        <td className="px-2 py-1 tabular-nums">{m.p === null || m.p === undefined ? "—" : m.p.toFixed(3)}</td>
+                        <td className="px-2 py-1 tabular-nums">
+                          {fmtZ(figureOf(r, nullModel)?.z, figureOf(r, nullModel)?.zSe)}
+                          {figureOf(r, nullModel)?.unstable ? " (unstable)" : ""}
+                        </td>
+                        <td className="px-2 py-1 tabular-nums">{fmt(figureOf(r, nullModel)?.qRel, 2)}</td>
+                        <td className="px-2 py-1 tabular-nums">{fmtPFloor(figureOf(r, nullModel)?.p, figureOf(r, nullModel)?.pAtFloor)}</td>
                         <td className="px-2 py-1 tabular-nums">{fmt(m.nodf, 1)}</td>
+                        <td className="px-2 py-1 tabular-nums">{adjusted?.adjusted.has(r.ref) ? fmt(adjusted.adjusted.get(r.ref), measure === "Q" ? 3 : 2) : "—"}</td>
                       </tr>
                     );
                   })}
                 </tbody>
               </table>
+            </div>
+            <div className="mt-3 rounded border-l-4 border-moss-500 bg-moss-50 p-3 text-sm text-stone-800">
+              <p className="font-semibold text-moss-700">Adjusted for size and connectance: {measureName}</p>
+              {adjusted ? (
+                <p className="mt-1">
+                  Method: ordinary least squares of {measureName} on ln S and C over the {adjusted.n} networks of this selection that have it (
+                  {measureName} = {fmt(adjusted.coefficients[0], 3)} {adjusted.coefficients[1] >= 0 ? "+" : "−"} {fmt(Math.abs(adjusted.coefficients[1]), 3)} ln S{" "}
+                  {adjusted.coefficients[2] >= 0 ? "+" : "−"} {fmt(Math.abs(adjusted.coefficients[2]), 3)} C; R² = {fmt(adjusted.r2, 2)}). “Adjusted” is each network&apos;s
+                  value at the selection&apos;s mean size (S = {fmt(Math.exp(adjusted.meanLnS), 0)}) and mean connectance (C = {fmt(adjusted.meanC, 3)}): its own
+                  value minus the fitted effect of its distance from those means (covariate adjustment, as in the analysis of covariance). It removes the linear
+                  trend of this selection only, not sampling effort or non-linear effects; a different selection gives different adjusted values.
+                </p>
+              ) : (
+                <p className="mt-1">
+                  Needs at least {MIN_ADJUST_NETWORKS} networks with {measureName} and some spread in S and C; until then compare only networks of similar size and
+                  connectance.
+                </p>
+              )}
+              {nullInfo(nullModel) && (
+                <p className="mt-1">
+                  {nullLabel(nullModel)} keeps {nullInfo(nullModel)!.keeps}; it does not keep {nullInfo(nullModel)!.doesNotKeep}.
+                  {isLiberal(nullModel) ? ` Liberal: ${nullInfo(nullModel)!.caution}.` : ""}
+                </p>
+              )}
+              <FigureCautions modules className="mt-1" />
             </div>
           </section>
         </>

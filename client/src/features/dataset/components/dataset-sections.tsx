@@ -1,5 +1,6 @@
 /** Parts of the dataset page: study header, locality with locator map, networks, versions, audit history, tombstone. */
 import { doiUrl } from "../../../../../shared/citation";
+import { FigureCautions, fmtPFloor, fmtZ, nullLabel } from "../../../components/figures/significance";
 import { Link } from "react-router-dom";
 import type { DatasetDetail, Locality, NetworkSummary } from "../../../../../shared/types/dataset";
 import type { AuditEntry } from "../../../../../shared/types/network-view";
@@ -221,10 +222,11 @@ export function NetworksSection({ d }: { d: DatasetDetail }) {
               <th scope="col" className="px-2 py-1 text-right">C</th>
               <th scope="col" className="px-2 py-1 text-right">Q</th>
               <th scope="col" className="px-2 py-1 text-right">Modules</th>
-              <th scope="col" className="px-2 py-1 text-right">z</th>
               <th scope="col" className="px-2 py-1 text-right">
-                Q<sub>rel</sub>
+                z ± MC error
               </th>
+              <th scope="col" className="px-2 py-1 text-right">p</th>
+              <th scope="col" className="px-2 py-1">Null model</th>
               <th scope="col" className="px-2 py-1">Data</th>
             </tr>
           </thead>
@@ -264,13 +266,18 @@ export function NetworksSection({ d }: { d: DatasetDetail }) {
                       <td className="px-2 py-1 text-right tabular-nums">{fmt(m!.Q, 3)}</td>
                       <td className="px-2 py-1 text-right tabular-nums">{m!.modules ?? "—"}</td>
                       <td className="px-2 py-1 text-right tabular-nums">
-                        {fmt(m!.z, 2)}
+                        {fmtZ(m!.z, m!.zSe)}
                         {m!.zUnstable && <span title="z is unstable (null sd near 0 or few distinct randomizations)"> ⚠</span>}
                       </td>
-                      <td className="px-2 py-1 text-right tabular-nums">{fmt(m!.qRel, 2)}</td>
+                      <td className="px-2 py-1 text-right tabular-nums">{fmtPFloor(m!.p, m!.pAtFloor)}</td>
+                      <td className="px-2 py-1 text-xs">
+                        {nullLabel(m!.nullModel)}
+                        {m!.newer?.status === "failed" && <span className="block text-amber-900">a newer computation failed; figures from run {m!.runId}</span>}
+                        {m!.currentSettings === false && !m!.newer && <span className="block text-stone-600">from earlier settings (run {m!.runId})</span>}
+                      </td>
                     </>
                   ) : (
-                    <td className="px-2 py-1 text-right" colSpan={4}>
+                    <td className="px-2 py-1 text-right" colSpan={5}>
                       <MetricsCell n={n} />
                     </td>
                   )}
@@ -291,9 +298,13 @@ export function NetworksSection({ d }: { d: DatasetDetail }) {
           </tbody>
         </table>
       </div>
-      <p className="mt-2 text-xs text-stone-700">
-        Raw Q depends on network size, connectance and sampling effort: compare networks by z or Q<sub>rel</sub>. Each network's page shows the formulas.
-      </p>
+      <div className="mt-2 text-xs text-stone-700">
+        <p>
+          z and p are against each network's primary null model, named in the row (fixed degrees: size, connectance and every degree kept); each network's
+          page lists every null model, the formulas and the run history. Modules count linked nodes only.
+        </p>
+        <FigureCautions modules className="mt-1" />
+      </div>
     </section>
   );
 }

@@ -1,11 +1,14 @@
 /**
- * The network's metrics, each with the formula of the variant computed and its source, and the field's
- * cautions next to them (science.md: raw Q depends on size, connectance and sampling effort; compare by
- * z or Q_rel; modularity maxima are degenerate).
+ * The network's metrics, each with the formula of the variant computed and its source; significance
+ * against every null model of the run, each row naming its model (primary first, liberal ones marked),
+ * with Monte Carlo errors and NODF against the same nulls; what each figure controls for and what not,
+ * and the resolution limit next to the module count. A failed or newer run is noted above the figures,
+ * which stay those of the last successful run.
  */
 import type { ReactNode } from "react";
 import type { NetworkView } from "../../../../../shared/types/network-view";
-import { fmt, fmtP, nullModelName, objectiveName } from "../utils/format";
+import { fmt, objectiveName } from "../utils/format";
+import { FigureCautions, NODF_CAUTION, NullBadge, fmtPFloor, fmtZ, nullInfo, nullLabel, RESOLUTION_LIMIT_CAUTION } from "../../../components/figures/significance";
 
 function Row({ name, value, formula, source }: { name: ReactNode; value: ReactNode; formula?: ReactNode; source?: string }) {
   return (
@@ -72,6 +75,19 @@ export function MetricsPanel({ view }: { view: NetworkView }) {
       <h2 id="metrics-h" className="text-lg font-bold text-moss-700">
         Metrics
       </h2>
+      {state === "succeeded" && m.newer && (
+        <p className="mt-2 rounded border border-amber-300 bg-amber-50 p-3 text-sm text-stone-900" role="status">
+          {m.newer.status === "failed"
+            ? `A newer computation failed (run ${m.newer.runId}${m.newer.errorKind === "configuration" ? ", a setting that does not fit this network" : ""}); figures shown are from run ${m.runId}.`
+            : `A newer computation (run ${m.newer.runId}) is ${m.newer.status === "running" ? "running" : "waiting"}; figures shown are from run ${m.runId} until it succeeds.`}
+          {m.newer.error && <span className="mt-1 block font-mono text-xs text-red-900">Error (shown to curators and admins): {m.newer.error}</span>}
+        </p>
+      )}
+      {state === "succeeded" && m.currentSettings === false && !m.newer && (
+        <p className="mt-2 rounded border border-stone-300 bg-stone-50 p-3 text-sm text-stone-800" role="status">
+          These figures come from run {m.runId}, computed with earlier pipeline settings; the current settings have not been run on this network yet.
+        </p>
+      )}
       {state !== "succeeded" && (
         <p className="mt-2 rounded border border-lichen-400 bg-lichen-300/30 p-3 text-stone-800" role="status">
           {state === "queued" && "The metrics pipeline has queued this network; modularity and its significance will appear here when the run finishes."}
@@ -95,39 +111,69 @@ export function MetricsPanel({ view }: { view: NetworkView }) {
               source={modularitySource[m.objective ?? "newman"]}
             />
           )}
-          {m.modules !== undefined && <Row name="Modules" value={m.modules ?? "—"} formula="in the best partition found" />}
+          {m.modules !== undefined && (
+            <Row
+              name="Modules"
+              value={m.modules ?? "—"}
+              formula={`modules of linked nodes in the best partition found${m.isolatedNodes ? `; ${m.isolatedNodes} isolated node${m.isolatedNodes === 1 ? "" : "s"} not counted` : " (isolated nodes are not counted)"}`}
+              source={RESOLUTION_LIMIT_CAUTION}
+            />
+          )}
           {prov.restarts && (
             <Row
               name="Spread over restarts"
               value={`${fmt(prov.restarts.min, 4)} – ${fmt(prov.restarts.max, 4)}`}
-              formula={`best of ${prov.restarts.n} seeded restarts; median ${fmt(prov.restarts.median, 4)}; ${prov.restarts.bestShare !== null ? `${Math.round(prov.restarts.bestShare * 100)} % of restarts reached the best Q` : ""}`}
+              formula={`best of ${prov.restarts.n} seeded restarts; median ${fmt(prov.restarts.median, 4)}; ${prov.restarts.bestShare !== null ? `${Math.round(prov.restarts.bestShare * 100)} % of restarts reached the reported Q (after annealing)` : ""}`}
             />
           )}
-          {m.nullMean !== undefined && m.nullMean !== null && (
-            <>
-              <Row
-                name="Null model"
-                value={`N = ${m.nullN ?? "—"}`}
-                formula={`${nullModelName[m.nullModel ?? ""] ?? m.nullModel}; each null network optimized the same way`}
-              />
-              <Row name="Null Q mean ± sd" value={`${fmt(m.nullMean, 4)} ± ${fmt(m.nullSd, 4)}`} />
-              <Row
-                name="z"
-                value={
-                  <>
-                    {fmt(m.z, 2)}
-                    {m.zUnstable && <span className="ml-2 rounded bg-lichen-300 px-1 font-sans text-xs font-semibold text-stone-900">unstable</span>}
-                  </>
-                }
-                formula={<>z = (Q − mean Q<sub>null</sub>) / sd Q<sub>null</sub></>}
-              />
-              <Row name={<>Q<sub>rel</sub></>} value={fmt(m.qRel, 3)} formula={<>Q<sub>rel</sub> = (Q − mean Q<sub>null</sub>) / mean Q<sub>null</sub></>} />
-              <Row name="p (one-sided)" value={fmtP(m.p)} formula={<>p = (1 + #{"{"}Q<sub>null</sub> ≥ Q{"}"}) / (N + 1)</>} />
-            </>
-          )}
-          {m.nodf !== undefined && m.nodf !== null && <Row name="Nestedness NODF" value={fmt(m.nodf, 2)} formula="0–100" source="Almeida-Neto et al. 2008, Oikos 117:1227" />}
+          {m.nodf !== undefined && m.nodf !== null && <Row name="Nestedness NODF" value={fmt(m.nodf, 2)} formula="0–100; compared with the same null networks below" source="Almeida-Neto et al. 2008, Oikos 117:1227" />}
         </tbody>
       </table>
+      {m.nulls && m.nulls.length > 0 && (
+        <div className="mt-4 overflow-x-auto">
+          <table className="w-full text-sm">
+            <caption className="mb-1 text-left font-semibold text-stone-800">
+              Significance against each null model ({m.nulls[0].n} null networks each, optimized the same way as the observed one)
+            </caption>
+            <thead>
+              <tr className="border-b border-stone-300 text-left text-stone-700">
+                <th scope="col" className="py-1 pr-3">Null model</th>
+                <th scope="col" className="py-1 pr-3 text-right">null Q mean ± sd</th>
+                <th scope="col" className="py-1 pr-3 text-right">z ± MC error</th>
+                <th scope="col" className="py-1 pr-3 text-right">Q<sub>rel</sub></th>
+                <th scope="col" className="py-1 pr-3 text-right">ΔQ</th>
+                <th scope="col" className="py-1 pr-3 text-right">p</th>
+                <th scope="col" className="py-1 text-right">NODF: null mean, z, p</th>
+              </tr>
+            </thead>
+            <tbody>
+              {m.nulls.map((f) => (
+                <tr key={f.model} className="border-b border-stone-200 align-top">
+                  <th scope="row" className="py-1 pr-3 text-left font-normal">
+                    <span className="font-semibold text-stone-900">{nullLabel(f.model)}</span>
+                    <NullBadge model={f.model} primary={f.primary} />
+                    <span className="block text-xs text-stone-600">keeps {nullInfo(f.model)?.keeps ?? "—"}; not {nullInfo(f.model)?.doesNotKeep ?? "—"}</span>
+                    {f.unstable && <span className="block text-xs text-amber-900">z unstable: {f.unstableReason}</span>}
+                  </th>
+                  <td className="py-1 pr-3 text-right font-mono tabular-nums">{fmt(f.mean, 4)} ± {fmt(f.sd, 4)}</td>
+                  <td className="py-1 pr-3 text-right font-mono tabular-nums">{fmtZ(f.z, f.zSe)}</td>
+                  <td className="py-1 pr-3 text-right font-mono tabular-nums">{fmt(f.qRel, 3)}</td>
+                  <td className="py-1 pr-3 text-right font-mono tabular-nums">{fmt(f.deltaQ, 4)}</td>
+                  <td className="py-1 pr-3 text-right font-mono tabular-nums">{fmtPFloor(f.p, f.pAtFloor)}</td>
+                  <td className="py-1 text-right font-mono tabular-nums">
+                    {f.nodfMean === null ? "—" : `${fmt(f.nodfMean, 1)}, ${fmt(f.nodfZ, 2)}, ${fmtPFloor(f.nodfP)}`}
+                  </td>
+                </tr>
+              ))}
+            </tbody>
+          </table>
+          <p className="mt-1 text-xs text-stone-600">
+            z = (Q − mean Q<sub>null</sub>) / sd Q<sub>null</sub>; Q<sub>rel</sub> = (Q − mean)/mean; ΔQ = Q − mean; p = (1 + #{"{"}Q<sub>null</sub> ≥ Q{"}"}) / (N + 1), one-sided,
+            shown as “≤” when no null reached Q (the floor of N nulls). MC error of z: √(1/N + z²/(2(N − 1))). Liberal models call some non-modular networks
+            modular (hover for where); the primary null is the one to read first. {NODF_CAUTION}
+          </p>
+        </div>
+      )}
       {m.zUnstable && (
         <p className="mt-3 rounded border border-lichen-600 bg-lichen-300/40 p-3 text-sm text-stone-900">
           <strong>z is unstable here:</strong> the null Q values barely vary (sd close to 0) or the matrix is small and dense, with few distinct
@@ -136,8 +182,8 @@ export function MetricsPanel({ view }: { view: NetworkView }) {
       )}
       <div className="mt-3 rounded border-l-4 border-moss-500 bg-moss-50 p-3 text-sm text-stone-800">
         <p className="font-semibold text-moss-700">How to read these figures</p>
+        <FigureCautions modules className="mt-1" />
         <ul className="mt-1 list-disc space-y-1 pl-5">
-          <li>Raw Q depends on network size, connectance and sampling effort: compare networks by z or Q<sub>rel</sub>, not by Q.</li>
           <li>Modularity maxima are degenerate: partitions of near-equal Q can differ a lot, so read single module memberships with care.</li>
           {view.kind === "bipartite" && <li>Newman's Q of a bipartite network treated as one-mode is a different number from Barber's Q_B; the objective is named above.</li>}
         </ul>

@@ -11,6 +11,7 @@ import { ModuleTable } from "./module-table";
 import { NullHistogram } from "./null-histogram";
 import { RolesPlot } from "./roles-plot";
 import { ValueOrNotRecorded } from "../../../components/metadata/not-recorded";
+import { RunHistory } from "./run-history";
 
 const btn = "inline-block rounded border border-moss-700 px-3 py-1.5 text-sm font-semibold text-moss-700 hover:bg-moss-50";
 
@@ -146,6 +147,7 @@ export function NetworkViewPage() {
             <RolesPlot view={view} />
           </div>
           <ModuleTable view={view} />
+          <RunHistory view={view} />
         </>
       ) : (
         <p className="text-stone-700">Drawing the plots…</p>

@@ -8,6 +8,7 @@ import { Legend } from "../../../components/charts/legend";
 import { Scatter, type ScatterPoint } from "../../../components/charts/scatter";
 import { categoryColour } from "../../../components/charts/theme";
 import { fmt } from "../utils/format";
+import { RESOLUTION_LIMIT_CAUTION } from "../../../components/figures/significance";
 
 const ROLE_LABEL: Record<string, string> = { peripheral: "peripheral", connector: "connector", "module-hub": "module hub", "network-hub": "network hub" };
 
@@ -33,7 +34,8 @@ export function RolesPlot({ view }: { view: NetworkView }) {
     title: `${r.label} (${levelName(r.level)}, module ${r.module + 1}): P = ${fmt(r.P, 2)}, z = ${fmt(r.z, 2)}, ${ROLE_LABEL[r.role ?? ""] ?? "no role"}`,
   }));
   const counts = new Map<string, number>();
-  for (const r of view.roles) if (r.role) counts.set(r.role, (counts.get(r.role) ?? 0) + 1);
+  // Counted over the plotted points only, so the caption's counts add up to the points shown.
+  for (const r of plotted) if (r.role) counts.set(r.role, (counts.get(r.role) ?? 0) + 1);
   const zs = plotted.map((r) => r.z!);
   const yMax = Math.max(t.z + 1, ...zs);
   const yMin = Math.min(-2, ...zs);
@@ -44,9 +46,10 @@ export function RolesPlot({ view }: { view: NetworkView }) {
       caption={
         <>
           {plotted.length} nodes plotted
-          {undefinedZ > 0 && ` (${undefinedZ} left out: z is undefined when every node of a module has the same degree)`}. Thresholds z = {t.z} and P = {t.p} (Olesen et al. 2007)
-          split the roles: {["peripheral", "connector", "module-hub", "network-hub"].map((r) => `${counts.get(r) ?? 0} ${ROLE_LABEL[r]}s`).join(", ")}.
-          {bip && " z is computed within each node's own module; P from the modules of its links."}
+          {undefinedZ > 0 && ` (${undefinedZ} left out and given no role: z is undefined for isolated nodes and when every node of its group has the same within-module degree)`}. Thresholds z = {t.z} and P = {t.p} (Olesen et al. 2007)
+          split them: {["peripheral", "connector", "module-hub", "network-hub"].map((r) => `${counts.get(r) ?? 0} ${ROLE_LABEL[r]}s`).join(", ")}.
+          {" "}z uses the sample standard deviation (n − 1) of the within-module {view.weighted ? "strengths (the weights the partition was optimized with)" : "degrees (link counts)"}
+          {bip ? ", computed among the nodes of the same level in each module; P from the modules of its links." : "; P from the modules of its links."} {RESOLUTION_LIMIT_CAUTION}
         </>
       }
       table={{
