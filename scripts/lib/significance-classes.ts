@@ -2,11 +2,11 @@
  * Seeded network classes for calibrating null models (tests/shared/network/calibration.test.ts and
  * `npm run bench:significance`): four without modules and one with planted modules, all bipartite I × J.
  * Generating processes of our own:
- * - binary: each cell a link with probability 0.25;
- * - lognormal: random structure (p = 0.25) with weights exp(N(0, 1));
- * - counts: random structure (p = 0.25) with integer counts 1 + ⌊e^(1 + N(0, 1))⌋ (overdispersed, as field counts are);
+ * - binary: each cell a link with probability C (default 0.25);
+ * - lognormal: random structure (probability C) with weights exp(N(0, 1));
+ * - counts: random structure (probability C) with integer counts 1 + ⌊e^(1 + N(0, 1))⌋ (overdispersed, as field counts are);
  * - nested: perfectly nested staircase, row i links the first ⌈J(1 − i/I)⌉ columns (no randomness);
- * - planted: three diagonal blocks, link probability 0.6 inside and 0.05 outside.
+ * - planted: three diagonal blocks, link probability 2.4·C inside (0.6 at C = 0.25) and 0.2·C outside.
  * Normal deviates by Box–Muller from the engine's seeded generator, so a seed gives the same network anywhere.
  */
 import { createRng, networkFromTriples, type Network } from "../../shared/network/index";
@@ -15,21 +15,22 @@ export const NON_MODULAR_CLASSES = ["binary", "lognormal", "counts", "nested"] a
 
 export type ClassName = "binary" | "lognormal" | "counts" | "nested" | "planted";
 
-export function classNetwork(cls: ClassName, I: number, J: number, seed: number): Network {
+/** A network of class `cls`, I × J, link probability C (planted: 2.4·C inside the blocks, 0.2·C outside). */
+export function classNetwork(cls: ClassName, I: number, J: number, seed: number, C = 0.25): Network {
   const rng = createRng(seed);
   const normal = () => Math.sqrt(-2 * Math.log(1 - rng.next())) * Math.cos(2 * Math.PI * rng.next());
   const cell = (i: number, j: number): number => {
     switch (cls) {
       case "binary":
-        return rng.next() < 0.25 ? 1 : 0;
+        return rng.next() < C ? 1 : 0;
       case "lognormal":
-        return rng.next() < 0.25 ? Math.exp(normal()) : 0;
+        return rng.next() < C ? Math.exp(normal()) : 0;
       case "counts":
-        return rng.next() < 0.25 ? 1 + Math.floor(Math.exp(1 + normal())) : 0;
+        return rng.next() < C ? 1 + Math.floor(Math.exp(1 + normal())) : 0;
       case "nested":
         return j < Math.ceil(J * (1 - i / I)) ? 1 : 0;
       case "planted":
-        return rng.next() < (Math.floor((i * 3) / I) === Math.floor((j * 3) / J) ? 0.6 : 0.05) ? 1 : 0;
+        return rng.next() < (Math.floor((i * 3) / I) === Math.floor((j * 3) / J) ? Math.min(0.9, 2.4 * C) : 0.2 * C) ? 1 : 0;
     }
   };
   const r: number[] = [];
