@@ -63,7 +63,7 @@ describe("sign-in with ORCID through OpenID Connect", () => {
     const page = await fresh();
     await page.goto(`${stack.url}/sign-in`);
     await screenshot(page, "orcid-sign-in");
-    await page.getByRole("button", { name: "Sign in with ORCID" }).click();
+    await page.getByRole("button", { name: "Continue with ORCID" }).click();
     await page.getByRole("heading", { name: "ORCID stand-in: sign in" }).waitFor();
     expect(page.url().startsWith(orcid.issuer)).toBe(true);
     await screenshot(page, "orcid-stand-in");
@@ -111,7 +111,7 @@ describe("sign-in with ORCID through OpenID Connect", () => {
     // and she can now sign in with ORCID (a new browser: the stand-in asks who she is again)
     const again = await fresh();
     await again.goto(`${stack.url}/sign-in`);
-    await again.getByRole("button", { name: "Sign in with ORCID" }).click();
+    await again.getByRole("button", { name: "Continue with ORCID" }).click();
     await again.getByRole("button", { name: /Rowan Hale/ }).click();
     await again.waitForURL(`${stack.url}/`);
     const session = await (await again.request.get(`${stack.url}/api/v1/auth/session`)).json();
@@ -139,7 +139,7 @@ describe("sign-in with ORCID through OpenID Connect", () => {
       },
     );
     await page.goto(`${stack.url}/sign-in`);
-    await page.getByRole("button", { name: "Sign in with ORCID" }).click();
+    await page.getByRole("button", { name: "Continue with ORCID" }).click();
     await page.getByRole("button", { name: /Pavel Strand/ }).click();
     await page.getByText("ORCID sign-in refused").waitFor();
     expect(page.url()).toBe(`${stack.url}/sign-in?orcidError=orcid_state`);
@@ -155,7 +155,7 @@ describe("sign-in with ORCID through OpenID Connect", () => {
       return route.fulfill({ status: 302, headers: { location: u.href } });
     });
     await page2.goto(`${stack.url}/sign-in`);
-    await page2.getByRole("button", { name: "Sign in with ORCID" }).click();
+    await page2.getByRole("button", { name: "Continue with ORCID" }).click();
     await page2.getByRole("button", { name: /Pavel Strand/ }).click();
     await page2.getByText("ORCID sign-in refused").waitFor();
     expect(page2.url()).toBe(`${stack.url}/sign-in?orcidError=orcid_nonce`);

@@ -1,4 +1,4 @@
-/** "Sign in with ORCID" / "Link your ORCID iD": goes to ORCID's sign-in (or the local stand-in). */
+/** "Continue with ORCID" / "Link your ORCID iD": goes to ORCID's sign-in (or the local stand-in). */
 import { useState } from "react";
 import { goToOrcid } from "../../lib/orcid";
 

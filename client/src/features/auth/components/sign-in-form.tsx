@@ -68,7 +68,7 @@ export function SignInForm() {
       {orcidOffered && (
         <div className="mt-6 border-t border-stone-200 pt-4">
           <p className="mb-2 text-sm text-stone-700">Or use your ORCID iD: new here, you create your account from your ORCID record.</p>
-          <OrcidButton intent="sign-in" next={params.get("next") ? next : undefined} label="Sign in with ORCID" />
+          <OrcidButton intent="sign-in" next={params.get("next") ? next : undefined} label="Continue with ORCID" />
         </div>
       )}
     </AuthPanel>
