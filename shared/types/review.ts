@@ -8,10 +8,13 @@ export interface QueueItem {
   datasetId: number;
   accession: string | null;
   number: number;
+  state: "submitted" | "changes_requested" | "published" | "declined" | "withdrawn";
   title: string;
   depositor: string;
   ownerId: number;
   submittedAt: string;
+  /** Last change of state or content. */
+  updatedAt: string;
   networkCount: number;
   resubmission: boolean;
   ownDeposit: boolean;

@@ -21,7 +21,12 @@ function decisionBody(body: unknown): { decision: s.Decision; comment: string | 
 }
 
 reviewsRouter.get("/", async (req: Request, res: Response) => {
-  const data = await s.reviewQueue(req.user!);
+  const state = req.query.state === undefined || req.query.state === "" ? undefined : String(req.query.state);
+  if (state !== undefined && !(s.QUEUE_STATES as readonly string[]).includes(state)) {
+    throw ApiError.badRequest(`state must be one of ${s.QUEUE_STATES.join(", ")}.`, [{ path: "state", message: `One of ${s.QUEUE_STATES.join(", ")}.` }]);
+  }
+  const q = typeof req.query.q === "string" ? req.query.q.slice(0, 200) : undefined;
+  const data = await s.reviewQueue(req.user!, { state: state as s.QueueState | undefined, q });
   const body: ListResponse<s.QueueItem> = { data, meta: { total: data.length } };
   res.json(body);
 });

@@ -34,25 +34,35 @@ export type { HistoryEntry, QueueItem, ReviewDetail } from "../../../../shared/t
 import type { HistoryEntry, QueueItem, ReviewDetail } from "../../../../shared/types/review";
 import { storeMatrixCsvs } from "../bundles/bundles.stored-csv";
 
-export async function reviewQueue(viewer: Viewer): Promise<QueueItem[]> {
+export const QUEUE_STATES = ["submitted", "changes_requested", "published", "declined", "withdrawn"] as const;
+export type QueueState = (typeof QUEUE_STATES)[number];
+
+/** Submissions in a state (default: waiting for a decision, oldest first; others newest first), optionally searched. */
+export async function reviewQueue(viewer: Viewer, opts: { state?: QueueState; q?: string } = {}): Promise<QueueItem[]> {
+  const state = opts.state ?? "submitted";
+  const q = (opts.q ?? "").trim();
   const rows = (await sequelize().query(
-    `SELECT v.id, v.dataset_id, v.number, v.metadata->>'title' AS title, v.submitted_at, d.accession, d.owner_id, u.display_name,
+    `SELECT v.id, v.dataset_id, v.number, v.state, v.metadata->>'title' AS title, v.submitted_at, v.updated_at, d.accession, d.owner_id, u.display_name,
             (SELECT count(*) FROM networks n WHERE n.version_id = v.id) AS networks,
             EXISTS (SELECT 1 FROM reviews r WHERE r.version_id = v.id) AS resubmission
        FROM dataset_versions v JOIN datasets d ON d.id = v.dataset_id JOIN users u ON u.id = d.owner_id
-      WHERE v.state = 'submitted'
-      ORDER BY v.submitted_at ASC, v.id ASC`,
-    { type: QueryTypes.SELECT },
-  )) as Array<{ id: number; dataset_id: number; number: number; title: string | null; submitted_at: Date; accession: string | null; owner_id: number; display_name: string; networks: string; resubmission: boolean }>;
+      WHERE v.state = :state
+        AND (:q = '' OR v.metadata->>'title' ILIKE :like OR u.display_name ILIKE :like OR coalesce(d.accession, '') ILIKE :like)
+      ORDER BY ${state === "submitted" ? "v.submitted_at ASC, v.id ASC" : "v.updated_at DESC, v.id DESC"}
+      LIMIT 500`,
+    { replacements: { state, q, like: `%${q.replace(/[\\%_]/g, (c) => `\\${c}`)}%` }, type: QueryTypes.SELECT },
+  )) as Array<{ id: number; dataset_id: number; number: number; state: string; title: string | null; submitted_at: Date | null; updated_at: Date; accession: string | null; owner_id: number; display_name: string; networks: string; resubmission: boolean }>;
   return rows.map((r) => ({
     versionId: r.id,
     datasetId: r.dataset_id,
     accession: r.accession,
     number: r.number,
+    state: r.state as QueueItem["state"],
     title: r.title ?? "(untitled)",
     depositor: r.display_name,
     ownerId: r.owner_id,
-    submittedAt: new Date(r.submitted_at).toISOString(),
+    submittedAt: new Date(r.submitted_at ?? r.updated_at).toISOString(),
+    updatedAt: new Date(r.updated_at).toISOString(),
     networkCount: Number(r.networks),
     resubmission: r.resubmission,
     ownDeposit: r.owner_id === viewer.id,

@@ -6,6 +6,7 @@ import { paths } from "../../../config/paths";
 import { useDataset } from "../api/get-dataset";
 import { useDatasetHistory } from "../api/get-dataset-history";
 import { CitationBlock } from "./citation-block";
+import { WithdrawSection } from "./withdraw-section";
 import { DoiLine } from "../../../components/ui/doi";
 import { HistorySection, LocalitySection, NetworksSection, StudySection, TombstoneView, VersionsSection } from "./dataset-sections";
 
@@ -81,6 +82,7 @@ export function DatasetPage({ accession, version, isCurator }: { accession: stri
       <LocalitySection d={ds} />
       <VersionsSection d={ds} />
       {isCurator && <HistorySection entries={history.data} loading={history.isPending} error={history.isError ? history.error.message : null} />}
+      {isCurator && ds.accession && ds.version.state === "published" && <WithdrawSection accession={ds.accession} />}
     </div>
   );
 }

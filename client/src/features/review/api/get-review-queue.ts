@@ -3,6 +3,10 @@ import { apiFetch } from "../../../lib/api-client";
 import type { ListResponse } from "../../../../../shared/types/api";
 import { reviewKeys, type QueueItem } from "./types";
 
-export const getReviewQueue = () => apiFetch<ListResponse<QueueItem>>("/reviews");
-export const getReviewQueueQueryOptions = () => queryOptions({ queryKey: reviewKeys.queue(), queryFn: getReviewQueue });
-export const useReviewQueue = () => useQuery(getReviewQueueQueryOptions());
+export interface QueueFilter {
+  state: string;
+  q: string;
+}
+export const getReviewQueue = (f: QueueFilter) => apiFetch<ListResponse<QueueItem>>(`/reviews?${new URLSearchParams({ state: f.state, q: f.q })}`);
+export const getReviewQueueQueryOptions = (f: QueueFilter) => queryOptions({ queryKey: [...reviewKeys.queue(), f], queryFn: () => getReviewQueue(f) });
+export const useReviewQueue = (f: QueueFilter) => useQuery(getReviewQueueQueryOptions(f));

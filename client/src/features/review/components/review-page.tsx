@@ -35,6 +35,17 @@ const ACTION_LABELS: Record<string, string> = {
   "dataset.withdraw": "Withdrawn",
 };
 
+/** The metrics pipeline's state of a published version now, not at publication. */
+function figuresState(r: ReviewDetail): string {
+  const n = r.networks.length;
+  const count = (st: string) => r.networks.filter((x) => x.metrics?.status === st).length;
+  const done = count("succeeded");
+  const failed = count("failed");
+  const waiting = n - done - failed;
+  if (done === n) return `Figures computed for all ${n} network${n === 1 ? "" : "s"}.`;
+  return `Figures: ${done} of ${n} computed${waiting ? `, ${waiting} queued or running` : ""}${failed ? `, ${failed} failed (see the metrics pipeline)` : ""}.`;
+}
+
 function Preview({ versionId, n }: { versionId: number; n: NetworkSummary }) {
   const { data } = useReviewCanonical(versionId, n.id);
   if (!data) return <div className="h-[140px] w-[140px] animate-pulse rounded bg-stone-100" aria-hidden="true" />;
@@ -314,7 +325,7 @@ export function ReviewPage({ versionId }: { versionId: number }) {
       </div>
       {r.version.state === "published" && r.accession && (
         <Alert tone="success" title={`Published as ${r.accession}.`}>
-          <Link className="underline" to={`/datasets/${r.accession}`}>Open the dataset page</Link>. The networks are queued for the metrics pipeline.
+          <Link className="underline" to={`/datasets/${r.accession}`}>Open the dataset page</Link>. {figuresState(r)}
         </Alert>
       )}
       {r.version.state === "changes_requested" && last && <Alert tone="info" title={`Changes requested by ${last.curator}`}><p className="whitespace-pre-wrap">{last.comment}</p></Alert>}

@@ -1,5 +1,5 @@
-/** The Review queue: submissions waiting for a curator, oldest first. */
-import { Link } from "react-router-dom";
+/** The Review queue: submissions by state (waiting for a curator by default, oldest first), with search. */
+import { Link, useSearchParams } from "react-router-dom";
 import { paths } from "../../../config/paths";
 import { Alert } from "../../../components/ui/form";
 import { useReviewQueue } from "../api/get-review-queue";
@@ -11,15 +11,46 @@ function age(iso: string): string {
   return `${Math.floor(h / 24)} days`;
 }
 
+const STATES: Array<[string, string]> = [
+  ["submitted", "Waiting for a decision"],
+  ["changes_requested", "Changes requested"],
+  ["published", "Published"],
+  ["declined", "Declined"],
+  ["withdrawn", "Withdrawn"],
+];
+
 export function ReviewQueuePage() {
-  const { data, error, isPending } = useReviewQueue();
+  const [params, setParams] = useSearchParams();
+  const state = params.get("state") ?? "submitted";
+  const q = params.get("q") ?? "";
+  const { data, error, isPending } = useReviewQueue({ state, q });
+  const set = (k: string, v: string) => setParams((p) => { if (v) p.set(k, v); else p.delete(k); return p; });
   return (
     <div>
       <h1 className="text-2xl font-bold text-moss-700">Review queue</h1>
-      <p className="mt-1 text-stone-700">Submissions awaiting a curator’s decision, the longest-waiting first. You cannot decide on your own deposits.</p>
+      <p className="mt-1 text-stone-700">Submissions by state; those awaiting a curator’s decision come first, the longest-waiting at the top. You cannot decide on your own deposits.</p>
+      <form role="search" className="mt-4 flex flex-wrap items-end gap-3" onSubmit={(e) => { e.preventDefault(); set("q", String(new FormData(e.currentTarget).get("q") ?? "").trim()); }}>
+        <label className="text-sm">
+          <span className="block font-semibold text-stone-800">State</span>
+          <select value={state} onChange={(e) => set("state", e.target.value === "submitted" ? "" : e.target.value)} className="mt-1 rounded border border-stone-400 bg-white px-2 py-1.5">
+            {STATES.map(([v, label]) => (
+              <option key={v} value={v}>
+                {label}
+              </option>
+            ))}
+          </select>
+        </label>
+        <label className="text-sm">
+          <span className="block font-semibold text-stone-800">Search title, depositor or accession</span>
+          <input key={q} name="q" defaultValue={q} className="mt-1 rounded border border-stone-400 px-2 py-1.5" />
+        </label>
+        <button type="submit" className="rounded border border-moss-700 px-3 py-1.5 text-sm font-semibold text-moss-700 hover:bg-moss-50">
+          Search
+        </button>
+      </form>
       {isPending && <p role="status" className="mt-4">Loading…</p>}
       {error && <div className="mt-4"><Alert tone="error" title={error.message} /></div>}
-      {data && data.data.length === 0 && <p className="mt-6 text-stone-700">Nothing is waiting for review.</p>}
+      {data && data.data.length === 0 && <p className="mt-6 text-stone-700">{state === "submitted" && !q ? "Nothing is waiting for review." : "No submission matches."}</p>}
       {data && data.data.length > 0 && (
         <div className="mt-6 overflow-x-auto rounded-lg bg-white p-4 shadow-sm ring-1 ring-stone-200">
           <table className="w-full text-left">
