@@ -61,17 +61,16 @@ export function FigureCautions({ modules = false, className = "" }: { modules?: 
 }
 
 /** A small badge naming the null model of a figure, marked when it is liberal. */
-export function NullBadge({ model, primary }: { model: string | null | undefined; primary?: boolean }) {
+export function NullBadge({ model, primary, withTitle = true }: { model: string | null | undefined; primary?: boolean; withTitle?: boolean }) {
   if (!model) return null;
   const liberal = isLiberal(model);
+  if (!withTitle && !primary && !liberal) return null;
   return (
     <span
       className={`ml-1 inline-block rounded px-1 font-sans text-xs ${liberal ? "bg-amber-100 text-amber-900" : "bg-moss-50 text-moss-800"}`}
       title={nullInfo(model) ? `${nullLabel(model)}: keeps ${nullInfo(model)!.keeps}. Does not keep ${nullInfo(model)!.doesNotKeep}.${liberal ? ` Liberal: ${nullInfo(model)!.caution}.` : ""}` : model}
     >
-      {nullTitle(model)}
-      {primary ? ", primary" : ""}
-      {liberal ? ", liberal" : ""}
+      {[withTitle ? nullTitle(model) : null, primary ? "primary" : null, liberal ? "liberal" : null].filter(Boolean).join(", ")}
     </span>
   );
 }

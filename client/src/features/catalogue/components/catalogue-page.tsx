@@ -3,7 +3,7 @@
  * table (every setting in the URL, so a link reproduces the view), and a selection kept across pages.
  * Actions on the selection or on everything matching (bundles) are passed in by the route.
  */
-import { FigureCautions, fmtPFloor, fmtZ, isLiberal, nullInfo, nullLabel, nullTitle } from "../../../components/figures/significance";
+import { FigureCautions, fmtPFloor, fmtZ, isLiberal, nullInfo, nullLabel } from "../../../components/figures/significance";
 import { useMemo, useState, type ReactNode } from "react";
 import { Link, useSearchParams } from "react-router-dom";
 import { createColumnHelper, flexRender, getCoreRowModel, useReactTable, type SortingState } from "@tanstack/react-table";
@@ -223,19 +223,19 @@ export function CataloguePage({ actions }: { actions?: (ctx: CatalogueActionsCon
       col.accessor("z", {
         header: () => (
           <>
-            z <span className="font-normal text-stone-600">({nullTitle(nullModel)})</span>
+            z <span className="font-normal text-stone-600" title={nullLabel(nullModel)}>· {nullModel}</span>
           </>
         ),
-        cell: (c) => (c.row.original.z === null ? "—" : fmtZ(c.getValue(), c.row.original.zSe)),
+        cell: (c) => <span className="whitespace-nowrap">{c.row.original.z === null ? "—" : fmtZ(c.getValue(), c.row.original.zSe)}</span>,
       }),
       col.accessor("p", {
         header: () => (
           <>
-            p <span className="font-normal text-stone-600">({nullTitle(nullModel)})</span>
+            p <span className="font-normal text-stone-600" title={nullLabel(nullModel)}>· {nullModel}</span>
           </>
         ),
         enableSorting: false,
-        cell: (c) => fmtPFloor(c.getValue(), c.row.original.pAtFloor),
+        cell: (c) => <span className="whitespace-nowrap">{fmtPFloor(c.getValue(), c.row.original.pAtFloor)}</span>,
       }),
       col.accessor("country", { header: "Country", enableSorting: false, cell: (c) => c.getValue() ?? "—" }),
       col.accessor((r) => r.startYear, {

@@ -151,7 +151,7 @@ export function MetricsPanel({ view }: { view: NetworkView }) {
                 <tr key={f.model} className="border-b border-stone-200 align-top">
                   <th scope="row" className="py-1 pr-3 text-left font-normal">
                     <span className="font-semibold text-stone-900">{nullLabel(f.model)}</span>
-                    <NullBadge model={f.model} primary={f.primary} />
+                    <NullBadge model={f.model} primary={f.primary} withTitle={false} />
                     <span className="block text-xs text-stone-600">keeps {nullInfo(f.model)?.keeps ?? "—"}; not {nullInfo(f.model)?.doesNotKeep ?? "—"}</span>
                     {f.unstable && <span className="block text-xs text-amber-900">z unstable: {f.unstableReason}</span>}
                   </th>

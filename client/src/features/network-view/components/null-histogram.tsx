@@ -35,7 +35,7 @@ export function NullHistogram({ view }: { view: NetworkView }) {
       caption={
         <>
           Optimized {qName} of {values.length} null networks of the null model {nullLabel(model)}
-          <NullBadge model={model} primary={fig.primary} />, ranging from {fmt(sorted[0], 4)} to {fmt(sorted[sorted.length - 1], 4)} (mean {fmt(fig.mean, 4)}, sd{" "}
+          <NullBadge model={model} primary={fig.primary} withTitle={false} />, ranging from {fmt(sorted[0], 4)} to {fmt(sorted[sorted.length - 1], 4)} (mean {fmt(fig.mean, 4)}, sd{" "}
           {fmt(fig.sd, 4)}). The observed {qName} = {fmt(m.Q, 4)} is marked: z = {fmtZ(fig.z, fig.zSe)}, p = {fmtPFloor(fig.p, fig.pAtFloor)} against this model.
         </>
       }
