@@ -191,6 +191,7 @@ function summary(file: string, r: AnalysisResult, detection: string | null, warn
       lines.push(`      null Q mean ${fmt(n.mean, 6)}, sd ${fmt(n.sd, 6)}; z = ${fmt(n.z, 2)} ± ${fmt(n.zSe, 2)}, Q_rel = ${fmt(n.qRel, 3)}, ΔQ = ${fmt(n.deltaQ, 6)}, p = ${p}`);
       if (n.nodf && n.nodf.mean !== null) lines.push(`      NODF of the same nulls: mean ${fmt(n.nodf.mean, 2)}, z = ${fmt(n.nodf.z, 2)}, p = ${n.nodf.pAtFloor ? "≤ " : ""}${fmt(n.nodf.p, 4)}`);
       if (n.unstable) lines.push(`      caution: ${n.unstableReason}`);
+      if (n.cappedNulls > 0) lines.push(`      caution: the optimizer hit its safety cap on ${n.cappedNulls} of these null networks (not converged)`);
       if (n.liberal) lines.push(`      liberal: ${NULL_MODEL_INFO[n.model].caution}`);
     }
   } else if (r.nullSkippedReason) lines.push(`  significance: ${r.nullSkippedReason}`);

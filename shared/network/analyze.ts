@@ -75,6 +75,8 @@ export interface NullFigures extends NullSummary {
   /** Calls some non-modular networks modular (NULL_MODEL_INFO[model].caution says which). */
   liberal: boolean;
   nodf: NodfNullSummary | null;
+  /** Null networks whose optimization stopped at a safety cap instead of converging (0 normally). */
+  cappedNulls: number;
 }
 
 export interface NullModelChoice {
@@ -128,6 +130,7 @@ export function buildNullFigures(
       liberal: info.liberal,
       ...summarizeNulls(Q, reps.map((r) => r.q)),
       nodf: summarizeNodf(observedNodf, reps.map((r) => r.nodf)),
+      cappedNulls: reps.filter((r) => r.capped).length,
     };
   });
 }
@@ -136,7 +139,7 @@ export function buildNullFigures(
 export function primaryNull(figures: NullFigures[]): (NullSummary & { model: NullModelName }) | null {
   const p = figures.find((f) => f.primary) ?? figures[0];
   if (!p) return null;
-  const { title: _t, primary: _p, liberal: _l, nodf: _n, ...rest } = p;
+  const { title: _t, primary: _p, liberal: _l, nodf: _n, cappedNulls: _c, ...rest } = p;
   return rest;
 }
 

@@ -84,6 +84,8 @@ export function nullReplicateQ(net: Network, settings: NullReplicateSettings): n
 export interface NullReplicate {
   q: number;
   nodf: number | null;
+  /** True when the optimizer stopped at a safety cap on this null network instead of converging. */
+  capped?: boolean;
 }
 
 /**
@@ -100,7 +102,9 @@ export function nullReplicateStats(net: Network, settings: NullReplicateSettings
     seed: deriveSeed(seed, NULL_STREAM, replicate, OPTIMIZER_STREAM),
   });
   if (res.Q === null) return null;
-  return { q: res.Q, nodf: nodf(nullNet)?.nodf ?? null };
+  const out: NullReplicate = { q: res.Q, nodf: nodf(nullNet)?.nodf ?? null };
+  if (!res.convergence.converged) out.capped = true;
+  return out;
 }
 
 export interface NullSummary {
