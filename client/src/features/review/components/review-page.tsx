@@ -17,6 +17,7 @@ import { useReview, useReviewCanonical } from "../api/get-review";
 import { correctNetwork, correctStudy, decide, useReviewMutation, useWithdrawDataset, type Decision } from "../api/mutations";
 import type { ReviewDetail } from "../api/types";
 import { ValueOrNotRecorded } from "../../../components/metadata/not-recorded";
+import { figuresState } from "../utils/figures-state";
 
 const ACTION_LABELS: Record<string, string> = {
   "deposit.create": "Draft created",
@@ -34,17 +35,6 @@ const ACTION_LABELS: Record<string, string> = {
   "version.create": "New version started",
   "dataset.withdraw": "Withdrawn",
 };
-
-/** The metrics pipeline's state of a published version now, not at publication. */
-function figuresState(r: ReviewDetail): string {
-  const n = r.networks.length;
-  const count = (st: string) => r.networks.filter((x) => x.metrics?.status === st).length;
-  const done = count("succeeded");
-  const failed = count("failed");
-  const waiting = n - done - failed;
-  if (done === n) return `Figures computed for all ${n} network${n === 1 ? "" : "s"}.`;
-  return `Figures: ${done} of ${n} computed${waiting ? `, ${waiting} queued or running` : ""}${failed ? `, ${failed} failed (see the metrics pipeline)` : ""}.`;
-}
 
 function Preview({ versionId, n }: { versionId: number; n: NetworkSummary }) {
   const { data } = useReviewCanonical(versionId, n.id);
@@ -325,7 +315,7 @@ export function ReviewPage({ versionId }: { versionId: number }) {
       </div>
       {r.version.state === "published" && r.accession && (
         <Alert tone="success" title={`Published as ${r.accession}.`}>
-          <Link className="underline" to={`/datasets/${r.accession}`}>Open the dataset page</Link>. {figuresState(r)}
+          <Link className="underline" to={`/datasets/${r.accession}`}>Open the dataset page</Link>. {figuresState(r.networks)}
         </Alert>
       )}
       {r.version.state === "changes_requested" && last && <Alert tone="info" title={`Changes requested by ${last.curator}`}><p className="whitespace-pre-wrap">{last.comment}</p></Alert>}
