@@ -72,11 +72,10 @@ pg_down() {
   fi
 }
 
-# pg_createdb PORT NAME — create the database if missing (with the extensions the app needs).
+# pg_createdb PORT NAME — create the database if missing.
 pg_createdb() {
   local port="$1" name="$2"
   if ! "$PGBIN/psql" -h 127.0.0.1 -p "$port" -U postgres -tAc "SELECT 1 FROM pg_database WHERE datname='$name'" | grep -q 1; then
     "$PGBIN/createdb" -h 127.0.0.1 -p "$port" -U postgres "$name"
   fi
-  PGOPTIONS="-c client_min_messages=warning" "$PGBIN/psql" -q -h 127.0.0.1 -p "$port" -U postgres -d "$name" -c "CREATE EXTENSION IF NOT EXISTS hstore; CREATE EXTENSION IF NOT EXISTS pg_trgm;" >/dev/null
 }

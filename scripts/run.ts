@@ -20,6 +20,7 @@ import { MailCatcher, setCurrentMailCatcher } from "../server/src/lib/mail-catch
 import { shutdownServerResources, startServer } from "../server/src/index";
 import { ROOT_DIR } from "../server/src/config/paths";
 import { startupTasks, shutdownTasks } from "../server/src/startup";
+import { seedDemoScenarioTask } from "../server/src/db/seeders/demo-scenario";
 import { DataciteStandIn } from "../server/src/lib/datacite/stand-in";
 import { OrcidStandIn } from "../server/src/lib/orcid/stand-in";
 import { CALLBACK_PATH as ORCID_CALLBACK_PATH } from "../server/src/api/auth/orcid.service";
@@ -72,6 +73,7 @@ async function main(): Promise<() => Promise<void>> {
     say(`Local ORCID stand-in (OpenID provider) on ${orcid.issuer}: "Sign in with ORCID" lists the demo researchers`);
   }
   for (const task of startupTasks) await task({ log: say });
+  await seedDemoScenarioTask({ log: say });
 
   console.log(`
   Tanglebank is running at ${url}

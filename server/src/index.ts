@@ -1,4 +1,4 @@
-/** Starts the HTTP server (the app itself is built in app.ts). */
+/** Starts the HTTP server (the app itself is built in app.ts); main.ts and scripts/run.ts are the processes that call it. */
 import type { Server } from "node:http";
 import { createApp, closeSessionPool } from "./app";
 import { config } from "./config/env";
@@ -22,10 +22,4 @@ export async function startServer(port = config().port, host = config().host): P
 export async function shutdownServerResources(): Promise<void> {
   await closeSessionPool();
   await closeSequelize();
-}
-
-const isMain = process.argv[1] && import.meta.url === new URL(`file://${process.argv[1]}`).href;
-if (isMain) {
-  const { url } = await startServer();
-  console.log(`Tanglebank listening on ${url}`);
 }

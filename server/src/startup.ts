@@ -1,6 +1,7 @@
 /**
- * Tasks run by `npm start` after the server listens (e.g. seeding the demo scenario, starting a metrics
- * worker) and before it stops. Features register theirs here, one line each.
+ * Tasks run after the server listens (e.g. starting a metrics worker) and before it stops, by `npm start`
+ * (scripts/run.ts) and by the deployed server (main.ts). Features register theirs here, one line each.
+ * Seeding the invented demo scenario is `npm start`'s own step (scripts/run.ts), never a deployment's.
  */
 export type StartupTask = (ctx: { log: (msg: string) => void }) => Promise<void>;
 export type ShutdownTask = () => Promise<void>;
@@ -17,5 +18,3 @@ shutdownTasks.unshift(stopCatalogueTask);
 import { startDoiWorkerTask, stopDoiWorkerTask } from "./jobs/dois.startup";
 startupTasks.push(startDoiWorkerTask);
 shutdownTasks.unshift(stopDoiWorkerTask);
-import { seedDemoScenarioTask } from "./db/seeders/demo-scenario";
-startupTasks.push(seedDemoScenarioTask);

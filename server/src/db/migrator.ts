@@ -1,6 +1,6 @@
 /**
- * Migrations with Umzug. Run in their own Sequelize instance (see stack notes: the app's instance must
- * read type OIDs after extensions exist). The app migrates on start, never `sync()`.
+ * Migrations with Umzug. Run in their own Sequelize instance, so the app's instance reads PostgreSQL's
+ * type OIDs after the migrations created the types. The app migrates on start, never `sync()`.
  */
 import { readdirSync } from "node:fs";
 import { dirname, join } from "node:path";
@@ -15,18 +15,21 @@ export interface MigrationContext {
 }
 export type MigrationFn = (ctx: MigrationContext) => Promise<void>;
 
+// migrations/ beside this module: the TypeScript sources, or their compiled .js files beside the compiled
+// server (dist/server/migrations, scripts/build-server.ts). A migration's name is its file name without
+// the extension either way.
 const migrationsDir = join(dirname(fileURLToPath(import.meta.url)), "migrations");
 
 export function createMigrator(seq: Sequelize) {
   const files = readdirSync(migrationsDir)
-    .filter((f) => /^\d{8}-\d{4}-[a-z0-9-]+\.ts$/.test(f))
+    .filter((f) => /^\d{8}-\d{4}-[a-z0-9-]+\.(ts|js)$/.test(f))
     .sort();
   return new Umzug<MigrationContext>({
     migrations: files.map((f) => {
       const path = join(migrationsDir, f);
       const load = async () => (await import(pathToFileURL(path).href)) as { up: MigrationFn; down: MigrationFn };
       return {
-        name: f.replace(/\.ts$/, ""),
+        name: f.replace(/\.(ts|js)$/, ""),
         up: async ({ context }) => (await load()).up(context),
         down: async ({ context }) => (await load()).down(context),
       };
@@ -44,7 +47,6 @@ export async function migrateUp(url: string): Promise<string[]> {
   const seq = createSequelize(url, { pool: 1 });
   try {
     await seq.query("SELECT pg_advisory_lock(727364001)");
-    await seq.query("CREATE EXTENSION IF NOT EXISTS hstore; CREATE EXTENSION IF NOT EXISTS pg_trgm;");
     const done = await createMigrator(seq).up();
     await seq.query("SELECT pg_advisory_unlock(727364001)");
     return done.map((m) => m.name);

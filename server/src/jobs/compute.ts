@@ -1,6 +1,6 @@
 /**
  * The computations of one metrics job, as pure functions over the network's canonical JSON. They run in
- * the worker-thread pool (pool.ts, thread entry metrics-thread.mjs), never on the web server's thread:
+ * the worker-thread pool (pool.ts, thread body metrics-thread.ts), never on the web server's thread:
  *   - "observed": the full analysis of the network without null replicates (optimized modularity with
  *     partition and restart spread, basic metrics, roles, NODF) and the null models it gets (the standard
  *     set of its kind, or the models of the settings; a model that does not fit throws a

@@ -1,5 +1,5 @@
 /** Axes drawn from d3 scales: ticks, tick labels and an axis title that names the quantity and its unit. */
-import type { ScaleLinear } from "d3";
+import type { ScaleLinear } from "d3-scale";
 import { chartTheme } from "./theme";
 
 interface AxisProps {

@@ -1,5 +1,6 @@
 /** A histogram of values (d3.bin) with an optional marked value, e.g. the null distribution of Q with the observed Q. */
-import { bin, extent, max, scaleLinear } from "d3";
+import { bin, extent, max } from "d3-array";
+import { scaleLinear } from "d3-scale";
 import { BottomAxis, GridY, LeftAxis } from "./axes";
 import { chartTheme } from "./theme";
 

@@ -3,7 +3,8 @@
  * coloured by group; with `focusable`, each point is reachable by Tab and names itself (for small sets).
  */
 import { forwardRef } from "react";
-import { extent, scaleLinear } from "d3";
+import { extent } from "d3-array";
+import { scaleLinear } from "d3-scale";
 import { BottomAxis, GridY, LeftAxis } from "./axes";
 import { chartTheme } from "./theme";
 

@@ -4,7 +4,7 @@
  * Points carry their own accessible names; the figure around the map supplies the text alternative.
  */
 import { useEffect, useMemo, useState } from "react";
-import { geoEqualEarth, geoGraticule10, geoMercator, geoPath } from "d3";
+import { geoEqualEarth, geoGraticule10, geoMercator, geoPath } from "d3-geo";
 import { feature, mesh } from "topojson-client";
 import type { Topology, GeometryCollection } from "topojson-specification";
 import type { FeatureCollection, MultiLineString } from "geojson";
