@@ -51,6 +51,14 @@ export default tseslint.config(
     },
   },
   {
+    // Every setting is read and validated in one place (README lists them all).
+    files: ["server/src/**/*.{ts,mjs}", "shared/**/*.ts"],
+    ignores: ["server/src/config/env.ts"],
+    rules: {
+      "no-restricted-properties": ["error", { object: "process", property: "env", message: "Read settings through server/src/config/env.ts (config() or jobSettings()), where they are validated." }],
+    },
+  },
+  {
     files: ["client/**/*.{ts,tsx}"],
     plugins: { "react-hooks": reactHooks },
     rules: {

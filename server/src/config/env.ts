@@ -1,7 +1,10 @@
 /**
  * Configuration, read once from the environment and validated at start. A bad value stops the process
- * with a message naming the variable.
+ * with a message naming the variable. Every setting the server reads is read here (README: "Address,
+ * ports and settings" lists them); no other server module reads process.env.
  */
+import { availableParallelism } from "node:os";
+
 export interface Config {
   nodeEnv: "development" | "test" | "production";
   port: number;
@@ -15,7 +18,9 @@ export interface Config {
   mailCatcherPort: number;
   uploadMaxBytes: number;
   uploadMaxFiles: number;
-  logLevel: string;
+  logLevel: LogLevel;
+  /** The metrics and DOI background jobs (validated at start; read again on each use by jobSettings()). */
+  jobs: JobSettings;
   /** Rate limits (requests per window) */
   authRateLimit: number;
   apiRateLimit: number;
@@ -45,12 +50,47 @@ export interface Config {
   };
 }
 
+export const LOG_LEVELS = ["fatal", "error", "warn", "info", "debug", "trace", "silent"] as const;
+export type LogLevel = (typeof LOG_LEVELS)[number];
+
+/** Settings of the background jobs (the metrics pipeline in server/src/jobs/, DOI registration). */
+export interface JobSettings {
+  /** Worker threads of a process's metrics pool (TB_METRICS_THREADS; default: the cores). */
+  metricsThreads: number;
+  /** Nice value each metrics thread lowers itself by (TB_METRICS_THREAD_NICE, 0–19; default 5). */
+  metricsThreadNice: number;
+  /** Metrics jobs one process works at a time (TB_METRICS_CONCURRENCY; default 2). */
+  metricsConcurrency: number;
+  /** Seconds between queue polls of an idle metrics worker (TB_METRICS_POLL_SECONDS, ≥ 0.5; default 1). */
+  metricsPollSeconds: number;
+  /** Seconds before a failed metrics job is retried (TB_METRICS_RETRY_DELAY_SECONDS; default 5). */
+  metricsRetryDelaySeconds: number;
+  /** Seconds after which a running metrics job counts as lost (TB_METRICS_JOB_EXPIRE_SECONDS; default 3600). */
+  metricsJobExpireSeconds: number;
+  /** Seconds between the queue's maintenance runs (TB_METRICS_MAINTENANCE_SECONDS; default 60). */
+  metricsMaintenanceSeconds: number;
+  /** Retries of a failed DOI registration (TB_DOI_RETRY_LIMIT; default 10). */
+  doiRetryLimit: number;
+  /** Seconds before the first retry, doubling each time (TB_DOI_RETRY_DELAY_SECONDS; default 10). */
+  doiRetryDelaySeconds: number;
+}
+
 function int(name: string, fallback: number, min = 0, max = Number.MAX_SAFE_INTEGER): number {
   const raw = process.env[name];
   if (raw === undefined || raw === "") return fallback;
   const n = Number(raw);
   if (!Number.isInteger(n) || n < min || n > max) {
     throw new Error(`Invalid environment variable ${name}=${JSON.stringify(raw)}: expected an integer in [${min}, ${max}]`);
+  }
+  return n;
+}
+
+function num(name: string, fallback: number, min: number, max = Number.MAX_SAFE_INTEGER): number {
+  const raw = process.env[name];
+  if (raw === undefined || raw === "") return fallback;
+  const n = Number(raw);
+  if (!Number.isFinite(n) || n < min || n > max) {
+    throw new Error(`Invalid environment variable ${name}=${JSON.stringify(raw)}: expected a number in [${min}, ${max}]`);
   }
   return n;
 }
@@ -64,6 +104,37 @@ function onOff(name: string, fallback: boolean): boolean {
   const raw = str(name, fallback ? "on" : "off").toLowerCase();
   if (!["on", "off"].includes(raw)) throw new Error(`Invalid environment variable ${name}=${JSON.stringify(raw)}: expected on or off`);
   return raw === "on";
+}
+
+function trueFalse(name: string, fallback: boolean): boolean {
+  const raw = str(name, String(fallback)).toLowerCase();
+  if (!["true", "false"].includes(raw)) throw new Error(`Invalid environment variable ${name}=${JSON.stringify(raw)}: expected true or false`);
+  return raw === "true";
+}
+
+function oneOf<T extends string>(name: string, values: readonly T[], fallback: T): T {
+  const raw = str(name, fallback);
+  if (!(values as readonly string[]).includes(raw)) throw new Error(`Invalid environment variable ${name}=${JSON.stringify(raw)}: expected one of ${values.join(", ")}`);
+  return raw as T;
+}
+
+/**
+ * The background jobs' settings, read and validated on every call: loadConfig() reads them at start (so a
+ * bad value stops the process there), and the jobs call this when they start a pool, a queue or a job,
+ * so tests may change them between runs.
+ */
+export function jobSettings(): JobSettings {
+  return {
+    metricsThreads: int("TB_METRICS_THREADS", availableParallelism(), 1, 256),
+    metricsThreadNice: int("TB_METRICS_THREAD_NICE", 5, 0, 19),
+    metricsConcurrency: int("TB_METRICS_CONCURRENCY", 2, 1, 64),
+    metricsPollSeconds: num("TB_METRICS_POLL_SECONDS", 1, 0.5, 3600),
+    metricsRetryDelaySeconds: int("TB_METRICS_RETRY_DELAY_SECONDS", 5, 1),
+    metricsJobExpireSeconds: int("TB_METRICS_JOB_EXPIRE_SECONDS", 3600, 1),
+    metricsMaintenanceSeconds: int("TB_METRICS_MAINTENANCE_SECONDS", 60, 1),
+    doiRetryLimit: int("TB_DOI_RETRY_LIMIT", 10, 0, 1000),
+    doiRetryDelaySeconds: int("TB_DOI_RETRY_DELAY_SECONDS", 10, 0),
+  };
 }
 
 function httpUrl(name: string, value: string): string {
@@ -136,13 +207,13 @@ export function loadConfig(): Config {
     nodeEnv,
     port,
     host,
-    publicUrl: str("PUBLIC_URL", `http://${host}:${port}`).replace(/\/$/, ""),
+    publicUrl: httpUrl("PUBLIC_URL", str("PUBLIC_URL", `http://${host}:${port}`)),
     databaseUrl,
     sessionSecret,
     smtp: {
       host: str("SMTP_HOST", "127.0.0.1"),
       port: int("SMTP_PORT", mailCatcherPort, 0, 65535),
-      secure: str("SMTP_SECURE", "false") === "true",
+      secure: trueFalse("SMTP_SECURE", false),
       user: process.env.SMTP_USER || undefined,
       pass: process.env.SMTP_PASS || undefined,
       from: str("MAIL_FROM", "Tanglebank <no-reply@tanglebank.test>"),
@@ -150,7 +221,8 @@ export function loadConfig(): Config {
     mailCatcherPort,
     uploadMaxBytes: int("TB_UPLOAD_MAX_BYTES", 100 * 1024 * 1024, 1024),
     uploadMaxFiles: int("TB_UPLOAD_MAX_FILES", 50, 1, 1000),
-    logLevel: str("LOG_LEVEL", nodeEnv === "test" ? "silent" : "info"),
+    logLevel: oneOf("LOG_LEVEL", LOG_LEVELS, nodeEnv === "test" ? "silent" : "info"),
+    jobs: jobSettings(),
     authRateLimit: int("TB_AUTH_RATE_LIMIT", 20, 1),
     apiRateLimit: int("TB_API_RATE_LIMIT", 600, 1),
     datacite: dataciteConfig(nodeEnv),

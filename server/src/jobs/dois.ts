@@ -16,7 +16,7 @@
  */
 import { QueryTypes, type Transaction } from "sequelize";
 import type PgBoss from "pg-boss";
-import { config } from "../config/env";
+import { config, jobSettings } from "../config/env";
 import { sequelize } from "../db/sequelize";
 import { logger } from "../lib/logger";
 import { DataciteClient } from "../lib/datacite/client";
@@ -27,13 +27,9 @@ import { getBoss } from "./queue";
 
 export const DOI_QUEUE = "doi-sync";
 
-function envInt(name: string, fallback: number): number {
-  const n = Number(process.env[name]);
-  return process.env[name] && Number.isInteger(n) && n >= 0 ? n : fallback;
-}
-
 function doiJobOptions() {
-  return { retryLimit: envInt("TB_DOI_RETRY_LIMIT", 10), retryDelay: envInt("TB_DOI_RETRY_DELAY_SECONDS", 10), retryBackoff: true, expireInSeconds: 300 };
+  const s = jobSettings();
+  return { retryLimit: s.doiRetryLimit, retryDelay: s.doiRetryDelaySeconds, retryBackoff: true, expireInSeconds: 300 };
 }
 
 // the queue is created once per pg-boss instance (the metrics queue module owns the instance and may

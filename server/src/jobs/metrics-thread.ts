@@ -8,11 +8,12 @@
  * dist/server/metrics-thread.mjs, beside the compiled server.
  */
 import { setPriority } from "node:os";
+import { jobSettings } from "../config/env";
 import { runTask, type MetricsTask } from "./compute";
 
-const nice = Number(process.env.TB_METRICS_THREAD_NICE ?? 5);
+const nice = jobSettings().metricsThreadNice;
 try {
-  if (Number.isInteger(nice) && nice > 0) setPriority(Math.min(19, nice));
+  if (nice > 0) setPriority(nice);
 } catch {
   // Not permitted on this system: run at normal priority.
 }

@@ -29,6 +29,7 @@ import { QueryTypes } from "sequelize";
 import type PgBoss from "pg-boss";
 import type { AnalysisResult } from "../../../shared/network/analyze";
 import type { PipelineSettings } from "../../../shared/types/pipeline";
+import { jobSettings } from "../config/env";
 import { sequelize } from "../db/sequelize";
 import { logger } from "../lib/logger";
 import { chunkReplicates, combineAnalysis, ConfigurationError, type NullReplicatesByModel, type ObservedResult } from "./compute";
@@ -325,8 +326,8 @@ let sweepTimer: NodeJS.Timeout | undefined;
 export async function startMetricsWorker(opts: { concurrency?: number; pollingIntervalSeconds?: number } = {}): Promise<void> {
   stopping = false;
   const boss = await getBoss();
-  const concurrency = opts.concurrency ?? Number(process.env.TB_METRICS_CONCURRENCY ?? 2);
-  const pollingIntervalSeconds = opts.pollingIntervalSeconds ?? Number(process.env.TB_METRICS_POLL_SECONDS ?? 1);
+  const concurrency = opts.concurrency ?? jobSettings().metricsConcurrency;
+  const pollingIntervalSeconds = opts.pollingIntervalSeconds ?? jobSettings().metricsPollSeconds;
   for (let i = 0; i < concurrency; i++) {
     let id = "";
     id = await boss.work<MetricsJobData>(METRICS_QUEUE, { batchSize: 1, includeMetadata: true, pollingIntervalSeconds }, async (jobs) => {

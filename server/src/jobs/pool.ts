@@ -2,17 +2,15 @@
  * The worker-thread pool that runs the engine for the metrics pipeline (piscina), sized to the cores
  * (`os.availableParallelism()`, or TB_METRICS_THREADS). One pool per process, created on first use.
  */
-import { availableParallelism } from "node:os";
 import { Piscina } from "piscina";
+import { jobSettings } from "../config/env";
 import { ConfigurationError, isConfigurationFailure, type MetricsTask, type ObservedResult } from "./compute";
 import type { NullReplicate } from "../../../shared/network/significance";
 
 let pool: Piscina | undefined;
 
 export function poolThreads(): number {
-  const raw = process.env.TB_METRICS_THREADS;
-  const n = raw ? Number(raw) : availableParallelism();
-  return Number.isInteger(n) && n >= 1 ? n : availableParallelism();
+  return jobSettings().metricsThreads;
 }
 
 function metricsPool(): Piscina {

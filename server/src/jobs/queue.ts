@@ -9,7 +9,7 @@
  * this is how the job of a killed worker gets done by another one.
  */
 import PgBoss from "pg-boss";
-import { config } from "../config/env";
+import { config, jobSettings } from "../config/env";
 import { logger } from "../lib/logger";
 
 export const METRICS_QUEUE = "network-metrics";
@@ -29,16 +29,12 @@ export interface MetricsJobData {
 
 export const PHASE_PRIORITY: Record<MetricsPhase, number> = { observed: 10, nulls: 0 };
 
-function envInt(name: string, fallback: number): number {
-  const n = Number(process.env[name]);
-  return process.env[name] && Number.isInteger(n) && n > 0 ? n : fallback;
-}
-
 export function jobOptions() {
+  const s = jobSettings();
   return {
     retryLimit: RETRY_LIMIT,
-    retryDelay: envInt("TB_METRICS_RETRY_DELAY_SECONDS", 5),
-    expireInSeconds: envInt("TB_METRICS_JOB_EXPIRE_SECONDS", 3600),
+    retryDelay: s.metricsRetryDelaySeconds,
+    expireInSeconds: s.metricsJobExpireSeconds,
   };
 }
 
@@ -68,7 +64,7 @@ export function getBoss(): Promise<PgBoss> {
       connectionString: config().databaseUrl,
       max: 4,
       schedule: false,
-      maintenanceIntervalSeconds: envInt("TB_METRICS_MAINTENANCE_SECONDS", 60),
+      maintenanceIntervalSeconds: jobSettings().metricsMaintenanceSeconds,
     });
     b.on("error", (err) => logger.error({ err }, "metrics queue error"));
     await b.start();
