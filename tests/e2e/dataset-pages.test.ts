@@ -154,7 +154,7 @@ describe("network view", () => {
     await page.getByRole("img", { name: /Histogram of 30 null modularity values/ }).waitFor();
     await page.getByRole("img", { name: /Roles plot of \d+ nodes/ }).waitFor();
     await page.getByText("Barber's bipartite modularity Q_B").waitFor();
-    await page.getByText(/compare networks by z or Q/).first().waitFor();
+    await page.getByText(/^None of them is free of size/).first().waitFor();
     await page.getByRole("heading", { name: "Modules" }).waitFor();
     expect(await page.getByRole("link", { name: "Partition (CSV)" }).getAttribute("href")).toBe("/api/v1/network-views/TB-000001/v2/1/partition.csv");
     await screenshot(page, "network-view");
@@ -179,7 +179,7 @@ describe("compare view and coverage map", () => {
     expect(await page.locator("svg circle[tabindex='0']").count()).toBe(6);
     await screenshot(page, "compare-q");
     await axeCheck(page);
-    await page.getByRole("radio", { name: /z-score/ }).focus();
+    await page.getByRole("radio", { name: /z against the chosen null model/ }).focus();
     await page.keyboard.press("Space");
     await page.getByRole("group", { name: "Scatter plot of z against connectance" }).waitFor();
     const [csv] = await Promise.all([page.waitForEvent("download"), page.getByRole("button", { name: "Export table (CSV)" }).click()]);

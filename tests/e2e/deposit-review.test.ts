@@ -52,20 +52,20 @@ async function axeSerious(page: Page) {
 }
 
 async function fillNetwork(card: Locator, m: { name: string; rows: string; cols: string; place: string; lat: string; lon: string }) {
-  await card.getByLabel("Network name").fill(m.name);
-  await card.getByLabel("Interaction type").selectOption("pollination");
-  await card.getByLabel("What the weights mean").selectOption("visit-count");
-  await card.getByLabel("Row nodes are").fill(m.rows);
-  await card.getByLabel("Column nodes are").fill(m.cols);
-  await card.getByLabel("Place name").fill(m.place);
-  await card.getByLabel("Country code").fill("gb");
-  await card.getByLabel("Latitude").fill(m.lat);
-  await card.getByLabel("Longitude").fill(m.lon);
-  await card.getByLabel("Public coordinates").selectOption("0.1");
-  await card.getByLabel("Habitat").fill("upland heath");
-  await card.getByLabel("Start date").fill("2019-05-01");
-  await card.getByLabel("End date").fill("2019-08-31");
-  await card.getByLabel("Sampling protocol").fill("Timed 15-minute watches of flowering plants.");
+  await card.getByLabel("Network name", { exact: true }).fill(m.name);
+  await card.getByLabel("Interaction type", { exact: true }).selectOption("pollination");
+  await card.getByLabel("What the weights mean", { exact: true }).selectOption("visit-count");
+  await card.getByLabel("Row nodes are", { exact: true }).fill(m.rows);
+  await card.getByLabel("Column nodes are", { exact: true }).fill(m.cols);
+  await card.getByLabel("Place name", { exact: true }).fill(m.place);
+  await card.getByLabel("Country code", { exact: true }).fill("gb");
+  await card.getByLabel("Latitude", { exact: true }).fill(m.lat);
+  await card.getByLabel("Longitude", { exact: true }).fill(m.lon);
+  await card.getByLabel("Public coordinates", { exact: true }).selectOption("0.1");
+  await card.getByLabel("Habitat", { exact: true }).fill("upland heath");
+  await card.getByLabel("Start date", { exact: true }).fill("2019-05-01");
+  await card.getByLabel("End date", { exact: true }).fill("2019-08-31");
+  await card.getByLabel("Sampling protocol", { exact: true }).fill("Timed 15-minute watches of flowering plants.");
 }
 
 describe("deposit → review → changes → publish", () => {
@@ -103,10 +103,10 @@ describe("deposit → review → changes → publish", () => {
 
     await fillNetwork(cards.nth(0), { name: "Davis events (test file)", rows: "women", cols: "events", place: "Crook Heath", lat: "54.43127", lon: "-2.98714" });
     await cards.nth(0).getByRole("button", { name: "Save network 1" }).click();
-    await cards.nth(0).getByText("Saved.").waitFor();
+    await cards.nth(0).getByText("Saved, complete.").waitFor();
     await fillNetwork(cards.nth(1), { name: "Crook Heath 2019", rows: "plants", cols: "pollinators", place: "Crook Heath", lat: "54.43", lon: "-2.98" });
     await cards.nth(1).getByRole("button", { name: "Save network 2" }).click();
-    await cards.nth(1).getByText("Saved.").waitFor();
+    await cards.nth(1).getByText("Saved, complete.").waitFor();
     await screenshot(page, "deposit-3-networks");
     expect(await axeSerious(page)).toEqual([]);
 
@@ -144,10 +144,10 @@ describe("deposit → review → changes → publish", () => {
     await page.goto(`${link}?step=2`);
     await page.getByText("Please give the sampling effort of network 2.").waitFor();
     const card = page.getByRole("list", { name: "Networks of this deposit" }).locator(":scope > li").nth(1);
-    await card.getByLabel("Sampling effort").fill("120");
-    await card.getByLabel("Effort unit").fill("observation hours");
+    await card.getByLabel("Sampling effort", { exact: true }).fill("120");
+    await card.getByLabel("Effort unit", { exact: true }).fill("observation hours");
     await card.getByRole("button", { name: "Save network 2" }).click();
-    await card.getByText("Saved.").waitFor();
+    await card.getByText("Saved, complete.").waitFor();
     await screenshot(page, "deposit-7-answer");
     await page.getByRole("button", { name: "3. Review and submit" }).click();
     await page.getByRole("button", { name: "Submit again for review" }).click();

@@ -35,7 +35,9 @@ export function Component() {
         <EmailStatus email={a.email} verified={a.emailVerified} />
       </Card>
       <OrcidSection profile={a} />
-      <ProfileForm key={`${a.id}-${a.orcid ?? ""}`} profile={a} />
+      {/* Remounts (fresh fields) when another account signs in or ORCID sign-in links or unlinks an iD; saving the
+          form itself keeps it mounted so that its "saved" message stays. */}
+      <ProfileForm key={`${a.id}-${a.orcidVerified}`} profile={a} />
       <PasswordForm />
       <div id="account-extra" className="space-y-6">
         {/* Sections of other features (e.g. API tokens) go here. */}
