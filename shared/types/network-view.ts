@@ -106,6 +106,24 @@ export interface NetworkCompareRow {
   metrics: NetworkMetricsSummary;
 }
 
+/**
+ * A reference the compare view cannot plot, said beside the chart while the others are plotted:
+ * `malformed` (not written like TB-000042/v2/3), `unknown` (no such published network, or a draft the
+ * reader may not see), `withdrawn` (with the version's tombstone).
+ */
+export interface CompareUnavailable {
+  ref: string;
+  reason: "malformed" | "unknown" | "withdrawn";
+  message: string;
+  tombstone?: Tombstone;
+}
+
+/** `GET /api/v1/network-views/summaries?refs=…`: rows in the order asked, and the references left out. */
+export interface CompareRowsResponse {
+  data: NetworkCompareRow[];
+  meta: { requested: number; unavailable: CompareUnavailable[] };
+}
+
 /** `GET /api/v1/network-views/history/:accession` (curators). */
 export interface AuditEntry {
   id: number;

@@ -159,13 +159,33 @@ describe("GET /api/v1/network-views/summaries", () => {
     expect(res.body.data[0].connectance).toBeCloseTo(89 / (18 * 14), 10);
   });
 
-  it("rejects malformed references with 400 naming them, and unknown ones with 404", async () => {
-    const bad = await request(app).get("/api/v1/network-views/summaries").query({ refs: "TB-000001/v1/1,nonsense" });
-    expect(bad.status).toBe(400);
-    expect(bad.body.details[0].message).toContain("nonsense");
+  it("plots the rest when references are malformed, unknown, hidden drafts or withdrawn, naming each with its reason", async () => {
+    const res = await request(app)
+      .get("/api/v1/network-views/summaries")
+      .query({ refs: "TB-000001/v1/1,nonsense,TB-000001/v1/7,TB-999999/v1/1,TB-000001/v2/1,TB-000003/v1/1,TB-000010/v1/1" });
+    expect(res.status).toBe(200);
+    expect(res.body.data.map((r: { ref: string }) => r.ref)).toEqual(["TB-000001/v1/1", "TB-000010/v1/1"]);
+    expect(res.body.meta.requested).toBe(7);
+    const un = res.body.meta.unavailable as Array<{ ref: string; reason: string; message: string; tombstone?: { reason: string; citation: string } }>;
+    expect(un.map((u) => [u.ref, u.reason])).toEqual([
+      ["nonsense", "malformed"],
+      ["TB-000001/v1/7", "unknown"],
+      ["TB-999999/v1/1", "unknown"],
+      ["TB-000001/v2/1", "unknown"], // the draft v2 made above: hidden from visitors
+      ["TB-000003/v1/1", "withdrawn"],
+    ]);
+    expect(un[1].message).toContain("has no network 7");
+    expect(un[4].tombstone).toMatchObject({ accession: "TB-000003", version: 1 });
+    expect(un[4].tombstone!.citation).toContain("TB-000003");
+    // only bad references: still 200, nothing plotted, every one named
+    const none = await request(app).get("/api/v1/network-views/summaries").query({ refs: "TB-000003/v1/1" });
+    expect(none.status).toBe(200);
+    expect(none.body.data).toEqual([]);
+    expect(none.body.meta.unavailable).toHaveLength(1);
+    // no refs at all, or too many, is still a bad request
     expect((await request(app).get("/api/v1/network-views/summaries")).status).toBe(400);
-    expect((await request(app).get("/api/v1/network-views/summaries").query({ refs: "TB-000001/v1/7" })).status).toBe(404);
-    expect((await request(app).get("/api/v1/network-views/summaries").query({ refs: "TB-000003/v1/1" })).status).toBe(410);
+    const many = Array.from({ length: 61 }, (_, i) => `TB-000001/v1/${i + 1}`).join(",");
+    expect((await request(app).get("/api/v1/network-views/summaries").query({ refs: many })).status).toBe(400);
   });
 });
 

@@ -5,7 +5,7 @@
  *
  * | route                                         | who                  | answer                           |
  * |-----------------------------------------------|----------------------|----------------------------------|
- * | GET /summaries?refs=TB-…/v1/1,…               | anyone               | NetworkCompareRow[]              |
+ * | GET /summaries?refs=TB-…/v1/1,…               | anyone               | rows + `meta.unavailable` (per ref) |
  * | GET /map?<catalogue filters>                  | anyone               | MapPointRow[] (public coordinates) |
  * | GET /history/:accession                       | curator              | AuditEntry[]                     |
  * | GET /:accession/:version/:position            | anyone (see above)   | NetworkView                      |
@@ -27,7 +27,7 @@ async function view(req: Request) {
 }
 
 networkViewsRouter.get("/summaries", async (req, res) => {
-  res.json({ data: await getCompareRows(parseRefs(req.query.refs), req.user) });
+  res.json(await getCompareRows(parseRefs(req.query.refs), req.user));
 });
 
 networkViewsRouter.get("/map", async (req, res) => {

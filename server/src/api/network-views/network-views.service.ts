@@ -9,14 +9,14 @@ import { doisOfDataset } from "../../jobs/dois";
 import type { CanonicalNetworkJson } from "../../../../shared/network/parse/serialize";
 import type { AnalysisResult } from "../../../../shared/network/analyze";
 import type { NetworkMetadata, NetworkMetricsSummary, StudyMetadata } from "../../../../shared/types/dataset";
-import type { AuditEntry, MapPointRow, ModuleRow, NetworkCompareRow, NetworkView, RoleRow, RunHistoryRow } from "../../../../shared/types/network-view";
+import type { AuditEntry, CompareRowsResponse, CompareUnavailable, MapPointRow, ModuleRow, NetworkCompareRow, NetworkView, RoleRow, RunHistoryRow } from "../../../../shared/types/network-view";
 import { QueryTypes } from "sequelize";
 import { sequelize } from "../../db/sequelize";
 import { getCurrentMetrics } from "../../jobs/metrics-read";
 import { ApiError } from "../../lib/api-error";
 import { AuditLog, Dataset, MetricRun, Network, StoredFile, User } from "../../models";
 import type { AuthUser } from "../../types";
-import { resolveVersion } from "./network-views.access";
+import { GoneError, resolveVersion } from "./network-views.access";
 import { matchCatalogue } from "../catalogue/catalogue.service";
 import { parseCatalogueQuery } from "../catalogue/catalogue.validation";
 import { publicLocality } from "../../lib/public-locality";
@@ -256,24 +256,38 @@ export function partitionJson(view: NetworkView) {
 const REF_RE = /^(TB-\d{6})\/v(\d{1,6})\/(\d{1,6})$/;
 export const MAX_COMPARE = 60;
 
-/** Light rows for the compare view; every ref must name a published network (else 404 naming it). */
-export async function getCompareRows(refs: string[], user: AuthUser | undefined): Promise<NetworkCompareRow[]> {
-  if (!refs.length) return [];
+/**
+ * Light rows for the compare view, in the order asked. A reference that cannot be plotted (malformed,
+ * unknown, a draft the reader may not see, withdrawn) does not fail the others: it is listed in
+ * `unavailable` with the reason (a withdrawn one with its tombstone), so a shared link keeps working.
+ */
+export async function getCompareRows(refs: string[], user: AuthUser | undefined): Promise<CompareRowsResponse> {
   if (refs.length > MAX_COMPARE) throw ApiError.badRequest(`At most ${MAX_COMPARE} networks can be compared at once; got ${refs.length}.`, [{ path: "refs", message: "too many" }]);
-  const bad = refs.filter((r) => !REF_RE.test(r));
-  if (bad.length) {
-    throw ApiError.badRequest("Network references look like TB-000042/v2/3.", bad.map((r) => ({ path: "refs", message: `not a network reference: ${r}` })));
-  }
   const found: Array<{ ref: string; net: Network; title: string }> = [];
+  const unavailable: CompareUnavailable[] = [];
   for (const ref of refs) {
-    const [, acc, v, pos] = REF_RE.exec(ref)!;
-    const { version } = await resolveVersion(acc, Number(v), user);
-    const net = await Network.findOne({ where: { versionId: version.id, position: Number(pos) } });
-    if (!net) throw ApiError.notFound(`No network ${ref}.`);
-    found.push({ ref, net, title: (version.metadata as unknown as StudyMetadata).title });
+    const m = REF_RE.exec(ref);
+    if (!m) {
+      unavailable.push({ ref, reason: "malformed", message: `"${ref}" is not a network reference (they look like TB-000042/v2/3).` });
+      continue;
+    }
+    const [, acc, v, pos] = m;
+    try {
+      const { version } = await resolveVersion(acc, Number(v), user);
+      const net = await Network.findOne({ where: { versionId: version.id, position: Number(pos) } });
+      if (!net) {
+        unavailable.push({ ref, reason: "unknown", message: `${acc} v${v} has no network ${pos}.` });
+        continue;
+      }
+      found.push({ ref, net, title: (version.metadata as unknown as StudyMetadata).title });
+    } catch (e) {
+      if (e instanceof GoneError) unavailable.push({ ref, reason: "withdrawn", message: e.message, tombstone: e.tombstone });
+      else if (e instanceof ApiError && e.status === 404) unavailable.push({ ref, reason: "unknown", message: e.message });
+      else throw e;
+    }
   }
   const metrics = await getCurrentMetrics(found.map((f) => f.net.id), { showErrors: isStaff(user) });
-  return found.map(({ ref, net, title }) => {
+  const data = found.map(({ ref, net, title }): NetworkCompareRow => {
     const md = net.metadata as unknown as NetworkMetadata;
     return {
       ref,
@@ -291,6 +305,7 @@ export async function getCompareRows(refs: string[], user: AuthUser | undefined)
       metrics: metrics.get(net.id) ?? { status: "none" },
     };
   });
+  return { data, meta: { requested: refs.length, unavailable } };
 }
 
 /** The audit history of a dataset, newest first (curators only: checked by the route). */

@@ -327,7 +327,7 @@ export function openapiDocument(): Json {
         get: { tags: ["Networks"], operationId: "getNetworkMetrics", summary: "Current metrics of one network", parameters: NETWORK_REF_PARAMS, responses: { 200: json({ type: "object", properties: { ref: { type: "string" }, metrics: ref("Metrics") } }), 404: error("Not found"), 410: error("Withdrawn") } },
       },
       "/network-views/summaries": {
-        get: { tags: ["Networks"], operationId: "getNetworkSummaries", summary: "Compact summaries of several networks (for comparisons)", parameters: [queryParam("refs", "Comma-separated network references", { type: "string" }, "TB-000001/v1/1,TB-000001/v1/2")], responses: { 200: json({ type: "object" }) } },
+        get: { tags: ["Networks"], operationId: "getNetworkSummaries", summary: "Compact summaries of several networks (for comparisons)", description: "Rows in the order asked (at most 60). References that cannot be plotted do not fail the request: meta.unavailable lists each with its reason (malformed, unknown, withdrawn with the tombstone).", parameters: [queryParam("refs", "Comma-separated network references", { type: "string" }, "TB-000001/v1/1,TB-000001/v1/2")], responses: { 200: json({ type: "object" }) } },
       },
       "/network-views/map": {
         get: {

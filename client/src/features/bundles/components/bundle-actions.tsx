@@ -5,7 +5,8 @@
  * the API) and the packing (files stored: quickest; or deflated: about a seventh of the size).
  * Downloads are ordinary links (the browser streams the zip to disk); a selection too long for a link is
  * posted and saved from memory instead. Selected networks that can no longer be bundled (withdrawn since
- * they were selected) are named, with a button that drops them, instead of a download that fails.
+ * they were selected) are named, with a button that drops them, and the download bundles the others (its
+ * size shown) instead of failing.
  */
 import { useId, useState } from "react";
 import { ApiClientError } from "../../../lib/api-client";
@@ -74,17 +75,21 @@ export function BundleActions({ selected, filter, total = 0, onDropUnavailable, 
   const sel = chosen.data;
   const unavailable = sel?.unavailable ?? [];
   const bundleable = unavailable.length ? selected.filter((r) => !unavailable.some((u) => u.ref === r)) : selected;
-  const selLabel = `${selectionLabel} (${bundleable.length}${sel ? `, ~${formatBytes(sel.estimatedBytes)}` : ""})`;
+  const size = sel ? `, ~${formatBytes(sel.estimatedBytes)}` : "";
+  // with networks left out, say how many go in: "Bundle selection: the other 3 networks (~120 kB)"
+  const selLabel = unavailable.length
+    ? `${selectionLabel}: the other ${bundleable.length} network${bundleable.length === 1 ? "" : "s"} (${size.slice(2)})`
+    : `${selectionLabel} (${bundleable.length}${size})`;
 
   return (
     <div className="flex flex-wrap items-center gap-3" data-testid="bundle-actions">
       {selected.length > 0 &&
-        (unavailable.length > 0 ? (
+        (bundleable.length === 0 ? (
           <span className={disabledLook} aria-disabled="true">
-            {selLabel}
+            {selectionLabel}: nothing left to bundle
           </span>
-        ) : selected.length <= MAX_REFS_IN_URL ? (
-          <a className={linkLook} href={bundleUrlForRefs(selected, choice)} download>
+        ) : bundleable.length <= MAX_REFS_IN_URL ? (
+          <a className={linkLook} href={bundleUrlForRefs(bundleable, choice)} download>
             {selLabel}
           </a>
         ) : (
@@ -96,7 +101,7 @@ export function BundleActions({ selected, filter, total = 0, onDropUnavailable, 
             onClick={() => {
               setBusy(true);
               setError(null);
-              downloadByPost(selected, choice)
+              downloadByPost(bundleable, choice)
                 .catch((e: Error) => setError(e.message))
                 .finally(() => setBusy(false));
             }}
@@ -121,10 +126,13 @@ export function BundleActions({ selected, filter, total = 0, onDropUnavailable, 
         <BundleOptions id={optionsId} choice={choice} onChange={setChoice} />
       </details>
       {unavailable.length > 0 && (
-        <div role="alert" className="w-full rounded border border-red-300 bg-red-50 p-2 text-sm text-red-900">
+        <div role="alert" className="w-full rounded border border-lichen-600 bg-lichen-300/40 p-2 text-sm text-stone-900">
           <p>
             {unavailable.length === 1 ? "One selected network" : `${unavailable.length} selected networks`} can no longer be bundled:{" "}
-            {unavailable.map((u) => `${u.ref} (${u.reason === "withdrawn" ? "withdrawn" : "not published"})`).join(", ")}.
+            {unavailable.map((u) => `${u.ref} (${u.reason === "withdrawn" ? "withdrawn" : "not published"})`).join(", ")}.{" "}
+            {bundleable.length > 0
+              ? `The bundle holds the other ${bundleable.length} (~${formatBytes(sel!.estimatedBytes)}).`
+              : "No other network is selected."}
           </p>
           {onDropUnavailable && (
             <button type="button" className="mt-1 font-semibold underline" onClick={() => onDropUnavailable(unavailable.map((u) => u.ref))}>

@@ -2,24 +2,29 @@
  * /compare?refs=TB-000001/v1/1,…&null=curveball — networks side by side: Q or z (toggle) against connectance
  * and against S, coloured by interaction type; z, Q_rel and p against one chosen null model (named in the
  * table and the export); the figure adjusted to the selection's mean size and connectance (utils/adjust.ts,
- * method stated on the page); a metrics table; CSV and SVG exports. The selection lives in the URL.
+ * method stated on the page); a metrics table; CSV and SVG exports. The selection lives in the URL
+ * (`refs=…`, or `collection=TBC-…&revision=N` to open a collection). References that cannot be plotted
+ * (malformed, unknown, withdrawn) are listed beside the charts with their reason and a Remove button while
+ * the others are plotted; "Add" takes a network, a whole dataset version or a collection.
  */
 import { useRef, useState, type FormEvent } from "react";
 import { Link, useSearchParams } from "react-router-dom";
-import type { NetworkCompareRow } from "../../../../../shared/types/network-view";
+import type { CompareUnavailable, NetworkCompareRow } from "../../../../../shared/types/network-view";
+import { ApiClientError } from "../../../lib/api-client";
 import { paths } from "../../../config/paths";
 import { ChartFigure } from "../../../components/charts/chart-figure";
 import { Legend } from "../../../components/charts/legend";
 import { Scatter, type ScatterPoint } from "../../../components/charts/scatter";
 import { interactionTypeColour, interactionTypeLabel } from "../../../components/charts/theme";
 import { useCompareRows } from "../api/get-compare-rows";
+import { expandCollection, expandDataset, useCompareCollection } from "../api/expand-reference";
+import { MAX_COMPARE, mergeRefs, parseCompareInput } from "../utils/compare-input";
 import { compareCsv, downloadText, serializeSvg } from "../utils/export";
 import { adjustForSizeAndConnectance, MIN_ADJUST_NETWORKS } from "../utils/adjust";
 import { FigureCautions, NullBadge, fmtPFloor, fmtZ, isLiberal, nullInfo, nullLabel } from "../../../components/figures/significance";
 import { NULL_MODELS } from "../../../../../shared/network/null-models/index";
 
 type Measure = "Q" | "z";
-const REF_RE = /^TB-\d{6}\/v\d+\/\d+$/;
 const fmt = (v: number | null | undefined, d = 3) => (v === null || v === undefined || !Number.isFinite(v) ? "—" : v.toFixed(d));
 const btn = "rounded border border-moss-700 px-3 py-1.5 text-sm font-semibold text-moss-700 hover:bg-moss-50";
 
@@ -32,19 +37,31 @@ function measureOf(r: NetworkCompareRow, m: Measure, model: string): number | nu
   return v === null || v === undefined || !Number.isFinite(v) ? null : v;
 }
 
+const REASON_LABEL: Record<CompareUnavailable["reason"], string> = { malformed: "not a reference", unknown: "not found", withdrawn: "withdrawn" };
+
 export function ComparePage() {
   const [params, setParams] = useSearchParams();
-  const refs = (params.get("refs") ?? "").split(",").map((s) => s.trim()).filter(Boolean);
+  const urlRefs = (params.get("refs") ?? "").split(",").map((s) => s.trim()).filter(Boolean);
+  const collectionCode = params.get("collection");
+  const collectionRevision = /^\d{1,6}$/.test(params.get("revision") ?? "") ? Number(params.get("revision")) : null;
+  const coll = useCompareCollection(collectionCode, collectionRevision);
+  const allRefs = coll.data ? mergeRefs(coll.data.refs, urlRefs).next : urlRefs;
+  const refs = allRefs.slice(0, MAX_COMPARE);
   const measure: Measure = params.get("y") === "z" ? "z" : "Q";
   const nullModel = (NULL_MODELS as readonly string[]).includes(params.get("null") ?? "") ? params.get("null")! : "curveball";
   const q = useCompareRows(refs);
   const [input, setInput] = useState("");
   const [inputError, setInputError] = useState<string | null>(null);
+  const [addNote, setAddNote] = useState<string | null>(null);
+  const [adding, setAdding] = useState(false);
   const svgC = useRef<SVGSVGElement>(null);
   const svgS = useRef<SVGSVGElement>(null);
 
+  /** Any edit turns an opened collection into an explicit list of references (the link then names them). */
   function setRefs(next: string[]) {
     const p = new URLSearchParams(params);
+    p.delete("collection");
+    p.delete("revision");
     if (next.length) p.set("refs", next.join(","));
     else p.delete("refs");
     setParams(p);
@@ -60,17 +77,51 @@ export function ComparePage() {
     else p.set("null", m);
     setParams(p, { replace: true });
   }
-  function add(e: FormEvent) {
-    e.preventDefault();
-    const r = input.trim();
-    if (!REF_RE.test(r)) return setInputError("Write a network reference like TB-000042/v2/3.");
-    if (refs.includes(r)) return setInputError(`${r} is already in the comparison.`);
-    setInputError(null);
+  function addRefs(more: string[], what: string, withdrawnLeftOut = 0) {
+    const { next, added } = mergeRefs(allRefs, more);
+    const left = withdrawnLeftOut ? ` ${withdrawnLeftOut} withdrawn member${withdrawnLeftOut === 1 ? " was" : "s were"} left out.` : "";
+    if (!added.length) {
+      setInputError(more.length ? `Every network of ${what} is already in the comparison.${left}` : `${what} holds no network that can be compared.${left}`);
+      return;
+    }
+    if (next.length > MAX_COMPARE) {
+      setInputError(`${what} would make ${next.length} networks; the view compares at most ${MAX_COMPARE}. Remove some first.`);
+      return;
+    }
     setInput("");
-    setRefs([...refs, r]);
+    setAddNote(`Added ${added.length} network${added.length === 1 ? "" : "s"} of ${what}.${added.length < more.length ? ` ${more.length - added.length} ${more.length - added.length === 1 ? "was" : "were"} already here.` : ""}${left}`);
+    setRefs(next);
+  }
+  async function add(e: FormEvent) {
+    e.preventDefault();
+    setAddNote(null);
+    const parsed = parseCompareInput(input);
+    if (!parsed) return setInputError("Write a network (TB-000042/v2/3), a dataset (TB-000042 or TB-000042/v2) or a collection (TBC-000007).");
+    setInputError(null);
+    if (parsed.kind === "network") {
+      if (allRefs.includes(parsed.ref)) return setInputError(`${parsed.ref} is already in the comparison.`);
+      return addRefs([parsed.ref], parsed.ref);
+    }
+    setAdding(true);
+    try {
+      if (parsed.kind === "dataset") {
+        const set = await expandDataset(parsed.accession, parsed.version);
+        addRefs(set.refs, set.label);
+      } else {
+        const set = await expandCollection(parsed.code, parsed.revision);
+        const withdrawn = new Set(set.withdrawn);
+        addRefs(set.refs.filter((r) => !withdrawn.has(r)), set.label, withdrawn.size);
+      }
+    } catch (err) {
+      setInputError(err instanceof ApiClientError && err.status === 404 ? `${err.message} (it may be private or not yet published).` : (err as Error).message);
+    } finally {
+      setAdding(false);
+    }
   }
 
-  const rows = q.data ?? [];
+  const unavailable = q.data?.meta.unavailable ?? [];
+  const unavailableRefs = new Set(unavailable.map((u) => u.ref));
+  const rows = q.data?.data ?? [];
   const types = [...new Set(rows.map((r) => r.interactionType))].sort();
   const yLabel = measure === "Q" ? "Optimized modularity Q (unitless)" : `z against ${nullLabel(nullModel)} (null sd units)`;
   const withY = rows.filter((r) => measureOf(r, measure, nullModel) !== null);
@@ -105,52 +156,127 @@ export function ComparePage() {
 
       <section aria-labelledby="sel-h" className="rounded-lg bg-white p-4 ring-1 ring-stone-200">
         <h2 id="sel-h" className="text-lg font-bold text-moss-700">
-          Selection ({refs.length})
+          Selection ({allRefs.length})
         </h2>
-        {refs.length === 0 && (
+        {collectionCode && coll.data && (
+          <p className="mt-1 text-sm text-stone-700" data-testid="compare-collection">
+            The networks of collection{" "}
+            <Link className="font-semibold text-moss-700 underline" to={paths.collection.href(collectionCode, collectionRevision ?? undefined)}>
+              {coll.data.label}
+            </Link>
+            {urlRefs.length ? `, and ${urlRefs.length} more` : ""}. Changing the selection turns this link into a list of the networks.
+          </p>
+        )}
+        {collectionCode && coll.isPending && <p className="mt-1 text-stone-700">Opening collection {collectionCode}…</p>}
+        {collectionCode && coll.isError && (
+          <p role="alert" className="mt-2 rounded border border-red-300 bg-red-50 p-2 text-sm text-red-900">
+            Collection {collectionCode} could not be opened: {coll.error.message}
+          </p>
+        )}
+        {allRefs.length === 0 && !(collectionCode && coll.isPending) && (
           <p className="mt-2 text-stone-700">
             No networks chosen yet. Pick them in the{" "}
             <Link className="text-moss-700 underline" to={paths.catalogue.href()}>
               catalogue
             </Link>{" "}
-            or add a reference below.
+            or add a network, a dataset or a collection below.
           </p>
         )}
-        <ul className="mt-2 flex flex-wrap gap-2">
-          {refs.map((r) => (
-            <li key={r} className="flex items-center gap-1 rounded-full bg-moss-50 py-0.5 pr-1 pl-3 text-sm ring-1 ring-moss-200">
+        {allRefs.length > MAX_COMPARE && (
+          <p className="mt-2 rounded border border-lichen-600 bg-lichen-300/40 p-2 text-sm text-stone-900">
+            The view compares at most {MAX_COMPARE} networks: the first {MAX_COMPARE} of these {allRefs.length} are shown.
+          </p>
+        )}
+        <ul className="mt-2 flex flex-wrap gap-2" aria-label="Networks in the comparison">
+          {allRefs.map((r) => (
+            <li
+              key={r}
+              className={`flex items-center gap-1 rounded-full py-0.5 pr-1 pl-3 text-sm ring-1 ${unavailableRefs.has(r) ? "bg-red-50 text-red-900 ring-red-300" : "bg-moss-50 ring-moss-200"}`}
+            >
               <span className="font-mono">{r}</span>
-              <button type="button" className="rounded-full px-2 text-moss-700 hover:bg-moss-100" aria-label={`Remove ${r}`} onClick={() => setRefs(refs.filter((x) => x !== r))}>
+              {unavailableRefs.has(r) && <span className="text-xs">({REASON_LABEL[unavailable.find((u) => u.ref === r)!.reason]})</span>}
+              <button type="button" className="rounded-full px-2 text-moss-700 hover:bg-moss-100" aria-label={`Remove ${r}`} onClick={() => setRefs(allRefs.filter((x) => x !== r))}>
                 ×
               </button>
             </li>
           ))}
         </ul>
-        <form className="mt-3 flex flex-wrap items-end gap-2" onSubmit={add} noValidate>
-          <div>
+        <form className="mt-3 flex flex-wrap items-end gap-2" onSubmit={(e) => void add(e)} noValidate>
+          <div className="min-w-0 flex-1 sm:flex-none">
             <label htmlFor="add-ref" className="block text-sm font-semibold text-stone-800">
-              Add a network
+              Add a network, a dataset or a collection
             </label>
             <input
               id="add-ref"
               value={input}
               onChange={(e) => setInput(e.target.value)}
-              placeholder="TB-000042/v2/3"
+              placeholder="TB-000042/v2/3, TB-000042 or TBC-000007"
               aria-invalid={inputError ? true : undefined}
-              aria-describedby={inputError ? "add-ref-error" : undefined}
-              className="mt-1 rounded border border-stone-400 px-2 py-1 font-mono"
+              aria-describedby={inputError ? "add-ref-error" : "add-ref-hint"}
+              className="mt-1 w-full rounded border border-stone-400 px-2 py-1 font-mono sm:w-[26rem]"
             />
           </div>
-          <button type="submit" className={btn}>
-            Add
+          <button type="submit" className={btn} disabled={adding} aria-busy={adding || undefined}>
+            {adding ? "Adding…" : "Add"}
           </button>
+          <p id="add-ref-hint" className="w-full text-xs text-stone-600">
+            A dataset adds all networks of that version (the latest published one when no version is given); a collection adds its published members. Page addresses
+            of datasets, networks and collections work too.
+          </p>
           {inputError && (
-            <p id="add-ref-error" className="w-full text-sm text-red-800">
+            <p id="add-ref-error" role="alert" className="w-full text-sm text-red-800">
               {inputError}
+            </p>
+          )}
+          {addNote && (
+            <p role="status" className="w-full text-sm text-moss-700">
+              {addNote}
             </p>
           )}
         </form>
       </section>
+
+      {unavailable.length > 0 && (
+        <section aria-labelledby="unplotted-h" className="rounded-lg border border-lichen-600 bg-lichen-300/30 p-4" data-testid="not-plotted">
+          <div className="flex flex-wrap items-baseline justify-between gap-2">
+            <h2 id="unplotted-h" className="text-lg font-bold text-stone-900">
+              Not plotted ({unavailable.length} of {refs.length})
+            </h2>
+            {unavailable.length > 1 && (
+              <button type="button" className={btn} onClick={() => setRefs(allRefs.filter((r) => !unavailableRefs.has(r)))}>
+                Remove all {unavailable.length}
+              </button>
+            )}
+          </div>
+          <p className="mt-1 text-sm text-stone-800">
+            {rows.length > 0 ? `The other ${rows.length} network${rows.length === 1 ? " is" : "s are"} plotted below.` : "No other network is left to plot."}
+          </p>
+          <ul className="mt-2 space-y-2">
+            {unavailable.map((u) => (
+              <li key={u.ref} className="flex flex-wrap items-start justify-between gap-2 rounded bg-white/70 p-2 text-sm">
+                <div className="min-w-0 flex-1">
+                  <p>
+                    <span className="font-mono font-semibold">{u.ref}</span> — {REASON_LABEL[u.reason]}
+                  </p>
+                  {u.tombstone ? (
+                    <p className="mt-0.5 text-stone-800">
+                      Withdrawn on {u.tombstone.withdrawnAt.slice(0, 10)}: {u.tombstone.reason}{" "}
+                      <Link className="text-moss-700 underline" to={paths.datasetVersion.href(u.tombstone.accession, u.tombstone.version)}>
+                        What it was and how to cite it
+                      </Link>
+                    </p>
+                  ) : (
+                    <p className="mt-0.5 text-stone-800">{u.message}</p>
+                  )}
+                </div>
+                <button type="button" className="rounded border border-stone-500 px-2 py-0.5 text-sm font-semibold text-stone-800 hover:bg-stone-100" aria-label={`Remove ${u.ref} from the comparison`} onClick={() => setRefs(allRefs.filter((x) => x !== u.ref))}>
+                  Remove
+                </button>
+              </li>
+            ))}
+          </ul>
+        </section>
+      )}
 
       {q.isError && (
         <p role="alert" className="rounded border border-red-300 bg-red-50 p-3 text-red-900">

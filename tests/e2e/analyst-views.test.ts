@@ -1,0 +1,169 @@
+/**
+ * What analysts and teachers take away, in Chromium: the compare view survives references it cannot plot
+ * (unknown, withdrawn, malformed: named beside the chart with a Remove button while the rest is plotted),
+ * adds a whole dataset or a collection, opens a collection whose member was withdrawn; "Bundle selection"
+ * with a stale, withdrawn network says so and bundles the others with their size.
+ * Screenshots at desktop width and at 390 px (a phone) go to test-artifacts/screenshots; axe must find no
+ * serious or critical violation. Invented data (tests/server/support/catalogue-fixtures.ts).
+ */
+import { readFileSync } from "node:fs";
+import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { AxeBuilder } from "@axe-core/playwright";
+import type { Page } from "playwright-core";
+import { QueryTypes } from "sequelize";
+import { startStack, type TestStack } from "../server/support/stack";
+import { openBrowser, screenshot, signInViaApi, type BrowserSession } from "./support/browser";
+import { resetDatabase } from "../setup/db";
+import { unzip } from "../server/support/unzip";
+import { catalogueStore } from "../../server/src/api/catalogue/catalogue.store";
+import { publishDataset, type PublishedFixture } from "../server/support/catalogue-fixtures";
+import { createUser, TEST_PASSWORD } from "../server/support/accounts";
+import { sequelize } from "../../server/src/db/sequelize";
+
+let stack: TestStack;
+let browser: BrowserSession;
+let meadow: PublishedFixture;
+let coast: PublishedFixture;
+let gone: PublishedFixture;
+let collectionCode: string;
+const ref = (f: PublishedFixture, pos: number) => `${f.accession}/v1/${pos}`;
+
+async function axeCheck(page: Page) {
+  const axe = await new AxeBuilder({ page }).withTags(["wcag2a", "wcag2aa"]).analyze();
+  expect(axe.violations.filter((v) => v.impact === "serious" || v.impact === "critical").map((v) => `${v.id}: ${v.nodes.map((n) => n.target.join(" ")).join(", ")}`)).toEqual([]);
+}
+
+/** Circles of both compare charts (each plotted network is one focusable point per chart). */
+const plotted = (page: Page) => page.locator("svg circle[tabindex='0']").count();
+
+beforeAll(async () => {
+  await resetDatabase();
+  catalogueStore.reset();
+  const owner = await createUser({ email: "analyst.e2e@example.test", displayName: "Ada Marsh" });
+  meadow = await publishDataset({
+    study: { title: "Meadow visitors of the Verrin Hills" },
+    networks: [1, 2, 3].map((k) => ({ seed: k, rows: 4 + k, cols: 6, meta: { name: `Meadow plot ${k}` }, metrics: { q: 0.3 + 0.05 * k, z: 1.5 + k, qRel: 0.2 } })),
+  });
+  coast = await publishDataset({
+    study: { title: "Fruit eaters of the Tallow Coast" },
+    networks: [4, 5].map((k) => ({ seed: k, rows: 5, cols: 4 + k, meta: { name: `Coast transect ${k - 3}`, interactionType: "seed-dispersal" as const }, metrics: { q: 0.25 + 0.04 * k, z: 2 + k, qRel: 0.3 } })),
+  });
+  gone = await publishDataset({ study: { title: "Later withdrawn survey" }, networks: [{ seed: 9, meta: { name: "Duplicated plot" }, metrics: { q: 0.4, z: 3, qRel: 0.2 } }] });
+  stack = await startStack();
+  browser = await openBrowser();
+  // a public collection holding a network that is withdrawn afterwards
+  await signInViaApi(browser.page, stack.url, owner.email, TEST_PASSWORD);
+  const { csrfToken } = (await (await browser.page.request.get(`${stack.url}/api/v1/auth/session`)).json()) as { csrfToken: string };
+  const created = await browser.page.request.post(`${stack.url}/api/v1/collections`, {
+    data: { name: "Upland and coast webs", visibility: "public", refs: [ref(meadow, 1), ref(gone, 1), ref(coast, 1)] },
+    headers: { "x-csrf-token": csrfToken },
+  });
+  expect(created.status()).toBe(201);
+  collectionCode = ((await created.json()) as { code: string }).code;
+  await browser.page.request.post(`${stack.url}/api/v1/auth/sign-out`, { headers: { "x-csrf-token": csrfToken } });
+  await sequelize().query(`UPDATE dataset_versions SET state = 'withdrawn', withdrawn_at = now(), withdrawal_reason = 'Duplicated transects.' WHERE id = :id`, {
+    replacements: { id: gone.versionId },
+    type: QueryTypes.UPDATE,
+  });
+});
+afterAll(async () => {
+  await browser?.close();
+  await stack?.stop();
+});
+
+describe("compare view with references it cannot plot", () => {
+  it("plots the rest, names each bad reference with its reason, removes it, and adds a whole dataset", async () => {
+    const { page } = browser;
+    await page.goto(`${stack.url}/compare?refs=${ref(meadow, 1)},${ref(gone, 1)},TB-999999/v1/1,${ref(meadow, 2)}`);
+    await page.getByRole("group", { name: "Scatter plot of Q against connectance" }).waitFor();
+    const notes = page.getByTestId("not-plotted");
+    await notes.getByRole("heading", { name: "Not plotted (2 of 4)" }).waitFor();
+    await expect.poll(() => plotted(page)).toBe(4); // 2 networks × 2 charts
+    await notes.getByText("Duplicated transects.").waitFor();
+    await notes.getByText(/No dataset TB-999999/).waitFor();
+    expect(await notes.getByRole("link", { name: "What it was and how to cite it" }).getAttribute("href")).toBe(`/datasets/${gone.accession}/v/1`);
+    await screenshot(page, "compare-not-plotted");
+    await axeCheck(page);
+
+    await notes.getByRole("button", { name: "Remove TB-999999/v1/1 from the comparison" }).click();
+    await page.waitForURL((u) => !u.searchParams.get("refs")!.includes("TB-999999"));
+    await notes.getByRole("heading", { name: "Not plotted (1 of 3)" }).waitFor();
+    // the chip of a withdrawn network says so and removes it too
+    await page.getByRole("button", { name: `Remove ${ref(gone, 1)}`, exact: true }).click();
+    await page.waitForURL((u) => u.searchParams.get("refs") === `${ref(meadow, 1)},${ref(meadow, 2)}`);
+    await expect.poll(() => notes.count()).toBe(0);
+
+    // a whole dataset at once (latest published version): its 2 networks join
+    await page.getByLabel("Add a network, a dataset or a collection").fill(coast.accession);
+    await page.getByRole("button", { name: "Add", exact: true }).click();
+    await page.getByText(`Added 2 networks of ${coast.accession} v1.`).waitFor();
+    expect(new URL(page.url()).searchParams.get("refs")).toBe([ref(meadow, 1), ref(meadow, 2), ref(coast, 1), ref(coast, 2)].join(","));
+    await expect.poll(() => plotted(page)).toBe(8);
+    // a dataset page address adds the missing network only
+    await page.getByLabel("Add a network, a dataset or a collection").fill(`${stack.url}/datasets/${meadow.accession}/v/1`);
+    await page.getByRole("button", { name: "Add", exact: true }).click();
+    await page.getByText(`Added 1 network of ${meadow.accession} v1. 2 were already here.`).waitFor();
+    // unknown input is refused at the field
+    await page.getByLabel("Add a network, a dataset or a collection").fill("meadow");
+    await page.getByRole("button", { name: "Add", exact: true }).click();
+    await page.getByText(/Write a network \(TB-000042\/v2\/3\), a dataset/).waitFor();
+    await page.getByLabel("Add a network, a dataset or a collection").fill("TB-999998");
+    await page.getByRole("button", { name: "Add", exact: true }).click();
+    await page.getByText(/No dataset TB-999998/).waitFor();
+  });
+
+  it("adds a collection's published members and opens a collection whose member was withdrawn", async () => {
+    const { page } = browser;
+    await page.goto(`${stack.url}/compare?refs=${ref(coast, 2)}`);
+    await page.getByRole("group", { name: "Scatter plot of Q against connectance" }).waitFor();
+    await page.getByLabel("Add a network, a dataset or a collection").fill(collectionCode);
+    await page.getByRole("button", { name: "Add", exact: true }).click();
+    await page.getByText(`Added 2 networks of ${collectionCode} “Upland and coast webs” (revision 1). 1 withdrawn member was left out.`).waitFor();
+    expect(new URL(page.url()).searchParams.get("refs")).toBe([ref(coast, 2), ref(meadow, 1), ref(coast, 1)].join(","));
+
+    // the collection page's compare link: the withdrawn member is a note, the two others are plotted
+    await page.goto(`${stack.url}/compare?collection=${collectionCode}`);
+    await page.getByTestId("compare-collection").getByRole("link", { name: new RegExp(collectionCode) }).waitFor();
+    const notes = page.getByTestId("not-plotted");
+    await notes.getByRole("heading", { name: "Not plotted (1 of 3)" }).waitFor();
+    await notes.getByText(ref(gone, 1)).waitFor();
+    await expect.poll(() => plotted(page)).toBe(4);
+    await screenshot(page, "compare-collection");
+  });
+
+  it("reads well on a 390 px phone", async () => {
+    const phone = await openBrowser({ width: 390, height: 844 });
+    try {
+      await phone.page.goto(`${stack.url}/compare?refs=${ref(meadow, 1)},${ref(gone, 1)},${ref(coast, 1)}`);
+      await phone.page.getByTestId("not-plotted").waitFor();
+      await phone.page.getByRole("group", { name: "Scatter plot of Q against connectance" }).waitFor();
+      const overflow = await phone.page.evaluate(() => document.documentElement.scrollWidth - window.innerWidth);
+      expect(overflow).toBeLessThanOrEqual(0);
+      await screenshot(phone.page, "compare-not-plotted-390");
+    } finally {
+      await phone.close();
+    }
+  });
+});
+
+describe("bundling a stale selection", () => {
+  it("names the withdrawn network, shows the size of the rest and bundles them", async () => {
+    const { page } = browser;
+    await page.goto(`${stack.url}/catalogue`);
+    // a selection made before the withdrawal, kept by the browser
+    await page.evaluate((refs) => localStorage.setItem("tanglebank.catalogue.selection", JSON.stringify(refs)), [ref(meadow, 3), ref(gone, 1), ref(coast, 2)]);
+    await page.reload();
+    const actions = page.getByTestId("bundle-actions");
+    await actions.getByText(new RegExp(`One selected network can no longer be bundled: ${ref(gone, 1)} \\(withdrawn\\)`)).waitFor();
+    const link = actions.getByRole("link", { name: /^Bundle selection: the other 2 networks \(~\d[\d.]* [kMG]?B\)$/ });
+    await link.waitFor();
+    await actions.getByText(/The bundle holds the other 2 \(~/).waitFor();
+    await screenshot(page, "catalogue-stale-selection");
+    const [download] = await Promise.all([page.waitForEvent("download"), link.click()]);
+    const entries = await unzip(readFileSync((await download.path())!));
+    expect([...entries.keys()].filter((n) => n.startsWith("networks/")).sort()).toEqual([ref(meadow, 3), ref(coast, 2)].map((r) => `networks/${r.replace(/\//g, "_")}.csv`).sort());
+    // dropping it restores the ordinary button
+    await actions.getByRole("button", { name: "Remove it from the selection" }).click();
+    await actions.getByRole("link", { name: /^Bundle selection \(2, ~/ }).waitFor();
+  });
+});
