@@ -45,7 +45,8 @@ export function nodeSides(view: Pick<ModuleMatrixData, "kind" | "metadata">): { 
   return { rows: view.metadata.rowLevel ?? "row nodes", cols: view.metadata.colLevel ?? "column nodes" };
 }
 
-export function ModuleMatrix({ view, title = "Interaction matrix ordered by module", actions }: { view: ModuleMatrixData; title?: string; actions?: ReactNode }) {
+/** `id` prefixes the figure's element ids: give each matrix on a page its own. */
+export function ModuleMatrix({ view, title = "Interaction matrix ordered by module", actions, id = "matrix" }: { view: ModuleMatrixData; title?: string; actions?: ReactNode; id?: string }) {
   const canvasRef = useRef<HTMLCanvasElement>(null);
   const [img, setImg] = useState<MatrixImage | null>(null);
   const [error, setError] = useState<string | null>(null);
@@ -185,7 +186,7 @@ export function ModuleMatrix({ view, title = "Interaction matrix ordered by modu
   const blocks = img?.blocks ?? [];
   return (
     <ChartFigure
-      id="matrix"
+      id={id}
       title={title}
       caption={
         <>
@@ -235,11 +236,11 @@ export function ModuleMatrix({ view, title = "Interaction matrix ordered by modu
           ref={canvasRef}
           data-testid="matrix-canvas"
           role="img"
-          aria-label={`Interaction matrix, ${nRows} by ${nCols}, ordered by module`}
+          aria-label={`Interaction matrix, ${nRows} by ${nCols}, ordered by ${partitioned ? "module" : "decreasing degree"}`}
           className="max-w-full"
           style={{ imageRendering: img && !img.cell ? "pixelated" : "auto", display: img ? "block" : "none" }}
           tabIndex={0}
-          aria-describedby="matrix-help"
+          aria-describedby={`${id}-help`}
           onKeyDown={onKey}
           onBlur={() => setCursor(null)}
           onMouseMove={onMove}
@@ -249,7 +250,7 @@ export function ModuleMatrix({ view, title = "Interaction matrix ordered by modu
       <p className="mt-1 min-h-5 text-sm text-stone-700" aria-live="polite">
         {hover}
       </p>
-      <p id="matrix-help" className="text-xs text-stone-600">
+      <p id={`${id}-help`} className="text-xs text-stone-600">
         Point at a cell, or focus the matrix and use the arrow keys (Shift moves 10 cells), to read its row, column, modules and value.
       </p>
       {partitioned && img && <ModuleLegend blocks={blocks} sides={sides} square={square} twice={twice} />}

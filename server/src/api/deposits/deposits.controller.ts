@@ -64,6 +64,7 @@ export async function submit(req: Request, res: Response) {
 
 export async function networkFile(req: Request, res: Response) {
   const f = await s.getDepositNetworkFile(idParam(req.params.id, "deposit"), idParam(req.params.networkId, "network"), viewer(req));
+  res.setHeader("Digest", `sha-256=${Buffer.from(f.sha256, "hex").toString("base64")}`);
   res.attachment(f.name).type(originalFileType(f.name, f.bytes)).send(f.bytes);
 }
 

@@ -28,6 +28,7 @@ import { depositReceiptEmail } from "../../emails/templates/deposit-receipt";
 import { buildDatasetDetail, type Viewer } from "../datasets/datasets.service";
 import type { UploadedFile } from "./deposits.upload";
 import { cellOf, readSheet, writeSheet } from "./deposits.sheet";
+import { recordSubmission } from "./deposits.snapshots";
 
 export const OWNER_EDITABLE: VersionState[] = ["draft", "changes_requested"];
 const MAX_METADATA_CHARS = 200_000;
@@ -472,7 +473,8 @@ export async function submitDeposit(versionId: number, viewer: Viewer): Promise<
     const resubmission = r.version.state === "changes_requested";
     const from = r.version.state;
     await bump(r.version, t, { state: "submitted", submittedAt: new Date() });
-    await audit({ actorId: viewer.id, action: "deposit.submit", entityType: "dataset_version", entityId: r.version.id, datasetId: r.dataset.id, details: { from, to: "submitted", networks: networks.length } }, t);
+    const round = await recordSubmission(r.version.id, viewer.id, t);
+    await audit({ actorId: viewer.id, action: "deposit.submit", entityType: "dataset_version", entityId: r.version.id, datasetId: r.dataset.id, details: { from, to: "submitted", networks: networks.length, round } }, t);
     return { ...r, resubmission, networkCount: networks.length };
   });
   await notifyCurators(dataset, version, viewer, resubmission);
@@ -559,12 +561,12 @@ export async function loadCuratorEditable(versionId: number, viewer: Viewer, t: 
 }
 
 /** The original file of a network of a version the viewer may see. */
-export async function getDepositNetworkFile(versionId: number, networkId: number, viewer: Viewer): Promise<{ name: string; bytes: Buffer }> {
+export async function getDepositNetworkFile(versionId: number, networkId: number, viewer: Viewer): Promise<{ name: string; bytes: Buffer; sha256: string }> {
   const { version } = await loadVisibleVersion(versionId, viewer);
   const net = await loadNetworkOf(version, networkId);
   const file = await StoredFile.unscoped().findByPk(net.fileId);
   if (!file) throw ApiError.notFound("The stored file is missing.");
-  return { name: net.originalName, bytes: file.bytes };
+  return { name: net.originalName, bytes: file.bytes, sha256: file.sha256 };
 }
 
 /** The canonical parsed form of a network (for previews). */

@@ -5,6 +5,7 @@ import { ApiError } from "../../lib/api-error";
 import { requireRole } from "../../middlewares/require-role";
 import { idParam } from "../deposits/deposits.validation";
 import * as s from "./reviews.service";
+import { submissionDiff } from "./reviews.diff";
 
 export const reviewsRouter = Router();
 reviewsRouter.use(requireRole("curator"));
@@ -42,4 +43,7 @@ reviewsRouter.put("/:versionId/metadata", async (req, res) => {
 });
 reviewsRouter.patch("/:versionId/networks/:networkId", async (req, res) => {
   res.json(await s.correctNetworkMetadata(idParam(req.params.versionId, "submission"), idParam(req.params.networkId, "network"), req.user!, (req.body as { metadata?: unknown } | undefined)?.metadata));
+});
+reviewsRouter.get("/:versionId/diff", async (req, res) => {
+  res.json(await submissionDiff(idParam(req.params.versionId, "submission"), req.user!));
 });

@@ -15,9 +15,11 @@ import { networkErrors, prune, studyErrors } from "../../../components/metadata/
 import { Alert, Button } from "../../../components/ui/form";
 import { useReview, useReviewCanonical } from "../api/get-review";
 import { correctNetwork, correctStudy, decide, useReviewMutation, useWithdrawDataset, type Decision } from "../api/mutations";
-import type { ReviewDetail } from "../api/types";
+import type { HistoryEntry, ReviewDetail } from "../api/types";
 import { ValueOrNotRecorded } from "../../../components/metadata/not-recorded";
 import { figuresState } from "../utils/figures-state";
+import { ReviewMatrix } from "./review-matrix";
+import { SubmissionDiffSection } from "./submission-diff";
 
 const ACTION_LABELS: Record<string, string> = {
   "deposit.create": "Draft created",
@@ -35,6 +37,33 @@ const ACTION_LABELS: Record<string, string> = {
   "version.create": "New version started",
   "dataset.withdraw": "Withdrawn",
 };
+
+/** A history line with what the audit row says (which network, which files, which submission). */
+function historyLabel(h: HistoryEntry): string {
+  const d = h.details;
+  const label = ACTION_LABELS[h.action] ?? h.action;
+  switch (h.action) {
+    case "deposit.network.update":
+      return typeof d.position === "number" ? `Network ${d.position} changed (${d.reparsed ? "file read again" : "metadata"})` : label;
+    case "deposit.network.delete":
+      return typeof d.originalName === "string" ? `${label}: ${d.originalName}` : label;
+    case "deposit.network.add":
+      return Array.isArray(d.files) ? `${label}: ${(d.files as Array<{ name?: string }>).map((f) => f.name).join(", ")}` : label;
+    case "deposit.submit":
+      return typeof d.round === "number" && d.round > 1 ? `${label} (submission ${d.round})` : label;
+    default:
+      return label;
+  }
+}
+
+/** Deposits with up to this many networks show every whole matrix at once; larger ones open them one by one. */
+const FULL_MATRICES_OPEN = 6;
+
+function formatBytes(n: number): string {
+  if (n < 1024) return `${n} bytes`;
+  if (n < 1024 * 1024) return `${(n / 1024).toFixed(1)} KB`;
+  return `${(n / 1024 / 1024).toFixed(1)} MB`;
+}
 
 function Preview({ versionId, n }: { versionId: number; n: NetworkSummary }) {
   const { data } = useReviewCanonical(versionId, n.id);
@@ -69,7 +98,13 @@ function NetworkBlock({ r, n }: { r: ReviewDetail; n: NetworkSummary }) {
           </h3>
           <p className="text-sm text-stone-700">
             {n.originalName} · {n.format === "matrix" ? "matrix" : "edge list"} · {n.kind}
-            {n.directed ? ", directed" : ""} · {n.nRows !== null ? `${n.nRows} × ${n.nCols}` : `${n.nNodes} nodes`} · {n.nLinks} links · connectance {n.connectance === null ? "—" : n.connectance.toFixed(3)} · SHA-256 <code className="break-all">{n.sha256.slice(0, 16)}…</code>
+            {n.directed ? ", directed" : ""} · {n.nRows !== null ? `${n.nRows} × ${n.nCols}` : `${n.nNodes} nodes`} · {n.nLinks} links · connectance {n.connectance === null ? "—" : n.connectance.toFixed(3)}
+          </p>
+          <p className="mt-1 text-sm text-stone-800">
+            <a className="font-semibold text-moss-700 underline" href={`/api/v1/deposits/${r.versionId}/networks/${n.id}/file`} download={n.originalName}>
+              Download the deposited file
+            </a>{" "}
+            ({n.originalName}, {formatBytes(n.size)}) · SHA-256 <code className="break-all text-xs" data-testid="file-sha256">{n.sha256}</code>
           </p>
           {dup && (
             <div className="mt-2">
@@ -125,6 +160,7 @@ function NetworkBlock({ r, n }: { r: ReviewDetail; n: NetworkSummary }) {
           )}
         </div>
       </div>
+      <ReviewMatrix versionId={r.versionId} n={n} initiallyOpen={r.networks.length <= FULL_MATRICES_OPEN} />
       {editing && (
         <form
           className="mt-4 border-t border-stone-200 pt-4"
@@ -322,6 +358,7 @@ export function ReviewPage({ versionId }: { versionId: number }) {
       {r.version.state === "declined" && last && <Alert tone="info" title={`Declined by ${last.curator}`}><p className="whitespace-pre-wrap">{last.comment}</p></Alert>}
       {r.version.state === "withdrawn" && r.withdrawal && <Alert tone="info" title={`Withdrawn on ${new Date(r.withdrawal.at).toLocaleDateString()}`}><p className="whitespace-pre-wrap">{r.withdrawal.reason}</p></Alert>}
       <DecisionForm r={r} />
+      {r.version.state !== "draft" && <SubmissionDiffSection versionId={r.versionId} submittedAt={r.version.submittedAt} />}
       <StudyBlock key={`s${r.lockVersion}`} r={r} />
       <section aria-labelledby="networks-h">
         <h2 id="networks-h" className="text-xl font-bold text-moss-700">
@@ -337,7 +374,7 @@ export function ReviewPage({ versionId }: { versionId: number }) {
         <ol className="mt-3 grid gap-1 text-sm">
           {r.history.map((h) => (
             <li key={h.id}>
-              <time dateTime={h.at} className="text-stone-700">{new Date(h.at).toLocaleString()}</time> · {ACTION_LABELS[h.action] ?? h.action}
+              <time dateTime={h.at} className="text-stone-700">{new Date(h.at).toLocaleString()}</time> · {historyLabel(h)}
               {h.actor ? ` by ${h.actor}` : ""}
               {typeof h.details.comment === "string" && h.details.comment ? `: “${h.details.comment}”` : ""}
             </li>
