@@ -1,4 +1,25 @@
-export type Role = "depositor" | "curator" | "admin";
+/**
+ * The roles, lowest first: each holds every power of the ones before it (admin ⊃ curator ⊃ depositor).
+ * The one ranking of the product: the server's requireRole, the client's navigation and page guards.
+ */
+export const ROLES = ["depositor", "curator", "admin"] as const;
+export type Role = (typeof ROLES)[number];
+
+/** Whether `user` holds at least the role `min`. */
+export function hasRole(user: { role: Role } | null | undefined, min: Role): boolean {
+  return !!user && ROLES.indexOf(user.role) >= ROLES.indexOf(min);
+}
+
+/** A personal API token as listed to its owner (GET/POST/DELETE /api/v1/tokens); the secret is never in it. */
+export interface ApiTokenView {
+  id: number;
+  name: string;
+  /** The secret's first characters, to tell tokens apart. */
+  prefix: string;
+  createdAt: string;
+  lastUsedAt: string | null;
+  revokedAt: string | null;
+}
 
 export interface SessionUser {
   id: number;

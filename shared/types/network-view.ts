@@ -135,7 +135,7 @@ export interface AuditEntry {
   details: Record<string, unknown>;
 }
 
-/** Body of a 410 answer for a withdrawn version. */
+/** A withdrawn version: the body of every 410 answer of the read API (datasets, networks, network views, files). */
 export interface Tombstone {
   accession: string;
   version: number;

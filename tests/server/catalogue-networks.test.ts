@@ -74,8 +74,17 @@ describe("network by reference", () => {
     expect(res.body).toMatchObject({ ref: `${pub.accession}/v1/1`, metrics: { Q: 0.42, qRel: 0.5, p: 0.01 } });
   });
 
-  it("withdrawn → 410; unknown → 404", async () => {
-    expect((await request(app).get(`/api/v1/networks/${gone.accession}/v1/1`)).status).toBe(410);
+  it("withdrawn → 410 with the tombstone as the body, on every read path; unknown → 404", async () => {
+    for (const path of ["", "/data.csv", "/data.json", "/metrics", "?format=csv"]) {
+      const res = await request(app).get(`/api/v1/networks/${gone.accession}/v1/1${path}`);
+      expect(res.status, path).toBe(410);
+      expect(res.body, path).toMatchObject({ code: "withdrawn", accession: gone.accession, version: 1, reason: expect.any(String), citation: expect.stringContaining(gone.accession), withdrawnAt: expect.any(String) });
+    }
+    for (const path of [`/api/v1/datasets/${gone.accession}`, `/api/v1/datasets/${gone.accession}/versions/1`, `/api/v1/datasets/${gone.accession}/versions/1/networks/1/file`, `/api/v1/network-views/${gone.accession}/1/1`]) {
+      const res = await request(app).get(path);
+      expect(res.status, path).toBe(410);
+      expect(res.body, path).toMatchObject({ code: "withdrawn", accession: gone.accession, version: 1, citation: expect.stringContaining(gone.accession) });
+    }
     expect((await request(app).get(`/api/v1/networks/${pub.accession}/v1/9`)).status).toBe(404);
     expect((await request(app).get(`/api/v1/networks/TB-999999/v1/1`)).status).toBe(404);
   });

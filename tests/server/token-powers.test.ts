@@ -1,7 +1,8 @@
 /**
  * What a personal API token (Bearer) may do: read with its owner's role and act as a depositor; curator
- * and admin writes (decisions, withdrawal, role changes, pipeline settings) and the outbox (live account
- * links) need a browser session and answer 403 `session_required` to a token.
+ * and admin writes (decisions, withdrawal, role changes, pipeline settings), the outbox (live account
+ * links), managing tokens and changing the account need a browser session and answer 403
+ * `session_required` to a token (one guard: requireRole / requireBrowserSession).
  */
 import request from "supertest";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
@@ -77,8 +78,17 @@ describe("API token powers", () => {
   it("a depositor token may deposit (depositor actions), but not mint tokens or change the account", async () => {
     const dep = await request(app).post("/api/v1/deposits").set(bearer(secrets.depositor)).send({ metadata: { title: "From a script" } });
     expect(dep.status).toBe(201);
-    expect((await request(app).post("/api/v1/tokens").set(bearer(secrets.depositor)).send({ name: "more" })).status).toBe(403);
-    expect((await request(app).patch("/api/v1/account").set(bearer(secrets.depositor)).send({ displayName: "X" })).status).toBe(403);
+    const calls = [
+      request(app).post("/api/v1/tokens").set(bearer(secrets.depositor)).send({ name: "more" }),
+      request(app).delete("/api/v1/tokens/1").set(bearer(secrets.depositor)),
+      request(app).patch("/api/v1/account").set(bearer(secrets.depositor)).send({ displayName: "X" }),
+      request(app).put("/api/v1/account/password").set(bearer(secrets.depositor)).send({ currentPassword: TEST_PASSWORD, newPassword: "another-pass-123" }),
+      request(app).delete("/api/v1/account/orcid").set(bearer(secrets.depositor)),
+    ];
+    for (const [i, res] of (await Promise.all(calls)).entries()) {
+      expect(res.status, `call ${i}`).toBe(403);
+      expect(res.body.code, `call ${i}`).toBe("session_required");
+    }
   });
 
   it("signing in with an Authorization header is a clear 400, not a server error", async () => {

@@ -1,4 +1,6 @@
 /** A typed error that services throw; the error handler maps it to `{ code, message, details }`. */
+import type { Tombstone } from "../../../shared/types/network-view";
+
 export interface ErrorDetail {
   /** JSON pointer (e.g. "/creators/0/name") or a field name. */
   path?: string;
@@ -37,5 +39,16 @@ export class ApiError extends Error {
   }
   static unprocessable(message: string, details?: ApiError["details"]) {
     return new ApiError(422, "validation_failed", message, details);
+  }
+}
+
+/**
+ * 410 Gone for a withdrawn dataset version. Every read path that reaches a withdrawn version throws it
+ * (datasets, networks, network views, files), and the error handler answers
+ * `{ code: "withdrawn", message, ...tombstone }`: the tombstone itself is the body, the same everywhere.
+ */
+export class GoneError extends ApiError {
+  constructor(public readonly tombstone: Tombstone) {
+    super(410, "withdrawn", `${tombstone.accession} v${tombstone.version} was withdrawn: ${tombstone.reason}`);
   }
 }

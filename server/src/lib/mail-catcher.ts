@@ -8,17 +8,10 @@ import { appendFileSync, existsSync, mkdirSync, readFileSync } from "node:fs";
 import { dirname } from "node:path";
 import { SMTPServer } from "smtp-server";
 import { simpleParser } from "mailparser";
+import type { OutboxMessage } from "../../../shared/types/outbox";
 
-export interface CapturedMail {
-  id: number;
-  receivedAt: string;
-  from: string;
-  to: string[];
-  subject: string;
-  text: string;
-  html: string;
-  links: string[];
-}
+/** A caught message: what the Outbox shows (shared/types/outbox.ts). */
+export type CapturedMail = OutboxMessage;
 
 export class MailCatcher {
   readonly messages: CapturedMail[] = [];

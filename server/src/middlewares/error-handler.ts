@@ -1,7 +1,7 @@
 import type { ErrorRequestHandler, RequestHandler } from "express";
 import { UniqueConstraintError, ValidationError as SequelizeValidationError } from "sequelize";
 import { MulterError } from "multer";
-import { ApiError } from "../lib/api-error";
+import { ApiError, GoneError } from "../lib/api-error";
 import { config } from "../config/env";
 import { DATABASE_UNAVAILABLE_MESSAGE, isDatabaseUnavailable } from "../lib/db-errors";
 
@@ -12,7 +12,7 @@ export const apiNotFound: RequestHandler = (req, res) => {
 
 /**
  * The one error pipeline. Mapping table:
- * ApiError → its status; the database unreachable (outage, restart, terminated connection) → 503 with a
+ * GoneError (a withdrawn version) → 410 with the tombstone as the body; ApiError → its status; the database unreachable (outage, restart, terminated connection) → 503 with a
  * plain message and Retry-After, never the driver's text; malformed JSON → 400; multer limits → 413/400;
  * unique constraint → 409; Sequelize validation → 422; other 4xx errors of Express/body-parser keep their
  * status; anything else → 500 without detail in production. Pages (outside /api) get the 503 as a short
@@ -21,6 +21,10 @@ export const apiNotFound: RequestHandler = (req, res) => {
 export const errorHandler: ErrorRequestHandler = (err, req, res, _next) => {
   if (res.headersSent) {
     res.destroy();
+    return;
+  }
+  if (err instanceof GoneError) {
+    res.status(410).json({ code: err.code, message: err.message, ...err.tombstone });
     return;
   }
   if (err instanceof ApiError) {

@@ -1,8 +1,6 @@
 import type { RequestHandler } from "express";
 import { ApiError } from "../lib/api-error";
-import type { Role } from "../models/user.model";
-
-const RANK: Record<Role, number> = { depositor: 1, curator: 2, admin: 3 };
+import { hasRole, type Role } from "../../../shared/types/auth";
 
 const SAFE_METHODS = new Set(["GET", "HEAD", "OPTIONS"]);
 
@@ -17,7 +15,7 @@ const SAFE_METHODS = new Set(["GET", "HEAD", "OPTIONS"]);
 export function requireRole(min: Role): RequestHandler {
   return (req, _res, next) => {
     if (!req.user) throw ApiError.unauthorized();
-    if (RANK[req.user.role] < RANK[min]) throw ApiError.forbidden(`This needs the ${min} role.`);
+    if (!hasRole(req.user, min)) throw ApiError.forbidden(`This needs the ${min} role.`);
     if (min !== "depositor" && req.authVia === "token" && !SAFE_METHODS.has(req.method)) throw sessionRequired();
     next();
   };
@@ -37,6 +35,4 @@ export const requireBrowserSession: RequestHandler = (req, _res, next) => {
 /** Any signed-in account. */
 export const requireSignedIn: RequestHandler = requireRole("depositor");
 
-export function hasRole(user: { role: Role } | undefined, min: Role): boolean {
-  return !!user && RANK[user.role] >= RANK[min];
-}
+export { hasRole };

@@ -1,7 +1,8 @@
 import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes, type Sequelize } from "sequelize";
 
-export type Role = "depositor" | "curator" | "admin";
-export const ROLES: readonly Role[] = ["depositor", "curator", "admin"];
+import { ROLES, type Role } from "../../../shared/types/auth";
+
+export { ROLES, type Role };
 
 export class User extends Model<InferAttributes<User>, InferCreationAttributes<User>> {
   declare id: CreationOptional<number>;

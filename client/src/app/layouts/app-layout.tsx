@@ -1,9 +1,7 @@
 import { NavLink, Outlet, useNavigation } from "react-router-dom";
 import { useSession } from "../../features/auth/api/get-session";
 import { paths } from "../../config/paths";
-import type { Role } from "../../../../shared/types/auth";
-
-const RANK: Record<Role, number> = { depositor: 1, curator: 2, admin: 3 };
+import { hasRole, type Role } from "../../../../shared/types/auth";
 
 interface NavItem {
   label: string;
@@ -47,7 +45,7 @@ export function AppLayout() {
   const { data } = useSession();
   const user = data?.user ?? null;
   const navigation = useNavigation();
-  const items = NAV.filter((i) => !i.min || (user && RANK[user.role] >= RANK[i.min]));
+  const items = NAV.filter((i) => !i.min || hasRole(user, i.min));
   return (
     <div className="flex min-h-screen flex-col">
       <a href="#main" className="sr-only focus:not-sr-only focus:absolute focus:left-2 focus:top-2 focus:z-50 focus:rounded focus:bg-white focus:px-3 focus:py-2">

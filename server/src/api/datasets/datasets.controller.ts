@@ -3,26 +3,13 @@ import { ApiError } from "../../lib/api-error";
 import { hasRole } from "../../middlewares/require-role";
 import { startNewVersion } from "../deposits/deposits.service";
 import { withdrawDataset } from "../reviews/reviews.service";
-import { TombstoneError, getPublishedDetail, getPublishedNetworkFile } from "./datasets.service";
+import { getPublishedDetail, getPublishedNetworkFile } from "./datasets.service";
 import { originalFileType } from "../../lib/file-type";
 
 function positiveInt(raw: unknown, what: string): number {
   const n = Number(raw);
   if (!Number.isInteger(n) || n < 1) throw ApiError.notFound(`No ${what} ${String(raw)}.`);
   return n;
-}
-
-/** 410 with the tombstone as the body ({ accession, citation, reason, withdrawnAt }). */
-async function withTombstone(res: Response, fn: () => Promise<void>): Promise<void> {
-  try {
-    await fn();
-  } catch (err) {
-    if (err instanceof TombstoneError) {
-      res.status(410).json({ code: err.code, message: err.message, ...err.tombstone });
-      return;
-    }
-    throw err;
-  }
 }
 
 /** The answer depends on who asks (owner and curators see exact coordinates and the contact e-mail): no shared caches. */
@@ -36,24 +23,18 @@ export async function show(req: Request, res: Response) {
   perViewer(res);
   const v = req.query.version;
   const number = v === undefined ? undefined : positiveInt(v, "version");
-  await withTombstone(res, async () => {
-    res.json(await getPublishedDetail(String(req.params.accession), number, req.user));
-  });
+  res.json(await getPublishedDetail(String(req.params.accession), number, req.user));
 }
 
 export async function showVersion(req: Request, res: Response) {
   perViewer(res);
-  await withTombstone(res, async () => {
-    res.json(await getPublishedDetail(String(req.params.accession), positiveInt(req.params.n, "version"), req.user));
-  });
+  res.json(await getPublishedDetail(String(req.params.accession), positiveInt(req.params.n, "version"), req.user));
 }
 
 export async function networkFile(req: Request, res: Response) {
-  await withTombstone(res, async () => {
-    const f = await getPublishedNetworkFile(String(req.params.accession), positiveInt(req.params.n, "version"), positiveInt(req.params.pos, "network"));
-    res.setHeader("Digest", `sha-256=${Buffer.from(f.sha256, "hex").toString("base64")}`);
-    res.attachment(f.name).type(originalFileType(f.name, f.bytes)).send(f.bytes);
-  });
+  const f = await getPublishedNetworkFile(String(req.params.accession), positiveInt(req.params.n, "version"), positiveInt(req.params.pos, "network"));
+  res.setHeader("Digest", `sha-256=${Buffer.from(f.sha256, "hex").toString("base64")}`);
+  res.attachment(f.name).type(originalFileType(f.name, f.bytes)).send(f.bytes);
 }
 
 export async function newVersion(req: Request, res: Response) {

@@ -9,14 +9,13 @@
 import { Op } from "sequelize";
 import type { DatasetDetail, NetworkMetadata, NetworkSummary, StudyMetadata, VersionState, VersionSummary } from "../../../../shared/types/dataset";
 import { publicLocality } from "../../lib/public-locality";
-import { formatCitationText } from "../../../../shared/citation";
-import { ApiError } from "../../lib/api-error";
+import { ApiError, GoneError } from "../../lib/api-error";
+import { tombstoneOf } from "../network-views/network-views.access";
 import { hasRole } from "../../middlewares/require-role";
 import { Dataset, DatasetVersion, Network, StoredFile, User } from "../../models";
 import { getCurrentMetrics } from "../../jobs/metrics-read";
-import { doisOfDataset, registeredVersionDoi } from "../../jobs/dois";
+import { doisOfDataset } from "../../jobs/dois";
 import { verifiedOrcids } from "../auth/orcid.service";
-import { config } from "../../config/env";
 
 export interface Viewer {
   id: number;
@@ -126,43 +125,6 @@ export async function buildDatasetDetail(dataset: Dataset, version: DatasetVersi
   };
 }
 
-export interface Tombstone {
-  accession: string;
-  citation: string;
-  reason: string;
-  withdrawnAt: string;
-  /** The version's registered DOI: it still resolves, to the tombstone. */
-  doi: string | null;
-}
-
-async function tombstoneError(dataset: Dataset, v: DatasetVersion): Promise<ApiError> {
-  const meta = v.metadata as unknown as StudyMetadata;
-  const accession = dataset.accession ?? "";
-  const doi = await registeredVersionDoi(v.id);
-  let citation: string;
-  try {
-    citation = formatCitationText({
-      metadata: { title: meta.title ?? "", creators: meta.creators ?? [] },
-      accession,
-      version: v.number,
-      year: new Date(v.publishedAt ?? v.withdrawnAt ?? Date.now()).getUTCFullYear(),
-      url: `${config().publicUrl}/datasets/${accession}`,
-      doi,
-    });
-  } catch {
-    citation = `${meta.title ?? ""}. ${accession} v${v.number}. Tanglebank.`;
-  }
-  const body: Tombstone = { accession, citation, reason: v.withdrawalReason ?? "", withdrawnAt: iso(v.withdrawnAt) ?? "", doi };
-  return new TombstoneError(body);
-}
-
-/** 410 Gone whose JSON body is the tombstone itself. */
-export class TombstoneError extends ApiError {
-  constructor(public readonly tombstone: Tombstone) {
-    super(410, "withdrawn", `${tombstone.accession} was withdrawn: ${tombstone.reason}`);
-  }
-}
-
 const ACCESSION = /^TB-\d{6}$/;
 
 /**
@@ -178,13 +140,13 @@ export async function findPublishedVersion(accession: string, number?: number): 
   if (number !== undefined) {
     const v = versions.find((x) => x.number === number);
     if (!v) throw ApiError.notFound(`${accession} has no published version ${number}.`);
-    if (v.state === "withdrawn") throw await tombstoneError(dataset, v);
+    if (v.state === "withdrawn") throw new GoneError(await tombstoneOf(accession, v));
     return { dataset, version: v };
   }
   const published = versions.filter((v) => v.state === "published");
   if (published.length) return { dataset, version: published[published.length - 1] };
   const withdrawn = versions.filter((v) => v.state === "withdrawn");
-  if (withdrawn.length) throw await tombstoneError(dataset, withdrawn[withdrawn.length - 1]);
+  if (withdrawn.length) throw new GoneError(await tombstoneOf(accession, withdrawn[withdrawn.length - 1]));
   throw ApiError.notFound(`No dataset ${accession}.`);
 }
 

@@ -8,7 +8,7 @@ import type { StudyMetadata } from "../../../../shared/types/dataset";
 import type { Tombstone } from "../../../../shared/types/network-view";
 import { formatCitationText } from "../../../../shared/citation";
 import { config } from "../../config/env";
-import { ApiError } from "../../lib/api-error";
+import { ApiError, GoneError } from "../../lib/api-error";
 import { hasRole } from "../../middlewares/require-role";
 import { Dataset, DatasetVersion } from "../../models";
 import { registeredVersionDoi } from "../../jobs/dois";
@@ -62,12 +62,7 @@ export async function tombstoneOf(accession: string, version: DatasetVersion): P
   };
 }
 
-/** An ApiError carrying the tombstone as its body (the error handler sends `details`; we send our own shape). */
-export class GoneError extends ApiError {
-  constructor(public readonly tombstone: Tombstone) {
-    super(410, "withdrawn", `${tombstone.accession} v${tombstone.version} was withdrawn: ${tombstone.reason}`);
-  }
-}
+export { GoneError };
 
 function mayReadUnpublished(user: AuthUser | undefined, dataset: Dataset): boolean {
   return !!user && (user.id === dataset.ownerId || hasRole(user, "curator"));

@@ -12,10 +12,9 @@
  * | GET /:accession/:version/:position/partition.csv  | anyone (see above) | node,level,module             |
  * | GET /:accession/:version/:position/partition.json | anyone (see above) | rows/columns with modules     |
  */
-import { Router, type Request, type Response, type NextFunction } from "express";
+import { Router, type Request } from "express";
 import { apiRateLimit } from "../../middlewares/api-rate-limit";
 import { requireRole } from "../../middlewares/require-role";
-import { GoneError } from "./network-views.access";
 import { getCompareRows, getHistory, getMapPoints, getNetworkView, partitionCsv, partitionJson } from "./network-views.service";
 import { parseAccession, parsePosition, parseRefs, parseVersion } from "./network-views.validation";
 
@@ -57,13 +56,4 @@ networkViewsRouter.get("/:accession/:version/:position/partition.json", async (r
   const body = partitionJson(v);
   res.setHeader("Content-Disposition", `attachment; filename="${v.ref.replace(/\//g, "_")}_partition.json"`);
   res.json(body);
-});
-
-/** A withdrawn version answers 410 with its tombstone in the body. */
-networkViewsRouter.use((err: unknown, _req: Request, res: Response, next: NextFunction) => {
-  if (err instanceof GoneError) {
-    res.status(410).json({ code: err.code, message: err.message, ...err.tombstone });
-    return;
-  }
-  next(err);
 });

@@ -1,13 +1,7 @@
 import { currentMailCatcher, type CapturedMail } from "../../lib/mail-catcher";
 import { ApiError } from "../../lib/api-error";
+import type { OutboxSummary } from "../../../../shared/types/outbox";
 
-export interface OutboxSummary {
-  id: number;
-  receivedAt: string;
-  to: string[];
-  subject: string;
-  links: string[];
-}
 
 function catcher() {
   const c = currentMailCatcher();

@@ -6,29 +6,23 @@
  * | GET /          | signed in                    | `{ data: ApiTokenView[] }`               |
  * | POST /         | signed in, in the browser    | 201 `{ token, secret }` (secret once)    |
  * | DELETE /:id    | signed in, own token         | `{ token }` (revoked)                    |
- * Creating or revoking needs a browser session: a token cannot mint more tokens.
+ * Creating or revoking needs a browser session (403 `session_required` to a token): a token cannot mint more tokens.
  */
-import { Router, type RequestHandler } from "express";
-import { ApiError } from "../../lib/api-error";
-import { requireSignedIn } from "../../middlewares/require-role";
+import { Router } from "express";
+import { requireBrowserSession, requireSignedIn } from "../../middlewares/require-role";
 import { createToken, listTokens, revokeToken } from "./tokens.service";
 import { parseTokenId, parseTokenName } from "./tokens.validation";
 
 export const tokensRouter = Router();
 
-const requireSession: RequestHandler = (req, _res, next) => {
-  if (req.authVia !== "session") throw ApiError.forbidden("Manage API tokens from your account page while signed in, not with a token.");
-  next();
-};
-
 tokensRouter.get("/", requireSignedIn, async (req, res) => {
   res.json({ data: await listTokens(req.user!.id) });
 });
 
-tokensRouter.post("/", requireSignedIn, requireSession, async (req, res) => {
+tokensRouter.post("/", requireBrowserSession, async (req, res) => {
   res.status(201).json(await createToken(req.user!.id, parseTokenName(req.body)));
 });
 
-tokensRouter.delete("/:id", requireSignedIn, requireSession, async (req, res) => {
+tokensRouter.delete("/:id", requireBrowserSession, async (req, res) => {
   res.json({ token: await revokeToken(req.user!.id, parseTokenId(req.params.id as string)) });
 });

@@ -7,17 +7,10 @@ import { ApiError } from "../../lib/api-error";
 import { audit } from "../../lib/audit";
 import { hashApiToken } from "../../middlewares/authenticate";
 import { ApiToken } from "../../models";
+import type { ApiTokenView } from "../../../../shared/types/auth";
 
 export const MAX_ACTIVE_TOKENS = 20;
 
-export interface ApiTokenView {
-  id: number;
-  name: string;
-  prefix: string;
-  createdAt: string;
-  lastUsedAt: string | null;
-  revokedAt: string | null;
-}
 
 export function toView(t: ApiToken): ApiTokenView {
   return {

@@ -3,9 +3,7 @@ import type { ReactNode } from "react";
 import { Link, useLocation } from "react-router-dom";
 import { useSession } from "../../../features/auth/api/get-session";
 import { paths } from "../../../config/paths";
-import type { Role } from "../../../../../shared/types/auth";
-
-const RANK: Record<Role, number> = { depositor: 1, curator: 2, admin: 3 };
+import { hasRole, type Role } from "../../../../../shared/types/auth";
 
 export function RequireUser({ min = "depositor", children }: { min?: Role; children: ReactNode }) {
   const { data, isPending } = useSession();
@@ -25,7 +23,7 @@ export function RequireUser({ min = "depositor", children }: { min?: Role; child
       </section>
     );
   }
-  if (RANK[user.role] < RANK[min]) {
+  if (!hasRole(user, min)) {
     return (
       <section className="mx-auto max-w-xl py-8">
         <h1 className="text-2xl font-bold text-moss-700">Not available</h1>

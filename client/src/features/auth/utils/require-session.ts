@@ -1,14 +1,10 @@
 import { redirect, type LoaderFunctionArgs } from "react-router-dom";
 import { queryClient } from "../../../lib/query-client";
 import { getSessionQueryOptions } from "../api/get-session";
-import type { Role } from "../../../../../shared/types/auth";
+import { hasRole } from "../../../../../shared/types/auth";
 import { paths } from "../../../config/paths";
 
-const RANK: Record<Role, number> = { depositor: 1, curator: 2, admin: 3 };
-
-export function hasRole(user: { role: Role } | null | undefined, min: Role): boolean {
-  return !!user && RANK[user.role] >= RANK[min];
-}
+export { hasRole };
 
 /**
  * A route loader for signed-in pages: a visitor is sent to the sign-in page with `?next=` back here.

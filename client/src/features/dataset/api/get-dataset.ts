@@ -5,16 +5,10 @@
 import { queryOptions, useQuery } from "@tanstack/react-query";
 import { ApiClientError } from "../../../lib/api-client";
 import type { DatasetDetail } from "../../../../../shared/types/dataset";
+import type { Tombstone } from "../../../../../shared/types/network-view";
 
-export interface DatasetTombstone {
-  accession: string;
-  citation: string;
-  reason: string;
-  withdrawnAt: string;
-  version?: number;
-  /** The version's registered DOI, which still resolves (to the tombstone). */
-  doi?: string | null;
-}
+/** The body of every 410 answer of the read API (a withdrawn version). */
+export type DatasetTombstone = Tombstone;
 
 export type DatasetAnswer = { kind: "dataset"; dataset: DatasetDetail } | { kind: "withdrawn"; tombstone: DatasetTombstone };
 

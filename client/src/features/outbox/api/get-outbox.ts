@@ -1,19 +1,8 @@
 import { queryOptions, useQuery } from "@tanstack/react-query";
 import { apiFetch } from "../../../lib/api-client";
+import type { OutboxMessage, OutboxSummary } from "../../../../../shared/types/outbox";
 
-export interface OutboxSummary {
-  id: number;
-  receivedAt: string;
-  to: string[];
-  subject: string;
-  links: string[];
-}
-
-export interface OutboxMessage extends OutboxSummary {
-  from: string;
-  text: string;
-  html: string;
-}
+export type { OutboxMessage, OutboxSummary };
 
 export const outboxKeys = {
   all: ["outbox"] as const,

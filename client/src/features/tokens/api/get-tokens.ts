@@ -1,14 +1,8 @@
 import { queryOptions, useQuery } from "@tanstack/react-query";
 import { apiFetch } from "../../../lib/api-client";
+import type { ApiTokenView } from "../../../../../shared/types/auth";
 
-export interface ApiTokenView {
-  id: number;
-  name: string;
-  prefix: string;
-  createdAt: string;
-  lastUsedAt: string | null;
-  revokedAt: string | null;
-}
+export type { ApiTokenView };
 
 export const tokensKeys = {
   all: ["api-tokens"] as const,

@@ -1,11 +1,10 @@
 import { useState } from "react";
 import { useSearchParams } from "react-router-dom";
 import { Alert, Button, SelectField, TextField } from "../../../components/ui/form";
-import type { Role, UserSummary } from "../../../../../shared/types/auth";
+import { ROLES, type Role, type UserSummary } from "../../../../../shared/types/auth";
 import { useUsers } from "../api/get-users";
 import { useChangeUserRole } from "../api/change-user-role";
 
-const ROLES: Role[] = ["depositor", "curator", "admin"];
 const ROLE_OPTIONS = ROLES.map((r) => ({ value: r, label: r }));
 const PAGE_SIZE = 25;
 
@@ -40,7 +39,7 @@ function RoleCell({ user, onDone }: { user: UserSummary; onDone: (msg: string | 
 /** The admin's list of accounts: filter by role or e-mail, page through, change a role (audited). */
 export function UsersAdmin() {
   const [params, setParams] = useSearchParams();
-  const role = (ROLES as string[]).includes(params.get("role") ?? "") ? (params.get("role") as Role) : undefined;
+  const role = (ROLES as readonly string[]).includes(params.get("role") ?? "") ? (params.get("role") as Role) : undefined;
   const email = params.get("email") ?? "";
   const page = Math.max(1, Number(params.get("page")) || 1);
   const users = useUsers({ role, email: email || undefined, page, pageSize: PAGE_SIZE });
