@@ -12,7 +12,8 @@ export const apiNotFound: RequestHandler = (req, res) => {
 
 /**
  * The one error pipeline. Mapping table:
- * GoneError (a withdrawn version) → 410 with the tombstone as the body; ApiError → its status; the database unreachable (outage, restart, terminated connection) → 503 with a
+ * GoneError (a withdrawn version) → 410 with the tombstone as the body; ApiError → its status; the
+ * database unreachable (outage, restart, terminated connection) → 503 with a
  * plain message and Retry-After, never the driver's text; malformed JSON → 400; multer limits → 413/400;
  * unique constraint → 409; Sequelize validation → 422; other 4xx errors of Express/body-parser keep their
  * status; anything else → 500 without detail in production. Pages (outside /api) get the 503 as a short
