@@ -41,6 +41,15 @@ describe("metrics pipeline page", () => {
     await page.goto(stack.url + "/admin/pipeline");
     await page.getByRole("heading", { name: "Metrics pipeline", level: 1 }).waitFor();
     await page.getByText("No batch has been started yet.").first().waitFor();
+    // A null model that cannot fit the published (binary) networks is refused on saving, naming each network.
+    await page.getByLabel("Null models").selectOption("patefield");
+    await page.getByRole("button", { name: "Save settings only" }).click();
+    const unfit = page.getByRole("list", { name: "Networks these settings do not fit" });
+    await unfit.waitFor();
+    expect(await unfit.getByRole("listitem").count()).toBe(4);
+    await unfit.getByText(/null model patefield: it is binary/).first().waitFor();
+    await screenshot(page, "pipeline-settings-refused");
+    await page.getByLabel("Null models").selectOption("standard");
     await page.getByLabel("Optimizer restarts").fill("2");
     await page.getByLabel("Null replicates").fill("5");
     await page.getByLabel("Seed").fill("3");

@@ -1,5 +1,6 @@
 import { useEffect, useState } from "react";
 import { Alert, Button, SelectField, TextField, fieldErrorsOf } from "../../../components/ui/form";
+import { ApiClientError } from "../../../lib/api-client";
 import type { BatchPreview, PipelineNullModelName, PipelineSettings } from "../../../../../shared/types/pipeline";
 import { NULL_MODEL_INFO, NULL_MODELS } from "../../../../../shared/network/null-models/index";
 import { usePreviewBatch } from "../api/preview-batch";
@@ -61,6 +62,10 @@ export function PipelineSettingsForm({ batchRunning }: { batchRunning: boolean }
         onSubmit={(e) => {
           e.preventDefault();
           setNotice(null);
+          // A new attempt replaces the last refusal.
+          save.reset();
+          preview.reset();
+          start.reset();
           const submitter = (e.nativeEvent as SubmitEvent).submitter as HTMLButtonElement | null;
           if (submitter?.value === "save") {
             save.mutate(s, { onSuccess: () => setNotice("Settings saved. Start a batch to compute every network with them.") });
@@ -136,10 +141,27 @@ export function PipelineSettingsForm({ batchRunning }: { batchRunning: boolean }
       )}
       <div className="mt-4 space-y-2">
         {notice && <Alert tone="success">{notice}</Alert>}
-        {save.error && <Alert tone="error" title="The settings were not saved">{save.error.message}</Alert>}
-        {start.error && <Alert tone="error" title="The batch was not started">{start.error.message}</Alert>}
-        {preview.error && <Alert tone="error" title="The batch was not started">{preview.error.message}</Alert>}
+        {save.error && <SettingsError title="The settings were not saved" error={save.error} />}
+        {start.error && <SettingsError title="The batch was not started" error={start.error} />}
+        {preview.error && <SettingsError title="The batch was not started" error={preview.error} />}
       </div>
     </section>
+  );
+}
+
+/** A refusal with, when the server names them, the networks the settings do not fit and why. */
+function SettingsError({ title, error }: { title: string; error: Error }) {
+  const networks = error instanceof ApiClientError ? (error.details ?? []).filter((d) => d.path?.startsWith("/networks/")) : [];
+  return (
+    <Alert tone="error" title={title}>
+      <p>{error.message}</p>
+      {networks.length > 0 && (
+        <ul className="mt-2 list-disc space-y-1 pl-5" aria-label="Networks these settings do not fit">
+          {networks.map((d) => (
+            <li key={d.path}>{d.message}</li>
+          ))}
+        </ul>
+      )}
+    </Alert>
   );
 }
