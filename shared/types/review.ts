@@ -120,3 +120,17 @@ export interface SubmissionDiffResponse {
   /** Null when there is nothing to compare with (a first submission of a first version). */
   diff: SubmissionDiff | null;
 }
+
+/** One entry of a submission's conversation, oldest first. */
+export type ThreadEntry =
+  | { kind: "comment"; id: number; at: string; side: "depositor" | "curator"; author: string; body: string; round: number; own: boolean }
+  | { kind: "decision"; id: number; at: string; decision: "publish" | "request_changes" | "decline"; author: string; body: string | null }
+  | { kind: "submitted"; id: number; at: string; round: number; author: string };
+
+export interface ThreadResponse {
+  entries: ThreadEntry[];
+  /** The viewer may add a comment now (the version has been submitted; owner or curator). */
+  canComment: boolean;
+  /** The side the viewer writes for on this submission. */
+  side: "depositor" | "curator";
+}

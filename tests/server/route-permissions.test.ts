@@ -76,6 +76,8 @@ const ROUTES: ProtectedRoute[] = [
   { method: "get", path: "/api/v1/reviews", min: "curator" },
   { method: "get", path: "/api/v1/reviews/999999", min: "curator" },
   { method: "get", path: "/api/v1/reviews/999999/diff", min: "curator" },
+  { method: "get", path: "/api/v1/deposits/999999/comments", min: "depositor" },
+  { method: "post", path: "/api/v1/deposits/999999/comments", min: "depositor", body: { body: "test" } },
   { method: "post", path: "/api/v1/reviews/999999/decision", min: "curator", body: { decision: "publish" } },
   { method: "put", path: "/api/v1/reviews/999999/metadata", min: "curator", body: { metadata: {} } },
   { method: "patch", path: "/api/v1/reviews/999999/networks/1", min: "curator", body: { metadata: {} } },

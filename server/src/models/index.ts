@@ -11,6 +11,7 @@ import { MetricRun, initMetricRun } from "./metric-run.model";
 import { Network, initNetwork } from "./network.model";
 import { Review, initReview } from "./review.model";
 import { StoredFile, initStoredFile } from "./stored-file.model";
+import { SubmissionComment, initSubmissionComment } from "./submission-comment.model";
 import { User, initUser } from "./user.model";
 import { UserToken, initUserToken } from "./user-token.model";
 
@@ -30,6 +31,7 @@ export function initModels(seq: Sequelize = appSequelize()): Sequelize {
   initMetricBatch(seq);
   initMetricRun(seq);
   initCollection(seq);
+  initSubmissionComment(seq);
 
   User.hasMany(UserToken, { foreignKey: "userId", as: "tokens" });
   UserToken.belongsTo(User, { foreignKey: "userId", as: "user" });
@@ -47,6 +49,8 @@ export function initModels(seq: Sequelize = appSequelize()): Sequelize {
   DatasetVersion.hasMany(Review, { foreignKey: "versionId", as: "reviews" });
   Review.belongsTo(DatasetVersion, { foreignKey: "versionId", as: "version" });
   Review.belongsTo(User, { foreignKey: "curatorId", as: "curator" });
+  DatasetVersion.hasMany(SubmissionComment, { foreignKey: "versionId", as: "comments" });
+  SubmissionComment.belongsTo(User, { foreignKey: "authorId", as: "author" });
 
   Network.hasMany(MetricRun, { foreignKey: "networkId", as: "metricRuns" });
   MetricRun.belongsTo(Network, { foreignKey: "networkId", as: "network" });
@@ -61,4 +65,4 @@ export function initModels(seq: Sequelize = appSequelize()): Sequelize {
   return seq;
 }
 
-export { ApiToken, AuditLog, Collection, CollectionMember, Dataset, DatasetVersion, MetricBatch, MetricRun, Network, Review, StoredFile, User, UserToken };
+export { ApiToken, AuditLog, Collection, CollectionMember, Dataset, DatasetVersion, MetricBatch, MetricRun, Network, Review, StoredFile, SubmissionComment, User, UserToken };

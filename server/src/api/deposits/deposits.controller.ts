@@ -6,6 +6,7 @@ import { ApiError } from "../../lib/api-error";
 import { expandUpload } from "./deposits.upload";
 import { idParam, networkChanges, uploadOptions } from "./deposits.validation";
 import { originalFileType } from "../../lib/file-type";
+import { addComment, commentBody, listThread } from "./deposits.comments";
 
 const viewer = (req: Request) => req.user!;
 
@@ -59,7 +60,16 @@ export async function remove(req: Request, res: Response) {
 }
 
 export async function submit(req: Request, res: Response) {
-  res.json(await s.submitDeposit(idParam(req.params.id, "deposit"), viewer(req)));
+  const reply = (req.body as { reply?: unknown } | undefined)?.reply;
+  res.json(await s.submitDeposit(idParam(req.params.id, "deposit"), viewer(req), reply === undefined || reply === null || reply === "" ? null : commentBody(reply, "/reply")));
+}
+
+export async function thread(req: Request, res: Response) {
+  res.json(await listThread(idParam(req.params.id, "deposit"), viewer(req)));
+}
+
+export async function comment(req: Request, res: Response) {
+  res.status(201).json(await addComment(idParam(req.params.id, "deposit"), viewer(req), (req.body as { body?: unknown } | undefined)?.body, req.authVia));
 }
 
 export async function networkFile(req: Request, res: Response) {

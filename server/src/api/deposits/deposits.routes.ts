@@ -7,6 +7,10 @@ import { requireSignedIn } from "../../middlewares/require-role";
 import { requireVerifiedEmail } from "../../middlewares/require-verified-email";
 import * as c from "./deposits.controller";
 import { uploadFiles } from "./deposits.validation";
+import { createRateLimiter } from "../../middlewares/rate-limit";
+
+/** Each comment sends e-mail: 30 per account per 15 minutes (the router has signed the caller in). */
+const commentRateLimit = createRateLimiter({ what: "comments", limit: 30, key: (req) => `user:${req.user?.id ?? 0}` });
 
 export const depositsRouter = Router();
 
@@ -25,4 +29,6 @@ depositsRouter.patch("/:id/networks/:networkId", c.updateNetwork); // owner; { m
 depositsRouter.delete("/:id/networks/:networkId", c.deleteNetwork); // owner
 depositsRouter.get("/:id/networks/:networkId/file", c.networkFile); // owner or curator: original bytes
 depositsRouter.get("/:id/networks/:networkId/canonical", c.networkCanonical); // owner or curator: parsed form for previews
-depositsRouter.post("/:id/submit", c.submit); // owner; full validation, e-mails the curators
+depositsRouter.post("/:id/submit", c.submit); // owner; full validation, e-mails the curators; { reply? } goes to the thread
+depositsRouter.get("/:id/comments", c.thread); // owner or curator: the conversation on the submission
+depositsRouter.post("/:id/comments", commentRateLimit, c.comment); // owner or curator (session), once submitted; e-mails the other side

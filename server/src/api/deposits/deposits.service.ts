@@ -20,7 +20,7 @@ import { sequelize } from "../../db/sequelize";
 import { config } from "../../config/env";
 import { logger } from "../../lib/logger";
 import { hasRole } from "../../middlewares/require-role";
-import { Dataset, DatasetVersion, Network, Review, StoredFile, User } from "../../models";
+import { Dataset, DatasetVersion, Network, Review, StoredFile, SubmissionComment, User } from "../../models";
 import type { NetworkReadOptions } from "../../models/network.model";
 import { sendMail } from "../../emails/mailer";
 import { reviewSubmittedEmail } from "../../emails/templates/review-submitted";
@@ -464,7 +464,11 @@ export function submissionProblems(version: DatasetVersion, networks: Network[])
   return problems;
 }
 
-export async function submitDeposit(versionId: number, viewer: Viewer): Promise<DepositDetail> {
+/**
+ * Submits (or resubmits) a version. `reply`: the depositor's message to the curators sent with it (e.g. what
+ * was changed as asked), stored in the submission's thread and quoted in the curators' e-mail.
+ */
+export async function submitDeposit(versionId: number, viewer: Viewer, reply: string | null = null): Promise<DepositDetail> {
   const { dataset, version, resubmission } = await tx(async (t) => {
     const r = await loadOwnEditable(versionId, viewer, t);
     const networks = await Network.findAll({ where: { versionId: r.version.id }, order: [["position", "ASC"]], transaction: t });
@@ -474,10 +478,11 @@ export async function submitDeposit(versionId: number, viewer: Viewer): Promise<
     const from = r.version.state;
     await bump(r.version, t, { state: "submitted", submittedAt: new Date() });
     const round = await recordSubmission(r.version.id, viewer.id, t);
+    if (reply) await SubmissionComment.create({ versionId: r.version.id, authorId: viewer.id, side: "depositor", body: reply, round }, { transaction: t });
     await audit({ actorId: viewer.id, action: "deposit.submit", entityType: "dataset_version", entityId: r.version.id, datasetId: r.dataset.id, details: { from, to: "submitted", networks: networks.length, round } }, t);
     return { ...r, resubmission, networkCount: networks.length };
   });
-  await notifyCurators(dataset, version, viewer, resubmission);
+  await notifyCurators(dataset, version, viewer, resubmission, reply);
   await sendReceipt(version, viewer, resubmission);
   return depositDetail(dataset, version, viewer);
 }
@@ -502,7 +507,7 @@ async function sendReceipt(version: DatasetVersion, depositor: Viewer, resubmiss
   }
 }
 
-async function notifyCurators(dataset: Dataset, version: DatasetVersion, depositor: Viewer, resubmission: boolean): Promise<void> {
+async function notifyCurators(dataset: Dataset, version: DatasetVersion, depositor: Viewer, resubmission: boolean, reply: string | null): Promise<void> {
   try {
     const curators = await User.findAll({ where: { role: { [Op.in]: ["curator", "admin"] }, id: { [Op.ne]: dataset.ownerId } } });
     if (!curators.length) return;
@@ -515,6 +520,7 @@ async function notifyCurators(dataset: Dataset, version: DatasetVersion, deposit
       networkCount,
       resubmission,
       reviewUrl: `${config().publicUrl}/review/${version.id}`,
+      reply,
     });
     await Promise.all(curators.map((c) => sendMail(c.email, mail)));
   } catch (err) {

@@ -2,7 +2,7 @@
 import type { EmailContent } from "../mailer";
 import { reviewEmail } from "./review-layout";
 
-export function reviewSubmittedEmail(d: { title: string; depositor: string; versionNumber: number; networkCount: number; resubmission: boolean; reviewUrl: string }): EmailContent {
+export function reviewSubmittedEmail(d: { title: string; depositor: string; versionNumber: number; networkCount: number; resubmission: boolean; reviewUrl: string; reply?: string | null }): EmailContent {
   return reviewEmail({
     subject: `${d.resubmission ? "Resubmitted" : "New submission"} for review: ${d.title}`,
     greeting: "Hello,",
@@ -10,6 +10,7 @@ export function reviewSubmittedEmail(d: { title: string; depositor: string; vers
       `${d.depositor} ${d.resubmission ? "resubmitted" : "submitted"} “${d.title}” (version ${d.versionNumber}, ${d.networkCount} network${d.networkCount === 1 ? "" : "s"}) for review.`,
       "Any curator other than the depositor may review it.",
     ],
+    quote: d.reply ? { label: "The depositor's reply", text: d.reply } : undefined,
     action: { label: "Open the review page", url: d.reviewUrl },
   });
 }
