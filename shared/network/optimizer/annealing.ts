@@ -23,7 +23,7 @@
  * it only on small networks (see ANNEALING_MAX_NODES in optimize.ts). Randomness comes only from the
  * injected generator; Math.exp is only compared with a uniform draw (see leiden.ts on determinism).
  */
-import type { Rng } from "../random";
+import { DrawBuffer, type Rng } from "../random";
 import { graphQuality, type QualityGraph } from "./quality-graph";
 
 export interface AnnealingOptions {
@@ -52,7 +52,18 @@ export interface AnnealingResult {
   temperatures: number;
 }
 
-export function anneal(g: QualityGraph, initial: Int32Array, rng: Rng, options: AnnealingOptions = {}): AnnealingResult {
+export function anneal(g: QualityGraph, initial: Int32Array, source: Rng, options: AnnealingOptions = {}): AnnealingResult {
+  // The same draws as from `source`, read from blocks taken ahead; `source` is put back where the draws
+  // used leave it (whatever draws from it next sees the numbers it would have seen).
+  const rng = new DrawBuffer(source);
+  try {
+    return annealWith(g, initial, rng, options);
+  } finally {
+    rng.release();
+  }
+}
+
+function annealWith(g: QualityGraph, initial: Int32Array, rng: DrawBuffer, options: AnnealingOptions): AnnealingResult {
   const f = options.f ?? ANNEALING_DEFAULTS.f;
   const cooling = options.cooling ?? ANNEALING_DEFAULTS.cooling;
   const startAcceptance = options.startAcceptance ?? ANNEALING_DEFAULTS.startAcceptance;

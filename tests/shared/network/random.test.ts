@@ -4,7 +4,7 @@
  * draws below 2^32 − (2^32 mod n), reduced mod n — computed with exact integer arithmetic (BigInt).
  */
 import { describe, expect, it } from "vitest";
-import { createRng, deriveSeed } from "../../../shared/network/random";
+import { createRng, deriveSeed, DrawBuffer } from "../../../shared/network/random";
 
 describe("createRng", () => {
   it("gives the pinned sequence for a seed", () => {
@@ -41,5 +41,42 @@ describe("createRng", () => {
     const r = createRng(1);
     expect(() => r.nextInt(0)).toThrow(RangeError);
     expect(() => r.nextInt(2 ** 32 + 1)).toThrow(RangeError);
+  });
+});
+
+describe("DrawBuffer", () => {
+  it("gives the generator's own draws in order, and release() leaves the generator where those draws leave it", () => {
+    for (const size of [1, 7, 4096]) {
+      const ref = createRng(31);
+      const src = createRng(31);
+      const buf = new DrawBuffer(src, size);
+      const pick = createRng(5); // which kind of draw comes next, and its n
+      for (let i = 0; i < 5000; i++) {
+        const kind = pick.nextInt(3);
+        if (kind === 0) expect(buf.next()).toBe(ref.next());
+        else if (kind === 1) {
+          const n = 1 + pick.nextInt(i % 2 ? 7 : 2 ** 31 + 5);
+          expect(buf.nextInt(n)).toBe(ref.nextInt(n));
+        } else expect(buf.nextUint32()).toBe(ref.nextUint32());
+        if (i % 1237 === 0) {
+          buf.release();
+          expect(src.nextUint32()).toBe(ref.nextUint32());
+        }
+      }
+      buf.release();
+      buf.release(); // nothing drawn since: no change
+      expect([src.nextUint32(), src.nextInt(10), src.next()]).toEqual([ref.nextUint32(), ref.nextInt(10), ref.next()]);
+    }
+  });
+
+  it("fill(), save() and restore() agree with nextUint32()", () => {
+    const a = createRng(8);
+    const b = createRng(8);
+    const state = a.save();
+    const out = new Uint32Array(9);
+    a.fill(out);
+    expect(Array.from(out)).toEqual(Array.from({ length: 9 }, () => b.nextUint32()));
+    a.restore(state);
+    expect(a.nextUint32()).toBe(out[0]);
   });
 });
