@@ -3,9 +3,13 @@ import type { Server } from "node:http";
 import { createApp, closeSessionPool } from "./app";
 import { config } from "./config/env";
 import { closeSequelize } from "./db/sequelize";
+import { closeParsePool } from "./lib/parse/pool";
+import { sweepUploadTmp } from "./lib/upload-storage";
 
 export async function startServer(port = config().port, host = config().host): Promise<{ server: Server; url: string; close: () => Promise<void> }> {
   const app = createApp();
+  // temporary upload folders a killed server left behind
+  void sweepUploadTmp().catch(() => undefined);
   const server = await new Promise<Server>((resolve, reject) => {
     const s = app.listen(port, host, () => resolve(s));
     s.once("error", reject);
@@ -21,5 +25,6 @@ export async function startServer(port = config().port, host = config().host): P
 
 export async function shutdownServerResources(): Promise<void> {
   await closeSessionPool();
+  await closeParsePool();
   await closeSequelize();
 }

@@ -3,7 +3,8 @@
  * with a message naming the variable. Every setting the server reads is read here (README: "Address,
  * ports and settings" lists them); no other server module reads process.env.
  */
-import { availableParallelism } from "node:os";
+import { availableParallelism, tmpdir } from "node:os";
+import { join } from "node:path";
 
 export interface Config {
   nodeEnv: "development" | "test" | "production";
@@ -18,6 +19,15 @@ export interface Config {
   mailCatcherPort: number;
   uploadMaxBytes: number;
   uploadMaxFiles: number;
+  /** All files of one upload request together (counted while the body streams in). */
+  uploadMaxRequestBytes: number;
+  /** Folder for the temporary files of uploads in progress (removed when the request ends). */
+  uploadTmpDir: string;
+  /** Reading one uploaded file in the parse thread: time limit (ms) and heap limit (MB). */
+  parseTimeoutMs: number;
+  parseMaxMemoryMb: number;
+  /** Worker threads that read uploaded files (at most this many files are parsed at once). */
+  parseThreads: number;
   logLevel: LogLevel;
   /** The metrics and DOI background jobs (validated at start; read again on each use by jobSettings()). */
   jobs: JobSettings;
@@ -221,6 +231,11 @@ export function loadConfig(): Config {
     mailCatcherPort,
     uploadMaxBytes: int("TB_UPLOAD_MAX_BYTES", 100 * 1024 * 1024, 1024),
     uploadMaxFiles: int("TB_UPLOAD_MAX_FILES", 50, 1, 1000),
+    uploadMaxRequestBytes: int("TB_UPLOAD_MAX_REQUEST_BYTES", 200 * 1024 * 1024, 1024),
+    uploadTmpDir: str("TB_UPLOAD_TMP_DIR", join(tmpdir(), "tanglebank-uploads")),
+    parseTimeoutMs: int("TB_PARSE_TIMEOUT_MS", 120_000, 10),
+    parseMaxMemoryMb: int("TB_PARSE_MAX_MEMORY_MB", 2048, 16),
+    parseThreads: int("TB_PARSE_THREADS", 1, 1, 64),
     logLevel: oneOf("LOG_LEVEL", LOG_LEVELS, nodeEnv === "test" ? "silent" : "info"),
     jobs: jobSettings(),
     authRateLimit: int("TB_AUTH_RATE_LIMIT", 20, 1),

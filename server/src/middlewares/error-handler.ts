@@ -4,6 +4,28 @@ import { MulterError } from "multer";
 import { ApiError, GoneError } from "../lib/api-error";
 import { config } from "../config/env";
 import { DATABASE_UNAVAILABLE_MESSAGE, isDatabaseUnavailable } from "../lib/db-errors";
+import { formatBytes } from "../lib/upload-storage";
+
+/** multer's refusals with the limit and the file named (its own messages name neither). */
+function multerMessage(err: MulterError): { status: number; message: string; file?: string } {
+  const cfg = config();
+  const file = (err as MulterError & { filename?: string }).filename;
+  switch (err.code) {
+    case "LIMIT_FILE_SIZE":
+      return { status: 413, file, message: `${file ? `"${file}"` : "A file"} is larger than the limit of ${formatBytes(cfg.uploadMaxBytes)} per file. Nothing was stored.` };
+    case "LIMIT_FILE_COUNT":
+      return { status: 413, file, message: `Too many files: at most ${cfg.uploadMaxFiles} files per upload${file ? ` ("${file}" is one too many)` : ""}; zip them or upload the rest separately. Nothing was stored.` };
+    case "LIMIT_PART_COUNT":
+    case "LIMIT_FIELD_COUNT":
+      return { status: 400, message: "The upload has too many form fields. Nothing was stored." };
+    case "LIMIT_FIELD_VALUE":
+      return { status: 400, message: `The form field "${err.field ?? ""}" is too long. Nothing was stored.` };
+    case "LIMIT_UNEXPECTED_FILE":
+      return { status: 400, file, message: `Files go in the form field "files"; "${err.field ?? ""}" is not read. Nothing was stored.` };
+    default:
+      return { status: 400, file, message: `The upload could not be read: ${err.message}. Nothing was stored.` };
+  }
+}
 
 /** JSON 404 for unknown API routes. */
 export const apiNotFound: RequestHandler = (req, res) => {
@@ -49,8 +71,8 @@ export const errorHandler: ErrorRequestHandler = (err, req, res, _next) => {
     return;
   }
   if (err instanceof MulterError) {
-    const status = err.code === "LIMIT_FILE_SIZE" || err.code === "LIMIT_FILE_COUNT" ? 413 : 400;
-    res.status(status).json({ code: "upload_rejected", message: `Upload rejected: ${err.message}`, details: [{ path: err.field, message: err.message }] });
+    const m = multerMessage(err);
+    res.status(m.status).json({ code: "upload_rejected", message: m.message, details: [{ ...(err.field ? { path: err.field } : {}), ...(m.file !== undefined ? { file: m.file } : {}), message: m.message }] });
     return;
   }
   if (err instanceof UniqueConstraintError) {

@@ -8,6 +8,8 @@ export type NetworkParseErrorCode =
   | "bad-csv"
   | "bad-header"
   | "empty-label"
+  /** A node name that is too long or holds control characters. */
+  | "bad-label"
   | "non-numeric"
   | "negative"
   | "ragged-row"

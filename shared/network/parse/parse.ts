@@ -45,6 +45,8 @@
  * strings at a time; no array of all cells is built (a 3000 × 5000 matrix holds the text, its UTF-8 copy
  * inside the reader and the CSR arrays of its non-zero cells).
  *
+ * Node names: at most MAX_LABEL_CHARS characters and no control characters (code "bad-label").
+ *
  * Errors: `NetworkParseError` with code, file, 1-based row (line) and column; warnings for rows, columns or
  * nodes with no link (kept), summed duplicates, ignored columns, shared labels and self-loops.
  */
@@ -109,6 +111,27 @@ export interface ParseResult {
 }
 
 export const DEFAULT_MAX_BYTES = 256 * 1024 * 1024;
+/** Longest node name accepted (characters): taxon names with authority and notes fit well within it. */
+export const MAX_LABEL_CHARS = 500;
+
+/**
+ * Why a node name is refused ("is 12000 characters long…", "contains a control character…"), or null.
+ * Control characters (NUL, escape codes, DEL, C1…) would be invisible on pages and break downloads and the
+ * database (NUL); tabs and line breaks inside quoted names are kept (CSV quoting carries them and pages
+ * show them as spaces). Over-long names are almost always a broken file (a quote left open).
+ */
+export function labelProblem(label: string): string | null {
+  if (label.length > MAX_LABEL_CHARS) {
+    return `"${label.slice(0, 30)}…" is ${label.length} characters long; at most ${MAX_LABEL_CHARS} are accepted (a quote left open makes a long name of the lines after it)`;
+  }
+  // eslint-disable-next-line no-control-regex
+  const m = /[\u0000-\u0008\u000b\u000c\u000e-\u001f\u007f-\u009f]/.exec(label);
+  if (m) {
+    const code = `U+${m[0].charCodeAt(0).toString(16).toUpperCase().padStart(4, "0")}`;
+    return `${JSON.stringify(label.length > 60 ? label.slice(0, 60) + "…" : label)} contains a control character (${code}, at character ${m.index + 1}); remove it`;
+  }
+  return null;
+}
 export const DEFAULT_MAX_CELLS = 25_000_000;
 
 class GrowU32 {
@@ -375,6 +398,12 @@ class RecordSink {
     throw new NetworkParseError(code, { file: this.file, row, column }, detail);
   }
 
+  /** A node name: at most MAX_LABEL_CHARS characters, no control characters. */
+  private checkLabel(label: string, line: number, column: number, what: string): void {
+    const problem = labelProblem(label);
+    if (problem) this.fail("bad-label", line, column, `the ${what} node name ${problem}`);
+  }
+
   record(rec: string[], line: number): void {
     let blank = true;
     for (let k = 0; k < rec.length; k++) if (rec[k] !== "" && rec[k].trim() !== "") { blank = false; break; }
@@ -449,6 +478,7 @@ class RecordSink {
     const seen = new Map<string, number>();
     labels.forEach((label, k) => {
       if (label === "") this.fail("empty-label", line, k + offset, "the column node name is empty");
+      this.checkLabel(label, line, k + offset, "column");
       const prev = seen.get(label);
       if (prev !== undefined) {
         this.fail("duplicate-node", line, k + offset, `column node "${label}" is named twice (also column ${prev + offset})`);
@@ -485,6 +515,7 @@ class RecordSink {
       }
     }
     if (label === "") this.fail("empty-label", line, 1, "the row node name is empty");
+    this.checkLabel(label, line, 1, "row");
     const prev = this.rowIndex.get(label);
     if (prev !== undefined) {
       this.fail("duplicate-node", line, 1, `row node "${label}" is named twice (also row ${this.rowLine.a[prev]})`);
@@ -544,6 +575,8 @@ class RecordSink {
     const t = rec[this.tgtCol].trim();
     if (s === "") this.fail("empty-label", line, this.srcCol + 1, "the source node name is empty");
     if (t === "") this.fail("empty-label", line, this.tgtCol + 1, "the target node name is empty");
+    this.checkLabel(s, line, this.srcCol + 1, "source");
+    this.checkLabel(t, line, this.tgtCol + 1, "target");
     let weight = 1;
     if (this.wCol >= 0) {
       const raw = rec[this.wCol];

@@ -7,6 +7,7 @@ import { expandUpload } from "./deposits.upload";
 import { idParam, networkChanges, uploadOptions } from "./deposits.validation";
 import { originalFileType } from "../../lib/file-type";
 import { addComment, commentBody, listThread } from "./deposits.comments";
+import type { TempFile } from "../../lib/upload-storage";
 
 const viewer = (req: Request) => req.user!;
 
@@ -28,7 +29,7 @@ export async function updateMetadata(req: Request, res: Response) {
   res.json(await s.updateStudyMetadata(idParam(req.params.id, "deposit"), viewer(req), (req.body as { metadata?: unknown } | undefined)?.metadata));
 }
 
-/** Before the multipart body is read: only the owner of an editable deposit gets its files into memory. */
+/** Before the multipart body is read: only the owner of an editable deposit gets to send files. */
 export async function uploadTarget(req: Request, _res: Response, next: NextFunction) {
   await s.assertUploadTarget(idParam(req.params.id, "deposit"), viewer(req));
   next();
@@ -38,7 +39,7 @@ export async function upload(req: Request, res: Response) {
   const cfg = config();
   const versionId = idParam(req.params.id, "deposit");
   const opts = uploadOptions(req.body as Record<string, unknown>);
-  const files = await expandUpload((req.files as Express.Multer.File[] | undefined) ?? [], { maxBytes: cfg.uploadMaxBytes, maxFiles: cfg.uploadMaxFiles });
+  const files = await expandUpload((req.files as TempFile[] | undefined) ?? [], { maxBytes: cfg.uploadMaxBytes, maxFiles: cfg.uploadMaxFiles });
   res.status(201).json(await s.addNetworks(versionId, viewer(req), files, opts));
 }
 

@@ -4,13 +4,15 @@
  *   withdrawn versions are refused (409). Curators correct submissions through the reviews service.
  * - Drafts save as you go: study and network metadata may be partial; full schema validation (and the
  *   cross-field rules) happen at submission, with every problem listed per field and per network.
- * - An upload is parsed in the request (the engine's parser), then stored in ONE transaction: the file
+ * - An upload is parsed in a parse thread (the engine's parser, lib/parse/pool.ts), then stored in ONE transaction: the file
  *   bytes with SHA-256 (deduplicated), the network with its canonical form. A failure stores nothing.
  * - Every change writes an audit row in the same transaction; visible only to owner and curators (404).
  */
-import { createHash } from "node:crypto";
 import { Op, QueryTypes, type Transaction } from "sequelize";
-import { basicMetrics, parseNetworkFile, serializeNetwork, NetworkParseError, type ParseResult } from "../../../../shared/network";
+import type { BasicMetrics } from "../../../../shared/network";
+import type { CanonicalNetworkJson } from "../../../../shared/network/parse/serialize";
+import { parseInThread } from "../../lib/parse/pool";
+import type { ParsedFile } from "../../lib/parse/task";
 import type { VersionState } from "../../../../shared/types/dataset";
 import { ApiError, type ErrorDetail } from "../../lib/api-error";
 import { audit } from "../../lib/audit";
@@ -26,7 +28,7 @@ import { sendMail } from "../../emails/mailer";
 import { reviewSubmittedEmail } from "../../emails/templates/review-submitted";
 import { depositReceiptEmail } from "../../emails/templates/deposit-receipt";
 import { buildDatasetDetail, type Viewer } from "../datasets/datasets.service";
-import type { UploadedFile } from "./deposits.upload";
+import { bytesOf, type UploadedFile } from "./deposits.upload";
 import { cellOf, readSheet, writeSheet } from "./deposits.sheet";
 import { recordSubmission } from "./deposits.snapshots";
 
@@ -193,44 +195,52 @@ export interface UploadOptions {
 export interface ParsedUpload {
   file: UploadedFile;
   sha256: string;
-  parsed: ParseResult;
+  parsed: ParsedFile;
+  canonical: CanonicalNetworkJson;
+  metrics: BasicMetrics;
   read: NetworkReadOptions;
 }
 
-/** Parses every file; collects every file's problem (file, row, column) before refusing. */
+/**
+ * Parses every file in the parse threads (lib/parse/pool.ts: off the web server's thread, with time and
+ * memory limits); collects every file's problem (file, row, column) before refusing.
+ */
 export async function parseUploads(files: UploadedFile[], opts: UploadOptions): Promise<ParsedUpload[]> {
   const problems: ErrorDetail[] = [];
   const out: ParsedUpload[] = [];
   const maxBytes = config().uploadMaxBytes;
   for (const file of files) {
     const read: NetworkReadOptions = { ...opts.read, ...opts.perFile?.[file.name] };
-    try {
-      const parsed = await parseNetworkFile(new Uint8Array(file.bytes.buffer, file.bytes.byteOffset, file.bytes.byteLength), {
+    const res = await parseInThread({
+      ...(file.bytes ? { bytes: new Uint8Array(file.bytes.buffer, file.bytes.byteOffset, file.bytes.byteLength) } : { path: file.path }),
+      options: {
         fileName: file.name,
         format: opts.format,
         kind: opts.kind,
         directed: opts.kind === "unipartite" ? opts.directed : false,
         maxBytes,
         ...read,
-      });
+      },
+    });
+    if (res.ok) {
+      const parsed = res.parsed;
       // Keep only the answers that applied, so a later reading does not carry a meaningless choice.
       const kept: NetworkReadOptions = {};
       if (parsed.workbook) kept.sheet = parsed.workbook.sheet;
       if (parsed.missing.markerCells > 0 && read.missing) kept.missing = read.missing;
       if (parsed.missing.blankCells > 0 && read.blank) kept.blank = read.blank;
-      out.push({ file, sha256: createHash("sha256").update(file.bytes).digest("hex"), parsed, read: kept });
-    } catch (err) {
-      if (err instanceof NetworkParseError) {
-        problems.push({
-          file: file.name,
-          ...(err.file && err.file !== file.name ? { where: err.file } : {}),
-          ...(err.row !== null ? { row: err.row } : {}),
-          ...(err.column !== null ? { column: err.column } : {}),
-          code: err.code,
-          message: err.message,
-          ...(err.extra ? { extra: err.extra } : {}),
-        });
-      } else throw err;
+      out.push({ file, sha256: res.sha256, parsed, canonical: res.canonical, metrics: res.metrics, read: kept });
+    } else {
+      const err = res.problem;
+      problems.push({
+        file: file.name,
+        ...(err.file && err.file !== file.name ? { where: err.file } : {}),
+        ...(err.row !== null ? { row: err.row } : {}),
+        ...(err.column !== null ? { column: err.column } : {}),
+        code: err.code,
+        message: err.message,
+        ...(err.extra ? { extra: err.extra } : {}),
+      });
     }
   }
   if (problems.length) {
@@ -253,13 +263,13 @@ async function storeFile(bytes: Buffer, sha256: string, t: Transaction): Promise
 
 function networkColumns(p: ParsedUpload) {
   const net = p.parsed.network;
-  const m = basicMetrics(net);
+  const m = p.metrics;
   return {
     format: p.parsed.format,
     kind: net.kind,
     directed: net.directed,
     weighted: net.weighted,
-    canonical: serializeNetwork(net),
+    canonical: p.canonical,
     nNodes: m.nodes,
     nRows: m.rows,
     nCols: m.cols,
@@ -314,13 +324,14 @@ export async function addNetworks(versionId: number, viewer: Viewer, files: Uplo
   // Visibility and state first, so a refused upload is not parsed for nothing.
   await assertUploadTarget(versionId, viewer);
   const parsed = await parseUploads(files, opts);
+  const bytes = await Promise.all(parsed.map((p) => bytesOf(p.file)));
   const created = await tx(async (t) => {
     const { dataset, version } = await loadOwnEditable(versionId, viewer, t);
     const maxPos = ((await Network.max("position", { where: { versionId: version.id }, transaction: t })) as number | null) ?? 0;
     const out: Network[] = [];
     let pos = maxPos;
-    for (const p of parsed) {
-      const fileId = await storeFile(p.file.bytes, p.sha256, t);
+    for (const [i, p] of parsed.entries()) {
+      const fileId = await storeFile(bytes[i], p.sha256, t);
       pos += 1;
       const n = await Network.create(
         {

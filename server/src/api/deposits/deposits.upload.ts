@@ -8,14 +8,36 @@
  * metadata (`__MACOSX/`, `._*`, `.DS_Store`) is skipped. The expanded size is counted while inflating, so a
  * zip bomb stops at the upload limit instead of filling memory. Every problem names the file.
  */
+import { open, readFile } from "node:fs/promises";
 import yauzl from "yauzl";
 import { detectSignature } from "../../../../shared/network/parse/signature";
 import type { ErrorDetail } from "../../lib/api-error";
 import { ApiError } from "../../lib/api-error";
 
+/** A network file of an upload: its bytes (from a zip, or a stored original), or its temporary file. */
 export interface UploadedFile {
   name: string;
-  bytes: Buffer;
+  bytes?: Buffer;
+  path?: string;
+}
+
+/** The bytes of an uploaded file (read from its temporary file when needed). */
+export async function bytesOf(f: UploadedFile): Promise<Buffer> {
+  if (f.bytes) return f.bytes;
+  if (f.path) return readFile(f.path);
+  return Buffer.alloc(0);
+}
+
+/** The first `n` bytes of a file. */
+async function headOf(path: string, n = 64 * 1024): Promise<Buffer> {
+  const h = await open(path, "r");
+  try {
+    const buf = Buffer.alloc(n);
+    const { bytesRead } = await h.read(buf, 0, n, 0);
+    return buf.subarray(0, bytesRead);
+  } finally {
+    await h.close();
+  }
 }
 
 export const NETWORK_FILE = /\.(csv|tsv|txt|xlsx)$/i;
@@ -28,7 +50,7 @@ export function isZip(name: string, bytes: Buffer): boolean {
 }
 
 /** Why a file is not accepted: what its name or content says it is. */
-function notANetworkFile(name: string, bytes: Buffer): string {
+export function notANetworkFile(name: string, bytes: Buffer): string {
   const sig = detectSignature(bytes);
   const what = sig ? `${sig.what}` : "not a network file";
   return `"${name}" is ${what}: only .csv, .tsv, .txt or .xlsx files (one network each), or one zip of them, are accepted.`;
@@ -136,15 +158,16 @@ export async function readZip(zipName: string, bytes: Buffer, limits: { maxBytes
   return files;
 }
 
-/** The network files of an upload: the files themselves, or the content of one zip. */
-export async function expandUpload(files: Array<{ originalname: string; buffer: Buffer }>, limits: { maxBytes: number; maxFiles: number }): Promise<UploadedFile[]> {
+/** The network files of an upload (temporary files of the request): the files themselves, or the content of one zip. */
+export async function expandUpload(files: Array<{ originalname: string; path: string }>, limits: { maxBytes: number; maxFiles: number }): Promise<UploadedFile[]> {
   if (!files.length) throw ApiError.badRequest("No file was uploaded: send one or more CSV/TSV files, or one zip, in the field \"files\".", [{ path: "files", message: "No file." }]);
-  const zips = files.filter((f) => isZip(f.originalname, f.buffer));
-  if (zips.length) {
-    if (files.length > 1) throw ApiError.unprocessable("Upload either one zip or plain network files, not both or several zips.", files.map((f) => ({ file: f.originalname, message: isZip(f.originalname, f.buffer) ? "A zip among other files." : "A file next to a zip." })));
-    return readZip(zips[0].originalname, zips[0].buffer, limits);
+  const heads = await Promise.all(files.map((f) => headOf(f.path)));
+  const zipAt = files.map((f, i) => isZip(f.originalname, heads[i]));
+  if (zipAt.some(Boolean)) {
+    if (files.length > 1) throw ApiError.unprocessable("Upload either one zip or plain network files, not both or several zips.", files.map((f, i) => ({ file: f.originalname, message: zipAt[i] ? "A zip among other files." : "A file next to a zip." })));
+    return readZip(files[0].originalname, await readFile(files[0].path), limits);
   }
-  const bad = files.filter((f) => !NETWORK_FILE.test(f.originalname));
-  if (bad.length) throw ApiError.unprocessable("Only network files (.csv, .tsv, .txt, .xlsx) or one zip may be uploaded.", bad.map((f) => ({ file: f.originalname, message: notANetworkFile(f.originalname, f.buffer) })));
-  return files.map((f) => ({ name: f.originalname, bytes: f.buffer }));
+  const bad = files.map((f, i) => ({ f, head: heads[i] })).filter(({ f }) => !NETWORK_FILE.test(f.originalname));
+  if (bad.length) throw ApiError.unprocessable("Only network files (.csv, .tsv, .txt, .xlsx) or one zip may be uploaded.", bad.map(({ f, head }) => ({ file: f.originalname, message: notANetworkFile(f.originalname, head) })));
+  return files.map((f) => ({ name: f.originalname, path: f.path }));
 }

@@ -1,8 +1,8 @@
 /** Request checks of the deposit routes (400 with a JSON-pointer detail on bad input). */
 import type { RequestHandler } from "express";
-import multer from "multer";
+import { streamUpload } from "../../lib/upload-storage";
+import { notANetworkFile } from "./deposits.upload";
 import { ApiError } from "../../lib/api-error";
-import { config } from "../../config/env";
 import type { UploadOptions } from "./deposits.service";
 import type { NetworkReadOptions } from "../../models/network.model";
 
@@ -31,14 +31,13 @@ export function idParam(raw: unknown, name = "id"): number {
 }
 
 /**
- * Multipart upload into memory (field "files"), with the configured size and count limits. Memory storage
- * means an interrupted request leaves nothing behind: the database is touched only after every byte
- * arrived and every file parsed.
+ * Multipart upload (field "files") streamed to temporary files with the per-file, per-request and count
+ * limits (lib/upload-storage.ts). Nothing touches the database until every byte arrived and every file
+ * parsed, so an interrupted request leaves nothing behind; the temporary files go when the request ends.
  */
-export const uploadFiles: RequestHandler = (req, res, next) => {
-  const cfg = config();
-  multer({ storage: multer.memoryStorage(), limits: { fileSize: cfg.uploadMaxBytes, files: cfg.uploadMaxFiles, fields: 20, parts: cfg.uploadMaxFiles + 20 } }).array("files", cfg.uploadMaxFiles)(req, res, next);
-};
+export const uploadFiles: RequestHandler = streamUpload("files", (name, head) =>
+  ApiError.unprocessable("Only network files (.csv, .tsv, .txt, .xlsx) or one zip may be uploaded.", [{ file: name, message: notANetworkFile(name, head) }]),
+);
 
 export function uploadOptions(body: Record<string, unknown> | undefined): UploadOptions {
   const b = body ?? {};
