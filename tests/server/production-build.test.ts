@@ -6,11 +6,12 @@
  * /health, stops cleanly on SIGTERM, refuses a bad setting with exit status 78, and that the compiled
  * worker thread computes exactly what the source computes.
  */
-import { spawn, spawnSync, type ChildProcess } from "node:child_process";
+import { fork, spawn, spawnSync, type ChildProcess } from "node:child_process";
 import { existsSync, readdirSync } from "node:fs";
 import { join } from "node:path";
 import pg from "pg";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { runParseTask } from "../../server/src/lib/parse/task";
 import { runTask } from "../../server/src/jobs/compute";
 import { serializeNetwork } from "../../shared/network/index";
 import type { PipelineSettings } from "../../shared/types/pipeline";
@@ -78,7 +79,7 @@ afterAll(async () => {
 
 describe("the compiled server (npm run build)", () => {
   it("holds no TypeScript and no tsx: every entry is plain JavaScript", () => {
-    for (const f of ["main.js", "worker.js", "metrics-thread.mjs"]) expect(existsSync(join(DIST, f)), f).toBe(true);
+    for (const f of ["main.js", "worker.js", "metrics-thread.mjs", "parse-process.mjs"]) expect(existsSync(join(DIST, f)), f).toBe(true);
     const migrations = readdirSync(join(DIST, "migrations")).filter((f) => f.endsWith(".js"));
     const sources = readdirSync(join(ROOT, "server", "src", "db", "migrations")).filter((f) => f.endsWith(".ts"));
     expect(migrations.map((f) => f.replace(/\.js$/, ""))).toEqual(sources.map((f) => f.replace(/\.ts$/, "")));
@@ -133,5 +134,27 @@ describe("the compiled server (npm run build)", () => {
     delete source.analysis.elapsedMs;
     expect(compiled).toEqual(source);
     expect(compiled.analysis.modularity.Q).toBeGreaterThan(0.41);
+  });
+
+  it("reads an uploaded file in the compiled parse process as the source does", async () => {
+    const child = fork(join(DIST, "parse-process.mjs"), [], { serialization: "advanced", env: { PATH: process.env.PATH ?? "" }, stdio: ["ignore", "ignore", "pipe", "ipc"] });
+    try {
+      const answers: Array<Record<string, unknown>> = [];
+      const got = (n: number) => new Promise<void>((resolve) => {
+        const check = () => (answers.length >= n ? resolve() : child.once("message", (m) => (answers.push(m as Record<string, unknown>), check())));
+        check();
+      });
+      await got(1);
+      expect(answers[0]).toEqual({ ready: true });
+      const task = { bytes: new TextEncoder().encode("plant,bee A,bee B\nHeather,1,0\nGorse,2,1\n"), options: { fileName: "heath.csv", kind: "bipartite" as const } };
+      child.send({ id: 7, task });
+      await got(2);
+      const compiled = answers[1] as { id: number; result: Awaited<ReturnType<typeof runParseTask>> };
+      expect(compiled.id).toBe(7);
+      expect(compiled.result).toEqual(await runParseTask(task));
+      expect(compiled.result).toMatchObject({ ok: true, metrics: { links: 3 } });
+    } finally {
+      child.kill();
+    }
   });
 });

@@ -28,7 +28,8 @@ interface Slot {
 }
 
 const IDLE_MS = 60_000;
-const ENTRY = fileURLToPath(new URL("./process.mjs", import.meta.url));
+// From the source: ./parse-process.mjs (loads the .ts through tsx); compiled: dist/server/parse-process.mjs.
+const ENTRY = fileURLToPath(new URL("./parse-process.mjs", import.meta.url));
 let slots: Slot[] = [];
 let waiting: Array<(s: Slot) => void> = [];
 let nextId = 1;
@@ -39,7 +40,6 @@ function spawnSlot(): Slot {
     execArgv: [`--max-old-space-size=${cfg.parseMaxMemoryMb}`],
     serialization: "advanced",
     stdio: ["ignore", "inherit", "pipe", "ipc"],
-    env: { ...process.env, NODE_OPTIONS: "" },
   });
   const slot: Slot = { child, busy: false, stderr: "", ready: Promise.resolve() };
   child.stderr?.on("data", (c: Buffer) => {
