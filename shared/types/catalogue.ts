@@ -2,6 +2,15 @@
  * The catalogue's API shapes, shared by the server (server/src/api/catalogue) and the client: one row per
  * published network with its current metrics, and facet counts per filter value.
  */
+/** Rows per page the catalogue offers (the API accepts any pageSize up to the largest). */
+export const CATALOGUE_PAGE_SIZES = [25, 50, 100, 250] as const;
+
+/**
+ * The example in the catalogue's search field: it must find networks in the demo scenario (a test seeds
+ * the scenario and searches for it).
+ */
+export const SEARCH_EXAMPLE = "Verrin heath";
+
 export interface FacetValue {
   value: string;
   count: number;

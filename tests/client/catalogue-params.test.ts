@@ -3,7 +3,7 @@
  * "everything matching" sends to the bundle endpoint (filters only, never paging or sorting).
  */
 import { describe, expect, it } from "vitest";
-import { filterOnly, hasFilters, listValues, toggleValue, withParams } from "../../client/src/features/catalogue/utils/catalogue-params";
+import { filterOnly, hasFilters, listValues, rangeProblems, rangeProblemsFromApi, toggleValue, withParams } from "../../client/src/features/catalogue/utils/catalogue-params";
 import { bundleUrlForFilter, bundleUrlForRefs, DEFAULT_PARTS, formatBytes } from "../../client/src/features/bundles/utils/bundle-url";
 
 describe("catalogue URL parameters", () => {
@@ -37,5 +37,27 @@ describe("catalogue URL parameters", () => {
     expect(formatBytes(80 * 1024)).toBe("80 kB");
     expect(formatBytes(3.25 * 1024 * 1024)).toBe("3.3 MB");
     expect(formatBytes(250 * 1024 * 1024)).toBe("250 MB");
+  });
+});
+
+describe("range checks before a search", () => {
+  it("flags a minimum above its maximum, naming both", () => {
+    expect(rangeProblems({ connectanceMin: "0.5", connectanceMax: "0.1" })).toEqual({
+      connectance: "The minimum (0.5) is above the maximum (0.1): no network could match. Swap them or change one.",
+    });
+    expect(rangeProblems({ connectanceMin: "0.1", connectanceMax: "0.1", qMin: "-0.2", zMax: "3" })).toEqual({});
+  });
+
+  it("flags values the figure cannot take, as the API does", () => {
+    expect(rangeProblems({ pMax: "2", nodesMin: "3.5", yearMin: "abc", qMin: "" })).toEqual({
+      p: "The maximum must be between 0 and 1 (got 2).",
+      nodes: "The minimum must be a whole number (got 3.5).",
+      year: "The minimum “abc” is not a number.",
+    });
+    expect(rangeProblems({ nodesMin: "-1" })).toEqual({ nodes: "The minimum must be at least 0 (got -1)." });
+  });
+
+  it("reads the API's answer to a shared link per range", () => {
+    expect(rangeProblemsFromApi([{ path: "qMin", message: "qMin (0.6) is greater than qMax (0.2)" }, { path: "sort", message: "bad" }])).toEqual({ Q: "qMin (0.6) is greater than qMax (0.2)" });
   });
 });

@@ -12,7 +12,8 @@ import { AxeBuilder } from "@axe-core/playwright";
 import type { Page } from "playwright-core";
 import { QueryTypes } from "sequelize";
 import { startStack, type TestStack } from "../server/support/stack";
-import { openBrowser, screenshot, signInViaApi, type BrowserSession } from "./support/browser";
+import { join } from "node:path";
+import { openBrowser, screenshot, signInViaApi, SCREENSHOT_DIR, type BrowserSession } from "./support/browser";
 import { resetDatabase } from "../setup/db";
 import { unzip } from "../server/support/unzip";
 import { catalogueStore } from "../../server/src/api/catalogue/catalogue.store";
@@ -28,9 +29,16 @@ let gone: PublishedFixture;
 let collectionCode: string;
 const ref = (f: PublishedFixture, pos: number) => `${f.accession}/v1/${pos}`;
 
-async function axeCheck(page: Page) {
-  const axe = await new AxeBuilder({ page }).withTags(["wcag2a", "wcag2aa"]).analyze();
+/** Axe on the page, or on the part of it a test changed (the whole catalogue takes axe about 20 s). */
+async function axeCheck(page: Page, include?: string) {
+  const builder = new AxeBuilder({ page }).withTags(["wcag2a", "wcag2aa"]);
+  const axe = await (include ? builder.include(include) : builder).analyze();
   expect(axe.violations.filter((v) => v.impact === "serious" || v.impact === "critical").map((v) => `${v.id}: ${v.nodes.map((n) => n.target.join(" ")).join(", ")}`)).toEqual([]);
+}
+
+/** The visible part only (a phone's full page is too tall to look at in one picture). */
+async function viewportShot(page: Page, name: string) {
+  await page.screenshot({ path: join(SCREENSHOT_DIR, `${name}.png`) });
 }
 
 /** Circles of both compare charts (each plotted network is one focusable point per chart). */
@@ -47,6 +55,11 @@ beforeAll(async () => {
   coast = await publishDataset({
     study: { title: "Fruit eaters of the Tallow Coast" },
     networks: [4, 5].map((k) => ({ seed: k, rows: 5, cols: 4 + k, meta: { name: `Coast transect ${k - 3}`, interactionType: "seed-dispersal" as const }, metrics: { q: 0.25 + 0.04 * k, z: 2 + k, qRel: 0.3 } })),
+  });
+  // 22 more, so that the catalogue has more than one page of 25
+  await publishDataset({
+    study: { title: "Grid survey of the Osk lakeshore" },
+    networks: Array.from({ length: 22 }, (_, k) => ({ seed: 20 + k, rows: 4, cols: 5 + (k % 4), meta: { name: `Grid cell ${k + 1}` }, metrics: { q: 0.2 + 0.01 * k, z: 1 + 0.1 * k, qRel: 0.2 } })),
   });
   gone = await publishDataset({ study: { title: "Later withdrawn survey" }, networks: [{ seed: 9, meta: { name: "Duplicated plot" }, metrics: { q: 0.4, z: 3, qRel: 0.2 } }] });
   stack = await startStack();
@@ -132,16 +145,16 @@ describe("compare view with references it cannot plot", () => {
   });
 
   it("reads well on a 390 px phone", async () => {
-    const phone = await openBrowser({ width: 390, height: 844 });
+    const { page } = browser;
+    await page.setViewportSize({ width: 390, height: 844 });
     try {
-      await phone.page.goto(`${stack.url}/compare?refs=${ref(meadow, 1)},${ref(gone, 1)},${ref(coast, 1)}`);
-      await phone.page.getByTestId("not-plotted").waitFor();
-      await phone.page.getByRole("group", { name: "Scatter plot of Q against connectance" }).waitFor();
-      const overflow = await phone.page.evaluate(() => document.documentElement.scrollWidth - window.innerWidth);
-      expect(overflow).toBeLessThanOrEqual(0);
-      await screenshot(phone.page, "compare-not-plotted-390");
+      await page.goto(`${stack.url}/compare?refs=${ref(meadow, 1)},${ref(gone, 1)},${ref(coast, 1)}`);
+      await page.getByTestId("not-plotted").waitFor();
+      await page.getByRole("group", { name: "Scatter plot of Q against connectance" }).waitFor();
+      expect(await page.evaluate(() => document.documentElement.scrollWidth - window.innerWidth)).toBeLessThanOrEqual(0);
+      await screenshot(page, "compare-not-plotted-390");
     } finally {
-      await phone.close();
+      await page.setViewportSize({ width: 1280, height: 900 });
     }
   });
 });
@@ -165,5 +178,107 @@ describe("bundling a stale selection", () => {
     // dropping it restores the ordinary button
     await actions.getByRole("button", { name: "Remove it from the selection" }).click();
     await actions.getByRole("link", { name: /^Bundle selection \(2, ~/ }).waitFor();
+  });
+});
+
+describe("catalogue conveniences", () => {
+  const heading = (page: Page) => page.locator("#results-heading");
+
+  it("offers 25, 50, 100 or 250 rows per page, keeping the first row in view", async () => {
+    const { page } = browser;
+    await page.goto(`${stack.url}/catalogue`);
+    await page.getByRole("heading", { name: "27 networks" }).waitFor();
+    const rows = page.getByRole("checkbox", { name: /^Select TB-/ });
+    await expect.poll(() => rows.count()).toBe(25);
+    await page.getByText("Page 1 of 2", { exact: true }).waitFor();
+    const choice = page.getByRole("combobox", { name: "Rows per page", exact: true });
+    expect(await choice.locator("option").allTextContents()).toEqual(["25", "50", "100", "250"]);
+    await choice.selectOption("50");
+    await page.waitForURL(/pageSize=50/);
+    await expect.poll(() => rows.count()).toBe(27);
+    await page.getByText("Page 1 of 1", { exact: true }).waitFor();
+    // back to 25 from page 1 stays on page 1; the URL drops the default
+    await choice.selectOption("25");
+    await expect.poll(() => new URL(page.url()).searchParams.has("pageSize")).toBe(false);
+  });
+
+  it("flags an inverted range at the field instead of showing 0 rows", async () => {
+    const { page } = browser;
+    await page.goto(`${stack.url}/catalogue`);
+    await page.getByRole("heading", { name: "27 networks" }).waitFor();
+    const min = page.getByLabel("Connectance (C): at least");
+    await min.fill("0.5");
+    await page.getByLabel("Connectance (C): at most").fill("0.1");
+    await page.getByRole("button", { name: "Apply ranges" }).click();
+    await page.getByText("The minimum (0.5) is above the maximum (0.1): no network could match. Swap them or change one.").waitFor();
+    expect(await min.getAttribute("aria-invalid")).toBe("true");
+    await expect.poll(() => page.evaluate(() => document.activeElement?.id)).toBe("range-connectanceMin");
+    expect(new URL(page.url()).searchParams.has("connectanceMin")).toBe(false); // nothing applied
+    expect(await heading(page).textContent()).toBe("27 networks");
+    await screenshot(page, "catalogue-inverted-range");
+    await axeCheck(page, "aside[aria-label='Filters']"); // the whole page is checked by catalogue.test.ts
+    // out of bounds too
+    await min.fill("");
+    await page.getByLabel("Connectance (C): at most").fill("");
+    await page.getByLabel("p against the chosen null model: at most").fill("2");
+    await page.getByRole("button", { name: "Apply ranges" }).click();
+    await page.getByText("The maximum must be between 0 and 1 (got 2).").waitFor();
+
+    // a shared link with an inverted range: the server's answer is shown at the field and above the table
+    await page.goto(`${stack.url}/catalogue?qMin=0.6&qMax=0.2`);
+    await page.getByText("These ranges cannot be searched").waitFor();
+    await page.locator("#range-Q-error").getByText(/qMin \(0\.6\) is greater than qMax \(0\.2\)/).waitFor();
+    expect(await heading(page).textContent()).toBe("No results");
+  });
+
+  it("ticks a facet at once while the counts are still on their way", async () => {
+    const { page } = browser;
+    await page.goto(`${stack.url}/catalogue`);
+    await page.getByRole("heading", { name: "27 networks" }).waitFor();
+    // hold every catalogue answer back for 1.5 s, as a slow connection would
+    await page.route("**/api/v1/catalogue?**", async (route) => {
+      await new Promise((r) => setTimeout(r, 1500));
+      await route.continue();
+    });
+    try {
+      const box = page.getByRole("group", { name: "Interaction type" }).getByLabel(/seed dispersal/);
+      const t0 = Date.now();
+      await box.click();
+      expect(await box.isChecked()).toBe(true);
+      const tickMs = Date.now() - t0;
+      expect(tickMs).toBeLessThan(1000); // the answer takes 1.5 s; the tick did not wait for it
+      expect(await heading(page).textContent()).toBe("27 networks"); // still the old answer
+      await page.getByText(/Updating…/).waitFor();
+      await page.getByRole("heading", { name: "2 networks" }).waitFor();
+      expect(await box.isChecked()).toBe(true);
+    } finally {
+      await page.unroute("**/api/v1/catalogue?**");
+    }
+  });
+
+  it("fits a 390 px phone: filters fold away and the table scrolls inside its own box", async () => {
+    const { page } = browser;
+    await page.setViewportSize({ width: 390, height: 844 });
+    try {
+      await page.goto(`${stack.url}/catalogue`);
+      await page.getByRole("heading", { name: "27 networks" }).waitFor();
+      expect(await page.evaluate(() => document.documentElement.scrollWidth - window.innerWidth)).toBeLessThanOrEqual(0);
+      const box = page.getByTestId("catalogue-table-box");
+      const { scrollWidth, clientWidth } = await box.evaluate((el) => ({ scrollWidth: el.scrollWidth, clientWidth: el.clientWidth }));
+      expect(scrollWidth).toBeGreaterThan(clientWidth); // the wide table scrolls in its card
+      expect(clientWidth).toBeLessThanOrEqual(390);
+      expect(await page.getByLabel("Connectance (C): at least").isVisible()).toBe(false);
+      await viewportShot(page, "catalogue-390");
+      await axeCheck(page, "aside[aria-label='Filters']");
+      await page.getByRole("button", { name: /^Show filters/ }).click();
+      expect(await page.getByLabel("Connectance (C): at least").isVisible()).toBe(true);
+      expect(await page.evaluate(() => document.documentElement.scrollWidth - window.innerWidth)).toBeLessThanOrEqual(0);
+      await page.getByRole("button", { name: "Apply ranges" }).scrollIntoViewIfNeeded();
+      await viewportShot(page, "catalogue-390-filters");
+      await page.getByTestId("catalogue-table-box").scrollIntoViewIfNeeded();
+      await viewportShot(page, "catalogue-390-table");
+    } finally {
+      await page.setViewportSize({ width: 1280, height: 900 });
+    }
   });
 });

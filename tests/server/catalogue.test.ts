@@ -213,6 +213,21 @@ describe("sorting and pagination", () => {
     expect(paths).toEqual(["connectanceMax", "frobnicate", "nodesMin", "sort"]);
   });
 
+  it("refuses an inverted range instead of answering 0 rows, naming the parameter", async () => {
+    const res = await request(app).get("/api/v1/catalogue").query({ connectanceMin: 0.5, connectanceMax: 0.1 });
+    expect(res.status).toBe(400);
+    expect(res.body.details).toEqual([{ path: "connectanceMin", message: expect.stringMatching(/connectanceMin \(0\.5\) is greater than connectanceMax \(0\.1\): no network could match/) }]);
+    // equal ends are a valid (narrow) range
+    expect((await request(app).get("/api/v1/catalogue").query({ connectanceMin: 0.1, connectanceMax: 0.1 })).status).toBe(200);
+  });
+
+  it("pages 250 rows at a time at most", async () => {
+    expect((await request(app).get("/api/v1/catalogue").query({ pageSize: 250 })).status).toBe(200);
+    const res = await request(app).get("/api/v1/catalogue").query({ pageSize: 251 });
+    expect(res.status).toBe(400);
+    expect(res.body.details[0]).toMatchObject({ path: "pageSize" });
+  });
+
   it("answers the same at /api/v1/networks", async () => {
     const a = await get({ country: "FI" });
     const b = await request(app).get("/api/v1/networks").query({ country: "FI" });

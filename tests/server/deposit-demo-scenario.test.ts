@@ -12,6 +12,7 @@ import { sequelize } from "../../server/src/db/sequelize";
 import { seedDemoAccounts } from "../../server/src/db/seeders/demo-accounts";
 import { seedDemoScenario } from "../../server/src/db/seeders/demo-scenario";
 import { resetDatabase } from "../setup/db";
+import { SEARCH_EXAMPLE } from "../../shared/types/catalogue";
 import { startMailCatcher } from "./support/stack";
 import type { MailCatcher } from "../../server/src/lib/mail-catcher";
 
@@ -61,6 +62,16 @@ describe("demo scenario", () => {
     const gone = await request(app).get(`/api/v1/datasets/${w[0].accession}`);
     expect(gone.status).toBe(410);
     expect(gone.body.reason).toMatch(/identifications/);
+  });
+
+  it("answers the catalogue search field's example with networks", async () => {
+    const app = createApp();
+    const res = await request(app).get("/api/v1/catalogue").query({ q: SEARCH_EXAMPLE });
+    expect(res.status).toBe(200);
+    expect(res.body.meta.total).toBeGreaterThan(0);
+    // the matches really are about the example's words (here in their titles and places)
+    const text = JSON.stringify(res.body.data).toLowerCase();
+    for (const word of SEARCH_EXAMPLE.toLowerCase().split(/\s+/)) expect(text).toContain(word);
   });
 
   it("runs once: a second call seeds nothing", async () => {

@@ -4,6 +4,7 @@
  */
 import { ApiError, type ErrorDetail } from "../../lib/api-error";
 import { NULL_MODELS } from "../../../../shared/network/null-models/index";
+import { CATALOGUE_PAGE_SIZES } from "../../../../shared/types/catalogue";
 
 /**
  * The null model of the catalogue's z column and z/p filters when the reader names none: fixed degrees
@@ -41,7 +42,7 @@ export interface CatalogueQuery {
   pageSize: number;
 }
 
-export const MAX_PAGE_SIZE = 200;
+export const MAX_PAGE_SIZE = CATALOGUE_PAGE_SIZES[CATALOGUE_PAGE_SIZES.length - 1];
 
 /** Every query parameter name the catalogue understands (shared with the OpenAPI document). */
 export const CATALOGUE_PARAMS = [
@@ -118,7 +119,7 @@ export function parseCatalogueQuery(raw: Record<string, unknown>): CatalogueQuer
   const range = (prefix: string, opts: { integer?: boolean; min?: number; max?: number } = {}): Range => {
     const r: Range = { min: number(`${prefix}Min`, opts), max: number(`${prefix}Max`, opts) };
     if (r.min !== undefined && r.max !== undefined && r.min > r.max) {
-      errors.push({ path: `${prefix}Min`, message: `${prefix}Min (${r.min}) is greater than ${prefix}Max (${r.max}).` });
+      errors.push({ path: `${prefix}Min`, message: `${prefix}Min (${r.min}) is greater than ${prefix}Max (${r.max}): no network could match. Swap them or change one.` });
     }
     return r;
   };

@@ -7,7 +7,7 @@ import { NULL_MODELS } from "../../../../shared/network/null-models/index";
 import { FIGURE_CAUTION_SHORT } from "../../../../shared/figures/cautions";
 import { ENGINE_VERSION } from "../../../../shared/network/version";
 import { config } from "../../config/env";
-import { CATALOGUE_PARAMS } from "../catalogue/catalogue.validation";
+import { CATALOGUE_PARAMS, MAX_PAGE_SIZE } from "../catalogue/catalogue.validation";
 import { BUNDLE_LIMIT } from "../bundles/bundles.selection";
 import { BUNDLE_PARTS, DEFAULT_PARTS } from "../bundles/bundles.parts";
 
@@ -54,7 +54,7 @@ const CATALOGUE_PARAM_DOCS: Record<(typeof CATALOGUE_PARAMS)[number], [string, J
   sort: ["Sort key (z: against nullModel)", { type: "string", enum: ["accession", "title", "type", "S", "C", "Q", "z", "year", "relevance"] }],
   order: ["asc or desc (missing values always last)", { type: "string", enum: ["asc", "desc"] }],
   page: ["Page number, from 1", { type: "integer", minimum: 1, default: 1 }],
-  pageSize: ["Rows per page (at most 200)", { type: "integer", minimum: 1, maximum: 200, default: 25 }],
+  pageSize: [`Rows per page (at most ${MAX_PAGE_SIZE})`, { type: "integer", minimum: 1, maximum: MAX_PAGE_SIZE, default: 25 }],
 };
 
 const catalogueParameters = CATALOGUE_PARAMS.map((p) => queryParam(p, CATALOGUE_PARAM_DOCS[p][0], CATALOGUE_PARAM_DOCS[p][1], CATALOGUE_PARAM_DOCS[p][2]));

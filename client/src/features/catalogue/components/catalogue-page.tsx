@@ -10,7 +10,23 @@ import { createColumnHelper, flexRender, getCoreRowModel, useReactTable, type So
 import { Alert, Button } from "../../../components/ui/form";
 import { paths } from "../../../config/paths";
 import { useCatalogue, type CatalogueFacets, type CatalogueRow, type FacetValue } from "../api/get-catalogue";
-import { LIST_FILTERS, PAGE_SIZE, RANGE_FILTERS, filterOnly, hasFilters, listValues, toggleValue, valueLabel, withParams, type ListFilter } from "../utils/catalogue-params";
+import {
+  CATALOGUE_PAGE_SIZES,
+  LIST_FILTERS,
+  PAGE_SIZE,
+  RANGE_FILTERS,
+  filterOnly,
+  hasFilters,
+  listValues,
+  rangeProblems,
+  rangeProblemsFromApi,
+  toggleValue,
+  valueLabel,
+  withParams,
+  type ListFilter,
+} from "../utils/catalogue-params";
+import { SEARCH_EXAMPLE } from "../../../../../shared/types/catalogue";
+import { ApiClientError } from "../../../lib/api-client";
 import { useSelection } from "../utils/selection";
 import { NOT_RECORDED_LABELS, type NotRecordedField } from "../../../../../shared/validation/not-recorded";
 
@@ -40,22 +56,45 @@ const COLUMN_OF_SORT = Object.fromEntries(Object.entries(SORT_OF_COLUMN).map(([c
 
 const fmt = (v: number | null, digits: number) => (v === null ? "—" : v.toFixed(digits));
 
-function FacetGroup({ name, values, chosen, onToggle }: { name: ListFilter; values: FacetValue[]; chosen: string[]; onToggle: (v: string) => void }) {
+/**
+ * One facet's values. A tick shows at once (optimistic): the click is kept locally until the URL (and the
+ * next answer) agree, while the counts beside the values are dimmed until fresh counts arrive.
+ */
+function FacetGroup({ name, values, chosen, onToggle, stale }: { name: ListFilter; values: FacetValue[]; chosen: string[]; onToggle: (v: string) => void; stale: boolean }) {
   const [all, setAll] = useState(false);
+  const [pending, setPending] = useState<Record<string, boolean>>({});
+  const chosenKey = chosen.join(",");
+  const [seenKey, setSeenKey] = useState(chosenKey);
+  if (seenKey !== chosenKey) {
+    // the URL caught up: forget the local ticks (adjusting state while rendering, as React recommends)
+    setSeenKey(chosenKey);
+    setPending({});
+  }
   const shown = all ? values : values.slice(0, 8);
-  if (!values.length) return null;
+  // a value just ticked stays listed even if the previous answer's facet did not hold it
+  if (!values.length && !chosen.length) return null;
   return (
     <fieldset className="border-t border-stone-200 pt-3">
       <legend className="text-sm font-bold text-stone-800">{FILTER_TITLES[name]}</legend>
       <ul className="mt-1 space-y-1">
         {shown.map((f) => {
           const id = `facet-${name}-${f.value}`;
+          const checked = pending[f.value] ?? chosen.includes(f.value);
           return (
             <li key={f.value} className="flex items-center gap-2 text-sm">
-              <input id={id} type="checkbox" className="h-4 w-4 accent-moss-700" checked={chosen.includes(f.value)} onChange={() => onToggle(f.value)} />
+              <input
+                id={id}
+                type="checkbox"
+                className="h-4 w-4 accent-moss-700"
+                checked={checked}
+                onChange={() => {
+                  setPending((p) => ({ ...p, [f.value]: !checked }));
+                  onToggle(f.value);
+                }}
+              />
               <label htmlFor={id} className="flex flex-1 justify-between gap-2 text-stone-800">
                 <span>{valueLabel(name, f.value)}</span>
-                <span className="tabular-nums text-stone-600" aria-label={`${f.count} networks`}>
+                <span className={`tabular-nums ${stale ? "text-stone-400" : "text-stone-600"}`} aria-label={stale ? "count updating" : `${f.count} networks`}>
                   {f.count}
                 </span>
               </label>
@@ -72,12 +111,26 @@ function FacetGroup({ name, values, chosen, onToggle }: { name: ListFilter; valu
   );
 }
 
-function RangeFilters({ params, facets, onApply }: { params: URLSearchParams; facets: CatalogueFacets | undefined; onApply: (next: Record<string, string>) => void }) {
+function RangeFilters({
+  params,
+  facets,
+  apiProblems,
+  onApply,
+}: {
+  params: URLSearchParams;
+  facets: CatalogueFacets | undefined;
+  /** Problems the server found in the URL's ranges (a shared link), per range key. */
+  apiProblems: Record<string, string>;
+  onApply: (next: Record<string, string>) => void;
+}) {
+  const [problems, setProblems] = useState<Record<string, string>>({});
+  const shown = { ...apiProblems, ...problems };
   return (
     <form
       key={params.toString()}
       aria-label="Range filters"
       className="space-y-3 border-t border-stone-200 pt-3"
+      noValidate
       onSubmit={(e) => {
         e.preventDefault();
         const f = new FormData(e.currentTarget);
@@ -85,6 +138,14 @@ function RangeFilters({ params, facets, onApply }: { params: URLSearchParams; fa
         for (const r of RANGE_FILTERS) {
           next[r.min] = String(f.get(r.min) ?? "").trim();
           next[r.max] = String(f.get(r.max) ?? "").trim();
+        }
+        const found = rangeProblems(next);
+        setProblems(found);
+        if (Object.keys(found).length) {
+          // focus the first field in trouble, so keyboard and screen-reader users land on the message
+          const first = RANGE_FILTERS.find((r) => found[r.key]);
+          e.currentTarget.querySelector<HTMLInputElement>(`#range-${first!.min}`)?.focus();
+          return;
         }
         const model = String(f.get("nullModel") ?? "");
         next.nullModel = model === DEFAULT_NULL_MODEL ? "" : model;
@@ -95,6 +156,9 @@ function RangeFilters({ params, facets, onApply }: { params: URLSearchParams; fa
       {RANGE_FILTERS.map((r) => {
         const facet = facets?.[r.key];
         const hint = facet && facet.min !== null ? `${+facet.min.toFixed(3)} – ${+facet.max!.toFixed(3)} among matches` : "no values among matches";
+        const problem = shown[r.key];
+        const errId = `range-${r.key}-error`;
+        const look = `w-24 rounded border px-2 py-1 text-sm ${problem ? "border-red-700 ring-1 ring-red-700" : "border-stone-400"}`;
         return (
           <fieldset key={r.key}>
             <legend className="text-sm font-bold text-stone-800">{r.label}</legend>
@@ -103,13 +167,38 @@ function RangeFilters({ params, facets, onApply }: { params: URLSearchParams; fa
               <label className="sr-only" htmlFor={`range-${r.min}`}>
                 {r.label}: at least
               </label>
-              <input id={`range-${r.min}`} name={r.min} type="number" step={r.step} placeholder="min" defaultValue={params.get(r.min) ?? ""} className="w-24 rounded border border-stone-400 px-2 py-1 text-sm" />
+              <input
+                id={`range-${r.min}`}
+                name={r.min}
+                type="number"
+                step={r.step}
+                placeholder="min"
+                defaultValue={params.get(r.min) ?? ""}
+                aria-invalid={problem ? true : undefined}
+                aria-describedby={problem ? errId : undefined}
+                className={look}
+              />
               <span aria-hidden="true">–</span>
               <label className="sr-only" htmlFor={`range-${r.max}`}>
                 {r.label}: at most
               </label>
-              <input id={`range-${r.max}`} name={r.max} type="number" step={r.step} placeholder="max" defaultValue={params.get(r.max) ?? ""} className="w-24 rounded border border-stone-400 px-2 py-1 text-sm" />
+              <input
+                id={`range-${r.max}`}
+                name={r.max}
+                type="number"
+                step={r.step}
+                placeholder="max"
+                defaultValue={params.get(r.max) ?? ""}
+                aria-invalid={problem ? true : undefined}
+                aria-describedby={problem ? errId : undefined}
+                className={look}
+              />
             </div>
+            {problem && (
+              <p id={errId} className="mt-1 text-xs font-semibold text-red-800">
+                {problem}
+              </p>
+            )}
           </fieldset>
         );
       })}
@@ -174,6 +263,7 @@ export function CataloguePage({ actions }: { actions?: (ctx: CatalogueActionsCon
   const allOnPage = pageRefs.length > 0 && pageRefs.every((r) => selected.includes(r));
 
   const update = (p: URLSearchParams) => setParams(p, { replace: false });
+  const [filtersOpen, setFiltersOpen] = useState(false);
 
   const columns = useMemo(
     () => [
@@ -209,7 +299,7 @@ export function CataloguePage({ actions }: { actions?: (ctx: CatalogueActionsCon
       col.accessor("title", {
         header: "Title",
         cell: (c) => (
-          <span>
+          <span className="block min-w-48">
             <span className="text-stone-900">{c.getValue()}</span>
             <span className="block text-xs text-stone-600">{c.row.original.name}</span>
           </span>
@@ -266,6 +356,33 @@ export function CataloguePage({ actions }: { actions?: (ctx: CatalogueActionsCon
   });
 
   const facets = catalogue.data?.meta.facets;
+  const apiProblems = catalogue.error instanceof ApiClientError ? rangeProblemsFromApi(catalogue.error.details) : {};
+  const rangeTrouble = Object.keys(apiProblems).length > 0;
+  const activeFilters = [...filterOnly(params).keys()].filter((k) => k !== "q" && k !== "nullModel").length;
+  const stale = catalogue.isPlaceholderData;
+  const setPageSize = (n: number) => {
+    // keep the first row of this page on screen
+    const first = (page - 1) * pageSize;
+    const nextPage = Math.floor(first / n) + 1;
+    update(withParams(params, { pageSize: n === PAGE_SIZE ? undefined : String(n), page: nextPage > 1 ? String(nextPage) : undefined }));
+  };
+  const pageSizeChoice = (where: string) => (
+    <label className="flex items-center gap-1.5 text-sm text-stone-700">
+      <span>Rows per page</span>
+      <select
+        aria-label={where === "top" ? "Rows per page" : "Rows per page (below the table)"}
+        value={pageSize}
+        onChange={(e) => setPageSize(Number(e.target.value))}
+        className="rounded border border-stone-400 bg-white px-1.5 py-1 text-sm"
+      >
+        {[...new Set([...CATALOGUE_PAGE_SIZES, pageSize])].sort((a, b) => a - b).map((n) => (
+          <option key={n} value={n}>
+            {n}
+          </option>
+        ))}
+      </select>
+    </label>
+  );
   return (
     <div className="space-y-4">
       <div className="flex flex-wrap items-end justify-between gap-4">
@@ -291,7 +408,7 @@ export function CataloguePage({ actions }: { actions?: (ctx: CatalogueActionsCon
           update(withParams(params, { q, page: undefined, sort: q ? undefined : params.get("sort"), order: q ? undefined : params.get("order") }));
         }}
       >
-        <div className="min-w-64 flex-1">
+        <div className="min-w-0 flex-1 basis-56">
           <label htmlFor="catalogue-q" className="block text-sm font-semibold text-stone-800">
             Search titles, descriptions, keywords, creators, places and taxon names
           </label>
@@ -301,7 +418,7 @@ export function CataloguePage({ actions }: { actions?: (ctx: CatalogueActionsCon
             name="q"
             type="search"
             defaultValue={params.get("q") ?? ""}
-            placeholder="e.g. Verrin meadow Bombus"
+            placeholder={`e.g. ${SEARCH_EXAMPLE}`}
             className="mt-1 block w-full rounded border border-stone-400 bg-white px-3 py-2 text-stone-900 focus:border-moss-600 focus:outline-none focus:ring-2 focus:ring-moss-200"
           />
         </div>
@@ -322,34 +439,50 @@ export function CataloguePage({ actions }: { actions?: (ctx: CatalogueActionsCon
       </div>
 
       <div className="grid gap-4 lg:grid-cols-[16rem_1fr]">
-        <aside aria-label="Filters" className="space-y-3 self-start rounded-lg bg-white p-4 ring-1 ring-stone-200">
-          <h2 className="text-lg font-bold text-moss-700">Filters</h2>
-          <p className="text-xs text-stone-600">Numbers: networks each value would give with the other filters applied.</p>
-          {LIST_FILTERS.map((name) => (
-            <FacetGroup key={name} name={name} values={facets?.[name] ?? []} chosen={listValues(params, name)} onToggle={(v) => update(toggleValue(params, name, v))} />
-          ))}
-          <RangeFilters params={params} facets={facets} onApply={(next) => update(withParams(params, { ...next, page: undefined }))} />
-          {facets && facets.notRecorded.length > 0 && (
-            <div className="text-sm">
-              <h3 className="font-semibold text-stone-800">Not recorded</h3>
-              <p className="text-xs text-stone-600">Matching networks whose depositor marked a field unknown (left out of range filters).</p>
-              <ul className="mt-1">
-                {facets.notRecorded.map((f) => (
-                  <li key={f.value} className="flex justify-between">
-                    <span>{NOT_RECORDED_LABELS[f.value as NotRecordedField] ?? f.value}</span>
-                    <span className="tabular-nums text-stone-700">{f.count}</span>
-                  </li>
-                ))}
-              </ul>
-            </div>
-          )}
+        <aside aria-label="Filters" className="self-start rounded-lg bg-white p-4 ring-1 ring-stone-200" aria-busy={stale || undefined}>
+          <div className="flex items-center justify-between gap-2">
+            <h2 className="text-lg font-bold text-moss-700">Filters</h2>
+            <button
+              type="button"
+              className="rounded border border-moss-700 px-2 py-1 text-sm font-semibold text-moss-700 lg:hidden"
+              aria-expanded={filtersOpen || rangeTrouble}
+              aria-controls="catalogue-filters"
+              onClick={() => setFiltersOpen(!filtersOpen)}
+            >
+              {filtersOpen || rangeTrouble ? "Hide filters" : `Show filters${activeFilters ? ` (${activeFilters} in use)` : ""}`}
+            </button>
+          </div>
+          <div id="catalogue-filters" className={`mt-3 space-y-3 ${filtersOpen || rangeTrouble ? "" : "hidden"} lg:block`}>
+            <p className="text-xs text-stone-600">
+              Numbers: networks each value would give with the other filters applied.{stale ? " Updating…" : ""}
+            </p>
+            {LIST_FILTERS.map((name) => (
+              <FacetGroup key={name} name={name} values={facets?.[name] ?? []} chosen={listValues(params, name)} stale={stale} onToggle={(v) => update(toggleValue(params, name, v))} />
+            ))}
+            <RangeFilters params={params} facets={facets} apiProblems={apiProblems} onApply={(next) => update(withParams(params, { ...next, page: undefined }))} />
+            {facets && facets.notRecorded.length > 0 && (
+              <div className="text-sm">
+                <h3 className="font-semibold text-stone-800">Not recorded</h3>
+                <p className="text-xs text-stone-600">Matching networks whose depositor marked a field unknown (left out of range filters).</p>
+                <ul className="mt-1">
+                  {facets.notRecorded.map((f) => (
+                    <li key={f.value} className="flex justify-between">
+                      <span>{NOT_RECORDED_LABELS[f.value as NotRecordedField] ?? f.value}</span>
+                      <span className="tabular-nums text-stone-700">{f.count}</span>
+                    </li>
+                  ))}
+                </ul>
+              </div>
+            )}
+          </div>
         </aside>
 
         <section aria-labelledby="results-heading" className="min-w-0 space-y-3">
           <div className="flex flex-wrap items-center justify-between gap-2">
             <h2 id="results-heading" className="text-lg font-bold text-stone-900" aria-live="polite">
-              {catalogue.isPending ? "Loading…" : `${total.toLocaleString("en")} network${total === 1 ? "" : "s"}`}
+              {catalogue.isError ? "No results" : catalogue.isPending ? "Loading…" : `${total.toLocaleString("en")} network${total === 1 ? "" : "s"}`}
             </h2>
+            {pageSizeChoice("top")}
           </div>
           <div className="flex flex-wrap items-center gap-3 rounded-lg bg-moss-50 p-3 ring-1 ring-moss-200" aria-label="Selection">
             <p className="font-semibold text-moss-900" aria-live="polite" data-testid="selection-count">
@@ -367,8 +500,20 @@ export function CataloguePage({ actions }: { actions?: (ctx: CatalogueActionsCon
             )}
             {actions?.({ selected, filter: filterOnly(params), total, clearSelection: clear, dropFromSelection: (refs) => setMany(refs, false) })}
           </div>
-          {catalogue.error && <Alert tone="error">{catalogue.error.message}</Alert>}
-          <div className="overflow-x-auto rounded-lg bg-white ring-1 ring-stone-200">
+          {catalogue.error &&
+            (rangeTrouble ? (
+              <Alert tone="error" title="These ranges cannot be searched">
+                {Object.entries(apiProblems).map(([k, m]) => (
+                  <span key={k} className="block">
+                    {RANGE_FILTERS.find((r) => r.key === k)!.label}: {m}
+                  </span>
+                ))}
+                <span className="block">Fix them under Filters and apply again.</span>
+              </Alert>
+            ) : (
+              <Alert tone="error">{catalogue.error.message}</Alert>
+            ))}
+          <div className="relative overflow-x-auto rounded-lg bg-white ring-1 ring-stone-200" data-testid="catalogue-table-box">
             <table className="min-w-full text-left text-sm">
               <caption className="sr-only">Published networks, page {page} of {pages}</caption>
               <thead className="border-b border-stone-200 bg-stone-50 text-stone-700">
@@ -420,6 +565,7 @@ export function CataloguePage({ actions }: { actions?: (ctx: CatalogueActionsCon
             <p>
               Page {page} of {pages}
             </p>
+            {pageSizeChoice("bottom")}
             <div className="flex gap-2">
               <Button type="button" variant="secondary" className="px-3 py-1.5 text-sm" disabled={page <= 1} onClick={() => update(withParams(params, { page: page - 1 > 1 ? String(page - 1) : undefined }))}>
                 Previous page

@@ -4,15 +4,64 @@
  */
 export const LIST_FILTERS = ["interactionType", "kind", "weighted", "habitat", "country", "licence"] as const;
 export type ListFilter = (typeof LIST_FILTERS)[number];
-export const RANGE_FILTERS = [
-  { key: "year", label: "Sampling year", min: "yearMin", max: "yearMax", step: "1" },
-  { key: "nodes", label: "Nodes (S)", min: "nodesMin", max: "nodesMax", step: "1" },
-  { key: "connectance", label: "Connectance (C)", min: "connectanceMin", max: "connectanceMax", step: "0.01" },
+export interface RangeFilter {
+  key: "year" | "nodes" | "connectance" | "Q" | "z" | "p";
+  label: string;
+  min: string;
+  max: string;
+  step: string;
+  /** Whole numbers only, and the bounds the API accepts (as catalogue.validation.ts on the server). */
+  integer?: boolean;
+  lo?: number;
+  hi?: number;
+}
+export const RANGE_FILTERS: readonly RangeFilter[] = [
+  { key: "year", label: "Sampling year", min: "yearMin", max: "yearMax", step: "1", integer: true, lo: 1000, hi: 3000 },
+  { key: "nodes", label: "Nodes (S)", min: "nodesMin", max: "nodesMax", step: "1", integer: true, lo: 0 },
+  { key: "connectance", label: "Connectance (C)", min: "connectanceMin", max: "connectanceMax", step: "0.01", lo: 0, hi: 1 },
   { key: "Q", label: "Modularity (Q)", min: "qMin", max: "qMax", step: "0.01" },
   { key: "z", label: "z against the chosen null model", min: "zMin", max: "zMax", step: "0.1" },
-  { key: "p", label: "p against the chosen null model", min: "pMin", max: "pMax", step: "0.01" },
-] as const;
+  { key: "p", label: "p against the chosen null model", min: "pMin", max: "pMax", step: "0.01", lo: 0, hi: 1 },
+];
 export const PAGE_SIZE = 25;
+export { CATALOGUE_PAGE_SIZES } from "../../../../../shared/types/catalogue";
+
+/**
+ * What is wrong with the typed ranges, per range key (absent when nothing is): not a number, not whole,
+ * outside what the figure can be, or a minimum above the maximum (which would match nothing).
+ */
+export function rangeProblems(values: Record<string, string>): Record<string, string> {
+  const out: Record<string, string> = {};
+  for (const r of RANGE_FILTERS) {
+    const read = (name: string, side: string): number | undefined | string => {
+      const s = (values[name] ?? "").trim();
+      if (!s) return undefined;
+      const n = Number(s);
+      if (!Number.isFinite(n)) return `The ${side} “${s}” is not a number.`;
+      if (r.integer && !Number.isInteger(n)) return `The ${side} must be a whole number (got ${s}).`;
+      if ((r.lo !== undefined && n < r.lo) || (r.hi !== undefined && n > r.hi)) {
+        return `The ${side} must be ${r.hi === undefined ? `at least ${r.lo}` : r.lo === undefined ? `at most ${r.hi}` : `between ${r.lo} and ${r.hi}`} (got ${s}).`;
+      }
+      return n;
+    };
+    const lo = read(r.min, "minimum");
+    const hi = read(r.max, "maximum");
+    if (typeof lo === "string") out[r.key] = lo;
+    else if (typeof hi === "string") out[r.key] = hi;
+    else if (lo !== undefined && hi !== undefined && lo > hi) out[r.key] = `The minimum (${lo}) is above the maximum (${hi}): no network could match. Swap them or change one.`;
+  }
+  return out;
+}
+
+/** Server answers naming a range parameter (`connectanceMin`…), keyed by range like rangeProblems. */
+export function rangeProblemsFromApi(details: Array<{ path?: string; message: string }> | undefined): Record<string, string> {
+  const out: Record<string, string> = {};
+  for (const d of details ?? []) {
+    const r = RANGE_FILTERS.find((x) => x.min === d.path || x.max === d.path);
+    if (r && !out[r.key]) out[r.key] = d.message;
+  }
+  return out;
+}
 
 export function listValues(params: URLSearchParams, key: ListFilter): string[] {
   return (params.get(key) ?? "").split(",").filter(Boolean);
