@@ -1,9 +1,10 @@
 /**
- * Curation in Chromium against the real app, database and mail catcher: the review page of a resubmission
- * shows each network's whole matrix (ordered by degree), the deposited file with its SHA-256, and what
- * changed since the first submission (study fields, network fields, nodes and cells); a curator withdraws a
- * published dataset from its dataset page. Submissions are prepared through the API (the deposit journey
- * itself is tests/e2e/deposit-review.test.ts). Screenshots: test-artifacts/screenshots/curation-*.png.
+ * Curation in Chromium against the real app, database and mail catcher: the depositor resubmits with a
+ * reply; the review page shows each network's whole matrix (ordered by degree), the deposited file with its
+ * SHA-256, what changed since the first submission (study fields, network fields, nodes and cells) and the
+ * conversation; curator and depositor write to each other, each following the e-mailed link; a curator
+ * withdraws a published dataset from its dataset page. Files and metadata are prepared through the API (the
+ * deposit journey itself is tests/e2e/deposit-review.test.ts). Screenshots: test-artifacts/screenshots/curation-*.png.
  */
 import { createHash } from "node:crypto";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
@@ -18,6 +19,7 @@ import { resetRateLimits } from "../../server/src/middlewares/rate-limit";
 
 let stack: TestStack;
 let curator: BrowserSession;
+let depositor: BrowserSession;
 let owner: SignedInAgent;
 let curatorApi: SignedInAgent;
 const CURATOR = "maren.ilves@example.test";
@@ -44,9 +46,13 @@ beforeAll(async () => {
   curator = await openBrowser();
   curator.page.setDefaultTimeout(15_000);
   await signInViaApi(curator.page, stack.url, CURATOR, TEST_PASSWORD);
+  depositor = await openBrowser();
+  depositor.page.setDefaultTimeout(15_000);
+  await signInViaApi(depositor.page, stack.url, DEPOSITOR, TEST_PASSWORD);
 });
 afterAll(async () => {
   await curator?.close();
+  await depositor?.close();
   await stack?.stop();
 });
 
@@ -65,7 +71,22 @@ describe("the review page of a resubmission", () => {
     expect(u.status).toBe(201);
     const meta = networkMeta({ name: "Orrin valley 2021", interactionType: "seed-dispersal", rowLevel: "plants", colLevel: "birds", habitat: "riparian woodland", weightMeaning: "visit-count" });
     expect((await owner.agent.patch(`/api/v1/deposits/${versionId}/networks/${u.body.networks[0].id}`).set(csrf).send({ metadata: meta })).status).toBe(200);
-    expect((await submit(owner, versionId)).status).toBe(200);
+  });
+
+  it("the depositor reads the request in the conversation and resubmits with a reply", async () => {
+    const { page } = depositor;
+    await page.goto(`${stack.url}/deposit/${versionId}?step=3`);
+    const thread = page.getByRole("region", { name: "Conversation with the curators" });
+    await thread.getByText("Rubus counts look transposed; please check the field sheets.").waitFor();
+    await page.getByLabel("Your reply to the curators (optional)").fill("Rubus and Sylvia were swapped in two cells; corrected from the field sheets. Taxus was a misidentified Sorbus sapling and is gone.");
+    await page.getByRole("button", { name: "Submit again for review" }).click();
+    await page.getByText("Submitted for review.").waitFor();
+    await thread.getByText("Submitted again (submission 2)", { exact: false }).waitFor();
+    await thread.getByText(/^Rubus and Sylvia were swapped/).waitFor();
+    await screenshot(page, "curation-0-resubmitted");
+    expect(await axeSerious(page)).toEqual([]);
+    const mail = await stack.catcher.waitFor((m) => m.to.includes(CURATOR) && m.subject.startsWith("Resubmitted for review"));
+    expect(mail.text).toContain("> Rubus and Sylvia were swapped in two cells");
   });
 
   it("shows the whole matrix, the deposited file with its SHA-256, and what changed", async () => {
@@ -100,6 +121,40 @@ describe("the review page of a resubmission", () => {
     await net.getByRole("row", { name: "habitat upland heath riparian woodland" }).waitFor();
     await screenshot(page, "curation-1-review-diff");
     expect(await axeSerious(page)).toEqual([]);
+  });
+
+  it("curator and depositor write to each other; each follows the e-mailed link to the other's page", async () => {
+    const { page } = curator;
+    const thread = page.getByRole("region", { name: "Conversation with the depositor" });
+    const messages = thread.getByRole("list", { name: "Messages" }).locator(":scope > li");
+    // submitted, changes requested, submitted again, the reply
+    await expect.poll(() => messages.count()).toBe(4);
+    expect(await messages.nth(1).innerText()).toContain("Changes requested by Maren Ilves (curator)");
+    expect(await messages.nth(3).innerText()).toContain("Ines Okafor (depositor)");
+    await thread.getByLabel("Write to the depositor").fill("Thank you. Were the Bombycilla visits counted in the same watches?");
+    await thread.getByRole("button", { name: "Send to the depositor" }).click();
+    await thread.getByText("Thank you. Were the Bombycilla visits counted in the same watches?").waitFor();
+    await expect.poll(() => thread.getByLabel("Write to the depositor").inputValue()).toBe("");
+    await screenshot(page, "curation-4-thread-curator");
+
+    const mail = await stack.catcher.waitFor((m) => m.to.includes(DEPOSITOR) && m.subject === "New comment: Fruit eaters of the Orrin valley");
+    const link = mail.links.find((l) => l.includes(`/deposit/${versionId}`));
+    expect(link).toBe(`${stack.url}/deposit/${versionId}`);
+    const dp = depositor.page;
+    await dp.goto(link!);
+    const mine = dp.getByRole("region", { name: "Conversation with the curators" });
+    await mine.getByText("Thank you. Were the Bombycilla visits counted in the same watches?").waitFor();
+    await mine.getByLabel("Write to the curators").fill("Yes, the same 15-minute watches.");
+    await mine.getByRole("button", { name: "Send to the curators" }).click();
+    await mine.getByText("Yes, the same 15-minute watches.").waitFor();
+    await screenshot(dp, "curation-5-thread-depositor");
+    expect(await axeSerious(dp)).toEqual([]);
+
+    const back = await stack.catcher.waitFor((m) => m.to.includes(CURATOR) && m.subject === "New comment: Fruit eaters of the Orrin valley");
+    expect(back.links).toContain(`${stack.url}/review/${versionId}`);
+    await page.goto(`${stack.url}/review/${versionId}`);
+    await thread.getByText("Yes, the same 15-minute watches.").waitFor();
+    await expect.poll(() => messages.count()).toBe(6);
   });
 });
 
@@ -136,14 +191,9 @@ describe("withdraw from the dataset page", () => {
     const d = await makeDraft(owner, [["tallow.csv", FIRST]]);
     await submit(owner, d.versionId);
     const accession = (await decide(curatorApi, d.versionId, { decision: "publish" })).body.accession as string;
-    const dep = await openBrowser();
-    try {
-      await signInViaApi(dep.page, stack.url, DEPOSITOR, TEST_PASSWORD);
-      await dep.page.goto(`${stack.url}/datasets/${accession}`);
-      await dep.page.getByRole("heading", { name: "Networks" }).first().waitFor();
-      expect(await dep.page.getByRole("region", { name: `Withdraw ${accession}` }).count()).toBe(0);
-    } finally {
-      await dep.close();
-    }
+    const { page } = depositor;
+    await page.goto(`${stack.url}/datasets/${accession}`);
+    await page.getByRole("heading", { name: "Networks" }).first().waitFor();
+    expect(await page.getByRole("region", { name: `Withdraw ${accession}` }).count()).toBe(0);
   });
 });

@@ -40,7 +40,8 @@ export type BlockName = "locality" | "habitat" | "dates" | "sampling";
 export const applyBlocks = (id: number, from: number, blocks: BlockName[]) => apiFetch<DepositDetail>(`/deposits/${id}/networks/apply`, { method: "POST", json: { from, blocks } });
 export const deleteNetwork = (id: number, networkId: number) => apiFetch<DepositDetail>(`/deposits/${id}/networks/${networkId}`, { method: "DELETE" });
 export const reorderNetworks = (id: number, order: number[]) => apiFetch<DepositDetail>(`/deposits/${id}/networks/order`, { method: "PUT", json: { order } });
-export const submitDeposit = (id: number) => apiFetch<DepositDetail>(`/deposits/${id}/submit`, { method: "POST", json: {} });
+/** `reply`: a message to the curators sent with the (re)submission; it joins the conversation. */
+export const submitDeposit = (id: number, reply?: string) => apiFetch<DepositDetail>(`/deposits/${id}/submit`, { method: "POST", json: reply?.trim() ? { reply } : {} });
 export const deleteDeposit = (id: number) => apiFetch<void>(`/deposits/${id}`, { method: "DELETE" });
 export const startNewVersion = (accession: string) => apiFetch<DepositDetail>(`/datasets/${encodeURIComponent(accession)}/versions`, { method: "POST", json: {} });
 
@@ -55,6 +56,8 @@ export function useDepositMutation<A>(fn: (a: A) => Promise<DepositDetail | { de
       void qc.invalidateQueries({ queryKey: depositKeys.lists() });
       // A network read again has a new parsed form.
       void qc.invalidateQueries({ queryKey: [...depositKeys.all, "canonical"] });
+      // A submission (and a reply sent with it) joins the conversation.
+      void qc.invalidateQueries({ queryKey: [...depositKeys.all, "thread"] });
     },
   });
 }

@@ -10,6 +10,7 @@ export const depositKeys = {
   details: () => [...depositKeys.all, "detail"] as const,
   detail: (id: number) => [...depositKeys.details(), id] as const,
   canonical: (versionId: number, networkId: number) => [...depositKeys.all, "canonical", versionId, networkId] as const,
+  thread: (versionId: number) => [...depositKeys.all, "thread", versionId] as const,
 };
 
 export const STATE_LABELS: Record<VersionState, string> = {

@@ -1,7 +1,8 @@
 /**
  * The guided deposit: 1 study metadata → 2 networks (upload, preview, per-network metadata) → 3 review and
  * submit. Drafts save as you go (each step's Save), can be left and resumed from My deposits. A change
- * request shows the curator's comments on top; the depositor edits and submits again.
+ * request shows the conversation with the curators on top (their comments, the depositor's replies); the
+ * depositor edits and submits again, with a reply if they like.
  */
 import { useEffect, useState } from "react";
 import { Link, useNavigate, useSearchParams } from "react-router-dom";
@@ -16,6 +17,8 @@ import { STATE_LABELS, type DepositDetail } from "../api/types";
 import { NetworkCard } from "./network-card";
 import { UploadPanel } from "./upload-panel";
 import { MetadataSheetPanel } from "./metadata-sheet-panel";
+import { SubmissionThread } from "../../../components/thread/submission-thread";
+import { useDepositThread, usePostDepositComment } from "../api/thread";
 
 const STEPS = ["Study", "Networks", "Review and submit"] as const;
 
@@ -107,8 +110,22 @@ function NetworksStep({ deposit, showAll, onNext }: { deposit: DepositDetail; sh
   );
 }
 
+function DepositThread({ versionId }: { versionId: number }) {
+  const { data, error } = useDepositThread(versionId);
+  const post = usePostDepositComment(versionId);
+  if (error) return <div className="mt-6"><Alert tone="error" title={`The conversation could not be loaded: ${error.message}`} /></div>;
+  if (!data) return null;
+  return (
+    <div className="mt-6">
+      <SubmissionThread entries={data.entries} side={data.side} canComment={data.canComment} onSend={(b) => post.mutateAsync(b)} sending={post.isPending} error={post.error?.message ?? null} />
+    </div>
+  );
+}
+
 function ReviewStep({ deposit }: { deposit: DepositDetail }) {
-  const submit = useDepositMutation(() => submitDeposit(deposit.versionId));
+  const [reply, setReply] = useState("");
+  const submit = useDepositMutation(() => submitDeposit(deposit.versionId, reply));
+  const again = deposit.version.state === "changes_requested";
   const err = submit.error instanceof ApiClientError ? submit.error : null;
   const studyProblems = deposit.findings.study;
   const netProblems = deposit.findings.networks.filter((n) => n.findings.length);
@@ -160,9 +177,18 @@ function ReviewStep({ deposit }: { deposit: DepositDetail }) {
       )}
       {deposit.editable && (
         <div className="mt-6">
-          <Button type="button" busy={submit.isPending} onClick={() => submit.mutate(undefined)}>
-            {deposit.version.state === "changes_requested" ? "Submit again for review" : "Submit for review"}
-          </Button>
+          <label htmlFor="submit-reply" className="block text-sm font-semibold text-stone-800">
+            {again ? "Your reply to the curators (optional)" : "A note to the curators (optional)"}
+          </label>
+          <p id="submit-reply-hint" className="text-sm text-stone-600">
+            {again ? "Say what you changed, or why something stays as it is. It joins the conversation below and is quoted in the curators’ e-mail." : "Anything the curators should know. It starts the conversation with them."}
+          </p>
+          <textarea id="submit-reply" aria-describedby="submit-reply-hint" rows={3} maxLength={10000} value={reply} onChange={(e) => setReply(e.target.value)} className="mt-1 block w-full rounded border border-stone-400 px-3 py-2 focus:border-moss-600 focus:outline-none focus:ring-2 focus:ring-moss-200" />
+          <div className="mt-3">
+            <Button type="button" busy={submit.isPending} onClick={() => submit.mutate(undefined, { onSuccess: () => setReply("") })}>
+              {again ? "Submit again for review" : "Submit for review"}
+            </Button>
+          </div>
         </div>
       )}
     </section>
@@ -194,11 +220,11 @@ export function DepositFlow({ versionId }: { versionId: number | null }) {
       {d?.version.state === "changes_requested" && lastReview?.comment && (
         <div className="mt-4">
           <Alert tone="info" title={`${lastReview.curator} asks for changes`}>
-            <p className="whitespace-pre-wrap">{lastReview.comment}</p>
-            <p className="mt-2 text-sm">Edit the deposit, then submit it again from step 3.</p>
+            <p className="text-sm">Their comments are in the conversation below. Edit the deposit, then submit it again from step 3 (you can reply there, or write to the curators now).</p>
           </Alert>
         </div>
       )}
+      {d && d.version.state !== "draft" && <DepositThread versionId={d.versionId} />}
       {d && !d.editable && (
         <div className="mt-4">
           <Alert tone="info" title={`This version is ${STATE_LABELS[d.version.state].toLowerCase()}.`}>It cannot be edited now.</Alert>

@@ -8,5 +8,6 @@ export const reviewKeys = {
   details: () => [...reviewKeys.all, "detail"] as const,
   detail: (id: number) => [...reviewKeys.details(), id] as const,
   canonical: (versionId: number, networkId: number) => [...reviewKeys.all, "canonical", versionId, networkId] as const,
+  thread: (versionId: number) => [...reviewKeys.all, "thread", versionId] as const,
   diff: (versionId: number, submittedAt: string | null) => [...reviewKeys.all, "diff", versionId, submittedAt] as const,
 };

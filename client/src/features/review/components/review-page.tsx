@@ -20,6 +20,8 @@ import { ValueOrNotRecorded } from "../../../components/metadata/not-recorded";
 import { figuresState } from "../utils/figures-state";
 import { ReviewMatrix } from "./review-matrix";
 import { SubmissionDiffSection } from "./submission-diff";
+import { SubmissionThread } from "../../../components/thread/submission-thread";
+import { usePostReviewComment, useReviewThread } from "../api/thread";
 
 const ACTION_LABELS: Record<string, string> = {
   "deposit.create": "Draft created",
@@ -329,6 +331,14 @@ function WithdrawForm({ r }: { r: ReviewDetail }) {
   );
 }
 
+function ReviewThread({ versionId }: { versionId: number }) {
+  const { data, error } = useReviewThread(versionId);
+  const post = usePostReviewComment(versionId);
+  if (error) return <Alert tone="error" title={`The conversation could not be loaded: ${error.message}`} />;
+  if (!data) return null;
+  return <SubmissionThread entries={data.entries} side={data.side} canComment={data.canComment} onSend={(b) => post.mutateAsync(b)} sending={post.isPending} error={post.error?.message ?? null} closedNote="The conversation opens when the depositor submits." />;
+}
+
 export function ReviewPage({ versionId }: { versionId: number }) {
   const { data: r, error, isPending } = useReview(versionId);
   if (isPending) return <p role="status">Loading the submission…</p>;
@@ -358,6 +368,7 @@ export function ReviewPage({ versionId }: { versionId: number }) {
       {r.version.state === "declined" && last && <Alert tone="info" title={`Declined by ${last.curator}`}><p className="whitespace-pre-wrap">{last.comment}</p></Alert>}
       {r.version.state === "withdrawn" && r.withdrawal && <Alert tone="info" title={`Withdrawn on ${new Date(r.withdrawal.at).toLocaleDateString()}`}><p className="whitespace-pre-wrap">{r.withdrawal.reason}</p></Alert>}
       <DecisionForm r={r} />
+      <ReviewThread versionId={r.versionId} />
       {r.version.state !== "draft" && <SubmissionDiffSection versionId={r.versionId} submittedAt={r.version.submittedAt} />}
       <StudyBlock key={`s${r.lockVersion}`} r={r} />
       <section aria-labelledby="networks-h">
