@@ -31,6 +31,7 @@ import http from "node:http";
 import os from "node:os";
 import { randomBytes } from "node:crypto";
 import autocannon from "autocannon";
+import { createRng } from "../shared/network/random";
 
 const MB = 1024 * 1024;
 const NETWORKS = 10_000;
@@ -40,16 +41,10 @@ const SERVE = process.argv.includes("--serve");
 const ONLY = process.argv.find((a) => a.startsWith("--only="))?.slice("--only=".length) ?? null;
 
 
-function rng(seed: number) {
-  let s = seed >>> 0 || 1;
-  return () => {
-    s ^= s << 13;
-    s >>>= 0;
-    s ^= s >>> 17;
-    s ^= s << 5;
-    s >>>= 0;
-    return s / 4294967296;
-  };
+/** Uniform numbers in [0, 1) from the engine's seeded generator (shared/network/random.ts). */
+function rng(seed: number): () => number {
+  const g = createRng(seed);
+  return () => g.next();
 }
 
 const GENERA = ["Mossia", "Lichena", "Tanglea", "Fernix", "Brambla", "Heathra", "Sedgeon", "Rushlia", "Velvetta", "Osmora", "Tallowa", "Verrinia", "Oskella", "Northia", "Moorwa", "Bracka"];

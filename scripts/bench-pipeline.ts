@@ -20,6 +20,7 @@
 import { execFileSync } from "node:child_process";
 import { readFileSync } from "node:fs";
 import { availableParallelism, loadavg } from "node:os";
+import { createRng } from "../shared/network/random";
 
 const N = Number(process.env.BENCH_NETWORKS ?? 200);
 const NULLS = Number(process.env.BENCH_NULLS ?? 100);
@@ -48,16 +49,10 @@ const { startBatch, getBatch } = await import("../server/src/api/pipeline/pipeli
 const { parseNetworkText, serializeNetwork, basicMetrics } = await import("../shared/network/index");
 const { createHash } = await import("node:crypto");
 
-function rng(seed: number) {
-  let s = seed >>> 0 || 1;
-  return () => {
-    s ^= s << 13;
-    s >>>= 0;
-    s ^= s >>> 17;
-    s ^= s << 5;
-    s >>>= 0;
-    return s / 4294967296;
-  };
+/** Uniform numbers in [0, 1) from the engine's seeded generator (shared/network/random.ts). */
+function rng(seed: number): () => number {
+  const g = createRng(seed);
+  return () => g.next();
 }
 
 /** A planted-module bipartite matrix with `nodes` = rows + columns, 2–6 links per row, 80 % inside modules. */

@@ -13,6 +13,7 @@ import { DEFAULT_PIPELINE_SETTINGS, settingsHash } from "../../../server/src/job
 import { Dataset, DatasetVersion, MetricRun, Network, StoredFile, User } from "../../../server/src/models";
 import { hashPassword } from "../../../server/src/lib/passwords";
 import { storeMatrixCsvs } from "../../../server/src/api/bundles/bundles.stored-csv";
+import { createRng } from "../../../shared/network/random";
 
 export const CURRENT_HASH = settingsHash(DEFAULT_PIPELINE_SETTINGS);
 
@@ -54,16 +55,10 @@ export interface FixtureNetwork {
   metrics?: FixtureMetrics | null;
 }
 
-function rng(seed: number) {
-  let s = seed >>> 0 || 1;
-  return () => {
-    s ^= s << 13;
-    s >>>= 0;
-    s ^= s >>> 17;
-    s ^= s << 5;
-    s >>>= 0;
-    return s / 4294967296;
-  };
+/** Uniform numbers in [0, 1) from the engine's seeded generator (shared/network/random.ts). */
+function rng(seed: number): () => number {
+  const g = createRng(seed);
+  return () => g.next();
 }
 
 /** A seeded random matrix CSV with every row linked (bipartite: rows × cols; unipartite: square). */

@@ -6,6 +6,7 @@ import { createHash } from "node:crypto";
 import { parseNetworkText, serializeNetwork, basicMetrics } from "../../../shared/network/index";
 import { Dataset, DatasetVersion, Network, StoredFile, User } from "../../../server/src/models";
 import { networkMeta, studyMeta } from "./deposit-helpers";
+import { createRng } from "../../../shared/network/random";
 
 let counter = 0;
 
@@ -83,16 +84,8 @@ export async function createNetwork(versionId: number, position: number, csv: st
 
 /** A seeded random 0/1 matrix with every row and column linked. */
 export function randomMatrix(seed: number, rows: number, cols: number, p: number): number[][] {
-  let s = seed >>> 0 || 1;
-  const rnd = () => {
-    s ^= s << 13;
-    s >>>= 0;
-    s ^= s >>> 17;
-    s ^= s << 5;
-    s >>>= 0;
-    return s / 4294967296;
-  };
-  const m = Array.from({ length: rows }, () => Array.from({ length: cols }, () => (rnd() < p ? 1 : 0)));
+  const rng = createRng(seed);
+  const m = Array.from({ length: rows }, () => Array.from({ length: cols }, () => (rng.next() < p ? 1 : 0)));
   for (let i = 0; i < rows; i++) m[i][i % cols] = 1;
   for (let j = 0; j < cols; j++) m[j % rows][j] = 1;
   return m;
