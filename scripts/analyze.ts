@@ -22,6 +22,7 @@
  *   source and as a target, otherwise one-mode.
  */
 import { readFileSync } from "node:fs";
+import { pathToFileURL } from "node:url";
 import { parseArgs } from "node:util";
 import { analyzeNetwork, ANALYZE_DEFAULTS, type AnalysisResult } from "../shared/network/analyze";
 import { NetworkEngineError } from "../shared/network/errors";
@@ -208,26 +209,35 @@ function summary(file: string, r: AnalysisResult, detection: string | null, warn
   return lines.join("\n");
 }
 
-function main(argv: string[]): number {
+/** Where the tool writes: the process's standard output and error, or a test's buffers. */
+export interface AnalyzeIo {
+  out: (text: string) => void;
+  err: (text: string) => void;
+}
+
+const processIo: AnalyzeIo = { out: (t) => void process.stdout.write(t), err: (t) => void process.stderr.write(t) };
+
+/** Runs the tool on `argv` (the arguments after the script) and returns its exit status. */
+export function main(argv: string[], io: AnalyzeIo = processIo): number {
   let opts;
   try {
     opts = readOptions(argv);
   } catch (err) {
     if (err instanceof OptionError) {
-      process.stderr.write(`analyze: ${err.message}\n${USAGE}\n`);
+      io.err(`analyze: ${err.message}\n${USAGE}\n`);
       return 2;
     }
     throw err;
   }
   if (opts === null) {
-    process.stdout.write(`${USAGE}\n`);
+    io.out(`${USAGE}\n`);
     return 0;
   }
   let bytes: Uint8Array;
   try {
     bytes = readFileSync(opts.file);
   } catch (err) {
-    process.stderr.write(`analyze: cannot read ${opts.file}: ${(err as Error).message}\n`);
+    io.err(`analyze: cannot read ${opts.file}: ${(err as Error).message}\n`);
     return 1;
   }
   let parsed: ParseResult;
@@ -236,7 +246,7 @@ function main(argv: string[]): number {
     ({ parsed, detection } = parseWithKind(bytes, opts));
   } catch (err) {
     if (err instanceof NetworkParseError) {
-      process.stderr.write(`analyze: ${err.message}\n`);
+      io.err(`analyze: ${err.message}\n`);
       return 1;
     }
     throw err;
@@ -253,7 +263,7 @@ function main(argv: string[]): number {
     });
   } catch (err) {
     if (err instanceof NetworkEngineError || err instanceof RangeError) {
-      process.stderr.write(`analyze: ${opts.file}: ${err.message}\n`);
+      io.err(`analyze: ${opts.file}: ${err.message}\n`);
       // An option the data cannot take (e.g. Patefield on an undirected network) is a usage error (2);
       // a defect of the data itself is an input error (1).
       return err instanceof NetworkEngineError && (err.code === "no-links" || err.code === "bad-network") ? 1 : 2;
@@ -269,11 +279,11 @@ function main(argv: string[]): number {
       warnings,
       ...result,
     };
-    process.stdout.write(`${JSON.stringify(out)}\n`);
+    io.out(`${JSON.stringify(out)}\n`);
   } else {
-    process.stdout.write(`${summary(opts.file, result, detection, warnings)}\n`);
+    io.out(`${summary(opts.file, result, detection, warnings)}\n`);
   }
   return 0;
 }
 
-process.exitCode = main(process.argv.slice(2));
+if (process.argv[1] && import.meta.url === pathToFileURL(process.argv[1]).href) process.exitCode = main(process.argv.slice(2));

@@ -21,7 +21,7 @@ describe("client shell", () => {
   it("serves the front page with our font and navigation, and a useful 404", async () => {
     const { page } = browser;
     await page.goto(stack.url + "/");
-    await expect(page.getByRole("heading", { level: 1 })).toBeTruthy();
+    await page.getByRole("heading", { level: 1, name: "Ecological interaction networks, deposited, curated and measured the same way" }).waitFor();
     await page.getByRole("navigation", { name: "Main" }).getByRole("link", { name: "Catalogue" }).waitFor();
     const font = await page.evaluate(() => getComputedStyle(document.body).fontFamily);
     expect(font).toContain("Noto Sans");

@@ -1,5 +1,6 @@
 import request from "supertest";
 import { afterAll, beforeAll, beforeEach, describe, expect, it } from "vitest";
+import { mailSettled } from "../../server/src/emails/mailer";
 import { createApp } from "../../server/src/app";
 import { shutdownServerResources } from "../../server/src/index";
 import { sequelize } from "../../server/src/db/sequelize";
@@ -204,7 +205,7 @@ describe("password reset", () => {
     expect(none.res.body).toEqual(res.body);
 
     const mail = await catcher.waitFor((m) => m.to.includes(u.email) && /reset/i.test(m.subject));
-    await new Promise((r) => setTimeout(r, 200));
+    await mailSettled();
     expect(catcher.messages.slice(sent).filter((m) => m.to.includes("absent@example.test"))).toHaveLength(0);
     const token = tokenFrom(mail.links.find((l) => l.includes("/reset-password?token="))!);
     const row = await UserToken.findOne({ where: { tokenHash: hashLinkToken(token) } });

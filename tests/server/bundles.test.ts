@@ -404,9 +404,10 @@ describe("large networks", () => {
     // by the checks: the row pointers do not start at 0
     await sequelize().query(`UPDATE networks SET canonical = jsonb_set(:c::jsonb, '{ptr,0}', '7') WHERE id = :id`, { replacements: { id, c: original } });
     expect(await bundleOf()).toBeNull();
+    // the single download refuses before sending anything, with a named server-side error (never a crash)
     const refused = await request(app).get(`/api/v1/networks/${ref}/data.csv`);
     expect(refused.status).toBe(500);
-    expect(refused.body.code).toBeDefined();
+    expect(refused.body).toEqual({ code: "network_damaged", message: `The stored data of network ${ref} are damaged and cannot be written as CSV. This is a fault on our side and has been logged.` });
     // the server is still here
     expect((await request(app).get("/api/v1/health")).status).toBe(200);
     await sequelize().query(`UPDATE networks SET canonical = :c::jsonb WHERE id = :id`, { replacements: { id, c: original } });

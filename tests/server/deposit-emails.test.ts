@@ -3,6 +3,7 @@
  * when the figures of the published version are ready (or some failed, with what happens next).
  */
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { mailSettled } from "../../server/src/emails/mailer";
 import { createApp } from "../../server/src/app";
 import { shutdownServerResources } from "../../server/src/index";
 import { resetRateLimits } from "../../server/src/middlewares/rate-limit";
@@ -70,7 +71,7 @@ describe("depositor e-mails", () => {
     expect(mail.text).toContain("1 of 2 networks have their figures, and 1 could not be computed");
     expect(mail.text).toContain("What happens next");
     expect(mail.text).toContain(`/datasets/${accession}/v/1`);
-    await new Promise((r) => setTimeout(r, 300));
+    await mailSettled();
     const figureMails = catcher.messages.slice(before).filter((m) => m.subject.startsWith("Figures"));
     expect(figureMails).toHaveLength(1);
   });

@@ -227,18 +227,20 @@ describe("uploads", () => {
       .join("; ");
     const boundary = "----tanglebank-test-boundary";
     const head = `--${boundary}\r\nContent-Disposition: form-data; name="files"; filename="half.csv"\r\nContent-Type: text/csv\r\n\r\n`;
+    // the server side of the request has ended (its response closed) once the connection is cut
+    const serverDone = new Promise<void>((resolve) => server.once("request", (_req: http.IncomingMessage, res: http.ServerResponse) => res.once("close", () => resolve())));
     const closed = new Promise<void>((resolve) => {
       const req = http.request({ host: "127.0.0.1", port, method: "POST", path: `/api/v1/deposits/${id}/networks`, headers: { "content-type": `multipart/form-data; boundary=${boundary}`, "content-length": 1_000_000, "x-csrf-token": owner.csrf, cookie } });
       req.on("error", () => resolve());
       req.on("response", () => resolve());
-      req.write(head + "p,a,b\n" + "x,1,0\n".repeat(5000));
-      setTimeout(() => {
+      // a third of the announced body, then the connection is cut
+      req.write(head + "p,a,b\n" + "x,1,0\n".repeat(5000), () => {
         req.destroy();
         resolve();
-      }, 300);
+      });
     });
     await closed;
-    await new Promise((r) => setTimeout(r, 500));
+    await serverDone;
     await new Promise((r) => server.close(() => r(undefined)));
     expect({ files: await count("stored_files"), nets: await count("networks"), audit: await count("audit_log") }).toEqual(before);
   });

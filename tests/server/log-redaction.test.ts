@@ -6,7 +6,7 @@ import { Writable } from "node:stream";
 import express from "express";
 import request from "supertest";
 import { pinoHttp } from "pino-http";
-import { describe, expect, it } from "vitest";
+import { describe, expect, it, vi } from "vitest";
 import { createLogger } from "../../server/src/lib/logger";
 
 describe("log redaction", () => {
@@ -25,9 +25,9 @@ describe("log redaction", () => {
       res.json({ ok: true });
     });
     await request(app).get("/x?probe=1").set("Authorization", "Bearer tb_tokensecretvalue").set("Cookie", "tb.sid=s%3Acookie-secret-value").set("X-CSRF-Token", "csrf-secret-value");
-    await new Promise((r) => setTimeout(r, 50));
+    // the request line is written when the answer finishes: wait for it
+    await vi.waitFor(() => expect(lines.join("")).toContain("/x?probe=1"), { timeout: 5000, interval: 10 });
     const log = lines.join("");
-    expect(log).toContain("/x?probe=1");
     expect(log).toContain("[Redacted]");
     for (const secret of ["tb_tokensecretvalue", "cookie-secret-value", "csrf-secret-value", "session-secret-value"]) expect(log).not.toContain(secret);
   });

@@ -4,7 +4,7 @@
  * with its RateLimit headers, and that a token cannot mint tokens.
  */
 import request from "supertest";
-import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { afterAll, beforeAll, describe, expect, it, vi } from "vitest";
 import { createApp } from "../../server/src/app";
 import { shutdownServerResources } from "../../server/src/index";
 import { resetConfig } from "../../server/src/config/env";
@@ -70,8 +70,8 @@ describe("personal API tokens", () => {
     expect(res.body.state).toBe("draft");
     const list = await request(app).get("/api/v1/tokens").set("Authorization", `Bearer ${secret}`);
     expect(list.status).toBe(200);
-    await new Promise((r) => setTimeout(r, 100));
-    expect((await ApiToken.findByPk(id))!.lastUsedAt).not.toBeNull();
+    // the last use is recorded after the answer: wait for it (up to 5 s)
+    await vi.waitFor(async () => expect((await ApiToken.findByPk(id))!.lastUsedAt).not.toBeNull(), { timeout: 5000, interval: 50 });
   });
 
   it("a token cannot create tokens; nobody else can revoke it", async () => {

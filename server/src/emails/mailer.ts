@@ -28,8 +28,25 @@ function transport(): Transporter {
   return transporter;
 }
 
+const inFlight = new Set<Promise<unknown>>();
+
 export async function sendMail(to: string | string[], content: EmailContent): Promise<void> {
-  await transport().sendMail({ from: config().smtp.from, to, subject: content.subject, text: content.text, html: content.html });
+  const sending = transport().sendMail({ from: config().smtp.from, to, subject: content.subject, text: content.text, html: content.html });
+  inFlight.add(sending);
+  try {
+    await sending;
+  } finally {
+    inFlight.delete(sending);
+  }
+}
+
+/**
+ * Resolves once no message is being sent (successfully or not). Tests await it before asserting that a
+ * message was NOT sent: the local catcher stores a message before the SMTP server acknowledges it, so
+ * every message sent so far is in the catcher by then.
+ */
+export async function mailSettled(): Promise<void> {
+  while (inFlight.size) await Promise.allSettled([...inFlight]);
 }
 
 /** Tests call this after changing SMTP settings. */

@@ -1,10 +1,14 @@
-/** The command-line tool (scripts/analyze.ts), run as a child process like a user would. */
+/**
+ * The command-line tool (scripts/analyze.ts): one run as a child process like a user would (`tsx`, exit
+ * status, standard output), the rest through its exported `main` with the same arguments in this process.
+ */
 import { spawnSync } from "node:child_process";
 import { mkdtempSync, rmSync, writeFileSync } from "node:fs";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
 import { fileURLToPath } from "node:url";
 import { afterAll, describe, expect, it } from "vitest";
+import { main } from "../../../scripts/analyze";
 import { FIXTURES } from "./helpers";
 
 const ROOT = fileURLToPath(new URL("../../../", import.meta.url));
@@ -12,14 +16,23 @@ const TSX = join(ROOT, "node_modules/.bin/tsx");
 const tmp = mkdtempSync(join(tmpdir(), "tb-analyze-"));
 afterAll(() => rmSync(tmp, { recursive: true, force: true }));
 
+/** The tool in this process: exit status and what it wrote. */
 function analyze(args: string[]) {
+  let stdout = "";
+  let stderr = "";
+  const code = main(args, { out: (t) => (stdout += t), err: (t) => (stderr += t) });
+  return { code, stdout, stderr };
+}
+
+/** The tool as a user runs it: a child process. */
+function analyzeSpawned(args: string[]) {
   const r = spawnSync(TSX, [join(ROOT, "scripts/analyze.ts"), ...args], { cwd: ROOT, encoding: "utf8", timeout: 60_000 });
   return { code: r.status, stdout: r.stdout, stderr: r.stderr };
 }
 
 describe("npm run analyze", () => {
-  it("prints one JSON object for the karate club with the documented fields", () => {
-    const r = analyze([join(FIXTURES, "karate.edgelist.csv"), "--json", "--restarts", "5", "--nulls", "3", "--seed", "7"]);
+  it("prints one JSON object for the karate club with the documented fields (a child process, as a user runs it)", () => {
+    const r = analyzeSpawned([join(FIXTURES, "karate.edgelist.csv"), "--json", "--restarts", "5", "--nulls", "3", "--seed", "7"]);
     expect(r.code).toBe(0);
     const out = JSON.parse(r.stdout);
     // Zachary 1977: 34 members, 78 links; maximum Q 0.4198 (Brandes et al. 2008).
@@ -46,6 +59,10 @@ describe("npm run analyze", () => {
     expect(typeof out.algorithm.name).toBe("string");
     expect(typeof out.elapsedMs).toBe("number");
     expect(out.kindDetection).toMatch(/one-mode/);
+    // the exported main, which the other tests call in this process, prints the same (elapsed time aside)
+    const inProcess = analyze([join(FIXTURES, "karate.edgelist.csv"), "--json", "--restarts", "5", "--nulls", "3", "--seed", "7"]);
+    expect(inProcess.code).toBe(0);
+    expect({ ...JSON.parse(inProcess.stdout), elapsedMs: 0 }).toEqual({ ...out, elapsedMs: 0 });
   });
 
   it("reads the Davis matrix as bipartite and reaches Q_B = 0.3455; no null block with --nulls 0", () => {
@@ -103,4 +120,5 @@ describe("npm run analyze", () => {
     });
     expect(analyze([join(tmp, "nope.csv")])).toMatchObject({ code: 1, stderr: expect.stringContaining("cannot read") });
   });
+
 });

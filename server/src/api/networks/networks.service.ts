@@ -5,7 +5,8 @@
  */
 import type { NetworkMetadata, NetworkMetricsSummary } from "../../../../shared/types/dataset";
 import { deserializeNetwork, networkToEdgeListCsv } from "../../../../shared/network";
-import { matrixCsvPieces } from "../../lib/matrix-csv";
+import { MatrixCsvError, matrixCsvPieces } from "../../lib/matrix-csv";
+import { logger } from "../../lib/logger";
 import { publicLocality } from "../../lib/public-locality";
 import { getCurrentMetrics } from "../../jobs/metrics-read";
 import { ApiError } from "../../lib/api-error";
@@ -107,11 +108,25 @@ export async function getNetworkJson(p: NetworkRefParams, user: AuthUser | undef
  */
 export async function getNetworkCsv(p: NetworkRefParams, user: AuthUser | undefined, layout: "matrix" | "edgelist"): Promise<{ ref: string; bytes: number; pieces: Iterable<Buffer> }> {
   const { network, ref } = await findNetwork(p, user, true);
-  if (layout === "edgelist") {
-    const csv = Buffer.from(networkToEdgeListCsv(deserializeNetwork(network.canonical)), "utf8");
-    return { ref, bytes: csv.length, pieces: [csv] };
+  try {
+    if (layout === "edgelist") {
+      const csv = Buffer.from(networkToEdgeListCsv(deserializeNetwork(network.canonical)), "utf8");
+      return { ref, bytes: csv.length, pieces: [csv] };
+    }
+    return { ref, ...matrixCsvPieces(network.canonical) };
+  } catch (err) {
+    if (err instanceof MatrixCsvError) throw storedNetworkDamaged(ref, err);
+    throw err;
   }
-  return { ref, ...matrixCsvPieces(network.canonical) };
+}
+
+/**
+ * A stored network that fails the writer's checks (changed by hand, or a defect): our fault, not the
+ * request's, so 500 — but a named one, logged with the reference, never a crash.
+ */
+function storedNetworkDamaged(ref: string, err: Error): ApiError {
+  logger.error({ err, ref }, "stored network damaged: cannot be written as CSV");
+  return new ApiError(500, "network_damaged", `The stored data of network ${ref} are damaged and cannot be written as CSV. This is a fault on our side and has been logged.`);
 }
 
 export async function getNetworkMetrics(p: NetworkRefParams, user: AuthUser | undefined): Promise<{ ref: string; metrics: NetworkMetricsSummary | null }> {
