@@ -14,6 +14,7 @@ import { CLIENT_DIST, SCHEMAS_DIR } from "./config/paths";
 import { initModels } from "./models";
 import { authenticate } from "./middlewares/authenticate";
 import { csrfProtection } from "./middlewares/csrf";
+import { apiBody } from "./middlewares/body";
 import { apiNotFound, errorHandler } from "./middlewares/error-handler";
 import { apiRouter } from "./api";
 import { logger } from "./lib/logger";
@@ -90,7 +91,7 @@ export function createApp(): Express {
   app.use("/schemas", express.static(SCHEMAS_DIR, { index: false, extensions: ["json"], fallthrough: true }));
 
   const api = express.Router();
-  api.use(express.json({ limit: "2mb" }));
+  api.use(...apiBody("2mb"));
   api.use((req, res, next) => (req.headers.authorization ? next() : sessionMw(req, res, next)));
   api.use(authenticate);
   api.use(csrfProtection);

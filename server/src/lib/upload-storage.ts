@@ -21,6 +21,7 @@ import multer, { MulterError, type StorageEngine } from "multer";
 import { config } from "../config/env";
 import { ApiError } from "./api-error";
 import { logger } from "./logger";
+import { bodyProblem } from "../middlewares/body";
 
 /** Extensions the upload reads: network tables, workbooks and zips of them. */
 export const ACCEPTED_UPLOAD = /\.(csv|tsv|txt|xlsx|zip)$/i;
@@ -190,7 +191,7 @@ export function streamUpload(fieldName: string, onForeign: (name: string, head: 
         else cb(null, true);
       },
     }).array(fieldName, cfg.uploadMaxFiles);
-    mw(req, res, (err?: unknown) => next(err ? multipartError(err) : undefined));
+    mw(req, res, (err?: unknown) => next(err ? multipartError(err) : (bodyProblem(req.body) ?? undefined)));
   };
 }
 

@@ -1,6 +1,7 @@
 /** Request checks of the deposit routes (400 with a JSON-pointer detail on bad input). */
 import type { RequestHandler } from "express";
 import { streamUpload } from "../../lib/upload-storage";
+import { checkBodyValue } from "../../middlewares/body";
 import { notANetworkFile } from "./deposits.upload";
 import { ApiError } from "../../lib/api-error";
 import type { UploadOptions } from "./deposits.service";
@@ -59,7 +60,8 @@ export function uploadOptions(body: Record<string, unknown> | undefined): Upload
       parsed = null;
     }
     if (!parsed || typeof parsed !== "object" || Array.isArray(parsed)) throw ApiError.badRequest("fileOptions must be a JSON object keyed by file name.", [{ path: "/fileOptions", message: 'e.g. {"web.xlsx": {"sheet": "Lowland", "missing": "not-observed"}}' }]);
-    perFile = {};
+    checkBodyValue(parsed);
+    perFile = Object.create(null) as Record<string, NetworkReadOptions>;
     for (const [name, o] of Object.entries(parsed as Record<string, unknown>)) {
       if (!o || typeof o !== "object") throw ApiError.badRequest("fileOptions must map file names to objects.", [{ path: `/fileOptions/${name}`, message: "An object." }]);
       perFile[name] = readOptions(o as Record<string, unknown>, `/fileOptions/${name}`);
