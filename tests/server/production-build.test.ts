@@ -79,7 +79,7 @@ afterAll(async () => {
 
 describe("the compiled server (npm run build)", () => {
   it("holds no TypeScript and no tsx: every entry is plain JavaScript", () => {
-    for (const f of ["main.js", "worker.js", "metrics-thread.mjs", "parse-process.mjs"]) expect(existsSync(join(DIST, f)), f).toBe(true);
+    for (const f of ["main.js", "worker.js", "set-role.js", "metrics-thread.mjs", "parse-process.mjs"]) expect(existsSync(join(DIST, f)), f).toBe(true);
     const migrations = readdirSync(join(DIST, "migrations")).filter((f) => f.endsWith(".js"));
     const sources = readdirSync(join(ROOT, "server", "src", "db", "migrations")).filter((f) => f.endsWith(".ts"));
     expect(migrations.map((f) => f.replace(/\.js$/, ""))).toEqual(sources.map((f) => f.replace(/\.ts$/, "")));
@@ -107,6 +107,28 @@ describe("the compiled server (npm run build)", () => {
     const sources = readdirSync(join(ROOT, "server", "src", "db", "migrations")).filter((f) => f.endsWith(".ts")).sort();
     expect(rows.map((r) => r.name)).toEqual(sources.map((f) => f.replace(/\.ts$/, "")));
     expect(output()).toContain("Applied migrations: ");
+  });
+
+  it("set-role gives an account a role from the command line (a deployment's first admin), audited", async () => {
+    const c = new pg.Client({ connectionString: dbUrl });
+    await c.connect();
+    try {
+      await c.query(`INSERT INTO users (email, password_hash, display_name) VALUES ('First.Admin@example.test', 'x', 'First Admin')`);
+      const setRole = (...args: string[]) => spawnSync(process.execPath, [join(DIST, "set-role.js"), ...args], { cwd: ROOT, env: productionEnv(), encoding: "utf8" });
+      const done = setRole("first.admin@example.test", "admin");
+      expect(done.status, done.stderr).toBe(0);
+      expect(done.stdout).toContain("First.Admin@example.test: depositor → admin.");
+      const { rows } = await c.query<{ role: string }>(`SELECT role FROM users WHERE email = 'First.Admin@example.test'`);
+      expect(rows[0].role).toBe("admin");
+      const log = await c.query<{ actor_id: number | null; details: Record<string, unknown> }>(`SELECT actor_id, details FROM audit_log WHERE action = 'role.changed'`);
+      expect(log.rows).toEqual([{ actor_id: null, details: { from: "depositor", to: "admin", email: "First.Admin@example.test", via: "command line" } }]);
+      // the last admin stays; unknown accounts and roles are refused
+      expect(setRole("first.admin@example.test", "curator")).toMatchObject({ status: 1, stderr: expect.stringContaining("the last admin") });
+      expect(setRole("nobody@example.test", "admin")).toMatchObject({ status: 1, stderr: expect.stringContaining("no account") });
+      expect(setRole("first.admin@example.test", "owner")).toMatchObject({ status: 2, stderr: expect.stringContaining('unknown role "owner"') });
+    } finally {
+      await c.end();
+    }
   });
 
   it("refuses a bad setting with a message naming it and exit status 78", () => {
