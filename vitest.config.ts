@@ -36,6 +36,9 @@ export default defineConfig({
           fileParallelism: false,
           testTimeout: 120_000,
           hookTimeout: 120_000,
+          // expect.poll waits like a locator does (15 s), not vitest's 1 s default: an upload is parsed in a
+          // child process and a page may still be fetching when a check starts.
+          expect: { poll: { timeout: 15_000 } },
         },
       },
     ],
