@@ -2,8 +2,16 @@
  * Command-line analysis of one network file, with the same engine and defaults as the web pipeline:
  *
  *   npm run -s analyze -- FILE [--kind bipartite|unipartite] [--directed] [--format auto|matrix|edgelist]
+ *                          [--sheet NAME] [--missing no-interaction|not-observed] [--blank no-interaction|not-observed]
  *                          [--restarts N] [--nulls N] [--null-models M1,M2,…] [--seed N]
  *                          [--annealing auto|on|off] [--objective newman|newman-directed|barber] [--json]
+ *
+ * Files are read as the upload reads them: CSV/TSV/space-separated text (R's write.csv and write.table
+ * output, spreadsheet exports) and .xlsx workbooks, recognised by their content whatever their name.
+ * A workbook with several sheets holding data needs `--sheet`. Cells such as `NA` or `-` are never read
+ * silently: `--missing` says whether they mean no interaction or not observed (unobserved cells count as
+ * no link in the analysis; the answer is printed); `--blank` does the same for empty matrix cells (default
+ * no interaction).
  *
  * Null models: by default the standard set of the network's kind of data (fixed degrees first, the
  * primary); `--null-models` names others (the first is the primary; `--null-model M` is one model).
@@ -30,11 +38,15 @@ import { objectiveLabel } from "../shared/network/modularity/quality";
 import { NULL_MODEL_INFO, NULL_MODELS, nullModelLabel, type NullModelName } from "../shared/network/null-models/index";
 import type { AnnealingMode } from "../shared/network/optimizer/optimize";
 import type { OptimizerObjective } from "../shared/network/optimizer/quality-graph";
-import { NetworkParseError, parseNetworkText, type ParseResult } from "../shared/network/parse/index";
+import { NetworkParseError, parseNetworkFile, type ParseResult } from "../shared/network/parse/index";
+import type { CellMeaning } from "../shared/network/parse/parse";
+
+const CELL_MEANINGS: readonly CellMeaning[] = ["no-interaction", "not-observed"];
 import type { NetworkKind } from "../shared/network/types";
 
 const USAGE = `usage: npm run -s analyze -- FILE [--kind bipartite|unipartite] [--directed]
-         [--format auto|matrix|edgelist] [--restarts N] [--nulls N] [--null-models ${NULL_MODELS.join("|")},…]
+         [--format auto|matrix|edgelist] [--sheet NAME] [--missing no-interaction|not-observed]
+         [--blank no-interaction|not-observed] [--restarts N] [--nulls N] [--null-models ${NULL_MODELS.join("|")},…]
          [--seed N] [--annealing auto|on|off] [--objective newman|newman-directed|barber] [--json]`;
 
 class OptionError extends Error {}
@@ -65,6 +77,9 @@ function readOptions(argv: string[]) {
         kind: { type: "string" },
         directed: { type: "boolean", default: false },
         format: { type: "string" },
+        sheet: { type: "string" },
+        missing: { type: "string" },
+        blank: { type: "string" },
         restarts: { type: "string" },
         nulls: { type: "string" },
         "null-model": { type: "string" },
@@ -93,6 +108,9 @@ function readOptions(argv: string[]) {
     kind,
     directed: values.directed === true,
     format: oneOf("format", values.format, ["auto", "matrix", "edgelist"] as const) ?? "auto",
+    sheet: values.sheet,
+    missing: oneOf<CellMeaning>("missing", values.missing, CELL_MEANINGS),
+    blank: oneOf<CellMeaning>("blank", values.blank, CELL_MEANINGS),
     restarts: intOption("restarts", values.restarts, ANALYZE_DEFAULTS.restarts, 1, 100000),
     nulls: intOption("nulls", values.nulls, ANALYZE_DEFAULTS.nulls, 0, 100000),
     nullModels: nullModelsOption(values["null-models"], values["null-model"]),
@@ -113,26 +131,26 @@ function nullModelsOption(list: string | undefined, one: string | undefined): Nu
   return names as NullModelName[];
 }
 
-/** Parses the file, choosing the kind when it was not given (see the file header). */
-function parseWithKind(
+/** Parses the file (text or workbook), choosing the kind when it was not given (see the file header). */
+async function parseWithKind(
   bytes: Uint8Array,
-  opts: { file: string; kind?: NetworkKind; directed: boolean; format: "auto" | "matrix" | "edgelist" },
-): { parsed: ParseResult; detection: string | null } {
-  const base = { fileName: opts.file, format: opts.format };
-  if (opts.kind) return { parsed: parseNetworkText(bytes, { ...base, kind: opts.kind, directed: opts.directed }), detection: null };
+  opts: { file: string; kind?: NetworkKind; directed: boolean; format: "auto" | "matrix" | "edgelist"; sheet?: string; missing?: CellMeaning; blank?: CellMeaning },
+): Promise<{ parsed: ParseResult; detection: string | null }> {
+  const base = { fileName: opts.file, format: opts.format, sheet: opts.sheet, missing: opts.missing, blank: opts.blank };
+  if (opts.kind) return { parsed: await parseNetworkFile(bytes, { ...base, kind: opts.kind, directed: opts.directed }), detection: null };
   if (opts.directed) {
     return {
-      parsed: parseNetworkText(bytes, { ...base, kind: "unipartite", directed: true }),
+      parsed: await parseNetworkFile(bytes, { ...base, kind: "unipartite", directed: true }),
       detection: "one-mode (unipartite), because --directed was given",
     };
   }
   let asBipartite: ParseResult;
   try {
-    asBipartite = parseNetworkText(bytes, { ...base, kind: "bipartite" });
+    asBipartite = await parseNetworkFile(bytes, { ...base, kind: "bipartite" });
   } catch (err) {
     if (err instanceof NetworkParseError && err.code === "self-loop-bipartite") {
       return {
-        parsed: parseNetworkText(bytes, { ...base, kind: "unipartite" }),
+        parsed: await parseNetworkFile(bytes, { ...base, kind: "unipartite" }),
         detection: "one-mode (unipartite), because a link joins a node to itself",
       };
     }
@@ -144,16 +162,23 @@ function parseWithKind(
     const square = net.rowLabels.length === net.colLabels.length && net.colLabels.every((l) => rows.has(l));
     if (!square) return { parsed: asBipartite, detection: "bipartite, because the matrix is not square with the same names on both sides" };
     return {
-      parsed: parseNetworkText(bytes, { ...base, kind: "unipartite" }),
+      parsed: await parseNetworkFile(bytes, { ...base, kind: "unipartite" }),
       detection: "one-mode (unipartite, undirected), because the matrix is square with the same names on both sides; use --directed for a food web or --kind bipartite to override",
     };
   }
   const shared = net.colLabels.some((l) => rows.has(l));
   if (!shared) return { parsed: asBipartite, detection: "bipartite (source = row node, target = column node), because no label is both a source and a target" };
   return {
-    parsed: parseNetworkText(bytes, { ...base, kind: "unipartite" }),
+    parsed: await parseNetworkFile(bytes, { ...base, kind: "unipartite" }),
     detection: "one-mode (unipartite, undirected), because some labels are both sources and targets; use --directed or --kind to override",
   };
+}
+
+/** The option that answers a question the parser asked (which sheet, what NA-like cells mean). */
+function parseHint(err: NetworkParseError): string {
+  if (err.code === "choose-sheet") return "  give --sheet NAME with one of the sheets named above\n";
+  if (err.code === "missing-values") return "  give --missing no-interaction or --missing not-observed to say what these cells mean\n";
+  return "";
 }
 
 function fmt(x: number | null | undefined, digits = 4): string {
@@ -161,9 +186,10 @@ function fmt(x: number | null | undefined, digits = 4): string {
   return Number.isInteger(x) ? String(x) : x.toFixed(digits);
 }
 
-function summary(file: string, r: AnalysisResult, detection: string | null, warnings: string[]): string {
+function summary(file: string, r: AnalysisResult, detection: string | null, warnings: string[], workbook?: ParseResult["workbook"]): string {
   const lines: string[] = [];
   lines.push(`${file}`);
+  if (workbook) lines.push(`  workbook: sheet "${workbook.sheet}" (of ${workbook.sheets.map((n) => `"${n}"`).join(", ")})`);
   if (detection) lines.push(`  kind: ${detection}`);
   for (const w of warnings) lines.push(`  warning: ${w}`);
   const kind = r.kind === "bipartite" ? "bipartite" : r.directed ? "one-mode, directed" : "one-mode, undirected";
@@ -218,7 +244,7 @@ export interface AnalyzeIo {
 const processIo: AnalyzeIo = { out: (t) => void process.stdout.write(t), err: (t) => void process.stderr.write(t) };
 
 /** Runs the tool on `argv` (the arguments after the script) and returns its exit status. */
-export function main(argv: string[], io: AnalyzeIo = processIo): number {
+export async function main(argv: string[], io: AnalyzeIo = processIo): Promise<number> {
   let opts;
   try {
     opts = readOptions(argv);
@@ -243,10 +269,10 @@ export function main(argv: string[], io: AnalyzeIo = processIo): number {
   let parsed: ParseResult;
   let detection: string | null;
   try {
-    ({ parsed, detection } = parseWithKind(bytes, opts));
+    ({ parsed, detection } = await parseWithKind(bytes, opts));
   } catch (err) {
     if (err instanceof NetworkParseError) {
-      io.err(`analyze: ${err.message}\n`);
+      io.err(`analyze: ${err.message}\n${parseHint(err)}`);
       return 1;
     }
     throw err;
@@ -275,15 +301,27 @@ export function main(argv: string[], io: AnalyzeIo = processIo): number {
     const out = {
       file: opts.file,
       format: parsed.format,
+      ...(parsed.workbook ? { workbook: parsed.workbook } : {}),
+      missing: parsed.missing,
       ...(detection ? { kindDetection: detection } : {}),
       warnings,
       ...result,
     };
     io.out(`${JSON.stringify(out)}\n`);
   } else {
-    io.out(`${summary(opts.file, result, detection, warnings)}\n`);
+    io.out(`${summary(opts.file, result, detection, warnings, parsed.workbook)}\n`);
   }
   return 0;
 }
 
-if (process.argv[1] && import.meta.url === pathToFileURL(process.argv[1]).href) process.exitCode = main(process.argv.slice(2));
+if (process.argv[1] && import.meta.url === pathToFileURL(process.argv[1]).href) {
+  main(process.argv.slice(2)).then(
+    (code) => {
+      process.exitCode = code;
+    },
+    (err: unknown) => {
+      process.stderr.write(`analyze: ${(err as Error).stack ?? String(err)}\n`);
+      process.exitCode = 1;
+    },
+  );
+}

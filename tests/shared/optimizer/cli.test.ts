@@ -17,10 +17,10 @@ const tmp = mkdtempSync(join(tmpdir(), "tb-analyze-"));
 afterAll(() => rmSync(tmp, { recursive: true, force: true }));
 
 /** The tool in this process: exit status and what it wrote. */
-function analyze(args: string[]) {
+async function analyze(args: string[]) {
   let stdout = "";
   let stderr = "";
-  const code = main(args, { out: (t) => (stdout += t), err: (t) => (stderr += t) });
+  const code = await main(args, { out: (t) => (stdout += t), err: (t) => (stderr += t) });
   return { code, stdout, stderr };
 }
 
@@ -31,7 +31,7 @@ function analyzeSpawned(args: string[]) {
 }
 
 describe("npm run analyze", () => {
-  it("prints one JSON object for the karate club with the documented fields (a child process, as a user runs it)", () => {
+  it("prints one JSON object for the karate club with the documented fields (a child process, as a user runs it)", async () => {
     const r = analyzeSpawned([join(FIXTURES, "karate.edgelist.csv"), "--json", "--restarts", "5", "--nulls", "3", "--seed", "7"]);
     expect(r.code).toBe(0);
     const out = JSON.parse(r.stdout);
@@ -60,14 +60,14 @@ describe("npm run analyze", () => {
     expect(typeof out.elapsedMs).toBe("number");
     expect(out.kindDetection).toMatch(/one-mode/);
     // the exported main, which the other tests call in this process, prints the same (elapsed time aside)
-    const inProcess = analyze([join(FIXTURES, "karate.edgelist.csv"), "--json", "--restarts", "5", "--nulls", "3", "--seed", "7"]);
+    const inProcess = await analyze([join(FIXTURES, "karate.edgelist.csv"), "--json", "--restarts", "5", "--nulls", "3", "--seed", "7"]);
     expect(inProcess.code).toBe(0);
     expect({ ...JSON.parse(inProcess.stdout), elapsedMs: 0 }).toEqual({ ...out, elapsedMs: 0 });
   });
 
-  it("reads the Davis matrix as bipartite and reaches Q_B = 0.3455; no null block with --nulls 0", () => {
+  it("reads the Davis matrix as bipartite and reaches Q_B = 0.3455; no null block with --nulls 0", async () => {
     // Davis, Gardner & Gardner 1941: 18 × 14, 89 links; maximum Barber Q_B 2737/7921 (scripts/derive-reference-optima.ts).
-    const r = analyze([join(FIXTURES, "davis-southern-women.csv"), "--json", "--nulls", "0"]);
+    const r = await analyze([join(FIXTURES, "davis-southern-women.csv"), "--json", "--nulls", "0"]);
     expect(r.code).toBe(0);
     const out = JSON.parse(r.stdout);
     expect(out).toMatchObject({ nodes: 32, rows: 18, cols: 14, links: 89 });
@@ -77,10 +77,10 @@ describe("npm run analyze", () => {
     expect(out.null).toBeUndefined();
   });
 
-  it("a bipartite edge list: source is the row node, target the column node", () => {
+  it("a bipartite edge list: source is the row node, target the column node", async () => {
     const f = join(tmp, "visits.csv");
     writeFileSync(f, "source,target,weight\nplant A,bee 1,3\nplant A,bee 2,1\nplant B,bee 2,4\n");
-    const r = analyze([f, "--kind", "bipartite", "--json", "--nulls", "0"]);
+    const r = await analyze([f, "--kind", "bipartite", "--json", "--nulls", "0"]);
     expect(r.code).toBe(0);
     const out = JSON.parse(r.stdout);
     expect(out).toMatchObject({ rows: 2, cols: 2, links: 3, totalWeight: 8 });
@@ -91,34 +91,34 @@ describe("npm run analyze", () => {
     expect(out.roles.nodes.find((n: { label: string }) => n.label === "bee 1").level).toBe("col");
   });
 
-  it("prints a readable summary without --json", () => {
-    const r = analyze([join(FIXTURES, "karate.edgelist.csv"), "--restarts", "3", "--nulls", "0"]);
+  it("prints a readable summary without --json", async () => {
+    const r = await analyze([join(FIXTURES, "karate.edgelist.csv"), "--restarts", "3", "--nulls", "0"]);
     expect(r.code).toBe(0);
     expect(r.stdout).toMatch(/Q = 0\.41979\d* with 4 modules/);
     expect(r.stdout).toMatch(/nodes 34, links 78/);
   });
 
-  it("bad input: non-zero exit and the file, row and column on stderr", () => {
+  it("bad input: non-zero exit and the file, row and column on stderr", async () => {
     const f = join(tmp, "bad.csv");
     writeFileSync(f, "plant,bee1,bee2\np1,1,0\np2,1,lots\n");
-    const r = analyze([f, "--json"]);
+    const r = await analyze([f, "--json"]);
     expect(r.code).toBe(1);
     expect(r.stdout).toBe("");
     expect(r.stderr).toContain("bad.csv, row 3, column 3");
   });
 
-  it("bad options and missing files: non-zero exit with the reason", () => {
+  it("bad options and missing files: non-zero exit with the reason", async () => {
     const karate = join(FIXTURES, "karate.edgelist.csv");
-    expect(analyze([karate, "--restarts", "0"])).toMatchObject({ code: 2, stderr: expect.stringContaining("--restarts") });
-    expect(analyze([karate, "--null-model", "shuffle"])).toMatchObject({ code: 2, stderr: expect.stringContaining("--null-model") });
-    expect(analyze([karate, "--kind", "bipartite", "--directed"])).toMatchObject({ code: 2 });
-    expect(analyze([karate, "--frobnicate"])).toMatchObject({ code: 2 });
+    expect(await analyze([karate, "--restarts", "0"])).toMatchObject({ code: 2, stderr: expect.stringContaining("--restarts") });
+    expect(await analyze([karate, "--null-model", "shuffle"])).toMatchObject({ code: 2, stderr: expect.stringContaining("--null-model") });
+    expect(await analyze([karate, "--kind", "bipartite", "--directed"])).toMatchObject({ code: 2 });
+    expect(await analyze([karate, "--frobnicate"])).toMatchObject({ code: 2 });
     // An option the data cannot take: Patefield keeps totals of a bipartite or directed matrix only.
-    expect(analyze([karate, "--null-model", "patefield", "--nulls", "2"])).toMatchObject({
+    expect(await analyze([karate, "--null-model", "patefield", "--nulls", "2"])).toMatchObject({
       code: 2,
       stderr: expect.stringContaining("undirected"),
     });
-    expect(analyze([join(tmp, "nope.csv")])).toMatchObject({ code: 1, stderr: expect.stringContaining("cannot read") });
+    expect(await analyze([join(tmp, "nope.csv")])).toMatchObject({ code: 1, stderr: expect.stringContaining("cannot read") });
   });
 
 });
