@@ -9,6 +9,7 @@ import { createApp } from "../../server/src/app";
 import { shutdownServerResources } from "../../server/src/index";
 import { resetRateLimits } from "../../server/src/middlewares/rate-limit";
 import { AuditLog, SubmissionComment } from "../../server/src/models";
+import { mailSettled } from "../../server/src/emails/mailer";
 import type { MailCatcher } from "../../server/src/lib/mail-catcher";
 import type { ThreadEntry, ThreadResponse } from "../../shared/types/review";
 import { resetDatabase } from "../setup/db";
@@ -37,7 +38,7 @@ async function thread(who: SignedInAgent, versionId: number): Promise<ThreadResp
 }
 const brief = (e: ThreadEntry) => (e.kind === "comment" ? `${e.kind}:${e.side}:${e.author}:${e.body}` : e.kind === "decision" ? `decision:${e.decision}:${e.author}` : `submitted:${e.round}:${e.author}`);
 const mailsTo = (addr: string, since: number) => catcher.messages.slice(since).filter((m) => m.to.includes(addr));
-const settle = () => new Promise((r) => setTimeout(r, 300));
+const settle = () => mailSettled();
 
 beforeAll(async () => {
   process.env.PUBLIC_URL = PUBLIC_URL;
