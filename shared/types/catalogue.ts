@@ -14,6 +14,8 @@ export const SEARCH_EXAMPLE = "Verrin heath";
 export interface FacetValue {
   value: string;
   count: number;
+  /** How to show the value when it is a code (continents: "EU" → "Europe"). */
+  label?: string;
 }
 export interface RangeFacet {
   min: number | null;
@@ -26,6 +28,8 @@ export interface CatalogueFacets {
   habitat: FacetValue[];
   country: FacetValue[];
   licence: FacetValue[];
+  /** Continents derived from the country codes of the matches. */
+  continent: FacetValue[];
   year: RangeFacet;
   nodes: RangeFacet;
   connectance: RangeFacet;
@@ -35,6 +39,9 @@ export interface CatalogueFacets {
   /** Matching networks per field marked not recorded (coordinates, elevation, dates, habitat, samplingEffort). */
   notRecorded: FacetValue[];
   p: RangeFacet;
+  /** Public (generalised) latitude in degrees and elevation in metres among the matches. */
+  latitude: RangeFacet;
+  elevation: RangeFacet;
   /** The null model the z column and the z/p filters use. */
   nullModel: string;
   /** The null models with figures in the catalogue and how many networks have each. */

@@ -8,6 +8,7 @@ import type { CatalogueEntry } from "./catalogue.rows";
 import { catalogueStore } from "./catalogue.store";
 import { DEFAULT_CATALOGUE_NULL_MODEL, type CatalogueQuery, type Range, type SortKey } from "./catalogue.validation";
 import { NULL_MODELS } from "../../../../shared/network/null-models/index";
+import { CONTINENT_NAMES, continentOf } from "../../lib/continents";
 
 const nullCountCache = new WeakMap<CatalogueEntry[], FacetValue[]>();
 
@@ -80,9 +81,9 @@ function notRecordedFacet(matches: CatalogueEntry[]): FacetValue[] {
   return [...counts].filter(([, c]) => c > 0).map(([value, count]) => ({ value, count }));
 }
 
-const CATEGORICAL = ["interactionType", "kind", "weighted", "habitat", "country", "licence"] as const;
+const CATEGORICAL = ["interactionType", "kind", "weighted", "habitat", "country", "licence", "continent"] as const;
 type Categorical = (typeof CATEGORICAL)[number];
-const RANGES = ["year", "nodes", "connectance", "Q", "z", "p"] as const;
+const RANGES = ["year", "nodes", "connectance", "Q", "z", "p", "latitude", "elevation"] as const;
 type RangeName = (typeof RANGES)[number];
 
 function categoryValue(e: CatalogueEntry, f: Categorical): string | null {
@@ -99,6 +100,8 @@ function categoryValue(e: CatalogueEntry, f: Categorical): string | null {
       return e.countryCode;
     case "licence":
       return e.licence;
+    case "continent":
+      return continentOf(e.countryCode);
   }
 }
 
@@ -116,6 +119,10 @@ function rangeValue(e: CatalogueEntry, f: RangeName, model: string): number | nu
       return nullOf(e, model)?.p ?? null;
     case "year":
       return e.startYear;
+    case "latitude":
+      return e.latitude;
+    case "elevation":
+      return e.elevation;
   }
 }
 
@@ -130,6 +137,8 @@ interface Columns {
   codes: Uint16Array[];
   nums: Float64Array[];
   endYear: Float64Array;
+  /** Public longitude (NaN when not recorded), for the area filter. */
+  longitude: Float64Array;
 }
 const columnCache = new WeakMap<CatalogueEntry[], Map<string, Columns>>();
 
@@ -145,6 +154,7 @@ function columnsOf(all: CatalogueEntry[], model: string): Columns {
   const codes = CATEGORICAL.map(() => new Uint16Array(n));
   const nums = RANGES.map(() => new Float64Array(n));
   const endYear = new Float64Array(n);
+  const longitude = new Float64Array(n);
   const ids = new Int32Array(n);
   for (let i = 0; i < n; i++) {
     const e = all[i];
@@ -162,8 +172,9 @@ function columnsOf(all: CatalogueEntry[], model: string): Columns {
     }
     for (let j = 0; j < RANGES.length; j++) nums[j][i] = rangeValue(e, RANGES[j], model) ?? NaN;
     endYear[i] = e.endYear ?? e.startYear ?? NaN;
+    longitude[i] = e.longitude ?? NaN;
   }
-  const cols = { ids, values, codes, nums, endYear };
+  const cols = { ids, values, codes, nums, endYear, longitude };
   perModel.set(model, cols);
   return cols;
 }
@@ -200,7 +211,9 @@ export interface MatchResult {
 }
 
 const YEAR = RANGES.indexOf("year");
+const LATITUDE = RANGES.indexOf("latitude");
 const SEARCH_BIT = 1 << (CATEGORICAL.length + RANGES.length);
+const AREA_BIT = SEARCH_BIT << 1;
 
 /**
  * Every entry matching the query, in the requested order, with facet counts. `limit`: only the first
@@ -253,6 +266,19 @@ export async function matchCatalogue(q: CatalogueQuery, opts: { limit?: number }
       for (let i = 0; i < n; i++) if (!(v[i] >= l && v[i] <= h)) mask[i] |= bit;
     }
   }
+  if (q.bbox) {
+    // public coordinates inside the box (edges included); west > east: the box crosses the antimeridian
+    const { west, south, east, north } = q.bbox;
+    const lat = cols.nums[LATITUDE];
+    const lon = cols.longitude;
+    const wraps = west > east;
+    for (let i = 0; i < n; i++) {
+      const y = lat[i];
+      const x = lon[i];
+      const inLon = wraps ? x >= west || x <= east : x >= west && x <= east;
+      if (!(y >= south && y <= north && inLon)) mask[i] |= AREA_BIT;
+    }
+  }
   if (hits !== null) {
     const ids = cols.ids;
     for (let i = 0; i < n; i++) if (!hits.has(ids[i])) mask[i] |= SEARCH_BIT;
@@ -293,6 +319,7 @@ export async function matchCatalogue(q: CatalogueQuery, opts: { limit?: number }
     habitat: facetList(3),
     country: facetList(4),
     licence: facetList(5),
+    continent: facetList(6).map((f) => ({ ...f, label: CONTINENT_NAMES[f.value] ?? f.value })),
     year: rf(0),
     nodes: rf(1),
     connectance: rf(2),
@@ -300,6 +327,8 @@ export async function matchCatalogue(q: CatalogueQuery, opts: { limit?: number }
     z: rf(4),
     notRecorded: [],
     p: rf(5),
+    latitude: rf(6),
+    elevation: rf(7),
     nullModel: q.nullModel,
     nullModels: nullModelCounts(all),
   };

@@ -5,6 +5,7 @@
 import { ApiError, type ErrorDetail } from "../../lib/api-error";
 import { NULL_MODELS } from "../../../../shared/network/null-models/index";
 import { CATALOGUE_PAGE_SIZES } from "../../../../shared/types/catalogue";
+import { CONTINENT_CODES } from "../../lib/continents";
 
 /**
  * The null model of the catalogue's z column and z/p filters when the reader names none: fixed degrees
@@ -20,6 +21,14 @@ export interface Range {
   max?: number;
 }
 
+/** An area in degrees (GeoJSON bbox order); `west > east` crosses the antimeridian. */
+export interface BoundingBox {
+  west: number;
+  south: number;
+  east: number;
+  north: number;
+}
+
 export interface CatalogueQuery {
   q?: string;
   interactionType?: string[];
@@ -28,6 +37,8 @@ export interface CatalogueQuery {
   habitat?: string[];
   country?: string[];
   licence?: string[];
+  /** Continent codes (AF, AN, AS, EU, NA, OC, SA), derived from the country code. */
+  continent?: string[];
   year: Range;
   nodes: Range;
   connectance: Range;
@@ -35,6 +46,10 @@ export interface CatalogueQuery {
   /** z and p of `nullModel` (one model for the whole column and filter). */
   z: Range;
   p: Range;
+  /** Public (generalised) coordinates: latitude in degrees, elevation in metres. */
+  latitude: Range;
+  elevation: Range;
+  bbox?: BoundingBox;
   nullModel: string;
   sort: SortKey;
   order: "asc" | "desc";
@@ -53,6 +68,7 @@ export const CATALOGUE_PARAMS = [
   "habitat",
   "country",
   "licence",
+  "continent",
   "yearMin",
   "yearMax",
   "nodesMin",
@@ -65,6 +81,11 @@ export const CATALOGUE_PARAMS = [
   "zMax",
   "pMin",
   "pMax",
+  "latitudeMin",
+  "latitudeMax",
+  "elevationMin",
+  "elevationMax",
+  "bbox",
   "nullModel",
   "sort",
   "order",
@@ -93,6 +114,26 @@ function nullModelParam(v: string | undefined, errors: ErrorDetail[]): string {
     return DEFAULT_CATALOGUE_NULL_MODEL;
   }
   return v;
+}
+
+/** `bbox=west,south,east,north` in degrees (longitudes −180…180, latitudes −90…90, south ≤ north). */
+function parseBbox(v: string | undefined, errors: ErrorDetail[]): BoundingBox | undefined {
+  if (v === undefined) return undefined;
+  const parts = v.split(",").map((s) => Number(s.trim()));
+  if (parts.length !== 4 || parts.some((n) => !Number.isFinite(n))) {
+    errors.push({ path: "bbox", message: `bbox must be four numbers west,south,east,north in degrees, got "${v}".` });
+    return undefined;
+  }
+  const [west, south, east, north] = parts;
+  if ([west, east].some((x) => x < -180 || x > 180) || [south, north].some((y) => y < -90 || y > 90)) {
+    errors.push({ path: "bbox", message: `bbox longitudes must lie in −180…180 and latitudes in −90…90, got "${v}".` });
+    return undefined;
+  }
+  if (south > north) {
+    errors.push({ path: "bbox", message: `bbox south (${south}) is north of its north (${north}): write west,south,east,north.` });
+    return undefined;
+  }
+  return { west, south, east, north };
 }
 
 export function parseCatalogueQuery(raw: Record<string, unknown>): CatalogueQuery {
@@ -143,6 +184,11 @@ export function parseCatalogueQuery(raw: Record<string, unknown>): CatalogueQuer
   if (orderRaw !== undefined && orderRaw !== "asc" && orderRaw !== "desc") {
     errors.push({ path: "order", message: `order must be asc or desc, got "${orderRaw}".` });
   }
+  const continent = list(raw.continent)?.map((c) => c.toUpperCase());
+  for (const c of continent ?? []) {
+    if (!CONTINENT_CODES.includes(c)) errors.push({ path: "continent", message: `continent must be one of ${CONTINENT_CODES.join(", ")}, got "${c}".` });
+  }
+  const bbox = parseBbox(scalar(raw.bbox), errors);
   const q = scalar(raw.q);
   if (q !== undefined && q.length > 200) errors.push({ path: "q", message: "q is longer than 200 characters." });
 
@@ -160,6 +206,10 @@ export function parseCatalogueQuery(raw: Record<string, unknown>): CatalogueQuer
     Q: range("q"),
     z: range("z"),
     p: range("p", { min: 0, max: 1 }),
+    latitude: range("latitude", { min: -90, max: 90 }),
+    elevation: range("elevation", { min: -500, max: 9000 }),
+    continent,
+    bbox,
     nullModel: nullModelParam(scalar(raw.nullModel), errors),
     sort: (sortRaw as SortKey | undefined) ?? (q ? "relevance" : "accession"),
     order: (orderRaw as "asc" | "desc" | undefined) ?? (sortRaw === undefined && q ? "desc" : "asc"),
