@@ -6,7 +6,8 @@
  * syllables (clearly fictional). Deposited by the three demo depositors and decided by the two demo
  * curators THROUGH THE SAME SERVICES as the UI (create draft, upload, set metadata, submit, decide, new
  * version, withdraw), so the demo data pass the same rules. States shown: published (most, TB-000001
- * onwards), one with a version 2, one withdrawn, one submitted, one with changes requested, one draft.
+ * onwards), one with a version 2, one withdrawn, one resubmitted after a change request (with the
+ * depositor's reply), one with changes requested (and the depositor's comment), one draft.
  * Idempotent: skipped when any dataset exists.
  */
 import { createRng, type Rng } from "../../../../shared/network/random";
@@ -14,6 +15,7 @@ import type { StudyMetadata } from "../../../../shared/types/dataset";
 import { Dataset, User } from "../../models";
 import { addNetworks, createDeposit, startNewVersion, submitDeposit, updateNetwork, updateStudyMetadata } from "../../api/deposits/deposits.service";
 import { decide, withdrawDataset } from "../../api/reviews/reviews.service";
+import { addComment } from "../../api/deposits/deposits.comments";
 import type { Viewer } from "../../api/datasets/datasets.service";
 import { demoOrcidOf } from "./demo-researchers";
 
@@ -221,16 +223,26 @@ export async function seedDemoScenario(ctx: { log: (msg: string) => void } = { l
     const files = d.nets.map((n, i) => fileFor(d, n, i, rng));
     const up = await addNetworks(dep.versionId, who, files, { kind: "bipartite", directed: false, format: "matrix" });
     networks += up.networks.length;
+    const metas: Array<Record<string, unknown>> = [];
     for (const [i, n] of up.networks.entries()) {
       const meta = networkMetadata(d, d.nets[i], i, rng, { withEffort: d.outcome !== "changes_requested" });
       if (d.outcome === "draft") delete (meta as Record<string, unknown>).samplingProtocol;
       await updateNetwork(dep.versionId, n.id, who, { metadata: meta });
+      metas.push(meta);
     }
     if (d.outcome === "draft") continue;
     await submitDeposit(dep.versionId, who);
-    if (d.outcome === "submitted") continue;
+    if (d.outcome === "submitted") {
+      // A resubmission waiting in the queue: the review page shows what changed and the conversation.
+      await decide(dep.versionId, curator, { decision: "request_changes", comment: "The habitat of the second slope reads like the first one's; is that right? Please check it against the field sheet." });
+      const last = up.networks[up.networks.length - 1];
+      await updateNetwork(dep.versionId, last.id, who, { metadata: { ...metas[metas.length - 1], habitat: "species-rich limestone grassland on a south-facing slope" } });
+      await submitDeposit(dep.versionId, who, "You were right: the second slope is the south-facing one. Its habitat now follows the field sheet; the counts were checked and stay as they were.");
+      continue;
+    }
     if (d.outcome === "changes_requested") {
       await decide(dep.versionId, curator, { decision: "request_changes", comment: "Please give the sampling effort (how many observation hours) of the network; it is needed to compare modularity across studies." });
+      await addComment(dep.versionId, who, "The hours are in the field notebooks at the station; I will add them when I am back next week.", "session");
       continue;
     }
     const res = await decide(dep.versionId, curator, { decision: "publish", comment: null });
