@@ -116,7 +116,7 @@ describe("dataset pages", () => {
   it("shows a tombstone for a withdrawn dataset", async () => {
     const { page } = browser;
     await page.goto(`${stack.url}/datasets/TB-000003`);
-    await page.getByRole("heading", { name: "TB-000003 was withdrawn" }).waitFor();
+    await page.getByRole("heading", { name: "TB-000003 v1 was withdrawn" }).waitFor();
     await page.getByText("The depositor found duplicated transects.").waitFor();
     await screenshot(page, "dataset-tombstone");
     await axeCheck(page);
