@@ -86,7 +86,7 @@ describe("catalogue page", () => {
     // the selection survives going back a page
     await page.getByRole("button", { name: "Previous page" }).click();
     await expect.poll(() => page.getByRole("checkbox", { name: /^Select TB-/ }).count(), { timeout: 10_000 }).toBe(25);
-    expect(await page.getByRole("checkbox", { name: `Select ${firstPageRefs[0]}` }).isChecked()).toBe(true);
+    await expect.poll(() => page.getByRole("checkbox", { name: `Select ${firstPageRefs[0]}` }).isChecked()).toBe(true);
     await page.getByRole("link", { name: /Bundle selection \(4, ~/ }).waitFor();
     await page.getByRole("link", { name: /Bundle everything matching \(30 networks, ~/ }).waitFor();
     await screenshot(page, "catalogue-selection");
