@@ -1,7 +1,8 @@
 /**
  * Crash safety of the metrics pipeline: a worker PROCESS (the `npm run worker` entry, server/src/worker.ts)
- * is killed with SIGKILL in the middle of a job; the queue expires the job and a second worker process
- * retries it; the run completes exactly once (one successful metric_runs row).
+ * is killed with SIGKILL in the middle of a job; its heartbeat stops, the second worker process's sweeper
+ * takes the job back (long before the job would expire: the expiry stays at its hour) and retries it; the
+ * run completes exactly once (one successful metric_runs row).
  */
 import { spawn, type ChildProcess } from "node:child_process";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
@@ -18,7 +19,10 @@ import { clearQueue, publishMatrices, randomMatrix } from "./support/pipeline-fi
 // Enough work for the job to be caught mid-way (a few seconds on two threads), small enough for a test.
 const SETTINGS: PipelineSettings = { objective: "auto", restarts: 4, nullModels: ["er"], nulls: 60, seed: 3, annealing: "off" };
 const JOB_ENV = {
-  TB_METRICS_JOB_EXPIRE_SECONDS: "5",
+  TB_METRICS_JOB_EXPIRE_SECONDS: "3600",
+  TB_METRICS_HEARTBEAT_SECONDS: "1",
+  TB_METRICS_WORKER_STALE_SECONDS: "3",
+  TB_METRICS_SWEEP_SECONDS: "1",
   TB_METRICS_MAINTENANCE_SECONDS: "1",
   TB_METRICS_RETRY_DELAY_SECONDS: "1",
   TB_METRICS_POLL_SECONDS: "0.5",
@@ -62,6 +66,8 @@ describe("a worker process killed mid-job", () => {
     first.kill("SIGKILL");
     await new Promise((r) => first.once("exit", r));
     expect((await run.reload()).status).toBe("running");
+    const [held] = (await sequelize().query(`SELECT worker_id FROM metric_runs WHERE id = ${run.id}`)) as [Array<{ worker_id: string | null }>, unknown];
+    expect(held[0].worker_id).toContain(`:${first.pid}:`); // the dead worker still holds it
 
     startWorkerProcess();
     await waitFor(async () => (await run.reload()).status === "succeeded", "the retried job to finish");
@@ -74,5 +80,7 @@ describe("a worker process killed mid-job", () => {
     expect(results.analysis.null.n).toBe(60);
     expect(results.nullQs).toHaveLength(60);
     expect(rows[0].z).not.toBeNull();
+    const [after] = (await sequelize().query(`SELECT worker_id FROM metric_runs WHERE id = ${run.id}`)) as [Array<{ worker_id: string | null }>, unknown];
+    expect(after[0].worker_id).toBeNull();
   });
 });

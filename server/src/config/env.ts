@@ -79,6 +79,12 @@ export interface JobSettings {
   metricsJobExpireSeconds: number;
   /** Seconds between the queue's maintenance runs (TB_METRICS_MAINTENANCE_SECONDS; default 60). */
   metricsMaintenanceSeconds: number;
+  /** Seconds between a metrics worker's heartbeats on the runs it computes (TB_METRICS_HEARTBEAT_SECONDS; default 15). */
+  metricsHeartbeatSeconds: number;
+  /** Seconds without a heartbeat after which a run's worker counts as dead and its job is taken back (TB_METRICS_WORKER_STALE_SECONDS; default 60). */
+  metricsWorkerStaleSeconds: number;
+  /** Seconds between runs of the metrics sweeper (TB_METRICS_SWEEP_SECONDS; default 30). */
+  metricsSweepSeconds: number;
   /** Retries of a failed DOI registration (TB_DOI_RETRY_LIMIT; default 10). */
   doiRetryLimit: number;
   /** Seconds before the first retry, doubling each time (TB_DOI_RETRY_DELAY_SECONDS; default 10). */
@@ -142,6 +148,9 @@ export function jobSettings(): JobSettings {
     metricsRetryDelaySeconds: int("TB_METRICS_RETRY_DELAY_SECONDS", 5, 1),
     metricsJobExpireSeconds: int("TB_METRICS_JOB_EXPIRE_SECONDS", 3600, 1),
     metricsMaintenanceSeconds: int("TB_METRICS_MAINTENANCE_SECONDS", 60, 1),
+    metricsHeartbeatSeconds: int("TB_METRICS_HEARTBEAT_SECONDS", 15, 1, 3600),
+    metricsWorkerStaleSeconds: int("TB_METRICS_WORKER_STALE_SECONDS", 60, 2, 86_400),
+    metricsSweepSeconds: int("TB_METRICS_SWEEP_SECONDS", 30, 1, 3600),
     doiRetryLimit: int("TB_DOI_RETRY_LIMIT", 10, 0, 1000),
     doiRetryDelaySeconds: int("TB_DOI_RETRY_DELAY_SECONDS", 10, 0),
   };

@@ -18,13 +18,17 @@
  * the error (`error_kind` "computation"), and the batch goes on. A configuration error (a null model or
  * objective that does not fit the network, invalid stored settings) fails the run at once with
  * `error_kind` "configuration": the same input would fail the same way on every retry. Either way the
- * network's last successful figures stay visible (metrics-read.ts). A worker killed mid-job leaves R "running"; the queue expires the job
- * and retries it on another worker; and the sweeper re-sends runs whose job disappeared, failing a run for
- * good after MAX_ATTEMPTS starts.
+ * network's last successful figures stay visible (metrics-read.ts). A worker killed mid-job leaves R "running"
+ * with its worker id and a heartbeat that stops: the sweeper (every TB_METRICS_SWEEP_SECONDS) fails the job
+ * back to the queue once the heartbeat is TB_METRICS_WORKER_STALE_SECONDS old, and another worker retries
+ * it (job expiry after TB_METRICS_JOB_EXPIRE_SECONDS stays as the last resort); the sweeper also re-sends
+ * runs whose job disappeared, failing a run for good after MAX_ATTEMPTS starts.
  *
  * Edge-less networks: the engine's answer (Q null with its reason, no significance test) is stored as a
  * success: it is the network's correct result, not a failure of the pipeline.
  */
+import { randomBytes } from "node:crypto";
+import { hostname } from "node:os";
 import { QueryTypes } from "sequelize";
 import type PgBoss from "pg-boss";
 import type { AnalysisResult } from "../../../shared/network/analyze";
@@ -45,6 +49,9 @@ import { notifyFiguresIfDone } from "./figures-mail";
  * fails it for good.
  */
 export const MAX_ATTEMPTS = 2 * (RETRY_LIMIT + 1) + 2;
+
+/** This process as a metrics worker: the runs it computes carry this id and its heartbeats. */
+export const WORKER_ID = `${hostname()}:${process.pid}:${randomBytes(3).toString("hex")}`;
 
 interface RunState {
   id: number;
@@ -81,7 +88,7 @@ export async function finishBatchIfDone(batchId: number | null): Promise<void> {
 
 export async function markRunFailed(runId: number, message: string, kind: "configuration" | "computation" = "computation"): Promise<void> {
   const [rows] = (await sequelize().query(
-    `UPDATE metric_runs SET status = 'failed', error = :message, error_kind = :kind, finished_at = now(),
+    `UPDATE metric_runs SET status = 'failed', worker_id = NULL, error = :message, error_kind = :kind, finished_at = now(),
             duration_ms = CASE WHEN started_at IS NULL THEN NULL ELSE (EXTRACT(EPOCH FROM (now() - started_at)) * 1000)::int END,
             updated_at = now()
       WHERE id = :runId AND status IN ('queued', 'running') RETURNING batch_id`,
@@ -113,7 +120,7 @@ export async function processRun(runId: number, phase: MetricsPhase = "nulls"): 
     );
     if (other) {
       await sequelize().query(
-        `UPDATE metric_runs SET status = 'superseded', error = :note, finished_at = now(), updated_at = now()
+        `UPDATE metric_runs SET status = 'superseded', worker_id = NULL, error = :note, finished_at = now(), updated_at = now()
           WHERE id = :runId AND status IN ('queued', 'running')`,
         { replacements: { runId, note: `not computed: run ${other.id} already holds the result for these settings` } },
       );
@@ -126,9 +133,9 @@ export async function processRun(runId: number, phase: MetricsPhase = "nulls"): 
 
   const [started] = (await sequelize().query(
     `UPDATE metric_runs SET status = 'running', attempts = attempts + 1, started_at = COALESCE(started_at, now()),
-            error = NULL, updated_at = now()
+            error = NULL, worker_id = :me, heartbeat_at = now(), updated_at = now()
       WHERE id = :runId AND status IN ('queued', 'running') RETURNING attempts, started_at`,
-    { replacements: { runId } },
+    { replacements: { runId, me: WORKER_ID } },
   )) as [Array<{ attempts: number; started_at: Date }>, unknown];
   if (!started) return;
   const t0 = Date.now();
@@ -208,7 +215,7 @@ async function writeSuccess(run: RunState, hash: string, analysis: AnalysisResul
         );
       }
       await sequelize().query(
-        `UPDATE metric_runs SET status = 'succeeded', finished_at = now(),
+        `UPDATE metric_runs SET status = 'succeeded', worker_id = NULL, finished_at = now(),
                 duration_ms = (EXTRACT(EPOCH FROM (now() - started_at)) * 1000)::int,
                 results = CAST(:results AS jsonb), objective = :objective, q = :q, modules = :modules, nodf = :nodf,
                 null_model = :nullModel, null_mean = :nullMean, null_sd = :nullSd, z = :z, q_rel = :qRel, p = :p,
@@ -241,7 +248,7 @@ async function writeSuccess(run: RunState, hash: string, analysis: AnalysisResul
     // Another run of the same network and settings succeeded first (unique index): keep that one.
     if ((err as { name?: string }).name === "SequelizeUniqueConstraintError") {
       await sequelize().query(
-        `UPDATE metric_runs SET status = 'superseded', error = 'another run with these settings succeeded first',
+        `UPDATE metric_runs SET status = 'superseded', worker_id = NULL, error = 'another run with these settings succeeded first',
                 finished_at = now(), updated_at = now() WHERE id = :id AND status = 'running'`,
         { replacements: { id: run.id } },
       );
@@ -255,6 +262,17 @@ async function writeSuccess(run: RunState, hash: string, analysis: AnalysisResul
 export async function handleJob(job: PgBoss.JobWithMetadata<MetricsJobData>): Promise<void> {
   const runId = Number(job.data?.runId);
   if (!Number.isInteger(runId)) return;
+  try {
+    await computeJob(job, runId);
+  } finally {
+    // Between its jobs (observed done, nulls waiting) a run belongs to no worker: nothing to watch.
+    await sequelize()
+      .query(`UPDATE metric_runs SET worker_id = NULL WHERE id = :runId AND worker_id = :me`, { replacements: { runId, me: WORKER_ID } })
+      .catch((err: unknown) => logger.warn({ runId, err: errorMessage(err) }, "metrics run: could not clear its worker"));
+  }
+}
+
+async function computeJob(job: PgBoss.JobWithMetadata<MetricsJobData>, runId: number): Promise<void> {
   try {
     await processRun(runId, job.data.phase === "observed" ? "observed" : "nulls");
   } catch (err) {
@@ -290,6 +308,37 @@ export async function queueNeverComputed(): Promise<number> {
 }
 
 /**
+ * Runs whose worker died: running, held by a worker whose last heartbeat is older than
+ * TB_METRICS_WORKER_STALE_SECONDS (a live worker beats every TB_METRICS_HEARTBEAT_SECONDS, from its main
+ * thread, while the computation runs on its threads). Their active jobs are failed back to the queue, which
+ * retries them at once on any worker (or, retries used up, the orphan sweep below re-sends the run). A run
+ * is released from its dead worker, so it is taken back once, not at every sweep.
+ */
+export async function reclaimDeadWorkerRuns(): Promise<{ reclaimed: number; jobs: number }> {
+  const stale = jobSettings().metricsWorkerStaleSeconds;
+  const runs = await sequelize().query<{ id: number; worker_id: string }>(
+    `WITH dead AS (
+       SELECT id, worker_id FROM metric_runs
+        WHERE status = 'running' AND worker_id IS NOT NULL AND heartbeat_at < now() - make_interval(secs => :stale)
+        FOR UPDATE SKIP LOCKED)
+     UPDATE metric_runs r SET worker_id = NULL, updated_at = now() FROM dead WHERE r.id = dead.id
+     RETURNING r.id, dead.worker_id`,
+    { replacements: { stale }, type: QueryTypes.SELECT },
+  );
+  if (!runs.length) return { reclaimed: 0, jobs: 0 };
+  const jobs = await sequelize().query<{ id: string }>(
+    `SELECT id FROM pgboss.job WHERE name = :queue AND state = 'active' AND (data->>'runId')::int IN (:ids)`,
+    { replacements: { queue: METRICS_QUEUE, ids: runs.map((r) => r.id) }, type: QueryTypes.SELECT },
+  );
+  if (jobs.length) {
+    const boss = await getBoss();
+    for (const j of jobs) await boss.fail(METRICS_QUEUE, j.id, { reason: `worker stopped: no heartbeat for ${stale} s` });
+  }
+  logger.warn({ runs: runs.map((r) => ({ runId: r.id, worker: r.worker_id })), jobs: jobs.length }, "metrics sweeper: took back the runs of a dead worker");
+  return { reclaimed: runs.length, jobs: jobs.length };
+}
+
+/**
  * Runs that should have a job but have none (never sent, or lost with a killed worker after the queue gave
  * up): re-sent, or failed for good after MAX_ATTEMPTS starts. Then published networks never computed.
  */
@@ -318,6 +367,13 @@ export async function sweepOrphanRuns(): Promise<{ resent: number; failed: numbe
 let workerIds: string[] = [];
 let stopping = false;
 let sweepTimer: NodeJS.Timeout | undefined;
+let heartbeatTimer: NodeJS.Timeout | undefined;
+
+/** Beats for every run this process computes (reclaimDeadWorkerRuns watches for beats that stop). */
+export async function heartbeat(): Promise<number> {
+  const [, meta] = (await sequelize().query(`UPDATE metric_runs SET heartbeat_at = now() WHERE worker_id = :me AND status = 'running'`, { replacements: { me: WORKER_ID } })) as [unknown, { rowCount?: number }];
+  return meta?.rowCount ?? 0;
+}
 
 /**
  * Starts working the queue in this process: `concurrency` jobs at a time (default 2: while one job runs its
@@ -338,13 +394,18 @@ export async function startMetricsWorker(opts: { concurrency?: number; pollingIn
     registerLocalWorker(id);
     workerIds.push(id);
   }
+  const settings = jobSettings();
+  heartbeatTimer = setInterval(() => void heartbeat().catch((err: unknown) => logger.warn({ err: errorMessage(err) }, "metrics heartbeat failed")), settings.metricsHeartbeatSeconds * 1000);
+  heartbeatTimer.unref();
   const sweep = () =>
-    sweepOrphanRuns().then(
-      (r) => r.resent + r.failed + r.queued > 0 && logger.info(r, "metrics sweeper"),
-      (err: unknown) => logger.warn({ err }, "metrics sweeper failed"),
-    );
+    reclaimDeadWorkerRuns()
+      .then(() => sweepOrphanRuns())
+      .then(
+        (r) => r.resent + r.failed + r.queued > 0 && logger.info(r, "metrics sweeper"),
+        (err: unknown) => logger.warn({ err }, "metrics sweeper failed"),
+      );
   await sweep();
-  sweepTimer = setInterval(() => void sweep(), 60_000);
+  sweepTimer = setInterval(() => void sweep(), settings.metricsSweepSeconds * 1000);
   sweepTimer.unref();
 }
 
@@ -357,6 +418,8 @@ export async function stopMetricsWorker(opts: { timeoutMs?: number } = {}): Prom
   stopping = true;
   if (sweepTimer) clearInterval(sweepTimer);
   sweepTimer = undefined;
+  if (heartbeatTimer) clearInterval(heartbeatTimer);
+  heartbeatTimer = undefined;
   workerIds = [];
   await stopQueue({ graceful: true, timeoutMs: opts.timeoutMs ?? 30_000 });
   await closePool();

@@ -4,9 +4,11 @@
  * job waits and one runs. A job carries only its metric_runs id; the run row holds network, settings and
  * state, so a job is idempotent and the sweeper (metrics-worker.ts) can re-send a run whose job was lost.
  *
- * Timeouts: a job not finished after TB_METRICS_JOB_EXPIRE_SECONDS (default 3600) is expired by pg-boss's
- * maintenance (every TB_METRICS_MAINTENANCE_SECONDS, default 60) and retried, up to RETRY_LIMIT times —
- * this is how the job of a killed worker gets done by another one.
+ * Dead workers: the job of a worker that stopped (killed, machine lost) is taken back by the sweeper once
+ * the run's heartbeat is TB_METRICS_WORKER_STALE_SECONDS old (metrics-worker.ts reclaimDeadWorkerRuns) and
+ * retried on another worker, up to RETRY_LIMIT times. As a last resort a job not finished after
+ * TB_METRICS_JOB_EXPIRE_SECONDS (default 3600) is expired by pg-boss's maintenance (every
+ * TB_METRICS_MAINTENANCE_SECONDS, default 60) and retried too.
  */
 import PgBoss from "pg-boss";
 import { config, jobSettings } from "../config/env";
