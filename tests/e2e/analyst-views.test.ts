@@ -61,6 +61,11 @@ beforeAll(async () => {
     study: { title: "Grid survey of the Osk lakeshore" },
     networks: Array.from({ length: 22 }, (_, k) => ({ seed: 20 + k, rows: 4, cols: 5 + (k % 4), meta: { name: `Grid cell ${k + 1}` }, metrics: { q: 0.2 + 0.01 * k, z: 1 + 0.1 * k, qRel: 0.2 } })),
   });
+  // one network far from the others, for the region filters
+  await publishDataset({
+    study: { title: "Fynbos flower visitors" },
+    networks: [{ seed: 70, meta: { name: "Fynbos slope", locality: { placeName: "Kogel Ridge", countryCode: "ZA", decimalLatitude: -33.9, decimalLongitude: 18.9, elevation: 640, generalisation: "exact" } }, metrics: { q: 0.5, z: 4, qRel: 0.3 } }],
+  });
   gone = await publishDataset({ study: { title: "Later withdrawn survey" }, networks: [{ seed: 9, meta: { name: "Duplicated plot" }, metrics: { q: 0.4, z: 3, qRel: 0.2 } }] });
   stack = await startStack();
   browser = await openBrowser();
@@ -187,7 +192,7 @@ describe("catalogue conveniences", () => {
   it("offers 25, 50, 100 or 250 rows per page, keeping the first row in view", async () => {
     const { page } = browser;
     await page.goto(`${stack.url}/catalogue`);
-    await page.getByRole("heading", { name: "27 networks" }).waitFor();
+    await page.getByRole("heading", { name: "28 networks" }).waitFor();
     const rows = page.getByRole("checkbox", { name: /^Select TB-/ });
     await expect.poll(() => rows.count()).toBe(25);
     await page.getByText("Page 1 of 2", { exact: true }).waitFor();
@@ -195,7 +200,7 @@ describe("catalogue conveniences", () => {
     expect(await choice.locator("option").allTextContents()).toEqual(["25", "50", "100", "250"]);
     await choice.selectOption("50");
     await page.waitForURL(/pageSize=50/);
-    await expect.poll(() => rows.count()).toBe(27);
+    await expect.poll(() => rows.count()).toBe(28);
     await page.getByText("Page 1 of 1", { exact: true }).waitFor();
     // back to 25 from page 1 stays on page 1; the URL drops the default
     await choice.selectOption("25");
@@ -205,7 +210,7 @@ describe("catalogue conveniences", () => {
   it("flags an inverted range at the field instead of showing 0 rows", async () => {
     const { page } = browser;
     await page.goto(`${stack.url}/catalogue`);
-    await page.getByRole("heading", { name: "27 networks" }).waitFor();
+    await page.getByRole("heading", { name: "28 networks" }).waitFor();
     const min = page.getByLabel("Connectance (C): at least");
     await min.fill("0.5");
     await page.getByLabel("Connectance (C): at most").fill("0.1");
@@ -214,7 +219,7 @@ describe("catalogue conveniences", () => {
     expect(await min.getAttribute("aria-invalid")).toBe("true");
     await expect.poll(() => page.evaluate(() => document.activeElement?.id)).toBe("range-connectanceMin");
     expect(new URL(page.url()).searchParams.has("connectanceMin")).toBe(false); // nothing applied
-    expect(await heading(page).textContent()).toBe("27 networks");
+    expect(await heading(page).textContent()).toBe("28 networks");
     await screenshot(page, "catalogue-inverted-range");
     await axeCheck(page, "aside[aria-label='Filters']"); // the whole page is checked by catalogue.test.ts
     // out of bounds too
@@ -234,7 +239,7 @@ describe("catalogue conveniences", () => {
   it("ticks a facet at once while the counts are still on their way", async () => {
     const { page } = browser;
     await page.goto(`${stack.url}/catalogue`);
-    await page.getByRole("heading", { name: "27 networks" }).waitFor();
+    await page.getByRole("heading", { name: "28 networks" }).waitFor();
     // hold every catalogue answer back for 1.5 s, as a slow connection would
     await page.route("**/api/v1/catalogue?**", async (route) => {
       await new Promise((r) => setTimeout(r, 1500));
@@ -247,7 +252,7 @@ describe("catalogue conveniences", () => {
       expect(await box.isChecked()).toBe(true);
       const tickMs = Date.now() - t0;
       expect(tickMs).toBeLessThan(1000); // the answer takes 1.5 s; the tick did not wait for it
-      expect(await heading(page).textContent()).toBe("27 networks"); // still the old answer
+      expect(await heading(page).textContent()).toBe("28 networks"); // still the old answer
       await page.getByText(/Updating…/).waitFor();
       await page.getByRole("heading", { name: "2 networks" }).waitFor();
       expect(await box.isChecked()).toBe(true);
@@ -261,7 +266,7 @@ describe("catalogue conveniences", () => {
     await page.setViewportSize({ width: 390, height: 844 });
     try {
       await page.goto(`${stack.url}/catalogue`);
-      await page.getByRole("heading", { name: "27 networks" }).waitFor();
+      await page.getByRole("heading", { name: "28 networks" }).waitFor();
       expect(await page.evaluate(() => document.documentElement.scrollWidth - window.innerWidth)).toBeLessThanOrEqual(0);
       const box = page.getByTestId("catalogue-table-box");
       const { scrollWidth, clientWidth } = await box.evaluate((el) => ({ scrollWidth: el.scrollWidth, clientWidth: el.clientWidth }));
@@ -280,5 +285,76 @@ describe("catalogue conveniences", () => {
     } finally {
       await page.setViewportSize({ width: 1280, height: 900 });
     }
+  });
+});
+
+describe("where: region filters", () => {
+  it("filters the catalogue by continent and latitude band", async () => {
+    const { page } = browser;
+    await page.goto(`${stack.url}/catalogue`);
+    await page.getByRole("heading", { name: "28 networks" }).waitFor();
+    const continent = page.getByRole("group", { name: "Continent" });
+    await continent.getByText("Europe").waitFor();
+    await continent.getByLabel(/Africa/).click();
+    await page.getByRole("heading", { name: "1 network", exact: true }).waitFor();
+    expect(new URL(page.url()).searchParams.get("continent")).toBe("AF");
+    await page.getByText("Fynbos slope").waitFor();
+    await page.goto(`${stack.url}/catalogue`);
+    await page.getByLabel("Latitude (°, south negative): at least").fill("-40");
+    await page.getByLabel("Latitude (°, south negative): at most").fill("-20");
+    await page.getByRole("button", { name: "Apply ranges" }).click();
+    await page.getByRole("heading", { name: "1 network", exact: true }).waitFor();
+    await page.getByLabel("Elevation (m): at least").fill("700");
+    await page.getByRole("button", { name: "Apply ranges" }).click();
+    await page.getByRole("heading", { name: "0 networks" }).waitFor();
+  });
+
+  it("draws an area on the map, filters the map by it and carries it to the catalogue", async () => {
+    const { page } = browser;
+    await page.goto(`${stack.url}/map`);
+    await page.locator('svg[data-map-ready="true"]').waitFor();
+    await page.getByRole("heading", { name: /28 of 28 matching networks placed/ }).waitFor();
+    await page.getByRole("button", { name: "Draw an area" }).click();
+    // drag a box around the southern African point
+    const dot = page.locator("svg a", { has: page.locator("title", { hasText: "Fynbos slope" }) }).first();
+    await dot.scrollIntoViewIfNeeded();
+    const b = (await dot.boundingBox())!;
+    const [cx, cy] = [b.x + b.width / 2, b.y + b.height / 2];
+    await page.mouse.move(cx - 40, cy - 30);
+    await page.mouse.down();
+    await page.mouse.move(cx, cy, { steps: 4 });
+    await page.mouse.move(cx + 40, cy + 30, { steps: 4 });
+    await page.mouse.up();
+    await page.waitForURL(/bbox=/);
+    const [w, s, e, n] = new URL(page.url()).searchParams.get("bbox")!.split(",").map(Number);
+    expect(w).toBeLessThan(18.9);
+    expect(e).toBeGreaterThan(18.9);
+    expect(s).toBeLessThan(-33.9);
+    expect(n).toBeGreaterThan(-33.9);
+    await page.getByRole("heading", { name: /1 of 1 matching networks placed/ }).waitFor();
+    await page.getByTestId("map-area").waitFor();
+    expect(await page.getByLabel("West (longitude)").inputValue()).toBe(String(w));
+    await screenshot(page, "map-area");
+    await axeCheck(page, "form[aria-label='Area']");
+
+    // typed edges: northern Europe
+    await page.getByLabel("West (longitude)").fill("-10");
+    await page.getByLabel("South (latitude)").fill("50");
+    await page.getByLabel("East (longitude)").fill("30");
+    await page.getByLabel("North (latitude)").fill("70");
+    await page.getByRole("button", { name: "Apply area" }).click();
+    await page.getByRole("heading", { name: /27 of 27 matching networks placed/ }).waitFor();
+    await page.getByLabel("South (latitude)").fill("80");
+    await page.getByRole("button", { name: "Apply area" }).click();
+    await page.getByText("The south edge (80) is north of the north edge (70).").waitFor();
+
+    // the catalogue link carries the area; the catalogue shows it and can clear it
+    await page.getByRole("link", { name: "Show these networks in the catalogue" }).click();
+    await page.waitForURL(/\/catalogue\?.*bbox=-10%2C50%2C30%2C70|\/catalogue\?.*bbox=-10,50,30,70/);
+    await page.getByRole("heading", { name: "27 networks" }).waitFor();
+    const areaBox = page.getByTestId("area-filter");
+    await areaBox.getByText("-10, 50, 30, 70").waitFor();
+    await areaBox.getByRole("button", { name: "Clear area" }).click();
+    await page.getByRole("heading", { name: "28 networks" }).waitFor();
   });
 });

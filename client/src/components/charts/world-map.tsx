@@ -3,7 +3,7 @@
  * app bundle; no tile server, no outside request) with d3-geo's Equal Earth projection, and points on it.
  * Points carry their own accessible names; the figure around the map supplies the text alternative.
  */
-import { useEffect, useMemo, useState } from "react";
+import { useEffect, useMemo, useRef, useState, type PointerEvent as ReactPointerEvent } from "react";
 import { geoEqualEarth, geoGraticule10, geoMercator, geoPath } from "d3-geo";
 import { feature, mesh } from "topojson-client";
 import type { Topology, GeometryCollection } from "topojson-specification";
@@ -16,6 +16,28 @@ export interface MapPoint {
   colour: string;
   title: string;
   href?: string;
+}
+
+/** An area in degrees (GeoJSON bbox order); `west > east` crosses the antimeridian. */
+export interface MapArea {
+  west: number;
+  south: number;
+  east: number;
+  north: number;
+}
+
+/** The area's outline as lon/lat points along its parallels and meridians (so it bends with the projection). */
+function areaRing(a: MapArea): Array<[number, number]> {
+  const east = a.west > a.east ? a.east + 360 : a.east;
+  const steps = Math.max(2, Math.ceil((east - a.west) / 2));
+  const ring: Array<[number, number]> = [];
+  const wrap = (x: number) => (x > 180 ? x - 360 : x);
+  for (let i = 0; i <= steps; i++) ring.push([wrap(a.west + ((east - a.west) * i) / steps), a.south]);
+  const up = Math.max(2, Math.ceil((a.north - a.south) / 2));
+  for (let i = 0; i <= up; i++) ring.push([wrap(east), a.south + ((a.north - a.south) * i) / up]);
+  for (let i = steps; i >= 0; i--) ring.push([wrap(a.west + ((east - a.west) * i) / steps), a.north]);
+  for (let i = up; i >= 0; i--) ring.push([a.west, a.south + ((a.north - a.south) * i) / up]);
+  return ring;
 }
 
 interface Outline {
@@ -55,6 +77,9 @@ export function WorldMap({
   radius = 4,
   onPointActivate,
   region,
+  area,
+  drawing = false,
+  onAreaDrawn,
 }: {
   points: MapPoint[];
   width?: number;
@@ -62,7 +87,14 @@ export function WorldMap({
   radius?: number;
   onPointActivate?: (p: MapPoint) => void;
   region?: number;
+  /** An area to outline on the map. */
+  area?: MapArea | null;
+  /** While true, dragging over the map draws an area, handed to onAreaDrawn in degrees. */
+  drawing?: boolean;
+  onAreaDrawn?: (a: MapArea) => void;
 }) {
+  const svgRef = useRef<SVGSVGElement>(null);
+  const [drag, setDrag] = useState<{ x0: number; y0: number; x1: number; y1: number } | null>(null);
   const [outline, setOutline] = useState<Outline | null>(null);
   useEffect(() => {
     let live = true;
@@ -101,8 +133,46 @@ export function WorldMap({
     });
     return { projection, path: geoPath(projection) };
   }, [width, height, region, points]);
+  const toSvg = (e: ReactPointerEvent): [number, number] => {
+    const m = svgRef.current?.getScreenCTM();
+    if (!m) return [0, 0];
+    const p = new DOMPoint(e.clientX, e.clientY).matrixTransform(m.inverse());
+    return [Math.max(0, Math.min(width, p.x)), Math.max(0, Math.min(height, p.y))];
+  };
+  /** The lon/lat bounds of a dragged screen rectangle: its edges sampled and un-projected. */
+  const finish = (d: { x0: number; y0: number; x1: number; y1: number }) => {
+    const [xa, xb] = [Math.min(d.x0, d.x1), Math.max(d.x0, d.x1)];
+    const [ya, yb] = [Math.min(d.y0, d.y1), Math.max(d.y0, d.y1)];
+    if (xb - xa < 4 || yb - ya < 4 || !projection.invert) return;
+    const lons: number[] = [];
+    const lats: number[] = [];
+    for (let i = 0; i <= 24; i++) {
+      for (const [x, y] of [
+        [xa + ((xb - xa) * i) / 24, ya],
+        [xa + ((xb - xa) * i) / 24, yb],
+        [xa, ya + ((yb - ya) * i) / 24],
+        [xb, ya + ((yb - ya) * i) / 24],
+      ]) {
+        const ll = projection.invert([x, y]);
+        if (!ll || !Number.isFinite(ll[0]) || !Number.isFinite(ll[1]) || Math.abs(ll[0]) > 180.0001 || Math.abs(ll[1]) > 90.0001) continue;
+        lons.push(ll[0]);
+        lats.push(ll[1]);
+      }
+    }
+    if (!lons.length) return;
+    const r = (v: number) => Math.round(v * 100) / 100;
+    onAreaDrawn?.({ west: r(Math.max(-180, Math.min(...lons))), south: r(Math.max(-90, Math.min(...lats))), east: r(Math.min(180, Math.max(...lons))), north: r(Math.min(90, Math.max(...lats))) });
+  };
+  const areaPath = area
+    ? areaRing(area)
+        .map((ll) => projection(ll))
+        .filter((xy): xy is [number, number] => !!xy)
+        .map(([x, y], i) => `${i ? "L" : "M"}${x.toFixed(1)},${y.toFixed(1)}`)
+        .join("") + "Z"
+    : null;
   return (
     <svg
+      ref={svgRef}
       viewBox={`0 0 ${width} ${height}`}
       className="h-auto w-full"
       role={interactive ? "group" : "img"}
@@ -176,6 +246,45 @@ export function WorldMap({
           <g key={p.id}>{dot}</g>
         );
       })}
+      {areaPath && <path d={areaPath} fill="#b88a1c" fillOpacity={0.12} stroke="#b88a1c" strokeWidth={2} strokeDasharray="6 3" data-testid="map-area" pointerEvents="none" />}
+      {drawing && (
+        <rect
+          width={width}
+          height={height}
+          fill="#000"
+          fillOpacity={0}
+          pointerEvents="all"
+          style={{ cursor: "crosshair", touchAction: "none" }}
+          data-testid="map-draw-surface"
+          onPointerDown={(e) => {
+            e.currentTarget.setPointerCapture(e.pointerId);
+            const [x, y] = toSvg(e);
+            setDrag({ x0: x, y0: y, x1: x, y1: y });
+          }}
+          onPointerMove={(e) => {
+            if (!drag) return;
+            const [x, y] = toSvg(e);
+            setDrag({ ...drag, x1: x, y1: y });
+          }}
+          onPointerUp={() => {
+            if (drag) finish(drag);
+            setDrag(null);
+          }}
+        />
+      )}
+      {drag && (
+        <rect
+          x={Math.min(drag.x0, drag.x1)}
+          y={Math.min(drag.y0, drag.y1)}
+          width={Math.abs(drag.x1 - drag.x0)}
+          height={Math.abs(drag.y1 - drag.y0)}
+          fill="#b88a1c"
+          fillOpacity={0.15}
+          stroke="#b88a1c"
+          strokeWidth={1.5}
+          pointerEvents="none"
+        />
+      )}
     </svg>
   );
 }

@@ -49,6 +49,7 @@ const FILTER_TITLES: Record<ListFilter, string> = {
   habitat: "Habitat",
   country: "Country",
   licence: "Licence",
+  continent: "Continent",
 };
 
 const SORT_OF_COLUMN: Record<string, string> = { ref: "accession", title: "title", interactionType: "type", S: "S", C: "C", Q: "Q", z: "z", year: "year" };
@@ -93,7 +94,7 @@ function FacetGroup({ name, values, chosen, onToggle, stale }: { name: ListFilte
                 }}
               />
               <label htmlFor={id} className="flex flex-1 justify-between gap-2 text-stone-800">
-                <span>{valueLabel(name, f.value)}</span>
+                <span>{f.label ?? valueLabel(name, f.value)}</span>
                 <span className={`tabular-nums ${stale ? "text-stone-400" : "text-stone-600"}`} aria-label={stale ? "count updating" : `${f.count} networks`}>
                   {f.count}
                 </span>
@@ -460,6 +461,24 @@ export function CataloguePage({ actions }: { actions?: (ctx: CatalogueActionsCon
               <FacetGroup key={name} name={name} values={facets?.[name] ?? []} chosen={listValues(params, name)} stale={stale} onToggle={(v) => update(toggleValue(params, name, v))} />
             ))}
             <RangeFilters params={params} facets={facets} apiProblems={apiProblems} onApply={(next) => update(withParams(params, { ...next, page: undefined }))} />
+            <div className="border-t border-stone-200 pt-3 text-sm" data-testid="area-filter">
+              <h3 className="font-bold text-stone-800">Area on the map</h3>
+              {params.get("bbox") ? (
+                <>
+                  <p className="mt-1 text-stone-800">
+                    West, south, east, north: <span className="font-mono">{params.get("bbox")!.split(",").join(", ")}</span>
+                  </p>
+                  <button type="button" className="mt-1 font-semibold text-stone-700 underline" onClick={() => update(withParams(params, { bbox: undefined, page: undefined }))}>
+                    Clear area
+                  </button>
+                </>
+              ) : (
+                <p className="mt-1 text-xs text-stone-600">None chosen. Continents come from the country code (one continent per country).</p>
+              )}
+              <Link className="mt-1 block font-semibold text-moss-700 underline" to={`${paths.coverageMap.href()}${filterOnly(params).toString() ? `?${filterOnly(params).toString()}` : ""}`}>
+                {params.get("bbox") ? "Change the area on the map" : "Choose an area on the map"}
+              </Link>
+            </div>
             {facets && facets.notRecorded.length > 0 && (
               <div className="text-sm">
                 <h3 className="font-semibold text-stone-800">Not recorded</h3>

@@ -2,10 +2,10 @@
  * The catalogue's state lives in the URL (a shareable link): the same parameter names as the API.
  * Multi-valued filters are comma-separated.
  */
-export const LIST_FILTERS = ["interactionType", "kind", "weighted", "habitat", "country", "licence"] as const;
+export const LIST_FILTERS = ["interactionType", "kind", "weighted", "habitat", "continent", "country", "licence"] as const;
 export type ListFilter = (typeof LIST_FILTERS)[number];
 export interface RangeFilter {
-  key: "year" | "nodes" | "connectance" | "Q" | "z" | "p";
+  key: "year" | "nodes" | "connectance" | "Q" | "z" | "p" | "latitude" | "elevation";
   label: string;
   min: string;
   max: string;
@@ -22,6 +22,8 @@ export const RANGE_FILTERS: readonly RangeFilter[] = [
   { key: "Q", label: "Modularity (Q)", min: "qMin", max: "qMax", step: "0.01" },
   { key: "z", label: "z against the chosen null model", min: "zMin", max: "zMax", step: "0.1" },
   { key: "p", label: "p against the chosen null model", min: "pMin", max: "pMax", step: "0.01", lo: 0, hi: 1 },
+  { key: "latitude", label: "Latitude (°, south negative)", min: "latitudeMin", max: "latitudeMax", step: "0.1", lo: -90, hi: 90 },
+  { key: "elevation", label: "Elevation (m)", min: "elevationMin", max: "elevationMax", step: "1", lo: -500, hi: 9000 },
 ];
 export const PAGE_SIZE = 25;
 export { CATALOGUE_PAGE_SIZES } from "../../../../../shared/types/catalogue";

@@ -1,13 +1,14 @@
 /**
  * /map — every catalogue network matching the filters in the URL (the catalogue's own parameters) on the
- * shipped world outline, so that geographic gaps show at a glance.
+ * shipped world outline, so that geographic gaps show at a glance. An area (bbox) is drawn by dragging over
+ * the map or typed as four edges; it filters the map and goes with the link to the catalogue.
  */
-import { useMemo } from "react";
+import { useMemo, useState } from "react";
 import { Link, useNavigate, useSearchParams } from "react-router-dom";
 import { paths } from "../../../config/paths";
 import { ChartFigure } from "../../../components/charts/chart-figure";
 import { Legend } from "../../../components/charts/legend";
-import { WorldMap, type MapPoint } from "../../../components/charts/world-map";
+import { WorldMap, type MapArea, type MapPoint } from "../../../components/charts/world-map";
 import { interactionTypeColour, interactionTypeLabel } from "../../../components/charts/theme";
 import { useMapPoints } from "../api/get-map-points";
 
@@ -29,7 +30,92 @@ const FILTER_NAMES: Record<string, string> = {
   qMax: "max Q",
   zMin: "min z",
   zMax: "max z",
+  pMin: "min p",
+  pMax: "max p",
+  nullModel: "null model",
+  continent: "continent",
+  latitudeMin: "min latitude",
+  latitudeMax: "max latitude",
+  elevationMin: "min elevation (m)",
+  elevationMax: "max elevation (m)",
+  bbox: "area (W,S,E,N)",
 };
+
+function parseArea(v: string | null): MapArea | null {
+  const parts = (v ?? "").split(",").map(Number);
+  if (parts.length !== 4 || parts.some((n) => !Number.isFinite(n))) return null;
+  const [west, south, east, north] = parts;
+  return { west, south, east, north };
+}
+
+/** The area as four numbers, typed or drawn; applied to the URL (so the catalogue link carries it). */
+function AreaPanel({ area, drawing, onDrawing, onApply }: { area: MapArea | null; drawing: boolean; onDrawing: (on: boolean) => void; onApply: (a: MapArea | null) => void }) {
+  const [problem, setProblem] = useState<string | null>(null);
+  const sides = [
+    ["west", "West (longitude)"],
+    ["south", "South (latitude)"],
+    ["east", "East (longitude)"],
+    ["north", "North (latitude)"],
+  ] as const;
+  return (
+    <form
+      key={area ? `${area.west},${area.south},${area.east},${area.north}` : "none"}
+      aria-label="Area"
+      className="mt-3 flex flex-wrap items-end gap-3 border-t border-stone-200 pt-3"
+      noValidate
+      onSubmit={(e) => {
+        e.preventDefault();
+        const f = new FormData(e.currentTarget);
+        const v = Object.fromEntries(sides.map(([k]) => [k, Number(String(f.get(k) ?? "").trim() || NaN)])) as unknown as MapArea;
+        if (sides.some(([k]) => !Number.isFinite(v[k]))) return setProblem("Give all four edges in degrees, or draw the area on the map.");
+        if (Math.abs(v.west) > 180 || Math.abs(v.east) > 180) return setProblem("Longitudes lie between −180 and 180.");
+        if (Math.abs(v.south) > 90 || Math.abs(v.north) > 90) return setProblem("Latitudes lie between −90 and 90.");
+        if (v.south > v.north) return setProblem(`The south edge (${v.south}) is north of the north edge (${v.north}).`);
+        setProblem(null);
+        onApply(v);
+      }}
+    >
+      <p className="w-full text-sm text-stone-700">
+        Choose an area by dragging over the map after “Draw an area”, or type its edges (degrees; south and west negative; a west edge greater than the east edge
+        crosses the 180° meridian). The area is matched against the public coordinates, which are generalised for sensitive sites.
+      </p>
+      {sides.map(([k, label]) => (
+        <label key={k} className="text-sm font-semibold text-stone-800">
+          {label}
+          <input
+            name={k}
+            type="number"
+            step="any"
+            defaultValue={area ? String(area[k]) : ""}
+            aria-invalid={problem ? true : undefined}
+            className="mt-1 block w-28 rounded border border-stone-400 px-2 py-1 font-normal"
+          />
+        </label>
+      ))}
+      <button type="submit" className="rounded border border-moss-700 px-3 py-1.5 text-sm font-semibold text-moss-700 hover:bg-moss-50">
+        Apply area
+      </button>
+      <button
+        type="button"
+        aria-pressed={drawing}
+        className={`rounded px-3 py-1.5 text-sm font-semibold ${drawing ? "bg-lichen-600 text-white" : "border border-moss-700 text-moss-700 hover:bg-moss-50"}`}
+        onClick={() => onDrawing(!drawing)}
+      >
+        {drawing ? "Drawing: drag over the map" : "Draw an area"}
+      </button>
+      {area && (
+        <button type="button" className="text-sm font-semibold text-stone-700 underline" onClick={() => onApply(null)}>
+          Clear area
+        </button>
+      )}
+      {problem && (
+        <p role="alert" className="w-full text-sm font-semibold text-red-800">
+          {problem}
+        </p>
+      )}
+    </form>
+  );
+}
 
 export function CoverageMapPage() {
   const [params, setParams] = useSearchParams();
@@ -58,6 +144,15 @@ export function CoverageMapPage() {
   for (const r of rows) byCountry.set(r.countryCode ?? "—", (byCountry.get(r.countryCode ?? "—") ?? 0) + 1);
   const lat = { north: rows.filter((r) => r.latitude > 23.5).length, tropics: rows.filter((r) => Math.abs(r.latitude) <= 23.5).length, south: rows.filter((r) => r.latitude < -23.5).length };
   const current = params.get("interactionType") ?? "";
+  const area = parseArea(params.get("bbox"));
+  const [drawing, setDrawing] = useState(false);
+  const applyArea = (a: MapArea | null) => {
+    const p = new URLSearchParams(params);
+    if (a) p.set("bbox", [a.west, a.south, a.east, a.north].join(","));
+    else p.delete("bbox");
+    setDrawing(false);
+    setParams(p);
+  };
 
   return (
     <div className="space-y-6">
@@ -102,9 +197,10 @@ export function CoverageMapPage() {
             {[...filters].length === 0 && <li className="text-stone-700">No filters: the whole catalogue.</li>}
           </ul>
           <Link className="text-sm font-semibold text-moss-700 underline" to={`${paths.catalogue.href()}${query ? `?${query}` : ""}`}>
-            Refine these filters in the catalogue
+            {area ? "Show these networks in the catalogue" : "Refine these filters in the catalogue"}
           </Link>
         </div>
+        <AreaPanel area={area} drawing={drawing} onDrawing={setDrawing} onApply={applyArea} />
       </section>
       {q.isError && (
         <p role="alert" className="rounded border border-red-300 bg-red-50 p-3 text-red-900">
@@ -132,7 +228,14 @@ export function CoverageMapPage() {
           rows: rows.map((r) => [r.ref, r.placeName ?? "", r.countryCode ?? "", r.latitude, r.longitude, interactionTypeLabel[r.interactionType] ?? r.interactionType]),
         }}
       >
-        <WorldMap points={points} label={`World map with ${points.length} sampled networks`} onPointActivate={(p) => p.href && navigate(p.href)} />
+        <WorldMap
+          points={points}
+          label={`World map with ${points.length} sampled networks`}
+          onPointActivate={(p) => p.href && navigate(p.href)}
+          area={area}
+          drawing={drawing}
+          onAreaDrawn={applyArea}
+        />
         <Legend title="Interaction type" items={types.map((t) => ({ label: interactionTypeLabel[t] ?? t, colour: interactionTypeColour[t] ?? "#000" }))} />
       </ChartFigure>
     </div>
