@@ -1,5 +1,7 @@
 /**
  * Benchmark of the metrics pipeline (npm run bench:pipeline). It prints figures; it is not a test.
+ * `npm run bench:pipeline -- --demo [--where]` measures a newcomer's first start instead: the time from a
+ * healthy server to every demo figure, null models included (scripts/bench-pipeline-demo.ts).
  *
  * On its own throwaway database of the development test cluster (tanglebank_test_bench, via
  * scripts/dev-db.sh; BENCH_DATABASE_URL overrides) it seeds BENCH_NETWORKS (default 200) published
@@ -18,6 +20,10 @@
  * networks under 200 nodes multiplies their cost by up to 50. Every option is printed with the figures.
  */
 import { execFileSync } from "node:child_process";
+
+// `--demo`: the first start with the demo scenario instead (bench-pipeline-demo.ts; it ends the process).
+if (process.argv.includes("--demo")) await import("./bench-pipeline-demo");
+
 import { readFileSync } from "node:fs";
 import { availableParallelism, loadavg } from "node:os";
 import { createRng } from "../shared/network/random";
