@@ -13,9 +13,9 @@
  * restarts go to the lowest r, and the returned partition is numbered 0..K−1 in order of first appearance
  * over the nodes (bipartite: rows first, then columns). Same input + settings + seed → same partition.
  *
- * Annealing bound: "auto" anneals when the network has at most ANNEALING_MAX_NODES = 250 nodes with
- * links. A temperature costs f·S² single-node moves (62,500 at S = 250) and a run takes a few hundred
- * temperatures, i.e. around a second at S = 250 and growing as S²; every null replicate is optimized the
+ * Annealing bound: "auto" anneals when the network has at most ANNEALING_MAX_NODES = 200 nodes with
+ * links. A temperature costs f·S² single-node moves (40,000 at S = 200) and a run takes a hundred to a few
+ * hundred temperatures, i.e. about 0.2 s at S = 200 and growing as S²; every null replicate is optimized the
  * same way, so beyond this size annealing would dominate the cost of a significance test while Leiden
  * restarts alone already reach the optimum of test networks of that size.
  *
