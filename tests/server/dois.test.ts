@@ -20,7 +20,7 @@ import type { MailCatcher } from "../../server/src/lib/mail-catcher";
 import { resetDatabase } from "../setup/db";
 import { agentFor, createUser, type SignedInAgent } from "./support/accounts";
 import { startMailCatcher } from "./support/stack";
-import { decide, makeDraft, submit } from "./support/deposit-helpers";
+import { decide, makeDraft, studyMeta, submit } from "./support/deposit-helpers";
 import { waitFor } from "./support/wait";
 import { unzip } from "./support/unzip";
 import { datasetHtmlRenderer } from "../../server/src/api/network-views/dataset-html";
@@ -224,6 +224,17 @@ describe("registration after publishing", () => {
     expect(datacite.creations.get(conceptDoi)).toBe(1);
     const page = await request(app).get(`/api/v1/datasets/${accession}/versions/1`);
     expect(page.body.dois.version).toMatchObject({ doi: v1Doi, state: "registered" });
+  });
+
+  it("a curator's correction of published metadata reaches the version DOI and the concept DOI", async () => {
+    const versionId = (await curator.agent.get(`/api/v1/reviews?state=published&q=${accession}`)).body.data.find((i: { number: number }) => i.number === 2)?.versionId as number;
+    expect(versionId).toBeGreaterThan(0);
+    const corrected = "Flower visitors of the Verrin Hills heath, second season (corrected)";
+    const r = await curator.agent.put(`/api/v1/reviews/${versionId}/metadata`).set("x-csrf-token", curator.csrf).send({ metadata: studyMeta({ title: corrected }) });
+    expect(r.status).toBe(200);
+    const titleOf = (doi: string) => (attrs(doi).titles as Array<{ title: string }>)[0].title;
+    await waitFor(async () => titleOf(`${conceptDoi}.v2`) === corrected && titleOf(conceptDoi) === corrected, "the corrected title in the DOI metadata", 30_000);
+    expect(datacite.creations.get(`${conceptDoi}.v2`)).toBe(1);
   });
 
   it("withdrawal keeps every DOI findable and resolving to the tombstone page, with the reason in its metadata", async () => {

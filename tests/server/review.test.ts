@@ -149,7 +149,9 @@ describe("decisions", () => {
     // Published versions are frozen.
     expect((await owner.agent.put(`/api/v1/deposits/${id}/metadata`).set("x-csrf-token", owner.csrf).send({ metadata: studyMeta() })).status).toBe(409);
     expect((await owner.agent.post(`/api/v1/deposits/${id}/networks`).set("x-csrf-token", owner.csrf).attach("files", Buffer.from(SMALL_MATRIX), "x.csv")).status).toBe(409);
-    expect((await curatorA.agent.put(`/api/v1/reviews/${id}/metadata`).set("x-csrf-token", curatorA.csrf).send({ metadata: studyMeta() })).status).toBe(409);
+    // a published network stays as published (its study metadata may be corrected: see below)
+    const pubNet = (await curatorA.agent.get(`/api/v1/reviews/${id}`)).body.networks[0].id;
+    expect((await curatorA.agent.patch(`/api/v1/reviews/${id}/networks/${pubNet}`).set("x-csrf-token", curatorA.csrf).send({ metadata: networkMeta({ habitat: "changed" }) })).status).toBe(409);
     expect((await owner.agent.delete(`/api/v1/deposits/${id}`).set("x-csrf-token", owner.csrf)).status).toBe(409);
   });
 
@@ -269,6 +271,31 @@ describe("decisions", () => {
     const ok = await decide(curatorA, id, { decision: "publish" });
     expect(ok.status).toBe(200);
     expect(ok.body.version.state).toBe("published");
+  });
+
+  it("a curator corrects a published version's study metadata: the public read follows, audited; licence and completeness are kept", async () => {
+    const { versionId, accession } = await published();
+    const lock = (await curatorB.agent.get(`/api/v1/reviews/${versionId}`)).body.lockVersion;
+    const title = "Flower visitors of the Verrin Hills heath, 2019";
+    const put = (who: SignedInAgent, metadata: unknown) => who.agent.put(`/api/v1/reviews/${versionId}/metadata`).set("x-csrf-token", who.csrf).send({ metadata });
+    // the depositor cannot; another curator can
+    expect((await put(owner, studyMeta({ title }))).status).toBe(403);
+    const fixed = await curatorB.agent.put(`/api/v1/reviews/${versionId}/metadata`).set("x-csrf-token", curatorB.csrf).send({ metadata: studyMeta({ title }), lockVersion: lock });
+    expect(fixed.status).toBe(200);
+    const pub = await visitor.agent.get(`/api/v1/datasets/${accession}`);
+    expect(pub.body.metadata.title).toBe(title);
+    expect(pub.body.version.state).toBe("published");
+    const audit = await AuditLog.findOne({ where: { action: "dataset.metadata.correct", entityId: String(versionId) } });
+    expect(audit?.details).toMatchObject({ before: { title: studyMeta().title }, after: { title } });
+    // the licence the data were given out under stays
+    const licence = await put(curatorB, studyMeta({ title, licence: studyMeta().licence === "CC0-1.0" ? "CC-BY-4.0" : "CC0-1.0" }));
+    expect(licence.status).toBe(422);
+    expect(licence.body.details.map((d: { path: string }) => d.path)).toEqual(["/licence"]);
+    // published metadata stays complete: an emptied title is refused and nothing changes
+    const empty = await put(curatorB, studyMeta({ title: "" }));
+    expect(empty.status).toBe(422);
+    expect(empty.body.details.some((d: { path: string }) => d.path.startsWith("/study/title"))).toBe(true);
+    expect((await DatasetVersion.findByPk(versionId))!.metadata.title).toBe(title);
   });
 
   it("gives unique, sequential accessions when several datasets are published at once; never reassigns", async () => {

@@ -567,11 +567,16 @@ export async function startNewVersion(accession: string, viewer: Viewer): Promis
 }
 
 /** Curators correct metadata of submissions (submitted or changes requested), never of published versions nor of their own deposits. */
-export async function loadCuratorEditable(versionId: number, viewer: Viewer, t: Transaction): Promise<{ dataset: Dataset; version: DatasetVersion }> {
+/**
+ * A version a curator may correct: a submission (submitted or changes requested), or with `published` also a
+ * published version (its study metadata only: the caller keeps data and licence fixed).
+ */
+export async function loadCuratorEditable(versionId: number, viewer: Viewer, t: Transaction, opts: { published?: boolean } = {}): Promise<{ dataset: Dataset; version: DatasetVersion }> {
   if (!hasRole(viewer, "curator")) throw ApiError.forbidden("This needs the curator role.");
   const r = await loadVisibleVersion(versionId, viewer, t, true);
   if (r.dataset.ownerId === viewer.id) throw ApiError.forbidden("You cannot correct your own deposit as a curator; another curator reviews it (edit it yourself when changes are requested).");
-  if (!["submitted", "changes_requested"].includes(r.version.state)) {
+  const states = opts.published ? ["submitted", "changes_requested", "published"] : ["submitted", "changes_requested"];
+  if (!states.includes(r.version.state)) {
     throw ApiError.conflict(r.version.state === "draft" ? "Drafts are the depositor's until submitted." : stateMessage(r.version.state));
   }
   return r;

@@ -209,16 +209,34 @@ export async function decide(versionId: number, viewer: Viewer, input: { decisio
   return reviewDetail(versionId, viewer);
 }
 
-/** A curator corrects the study metadata of a submission (audited with before and after). */
+/**
+ * A curator corrects the study metadata of a submission, or of a published version (a misspelt creator, a
+ * missing iD, the source publication's DOI): audited with before and after. A published version's
+ * correction must leave its metadata valid and its licence as published (data given out under a licence
+ * keep it; a new version can change it); the catalogue and the DOIs' metadata follow it.
+ */
 export async function correctStudyMetadata(versionId: number, viewer: Viewer, metadata: unknown, lockVersion?: number): Promise<ReviewDetail> {
   if (!metadata || typeof metadata !== "object" || Array.isArray(metadata)) throw ApiError.badRequest("Study metadata must be a JSON object.", [{ path: "/metadata", message: "A JSON object." }]);
   await sequelize().transaction(async (t) => {
-    const { dataset, version } = await loadCuratorEditable(versionId, viewer, t);
+    const { dataset, version } = await loadCuratorEditable(versionId, viewer, t, { published: true });
     if (lockVersion !== undefined && lockVersion !== version.lockVersion) throw ApiError.conflict("The submission changed since you opened it; reload and correct again.");
+    const published = version.state === "published";
     const before = version.metadata;
     const after = withNormalisedDoi(metadata as Record<string, unknown>);
+    if (published && after.licence !== (before as Record<string, unknown>).licence) {
+      throw ApiError.unprocessable("The licence of a published version cannot change: its data were given out under it. Start a new version to publish under another licence.", [
+        { path: "/licence", message: `Published under ${String((before as Record<string, unknown>).licence)}; keep it.` },
+      ]);
+    }
     await version.update({ metadata: after, lockVersion: version.lockVersion + 1 }, { transaction: t });
-    await audit({ actorId: viewer.id, action: "review.metadata.correct", entityType: "dataset_version", entityId: version.id, datasetId: dataset.id, details: { before, after } }, t);
+    if (published) {
+      const nets = await Network.findAll({ where: { versionId: version.id }, order: [["position", "ASC"]], transaction: t });
+      const problems = submissionProblems(version, nets).filter((p) => p.section === "study");
+      if (problems.length) throw ApiError.unprocessable(`The correction was not saved: published metadata must stay complete (${problems.length} problem${problems.length === 1 ? "" : "s"}).`, problems);
+      await notifyCatalogueChanged(dataset.id, t);
+      await requestDoiSync(dataset.id, t);
+    }
+    await audit({ actorId: viewer.id, action: published ? "dataset.metadata.correct" : "review.metadata.correct", entityType: "dataset_version", entityId: version.id, datasetId: dataset.id, details: { before, after } }, t);
   });
   return reviewDetail(versionId, viewer);
 }

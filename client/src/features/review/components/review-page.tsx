@@ -35,6 +35,7 @@ const ACTION_LABELS: Record<string, string> = {
   "review.request_changes": "Changes requested",
   "review.decline": "Declined",
   "review.metadata.correct": "Study metadata corrected by a curator",
+  "dataset.metadata.correct": "Published study metadata corrected by a curator",
   "review.network.correct": "Network metadata corrected by a curator",
   "version.create": "New version started",
   "dataset.withdraw": "Withdrawn",
@@ -89,7 +90,8 @@ function NetworkBlock({ r, n }: { r: ReviewDetail; n: NetworkSummary }) {
   const m = n.metadata;
   const loc = m.locality;
   const dup = r.duplicates.find((d) => d.networkId === n.id);
-  const canCorrect = r.version.state === "submitted" || r.version.state === "changes_requested";
+  const published = r.version.state === "published";
+  const canCorrect = r.version.state === "submitted" || r.version.state === "changes_requested" || published;
   return (
     <li className="rounded-lg bg-white p-5 shadow-sm ring-1 ring-stone-200">
       <div className="flex flex-wrap gap-5">
@@ -191,7 +193,8 @@ function StudyBlock({ r }: { r: ReviewDetail }) {
   const [draft, setDraft] = useState<StudyDraft>(r.metadata as StudyDraft);
   const save = useReviewMutation((meta: unknown) => correctStudy(r.versionId, meta, r.lockVersion));
   const m = r.metadata;
-  const canCorrect = r.version.state === "submitted" || r.version.state === "changes_requested";
+  const published = r.version.state === "published";
+  const canCorrect = r.version.state === "submitted" || r.version.state === "changes_requested" || published;
   return (
     <section aria-labelledby="study-h" className="rounded-lg bg-white p-5 shadow-sm ring-1 ring-stone-200">
       <h2 id="study-h" className="text-xl font-bold text-moss-700">
@@ -224,6 +227,12 @@ function StudyBlock({ r }: { r: ReviewDetail }) {
             save.mutate(prune(draft), { onSuccess: () => setEditing(false) });
           }}
         >
+          {published && (
+            <p className="mb-3 rounded border border-amber-300 bg-amber-50 p-3 text-sm text-stone-900">
+              This version is published: a correction changes its page, its citation and the catalogue at once, and its DOI metadata follow. The data and
+              the licence stay as published (start a new version to change them); the correction is recorded in the history with before and after.
+            </p>
+          )}
           <StudyForm value={draft} onChange={setDraft} errors={studyErrors(draft)} />
           {save.error && <div className="mt-3"><Alert tone="error" title={save.error.message} /></div>}
           <div className="mt-3 flex gap-2">
