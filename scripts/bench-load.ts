@@ -101,7 +101,7 @@ function routes(t: { datasets: Target[] }, seed: number): Route[] {
   const TYPES = ["pollination", "seed-dispersal", "host-parasitoid", "herbivory"];
   const WORDS = ["heath", "meadow", "bee", "fen", "verrin", "moor", "coast", "forest"];
   return [
-    { name: "catalogue (random filters)", method: "GET", path: () => `/api/v1/catalogue?connectanceMin=${(r() * 0.3).toFixed(5)}&interactionType=${pick(TYPES)}&sort=${pick(["z", "nodes", "connectance", "title"])}&page=${1 + Math.floor(r() * 3)}&pageSize=25` },
+    { name: "catalogue (random filters)", method: "GET", path: () => `/api/v1/catalogue?connectanceMin=${(r() * 0.3).toFixed(5)}&interactionType=${pick(TYPES)}&sort=${pick(["S", "C", "title", "accession"])}&page=${1 + Math.floor(r() * 3)}&pageSize=25` },
     { name: "search", method: "GET", path: () => `/api/v1/catalogue?q=${pick(WORDS)}&sort=relevance` },
     { name: "dataset JSON", method: "GET", path: () => `/api/v1/datasets/${pick(t.datasets).accession}` },
     { name: "network view", method: "GET", path: () => `/api/v1/network-views/${net()}` },

@@ -2,6 +2,7 @@
  * Hostile and careless request bodies through HTTP: each gets a 400/415/422 that says what is wrong and
  * where, never a 500, and nothing is written (the drafts and network counts stay as they were).
  */
+import request from "supertest";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { createApp } from "../../server/src/app";
 import { shutdownServerResources } from "../../server/src/index";
@@ -101,5 +102,20 @@ describe("multipart fields", () => {
     const res = await post(`/deposits/${c.body.versionId}/networks`).attach("files", Buffer.from("source,target\nHea\u0000ther,bee\n"), "nul.csv");
     expect(res.status).toBe(422);
     expect(res.body.details[0].file).toBe("nul.csv");
+  });
+});
+
+describe("CSRF only where a session cookie could be forged", () => {
+  it("a script without cookies may ask for a bundle estimate; sign-in routes and cookie-bearing requests still need the token", async () => {
+    const anon = await request(app).post("/api/v1/bundles/estimate").send({ refs: [] });
+    expect(anon.body.code).not.toBe("csrf_failed");
+    expect(anon.status).toBeLessThan(500);
+    const signOut = await request(app).post("/api/v1/auth/sign-out").send({});
+    expect(signOut.status).toBe(403);
+    const withCookie = await owner.agent.post("/api/v1/bundles/estimate").send({ refs: [] });
+    expect(withCookie.status).toBe(403);
+    expect(withCookie.body.code).toBe("csrf_failed");
+    const draft = await request(app).post("/api/v1/deposits").send({ metadata: {} });
+    expect(draft.status).toBe(401); // no cookie, no session: not signed in, nothing to forge
   });
 });
