@@ -316,7 +316,7 @@ describe("where: region filters", () => {
     await page.getByRole("heading", { name: /28 of 28 matching networks placed/ }).waitFor();
     await page.getByRole("button", { name: "Draw an area" }).click();
     // drag a box around the southern African point
-    const dot = page.locator("svg a", { has: page.locator("title", { hasText: "Fynbos slope" }) }).first();
+    const dot = page.getByRole("link", { name: /^1 network at Kogel Ridge, ZA/ });
     await dot.scrollIntoViewIfNeeded();
     const b = (await dot.boundingBox())!;
     const [cx, cy] = [b.x + b.width / 2, b.y + b.height / 2];
@@ -356,5 +356,28 @@ describe("where: region filters", () => {
     await areaBox.getByText("-10, 50, 30, 70").waitFor();
     await areaBox.getByRole("button", { name: "Clear area" }).click();
     await page.getByRole("heading", { name: "28 networks" }).waitFor();
+  });
+});
+
+describe("coverage map: networks at one site", () => {
+  it("groups networks at the same locality into one marker with their count, and lists them", async () => {
+    const { page } = browser;
+    await page.goto(`${stack.url}/map`);
+    await page.locator('svg[data-map-ready="true"]').waitFor();
+    await page.getByRole("heading", { name: /28 of 28 matching networks placed/ }).waitFor();
+    // 27 networks share the Norwegian site (the same public coordinates), one is in South Africa
+    const markers = page.locator("svg g[data-site-count]");
+    await expect.poll(() => markers.count()).toBe(2);
+    expect((await markers.evaluateAll((els) => els.map((e) => Number(e.getAttribute("data-site-count"))))).sort((a, b) => a - b)).toEqual([1, 27]);
+    const big = page.getByRole("link", { name: /^27 networks at Verrin Hills, NO: 25 Pollination, 2 Seed dispersal$/ });
+    await big.click();
+    const panel = page.getByTestId("site-panel");
+    await panel.getByRole("heading", { name: "27 networks at Verrin Hills, NO" }).waitFor();
+    expect(await panel.getByRole("link").count()).toBe(27);
+    await panel.getByText(ref(coast, 1)).waitFor();
+    await screenshot(page, "map-sites");
+    await axeCheck(page, "[data-testid='site-panel']");
+    await panel.getByRole("link", { name: "Coast transect 1" }).click();
+    await page.waitForURL(new RegExp(`/datasets/${coast.accession}/v/1/networks/1$`));
   });
 });

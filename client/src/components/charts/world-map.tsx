@@ -16,6 +16,16 @@ export interface MapPoint {
   colour: string;
   title: string;
   href?: string;
+  /** Networks at this site (a grouped marker: its area grows with the count, the count is written on it). */
+  count?: number;
+  /** The mix at the site, drawn as a ring of arcs around the marker (colour and number of networks). */
+  mix?: Array<{ colour: string; n: number }>;
+}
+
+/** An arc of a ring between two angles (radians, clockwise from north). */
+function ringArc(cx: number, cy: number, r: number, a0: number, a1: number): string {
+  const p = (a: number) => `${(cx + r * Math.sin(a)).toFixed(2)},${(cy - r * Math.cos(a)).toFixed(2)}`;
+  return `M${p(a0)}A${r},${r} 0 ${a1 - a0 > Math.PI ? 1 : 0} 1 ${p(a1)}`;
 }
 
 /** An area in degrees (GeoJSON bbox order); `west > east` crosses the antimeridian. */
@@ -215,18 +225,29 @@ export function WorldMap({
       {points.map((p) => {
         const xy = projection([p.longitude, p.latitude]);
         if (!xy) return null;
+        const count = p.count ?? 1;
+        // area proportional to the number of networks at the site (radius grows with its square root)
+        const r = count > 1 ? Math.min(radius * 6, radius * (1 + Math.sqrt(count - 1) * 0.9)) : radius;
+        const total = p.mix?.reduce((t, m) => t + m.n, 0) ?? 0;
+        let angle = 0;
         const dot = (
-          <circle
-            cx={xy[0]}
-            cy={xy[1]}
-            r={radius}
-            fill={p.colour}
-            fillOpacity={0.85}
-            stroke="#1c1917"
-            strokeWidth={0.8}
-          >
-            <title>{p.title}</title>
-          </circle>
+          <g data-site-count={count}>
+            <circle cx={xy[0]} cy={xy[1]} r={r} fill={p.mix && p.mix.length > 1 ? "#fafaf9" : p.colour} fillOpacity={0.9} stroke="#1c1917" strokeWidth={0.8}>
+              <title>{p.title}</title>
+            </circle>
+            {p.mix &&
+              p.mix.length > 1 &&
+              p.mix.map((m) => {
+                const a0 = angle;
+                angle += (2 * Math.PI * m.n) / total;
+                return <path key={m.colour} d={ringArc(xy[0], xy[1], r - 1.6, a0, angle - 0.0001)} fill="none" stroke={m.colour} strokeWidth={3.2} pointerEvents="none" />;
+              })}
+            {count > 1 && (
+              <text x={xy[0]} y={xy[1]} dy="0.35em" textAnchor="middle" fontSize={Math.max(8, r * 0.9)} fontWeight={700} fill={p.mix && p.mix.length > 1 ? "#1c1917" : "#ffffff"} pointerEvents="none" aria-hidden="true">
+                {count}
+              </text>
+            )}
+          </g>
         );
         return p.href || onPointActivate ? (
           <a

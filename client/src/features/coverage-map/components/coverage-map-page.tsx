@@ -4,7 +4,7 @@
  * the map or typed as four edges; it filters the map and goes with the link to the catalogue.
  */
 import { useMemo, useState } from "react";
-import { Link, useNavigate, useSearchParams } from "react-router-dom";
+import { Link, useSearchParams } from "react-router-dom";
 import { paths } from "../../../config/paths";
 import { ChartFigure } from "../../../components/charts/chart-figure";
 import { Legend } from "../../../components/charts/legend";
@@ -119,7 +119,6 @@ function AreaPanel({ area, drawing, onDrawing, onApply }: { area: MapArea | null
 
 export function CoverageMapPage() {
   const [params, setParams] = useSearchParams();
-  const navigate = useNavigate();
   const filters = useMemo(() => {
     const p = new URLSearchParams();
     for (const [k, v] of params) if (k in FILTER_NAMES && v) p.append(k, v);
@@ -127,18 +126,40 @@ export function CoverageMapPage() {
   }, [params]);
   const query = filters.toString();
   const q = useMapPoints(query);
-  const rows = q.data?.data ?? [];
-  const points: MapPoint[] = rows.map((r) => {
-    const [acc, v, pos] = r.ref.split("/");
-    return {
-      id: r.ref,
-      latitude: r.latitude,
-      longitude: r.longitude,
-      colour: interactionTypeColour[r.interactionType] ?? "#000",
-      title: `${r.ref} ${r.name} — ${r.placeName ?? ""}${r.countryCode ? `, ${r.countryCode}` : ""} (${interactionTypeLabel[r.interactionType] ?? r.interactionType}, ${r.nNodes} nodes)`,
-      href: paths.networkView.href(acc, Number(v.slice(1)), Number(pos)),
-    };
-  });
+  const rows = useMemo(() => q.data?.data ?? [], [q.data]);
+  // one marker per site (networks at the same public coordinates), sized by how many networks it holds
+  const sites = useMemo(() => {
+    const bySite = new Map<string, typeof rows>();
+    for (const r of rows) {
+      const key = `${r.latitude},${r.longitude}`;
+      const list = bySite.get(key);
+      if (list) list.push(r);
+      else bySite.set(key, [r]);
+    }
+    return [...bySite.entries()].map(([key, nets]) => ({ key, nets }));
+  }, [rows]);
+  const [chosenSite, setChosenSite] = useState<string | null>(null);
+  const points: MapPoint[] = sites
+    .map(({ key, nets }) => {
+      const first = nets[0];
+      const mixCounts = new Map<string, number>();
+      for (const r of nets) mixCounts.set(r.interactionType, (mixCounts.get(r.interactionType) ?? 0) + 1);
+      const mix = [...mixCounts.entries()].sort((a, b) => b[1] - a[1]);
+      const place = `${first.placeName ?? "unnamed site"}${first.countryCode ? `, ${first.countryCode}` : ""}`;
+      return {
+        id: key,
+        latitude: first.latitude,
+        longitude: first.longitude,
+        colour: interactionTypeColour[mix[0][0]] ?? "#000",
+        count: nets.length,
+        mix: mix.map(([t, n]) => ({ colour: interactionTypeColour[t] ?? "#000", n })),
+        title: `${nets.length} network${nets.length === 1 ? "" : "s"} at ${place}: ${mix.map(([t, n]) => `${n} ${interactionTypeLabel[t] ?? t}`).join(", ")}`,
+        href: `#site-${key}`,
+      };
+    })
+    // big sites first, so that small ones nearby stay on top and clickable
+    .sort((a, b) => (b.count ?? 1) - (a.count ?? 1));
+  const site = sites.find((x) => x.key === chosenSite) ?? null;
   const types = [...new Set(rows.map((r) => r.interactionType))].sort();
   const byCountry = new Map<string, number>();
   for (const r of rows) byCountry.set(r.countryCode ?? "—", (byCountry.get(r.countryCode ?? "—") ?? 0) + 1);
@@ -219,7 +240,7 @@ export function CoverageMapPage() {
             ? `North of the Tropic of Cancer: ${lat.north}; in the tropics: ${lat.tropics}; south of the Tropic of Capricorn: ${lat.south}. By country: ${[...byCountry.entries()]
                 .sort((a, b) => b[1] - a[1])
                 .map(([c, n]) => `${c} ${n}`)
-                .join(", ") || "none"}. Select a point to open its network.`
+                .join(", ") || "none"}. ${sites.length} site${sites.length === 1 ? "" : "s"}: a marker's area grows with the number of networks at the site (written on it), its ring shows the interaction types; select one to list its networks.`
             : ""
         }
         table={{
@@ -231,13 +252,46 @@ export function CoverageMapPage() {
         <WorldMap
           points={points}
           label={`World map with ${points.length} sampled networks`}
-          onPointActivate={(p) => p.href && navigate(p.href)}
+          onPointActivate={(p) => setChosenSite(p.id)}
           area={area}
           drawing={drawing}
           onAreaDrawn={applyArea}
         />
         <Legend title="Interaction type" items={types.map((t) => ({ label: interactionTypeLabel[t] ?? t, colour: interactionTypeColour[t] ?? "#000" }))} />
       </ChartFigure>
+      {site && (
+        <section aria-labelledby="site-h" className="rounded-lg bg-white p-4 ring-1 ring-stone-200" data-testid="site-panel">
+          <div className="flex flex-wrap items-baseline justify-between gap-2">
+            <h2 id="site-h" className="text-lg font-bold text-moss-700">
+              {site.nets.length} network{site.nets.length === 1 ? "" : "s"} at {site.nets[0].placeName ?? "this site"}
+              {site.nets[0].countryCode ? `, ${site.nets[0].countryCode}` : ""}
+            </h2>
+            <button type="button" className="text-sm font-semibold text-stone-700 underline" onClick={() => setChosenSite(null)}>
+              Close
+            </button>
+          </div>
+          <p className="text-sm text-stone-700">
+            Public coordinates {site.nets[0].latitude}, {site.nets[0].longitude}
+            {" — "}
+            {[...new Set(site.nets.map((r) => r.interactionType))].map((t) => `${site.nets.filter((r) => r.interactionType === t).length} ${interactionTypeLabel[t] ?? t}`).join(", ")}.
+          </p>
+          <ul className="mt-2 max-h-80 space-y-1 overflow-y-auto text-sm">
+            {site.nets.map((r) => {
+              const [acc, v, pos] = r.ref.split("/");
+              return (
+                <li key={r.ref} className="flex flex-wrap items-baseline gap-2">
+                  <span aria-hidden="true" className="inline-block h-2.5 w-2.5 rounded-full" style={{ background: interactionTypeColour[r.interactionType] ?? "#000" }} />
+                  <Link className="font-semibold text-moss-700 underline" to={paths.networkView.href(acc, Number(v.slice(1)), Number(pos))}>
+                    {r.name}
+                  </Link>
+                  <span className="text-stone-700">{r.title}</span>
+                  <span className="font-mono text-xs text-stone-600">{r.ref}</span>
+                </li>
+              );
+            })}
+          </ul>
+        </section>
+      )}
     </div>
   );
 }
