@@ -74,6 +74,24 @@ describe("demo scenario", () => {
     for (const word of SEARCH_EXAMPLE.toLowerCase().split(/\s+/)) expect(text).toContain(word);
   });
 
+  it("holds a public collection that keeps its withdrawn member with the tombstone", async () => {
+    const app = createApp();
+    const [codes] = (await sequelize().query(`SELECT code FROM collections`)) as [Array<{ code: string }>, unknown];
+    expect(codes).toHaveLength(1);
+    const res = await request(app).get(`/api/v1/collections/${codes[0].code}`);
+    expect(res.status).toBe(200);
+    expect(res.body).toMatchObject({ visibility: "public", savedFrom: { kind: "filter", filter: { interactionType: "host-parasitoid" } } });
+    // every host–parasitoid network published in the scenario, counted in SQL
+    const [n] = (await sequelize().query(
+      `SELECT count(*)::int AS n FROM networks x JOIN dataset_versions v ON v.id = x.version_id
+       WHERE v.state IN ('published', 'withdrawn') AND x.metadata->>'interactionType' = 'host-parasitoid'`,
+    )) as [Array<{ n: number }>, unknown];
+    expect(res.body.memberCount).toBe(n[0].n);
+    expect(res.body.withdrawnCount).toBe(1);
+    const gone = (res.body.members as Array<{ state: string; withdrawal: { reason: string } | null }>).filter((m) => m.state === "withdrawn");
+    expect(gone[0].withdrawal!.reason).toMatch(/identifications/);
+  });
+
   it("runs once: a second call seeds nothing", async () => {
     expect(await seedDemoScenario()).toBeNull();
   });

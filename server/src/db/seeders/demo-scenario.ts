@@ -15,6 +15,7 @@ import type { StudyMetadata } from "../../../../shared/types/dataset";
 import { Dataset, User } from "../../models";
 import { addNetworks, createDeposit, startNewVersion, submitDeposit, updateNetwork, updateStudyMetadata } from "../../api/deposits/deposits.service";
 import { decide, withdrawDataset } from "../../api/reviews/reviews.service";
+import { createCollection } from "../../api/collections/collections.service";
 import { addComment } from "../../api/deposits/deposits.comments";
 import type { Viewer } from "../../api/datasets/datasets.service";
 import { demoOrcidOf } from "./demo-researchers";
@@ -263,6 +264,18 @@ export async function seedDemoScenario(ctx: { log: (msg: string) => void } = { l
     await submitDeposit(v2.versionId, who);
     await decide(v2.versionId, curators[1], { decision: "publish", comment: "Thank you for the second season." });
   }
+  // A public collection saved from a filter before the withdrawal below, so it keeps the withdrawn network
+  // listed with its tombstone (what a paper's saved set looks like after a correction).
+  const pavel = need("pavel.strand@northmoor.test");
+  await createCollection(
+    { id: pavel.id, email: pavel.email, displayName: pavel.displayName, role: pavel.role, emailVerified: true },
+    {
+      name: "Host–parasitoid webs of the Northmoor study regions",
+      description: "Every host–parasitoid network published from the Lake Osk basin and the Tallow Coast, the set of a comparison of parasitoid modules across regions (invented demo data).",
+      visibility: "public",
+      filter: { interactionType: "host-parasitoid" },
+    },
+  );
   for (const accession of toWithdraw) {
     await withdrawDataset(accession, curators[0], "The depositor found that the parasitoid identifications of one rearing batch were mixed up; a corrected dataset will follow.");
   }
