@@ -98,6 +98,10 @@ function routes(t: { datasets: Target[] }, seed: number): Route[] {
     const d = pick(t.datasets);
     return `${d.accession}/${d.version}/${pick(d.positions)}`;
   };
+  const ref = () => {
+    const d = pick(t.datasets);
+    return `${d.accession}/v${d.version}/${pick(d.positions)}`;
+  };
   const TYPES = ["pollination", "seed-dispersal", "host-parasitoid", "herbivory"];
   const WORDS = ["heath", "meadow", "bee", "fen", "verrin", "moor", "coast", "forest"];
   return [
@@ -106,7 +110,7 @@ function routes(t: { datasets: Target[] }, seed: number): Route[] {
     { name: "dataset JSON", method: "GET", path: () => `/api/v1/datasets/${pick(t.datasets).accession}` },
     { name: "network view", method: "GET", path: () => `/api/v1/network-views/${net()}` },
     { name: "network metrics", method: "GET", path: () => `/api/v1/networks/${net()}/metrics` },
-    { name: "bundle estimate", method: "POST", path: () => `/api/v1/bundles/estimate`, body: () => JSON.stringify({ refs: [net(), net(), net()] }) },
+    { name: "bundle estimate", method: "POST", path: () => `/api/v1/bundles/estimate`, body: () => JSON.stringify({ refs: [ref(), ref(), ref()] }) },
   ];
 }
 
