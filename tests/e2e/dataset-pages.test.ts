@@ -159,6 +159,28 @@ describe("network view", () => {
     expect(await page.getByRole("link", { name: "Partition (CSV)" }).getAttribute("href")).toBe("/api/v1/network-views/TB-000001/v2/1/partition.csv");
     await screenshot(page, "network-view");
     await axeCheck(page);
+
+    // Charts as image files for slides: PNG (twice the drawn size, read from the file's own header) and SVG.
+    const pngSize = (bytes: Buffer) => {
+      expect(bytes.subarray(0, 8).toString("hex")).toBe("89504e470d0a1a0a"); // the PNG signature (ISO/IEC 15948)
+      return { width: bytes.readUInt32BE(16), height: bytes.readUInt32BE(20) }; // IHDR, the first chunk
+    };
+    const downloadOf = async (group: string | RegExp, format: "SVG" | "PNG") => {
+      const [d] = await Promise.all([page.waitForEvent("download"), page.getByRole("group", { name: group }).getByRole("button", { name: format, exact: true }).click()]);
+      return { name: d.suggestedFilename(), bytes: readFileSync((await d.path())!) };
+    };
+    const hist = await downloadOf(/^Download Null distribution of modularity: .* as an image$/, "PNG");
+    expect(hist.name).toMatch(/^tanglebank-TB-000001-v2-1-null-q-[a-z-]+\.png$/);
+    expect(pngSize(hist.bytes)).toEqual({ width: 1280, height: 600 }); // the histogram's 640 × 300 view box, twice
+    const histSvg = await downloadOf(/^Download Null distribution of modularity: .* as an image$/, "SVG");
+    expect(histSvg.bytes.toString("utf8")).toMatch(/^<\?xml[^>]*>\n<svg[^>]*xmlns="http:\/\/www\.w3\.org\/2000\/svg"[^>]*width="640"/);
+    expect((histSvg.bytes.toString("utf8").match(/<rect[^>]*fill="rgb/g) ?? []).length).toBeGreaterThan(0); // colours travel with the file
+    const matrixGroup = page.getByRole("group", { name: /^Download Interaction matrix ordered by module as an image$/ });
+    expect(await matrixGroup.getByRole("button", { name: "SVG", exact: true }).count()).toBe(0); // drawn on a canvas: PNG only
+    const matrix = await downloadOf("Download Interaction matrix ordered by module as an image", "PNG");
+    const canvasSize = await page.getByTestId("matrix-canvas").evaluate((c) => ({ width: (c as HTMLCanvasElement).width, height: (c as HTMLCanvasElement).height }));
+    expect(pngSize(matrix.bytes)).toEqual(canvasSize);
+    expect((await downloadOf("Download Node roles: participation P against within-module degree z as an image", "PNG")).name).toBe("tanglebank-TB-000001-v2-1-roles.png");
   });
 
   it("draws a one-mode network too", async () => {

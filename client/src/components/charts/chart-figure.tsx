@@ -2,7 +2,9 @@
  * The frame of every chart: a <figure> with a visible caption and a text alternative — a table of the
  * plotted values behind a disclosure (screen readers and keyboard users reach it; sighted users may open it).
  */
-import type { ReactNode } from "react";
+import { useRef, useState, type ReactNode } from "react";
+import { downloadBlob, downloadText } from "../../lib/download";
+import { canvasToPng, serializeSvg, svgToPng } from "./image-export";
 
 export interface DataTableSpec {
   caption: string;
@@ -12,14 +14,79 @@ export interface DataTableSpec {
   maxRows?: number;
 }
 
-export function ChartFigure({ title, caption, table, children, id }: { title: string; caption: ReactNode; table?: DataTableSpec; children: ReactNode; id?: string }) {
+/**
+ * Download buttons for the chart inside `body`: SVG and PNG for an SVG chart, PNG for one drawn on a canvas.
+ * `name` is the file name without extension.
+ */
+function ImageDownloads({ body, name, title, canvas }: { body: React.RefObject<HTMLDivElement | null>; name: string; title: string; canvas: boolean }) {
+  const [error, setError] = useState<string | null>(null);
+  const chart = () => {
+    const el = body.current;
+    return (el?.querySelector("svg[role='img']") ?? el?.querySelector("canvas") ?? el?.querySelector("svg")) as SVGSVGElement | HTMLCanvasElement | null;
+  };
+  const png = async () => {
+    setError(null);
+    const c = chart();
+    if (!c) return;
+    try {
+      downloadBlob(`${name}.png`, c instanceof HTMLCanvasElement ? await canvasToPng(c) : await svgToPng(c));
+    } catch (e) {
+      setError((e as Error).message);
+    }
+  };
+  const svg = () => {
+    const c = chart();
+    if (c && !(c instanceof HTMLCanvasElement)) downloadText(`${name}.svg`, "image/svg+xml", serializeSvg(c));
+  };
+  const btn = "rounded border border-stone-300 bg-white px-2 py-0.5 text-xs font-semibold text-moss-700 hover:bg-moss-50";
+  return (
+    <span className="flex flex-wrap items-center gap-1.5" role="group" aria-label={`Download ${title} as an image`}>
+      <span className="text-xs text-stone-600" aria-hidden="true">
+        Download
+      </span>
+      {!canvas && (
+        <button type="button" className={btn} onClick={svg}>
+          SVG
+        </button>
+      )}
+      <button type="button" className={btn} onClick={() => void png()}>
+        PNG
+      </button>
+      {error && <span role="alert" className="text-xs text-red-800">{error}</span>}
+    </span>
+  );
+}
+
+export function ChartFigure({
+  title,
+  caption,
+  table,
+  children,
+  id,
+  download,
+  drawnOnCanvas = false,
+}: {
+  title: string;
+  caption: ReactNode;
+  table?: DataTableSpec;
+  children: ReactNode;
+  id?: string;
+  /** File name (no extension) of the chart's image downloads; none without it. */
+  download?: string;
+  /** The chart is a canvas: PNG only. */
+  drawnOnCanvas?: boolean;
+}) {
   const max = table?.maxRows ?? 200;
+  const body = useRef<HTMLDivElement>(null);
   return (
     <figure className="rounded-lg bg-white p-4 ring-1 ring-stone-200" aria-labelledby={id ? `${id}-title` : undefined}>
-      <h3 id={id ? `${id}-title` : undefined} className="mb-2 font-bold text-moss-700">
-        {title}
-      </h3>
-      {children}
+      <div className="mb-2 flex flex-wrap items-start justify-between gap-2">
+        <h3 id={id ? `${id}-title` : undefined} className="font-bold text-moss-700">
+          {title}
+        </h3>
+        {download && <ImageDownloads body={body} name={download} title={title} canvas={drawnOnCanvas} />}
+      </div>
+      <div ref={body}>{children}</div>
       <figcaption className="mt-2 text-sm text-stone-700">{caption}</figcaption>
       {table && (
         <details className="mt-2 text-sm">

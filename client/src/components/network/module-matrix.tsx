@@ -46,7 +46,7 @@ export function nodeSides(view: Pick<ModuleMatrixData, "kind" | "metadata">): { 
 }
 
 /** `id` prefixes the figure's element ids: give each matrix on a page its own. */
-export function ModuleMatrix({ view, title = "Interaction matrix ordered by module", actions, id = "matrix" }: { view: ModuleMatrixData; title?: string; actions?: ReactNode; id?: string }) {
+export function ModuleMatrix({ view, title = "Interaction matrix ordered by module", actions, id = "matrix", download }: { view: ModuleMatrixData; title?: string; actions?: ReactNode; id?: string; download?: string }) {
   const canvasRef = useRef<HTMLCanvasElement>(null);
   const [img, setImg] = useState<MatrixImage | null>(null);
   const [error, setError] = useState<string | null>(null);
@@ -188,6 +188,8 @@ export function ModuleMatrix({ view, title = "Interaction matrix ordered by modu
     <ChartFigure
       id={id}
       title={title}
+      download={download}
+      drawnOnCanvas
       caption={
         <>
           {nRows} {sides.rows} ({square ? "rows" : "row nodes"}) × {nCols} {sides.cols} ({square ? "columns" : "column nodes"}), {view.nLinks} links.{" "}

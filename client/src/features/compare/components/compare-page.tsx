@@ -19,7 +19,9 @@ import { interactionTypeColour, interactionTypeLabel } from "../../../components
 import { useCompareRows } from "../api/get-compare-rows";
 import { expandCollection, expandDataset, useCompareCollection } from "../api/expand-reference";
 import { MAX_COMPARE, mergeRefs, parseCompareInput } from "../utils/compare-input";
-import { compareCsv, downloadText, serializeSvg } from "../utils/export";
+import { compareCsv } from "../utils/export";
+import { downloadBlob, downloadText } from "../../../lib/download";
+import { serializeSvg, svgToPng } from "../../../components/charts/image-export";
 import { adjustForSizeAndConnectance, MIN_ADJUST_NETWORKS } from "../utils/adjust";
 import { FigureCautions, NullBadge, fmtPFloor, fmtZ, isLiberal, nullInfo, nullLabel } from "../../../components/figures/significance";
 import { NULL_MODELS } from "../../../../../shared/network/null-models/index";
@@ -322,6 +324,12 @@ export function ComparePage() {
               </button>
               <button type="button" className={btn} onClick={() => svgS.current && downloadText(`tanglebank-compare-${measure}-vs-size.svg`, "image/svg+xml", serializeSvg(svgS.current))}>
                 Export chart vs S (SVG)
+              </button>
+              <button type="button" className={btn} onClick={() => void (svgC.current && svgToPng(svgC.current).then((b) => downloadBlob(`tanglebank-compare-${measure}-vs-connectance.png`, b)))}>
+                Chart vs C (PNG)
+              </button>
+              <button type="button" className={btn} onClick={() => void (svgS.current && svgToPng(svgS.current).then((b) => downloadBlob(`tanglebank-compare-${measure}-vs-size.png`, b)))}>
+                Chart vs S (PNG)
               </button>
             </span>
           </fieldset>

@@ -1,4 +1,4 @@
-/** Exports of the compare view: a CSV of the metrics table and the charts as standalone SVG files. */
+/** Exports of the compare view: a CSV of the metrics table (the charts use components/charts/image-export). */
 import type { NetworkCompareRow } from "../../../../../shared/types/network-view";
 
 function csvCell(v: unknown): string {
@@ -31,30 +31,4 @@ export function compareCsv(rows: NetworkCompareRow[], nullModel: string, adjuste
     );
   }
   return lines.join("\r\n") + "\r\n";
-}
-
-/** The SVG element as a standalone file (namespace and font declared; the app's CSS classes do not travel). */
-export function serializeSvg(svg: SVGSVGElement): string {
-  const clone = svg.cloneNode(true) as SVGSVGElement;
-  clone.setAttribute("xmlns", "http://www.w3.org/2000/svg");
-  clone.removeAttribute("class");
-  const vb = svg.viewBox.baseVal;
-  if (vb && vb.width) {
-    clone.setAttribute("width", String(vb.width));
-    clone.setAttribute("height", String(vb.height));
-  }
-  clone.querySelectorAll("[tabindex]").forEach((el) => el.removeAttribute("tabindex"));
-  clone.querySelectorAll("[class]").forEach((el) => el.removeAttribute("class"));
-  return `<?xml version="1.0" encoding="UTF-8"?>\n${new XMLSerializer().serializeToString(clone)}\n`;
-}
-
-export function downloadText(name: string, type: string, text: string) {
-  const url = URL.createObjectURL(new Blob([text], { type }));
-  const a = document.createElement("a");
-  a.href = url;
-  a.download = name;
-  document.body.appendChild(a);
-  a.click();
-  a.remove();
-  setTimeout(() => URL.revokeObjectURL(url), 1000);
 }

@@ -139,7 +139,7 @@ export function NetworkViewPage() {
       </section>
 
       <MetricsPanel view={view} />
-      <ModuleMatrix view={view} />
+      <ModuleMatrix view={view} download={`tanglebank-${view.ref.replace(/\//g, "-")}-matrix`} />
       {plots ? (
         <>
           <div className="grid gap-6 xl:grid-cols-2">

@@ -31,6 +31,7 @@ export function NullHistogram({ view }: { view: NetworkView }) {
   return (
     <ChartFigure
       id="null-hist"
+      download={`tanglebank-${view.ref.replace(/\//g, "-")}-null-q-${model}`}
       title={`Null distribution of modularity: ${nullLabel(model)}`}
       caption={
         <>

@@ -42,6 +42,7 @@ export function RolesPlot({ view }: { view: NetworkView }) {
   return (
     <ChartFigure
       id="roles"
+      download={`tanglebank-${view.ref.replace(/\//g, "-")}-roles`}
       title="Node roles: participation P against within-module degree z"
       caption={
         <>
