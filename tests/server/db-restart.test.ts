@@ -51,10 +51,17 @@ describe("PostgreSQL restarting under a running server", () => {
 
     await cluster.stop();
 
+    // The catalogue (and the network list built on it) is held in memory and checked against the database
+    // every few seconds: within that interval it may still answer from memory (a whole page, never a driver
+    // error); after it, 503.
+    for (const path of ["/api/v1/catalogue?q=moss", "/api/v1/networks"]) {
+      const res = await request(server.url).get(path);
+      if (res.status === 200) expect(res.body, path).toMatchObject({ data: expect.any(Array), meta: expect.any(Object) });
+      else expect(res.status, path).toBe(503);
+      expect(res.text).not.toMatch(DRIVER_WORDS);
+    }
     const during: Array<[string, request.Response]> = [
       ["health", await request(server.url).get("/api/v1/health")],
-      ["catalogue", await request(server.url).get("/api/v1/catalogue?q=moss")],
-      ["networks", await request(server.url).get("/api/v1/networks")],
       ["dataset", await request(server.url).get("/api/v1/datasets/TB-000001")],
       ["session", await agent.get("/api/v1/auth/session")],
       ["account", await agent.get("/api/v1/account")],
