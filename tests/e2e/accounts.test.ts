@@ -113,7 +113,7 @@ describe("accounts in the browser", () => {
     await page.goto(stack.url + "/sign-in");
     await signInThroughForm(page, NEW_EMAIL, NEW_PASSWORD);
     await page.waitForURL(/\/account$/);
-    await page.getByRole("heading", { name: "Your account" }).waitFor();
+    await page.getByRole("heading", { name: "Your account", exact: true }).waitFor();
     await page.getByText("confirmed", { exact: true }).waitFor();
     const nav = page.getByRole("banner");
     await nav.getByRole("link", { name: /Linnea Marsh/ }).waitFor();

@@ -16,6 +16,7 @@ import { startStack, type TestStack } from "../server/support/stack";
 import { createFixtureDataset, fixtureUser, FIXTURE_PASSWORD } from "../server/support/published-fixture";
 import { openBrowser, screenshot, signInViaApi, type BrowserSession } from "./support/browser";
 import { resetDatabase } from "../setup/db";
+import { resetRateLimits } from "../../server/src/middlewares/rate-limit";
 
 const ROWAN_ORCID = "0000-0004-2718-3011"; // made-up demo iD (valid check digit)
 let stack: TestStack;
@@ -38,6 +39,8 @@ async function axeSerious(page: Page) {
 
 beforeAll(async () => {
   await resetDatabase();
+  // sign-ups are limited per address, and every browser test signs up from 127.0.0.1
+  await resetRateLimits();
   stack = await startStack();
   orcid = new OrcidStandIn({ clientId: "APP-TESTCLIENT0001", clientSecret: "test-client-secret", redirectUris: [`${stack.url}${CALLBACK_PATH}`] });
   await orcid.listen(0);
@@ -76,8 +79,9 @@ describe("sign-in with ORCID through OpenID Connect", () => {
     await screenshot(page, "orcid-new-account");
     expect(await axeSerious(page)).toEqual([]);
     await page.getByRole("button", { name: "Create my account" }).click();
+    await page.waitForURL(/\/account$/);
 
-    await page.getByRole("heading", { name: "Your account" }).waitFor();
+    await page.getByRole("heading", { name: "Your account", exact: true }).waitFor();
     await page.getByTestId("orcid-verified").waitFor();
     expect(await page.getByTestId("orcid-verified").textContent()).toContain("0000-0004-2718-3070");
     const u = await User.findOne({ where: { email: "lior.vantelle@example.test" } });
