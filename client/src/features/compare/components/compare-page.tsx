@@ -125,6 +125,8 @@ export function ComparePage() {
   const unavailableRefs = new Set(unavailable.map((u) => u.ref));
   const rows = q.data?.data ?? [];
   const types = [...new Set(rows.map((r) => r.interactionType))].sort();
+  // file names of the chart downloads: z names its null model, like the chart's axis
+  const chartName = measure === "Q" ? "Q" : `z-${nullModel}`;
   const yLabel = measure === "Q" ? "Optimized modularity Q (unitless)" : `z against ${nullLabel(nullModel)} (null sd units)`;
   const withY = rows.filter((r) => measureOf(r, measure, nullModel) !== null);
   const modelsPresent = NULL_MODELS.filter((m) => rows.some((r) => figureOf(r, m)));
@@ -319,16 +321,16 @@ export function ComparePage() {
               >
                 Export table (CSV)
               </button>
-              <button type="button" className={btn} onClick={() => svgC.current && downloadText(`tanglebank-compare-${measure}-vs-connectance.svg`, "image/svg+xml", serializeSvg(svgC.current))}>
+              <button type="button" className={btn} onClick={() => svgC.current && downloadText(`tanglebank-compare-${chartName}-vs-connectance.svg`, "image/svg+xml", serializeSvg(svgC.current))}>
                 Export chart vs C (SVG)
               </button>
-              <button type="button" className={btn} onClick={() => svgS.current && downloadText(`tanglebank-compare-${measure}-vs-size.svg`, "image/svg+xml", serializeSvg(svgS.current))}>
+              <button type="button" className={btn} onClick={() => svgS.current && downloadText(`tanglebank-compare-${chartName}-vs-size.svg`, "image/svg+xml", serializeSvg(svgS.current))}>
                 Export chart vs S (SVG)
               </button>
-              <button type="button" className={btn} onClick={() => void (svgC.current && svgToPng(svgC.current).then((b) => downloadBlob(`tanglebank-compare-${measure}-vs-connectance.png`, b)))}>
+              <button type="button" className={btn} onClick={() => void (svgC.current && svgToPng(svgC.current).then((b) => downloadBlob(`tanglebank-compare-${chartName}-vs-connectance.png`, b)))}>
                 Chart vs C (PNG)
               </button>
-              <button type="button" className={btn} onClick={() => void (svgS.current && svgToPng(svgS.current).then((b) => downloadBlob(`tanglebank-compare-${measure}-vs-size.png`, b)))}>
+              <button type="button" className={btn} onClick={() => void (svgS.current && svgToPng(svgS.current).then((b) => downloadBlob(`tanglebank-compare-${chartName}-vs-size.png`, b)))}>
                 Chart vs S (PNG)
               </button>
             </span>

@@ -37,7 +37,7 @@ export function NullHistogram({ view }: { view: NetworkView }) {
         <>
           Optimized {qName} of {values.length} null networks of the null model {nullLabel(model)}
           <NullBadge model={model} primary={fig.primary} withTitle={false} />, ranging from {fmt(sorted[0], 4)} to {fmt(sorted[sorted.length - 1], 4)} (mean {fmt(fig.mean, 4)}, sd{" "}
-          {fmt(fig.sd, 4)}). The observed {qName} = {fmt(m.Q, 4)} is marked: z = {fmtZ(fig.z, fig.zSe)}, p = {fmtPFloor(fig.p, fig.pAtFloor)} against this model.
+          {fmt(fig.sd, 4)}). The observed {qName} = {fmt(m.Q, 4)} is marked: z = {fmtZ(fig.z, fig.zSe)}, p {fig.pAtFloor ? "" : "= "}{fmtPFloor(fig.p, fig.pAtFloor)} against this model.
         </>
       }
       table={{ caption: `Null Q values of ${nullLabel(model)}, sorted`, columns: ["#", `null ${qName}`], rows: sorted.map((q, i) => [i + 1, q.toFixed(5)]) }}
@@ -61,7 +61,7 @@ export function NullHistogram({ view }: { view: NetworkView }) {
         values={values}
         marker={{ value: m.Q, label: `observed ${qName} = ${fmt(m.Q, 3)}` }}
         xLabel={`Optimized modularity ${qName} (unitless)`}
-        yLabel="Null networks (count)"
+        yLabel={`Null networks, ${nullLabel(model)} (count)`}
         label={`Histogram of ${values.length} null modularity values of ${nullLabel(model)} with the observed value marked`}
       />
       <Legend
