@@ -20,7 +20,8 @@ export function useSignUpWithOrcid() {
     mutationFn: signUpWithOrcid,
     onSuccess: (r) => {
       setCsrfToken(r.csrfToken);
-      void qc.invalidateQueries({ queryKey: authKeys.session() });
+      // awaited, so that the Account page's signed-in check reads the new session, not the signed-out one
+      return qc.invalidateQueries({ queryKey: authKeys.session() });
     },
   });
 }
