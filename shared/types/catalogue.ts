@@ -94,5 +94,15 @@ export interface CatalogueRow {
 
 export interface CataloguePage {
   data: CatalogueRow[];
-  meta: { total: number; page: number; pageSize: number; facets: CatalogueFacets };
+  meta: {
+    total: number;
+    page: number;
+    pageSize: number;
+    facets: CatalogueFacets;
+    /**
+     * How the search words matched: "words" (every word found as a whole word), "prefix" (no network had
+     * them all as whole words, so they matched as word beginnings), null without a search.
+     */
+    searchMatch: "words" | "prefix" | null;
+  };
 }

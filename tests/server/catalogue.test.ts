@@ -93,7 +93,7 @@ async function sqlCount(where = "true", params: Record<string, unknown> = {}): P
 async function get(query: Record<string, string | number>) {
   const res = await request(app).get("/api/v1/catalogue").query(query);
   expect(res.status, JSON.stringify(res.body)).toBe(200);
-  return res.body as { data: Array<Record<string, unknown>>; meta: { total: number; page: number; pageSize: number; facets: Record<string, unknown> } };
+  return res.body as { data: Array<Record<string, unknown>>; meta: { total: number; page: number; pageSize: number; facets: Record<string, unknown>; searchMatch: string | null } };
 }
 
 describe("catalogue filters against independent SQL counts", () => {
@@ -251,6 +251,30 @@ describe("full-text search", () => {
     expect(creator.meta.total).toBe(await sqlCount(`v.metadata#>>'{creators,0,name}' = 'Ines Okafor'`));
     const combined = await get({ q: "Okafor", kind: "bipartite", pageSize: 200 });
     expect(combined.meta.total).toBe(await sqlCount(`v.metadata#>>'{creators,0,name}' = 'Ines Okafor' AND n.kind = 'bipartite'`));
+  });
+
+  it("matches whole words first, and word beginnings only when no network has every word whole (and says so)", async () => {
+    const fx = await publishDataset({
+      study: { title: "Whole-word check" },
+      networks: [
+        { seed: 81, rowLabels: ["Bombus_a", "b5", "c5", "d5"], metrics: { q: 0.4, z: 1 } },
+        { seed: 82, rowLabels: ["Bombusia_b", "b6", "c6", "d6"], metrics: { q: 0.4, z: 1 } },
+      ],
+    });
+    await catalogueStore.refreshDataset(fx.datasetId);
+    // "bombus" is a whole word in the first network only: the second ("bombusia") is not brought in
+    const whole = await get({ q: "Bombus" });
+    expect(whole.data.map((r) => r.ref)).toEqual([`${fx.accession}/v1/1`]);
+    expect(whole.meta.searchMatch).toBe("words");
+    // no network has the whole word "bomb": both match as word beginnings, and the page is told
+    const prefix = await get({ q: "bomb", sort: "accession" });
+    expect(prefix.data.map((r) => r.ref).sort()).toEqual([`${fx.accession}/v1/1`, `${fx.accession}/v1/2`]);
+    expect(prefix.meta.searchMatch).toBe("prefix");
+    // every word must be whole for the whole-word result; one word that is only a beginning makes it a prefix search
+    expect((await get({ q: "bombus whole-wo" })).meta.searchMatch).toBe("prefix");
+    expect((await get({})).meta.searchMatch).toBeNull();
+    await DatasetVersion.update({ state: "withdrawn", withdrawnAt: new Date() }, { where: { id: fx.versionId } });
+    await catalogueStore.removeDataset(fx.datasetId);
   });
 
   it("never finds withdrawn networks", async () => {

@@ -9,8 +9,11 @@
  *   (hundreds per network): in lunr they made a 10,000-network index take 27 s to build, ~0.7 GB of
  *   memory and about a second per query (measured by npm run bench:catalogue), while a plain inverted
  *   index builds in a fraction of a second and answers a prefix in microseconds.
- * A query's words must each match (as a word prefix) in some field or node name; the score is lunr's
- * plus a constant per node-name match. Per-word results are cached until the index changes.
+ * A query's words must each match in some field or node name; the score is lunr's plus a constant per
+ * node-name match. Whole words first: when networks contain every word of the query as a whole word, only
+ * those are returned ("bee" does not bring "beetle"); otherwise each word is matched as a word beginning
+ * (typing "pollin" finds "pollinator"), and the result says so (`mode: "prefix"`), so the page can tell
+ * the reader. Per-word results are cached until the index changes.
  *
  * Both are immutable, so changes go to a small "delta" built from the changed datasets: when a dataset is
  * published or withdrawn its networks are marked stale in the main part and its current documents are
@@ -67,6 +70,11 @@ class NodeWordIndex {
     this.vocabulary = [...this.postings.keys()].sort();
   }
 
+  /** Network ids having the node-name word `word`. */
+  exact(word: string): Uint32Array {
+    return this.postings.get(word) ?? new Uint32Array(0);
+  }
+
   /** Network ids having a node-name word that starts with `prefix`. */
   match(prefix: string): Set<number> {
     const out = new Set<number>();
@@ -104,14 +112,24 @@ class IndexPart {
     this.nodes = new NodeWordIndex(docs);
   }
 
-  /** Network ids matching one word (prefix) in any field or node name, with scores. */
-  word(term: string): Map<number, number> {
+  /** Network ids matching one word in any field or node name, with scores: as a whole word or as a word beginning. */
+  word(term: string, mode: SearchMode): Map<number, number> {
     const out = new Map<number, number>();
-    const hits = this.text.query((q) => q.term(term, { wildcard: lunr.Query.wildcard.TRAILING, usePipeline: false }));
+    const wildcard = mode === "prefix" ? lunr.Query.wildcard.TRAILING : lunr.Query.wildcard.NONE;
+    const hits = this.text.query((q) => q.term(term, { wildcard, usePipeline: false }));
     for (const h of hits) out.set(Number(h.ref), h.score);
-    for (const id of this.nodes.match(term)) out.set(id, (out.get(id) ?? 0) + NODE_SCORE);
+    for (const id of mode === "prefix" ? this.nodes.match(term) : this.nodes.exact(term)) out.set(id, (out.get(id) ?? 0) + NODE_SCORE);
     return out;
   }
+}
+
+/** How the query's words matched: as whole words, or (when no network has them all) as word beginnings. */
+export type SearchMode = "words" | "prefix";
+
+export interface SearchResult {
+  /** network id → relevance score */
+  hits: Map<number, number>;
+  mode: SearchMode;
 }
 
 const DELTA_LIMIT = 500;
@@ -129,6 +147,7 @@ export class SearchIndex {
   private building: Promise<void> | null = null;
   /** Per-word results of the current index (cleared on every change). */
   private cache = new Map<string, Map<number, number>>();
+  private results = new Map<string, SearchResult>();
   builtAt: Date | null = null;
   lastBuildMs = 0;
   /** Changes whenever results may change (callers cache per generation). */
@@ -152,6 +171,7 @@ export class SearchIndex {
         this.staleDatasets.clear();
         this.delta = null;
         this.cache.clear();
+        this.results.clear();
         this.generation++;
         this.builtAt = new Date();
         this.lastBuildMs = Date.now() - started;
@@ -185,6 +205,7 @@ export class SearchIndex {
 
   private async afterDeltaChange(): Promise<void> {
     this.cache.clear();
+    this.results.clear();
     this.generation++;
     let total = 0;
     for (const d of this.deltaDocs.values()) total += d.length;
@@ -195,38 +216,30 @@ export class SearchIndex {
     this.delta = total ? new IndexPart([...this.deltaDocs.values()].flat()) : null;
   }
 
-  private word(term: string): Map<number, number> {
-    const cached = this.cache.get(term);
+  private word(term: string, mode: SearchMode): Map<number, number> {
+    const key = mode + " " + term;
+    const cached = this.cache.get(key);
     if (cached) {
       // keep recently used words at the end (least recently used are evicted first)
-      this.cache.delete(term);
-      this.cache.set(term, cached);
+      this.cache.delete(key);
+      this.cache.set(key, cached);
       return cached;
     }
     const out = new Map<number, number>();
-    for (const [id, score] of this.main!.word(term)) {
+    for (const [id, score] of this.main!.word(term, mode)) {
       const ds = this.mainDatasetOf.get(id);
       if (ds !== undefined && this.staleDatasets.has(ds)) continue;
       out.set(id, score);
     }
-    if (this.delta) for (const [id, score] of this.delta.word(term)) out.set(id, score);
-    this.cache.set(term, out);
+    if (this.delta) for (const [id, score] of this.delta.word(term, mode)) out.set(id, score);
+    this.cache.set(key, out);
     if (this.cache.size > CACHE_LIMIT) this.cache.delete(this.cache.keys().next().value!);
     return out;
   }
 
-  /**
-   * Network ids matching every word of `q` (each as a word prefix, in any field or node name), with
-   * relevance scores. An empty query matches nothing (callers skip search then).
-   */
-  async search(q: string): Promise<Map<number, number>> {
-    await this.ensure();
-    const terms = queryTerms(q);
-    if (!terms.length) return new Map();
-    const key = "\u0000" + [...terms].sort().join(" ");
-    const cached = this.cache.get(key);
-    if (cached) return cached;
-    const perWord = terms.map((t) => this.word(t)).sort((a, b) => a.size - b.size);
+  /** Network ids having every word of `terms` (in any field or node name), with summed scores. */
+  private all(terms: string[], mode: SearchMode): Map<number, number> {
+    const perWord = terms.map((t) => this.word(t, mode)).sort((a, b) => a.size - b.size);
     const out = new Map<number, number>();
     outer: for (const [id, score] of perWord[0]) {
       let total = score;
@@ -237,9 +250,26 @@ export class SearchIndex {
       }
       out.set(id, total);
     }
-    this.cache.set(key, out);
-    if (this.cache.size > CACHE_LIMIT) this.cache.delete(this.cache.keys().next().value!);
     return out;
+  }
+
+  /**
+   * Network ids matching every word of `q`, with relevance scores: as whole words when any network has
+   * them all, else as word beginnings (`mode` says which). An empty query matches nothing (callers skip
+   * search then).
+   */
+  async search(q: string): Promise<SearchResult> {
+    await this.ensure();
+    const terms = queryTerms(q);
+    if (!terms.length) return { hits: new Map(), mode: "words" };
+    const key = [...terms].sort().join(" ");
+    const cached = this.results.get(key);
+    if (cached) return cached;
+    const words = this.all(terms, "words");
+    const result: SearchResult = words.size > 0 ? { hits: words, mode: "words" } : { hits: this.all(terms, "prefix"), mode: "prefix" };
+    this.results.set(key, result);
+    if (this.results.size > CACHE_LIMIT) this.results.delete(this.results.keys().next().value!);
+    return result;
   }
 
   /** Forgets everything (tests). */
@@ -250,6 +280,7 @@ export class SearchIndex {
     this.staleDatasets.clear();
     this.mainDatasetOf.clear();
     this.cache.clear();
+    this.results.clear();
     this.generation++;
   }
 }

@@ -3,7 +3,7 @@
  * reader sees how many networks each value would give), sorting and pagination, in one pass over the
  * in-memory catalogue.
  */
-import { searchIndex } from "./catalogue.search-index";
+import { searchIndex, type SearchMode } from "./catalogue.search-index";
 import type { CatalogueEntry } from "./catalogue.rows";
 import { catalogueStore } from "./catalogue.store";
 import { DEFAULT_CATALOGUE_NULL_MODEL, type CatalogueQuery, type Range, type SortKey } from "./catalogue.validation";
@@ -22,7 +22,7 @@ function nullModelCounts(all: CatalogueEntry[]): FacetValue[] {
   nullCountCache.set(all, out);
   return out;
 }
-import type { CatalogueFacets, CatalogueRow, FacetValue, RangeFacet } from "../../../../shared/types/catalogue";
+import type { CatalogueFacets, CataloguePage, CatalogueRow, FacetValue, RangeFacet } from "../../../../shared/types/catalogue";
 import { NOT_RECORDED_FIELDS } from "../../../../shared/validation/not-recorded";
 
 export type { CatalogueFacets, CatalogueRow, FacetValue, RangeFacet };
@@ -208,6 +208,8 @@ export interface MatchResult {
   /** How many networks match. */
   total: number;
   facets: CatalogueFacets;
+  /** How the search words matched (null without a search). */
+  searchMatch: SearchMode | null;
 }
 
 const YEAR = RANGES.indexOf("year");
@@ -221,7 +223,8 @@ const AREA_BIT = SEARCH_BIT << 1;
  */
 export async function matchCatalogue(q: CatalogueQuery, opts: { limit?: number } = {}): Promise<MatchResult> {
   const all = await catalogueStore.entries();
-  const hits = q.q ? await searchIndex.search(q.q) : null;
+  const found = q.q ? await searchIndex.search(q.q) : null;
+  const hits = found?.hits ?? null;
   const cols = columnsOf(all, q.nullModel);
   // allowed[c][code] = 1 when the reader chose that value (null: no filter on c)
   const allowed = CATEGORICAL.map((f, c) => {
@@ -336,8 +339,9 @@ export async function matchCatalogue(q: CatalogueQuery, opts: { limit?: number }
   facets.notRecorded = notRecordedFacet(matches);
   const total = matches.length;
   const limit = Math.min(total, opts.limit ?? total);
-  if (q.sort === "accession" && q.order !== "desc") return { matches: limit < total ? matches.slice(0, limit) : matches, total, facets };
-  return { matches: firstInOrder(matches, q, hits, limit), total, facets };
+  const searchMatch = found?.mode ?? null;
+  if (q.sort === "accession" && q.order !== "desc") return { matches: limit < total ? matches.slice(0, limit) : matches, total, facets, searchMatch };
+  return { matches: firstInOrder(matches, q, hits, limit), total, facets, searchMatch };
 }
 
 /**
@@ -412,10 +416,10 @@ export async function searchCatalogue(q: CatalogueQuery) {
   }
   const generation = searchIndex.generation;
   const start = (q.page - 1) * q.pageSize;
-  const { matches, total, facets } = await matchCatalogue(q, { limit: start + q.pageSize });
-  const body = {
+  const { matches, total, facets, searchMatch } = await matchCatalogue(q, { limit: start + q.pageSize });
+  const body: CataloguePage = {
     data: matches.slice(start, start + q.pageSize).map((e) => toRow(e, q.nullModel)),
-    meta: { total, page: q.page, pageSize: q.pageSize, facets },
+    meta: { total, page: q.page, pageSize: q.pageSize, facets, searchMatch },
   };
   pageCache.set(key, { all, generation, body });
   if (pageCache.size > PAGE_CACHE_LIMIT) pageCache.delete(pageCache.keys().next().value!);

@@ -31,7 +31,7 @@ const NETWORK_REF_PARAMS = [
 ];
 
 const CATALOGUE_PARAM_DOCS: Record<(typeof CATALOGUE_PARAMS)[number], [string, Json, unknown?]> = {
-  q: ["Full-text search over titles, descriptions, keywords, creators, localities and node names (every word must match; prefixes match).", { type: "string", maxLength: 200 }, "Verrin"],
+  q: ["Full-text search over titles, descriptions, keywords, creators, localities and node names (every word must match: as whole words when some networks have them all, else as word beginnings; `meta.searchMatch` says which).", { type: "string", maxLength: 200 }, "Verrin"],
   interactionType: ["Interaction type(s): pollination, seed-dispersal, host-parasitoid, predator-prey, herbivory, other. Repeat or comma-separate.", { type: "string" }, "pollination"],
   kind: ["bipartite or unipartite", { type: "string", enum: ["bipartite", "unipartite"] }],
   weighted: ["true or false", { type: "boolean" }],
@@ -165,6 +165,12 @@ export function openapiDocument(): Json {
                 total: { type: "integer" },
                 page: { type: "integer" },
                 pageSize: { type: "integer" },
+                searchMatch: {
+                  type: ["string", "null"],
+                  enum: ["words", "prefix", null],
+                  description:
+                    "How the words of `q` matched: `words` when networks have every word as a whole word (only those are returned), `prefix` when none has them all and the words matched as word beginnings; null without `q`",
+                },
                 facets: {
                   type: "object",
                   properties: {

@@ -503,6 +503,12 @@ export function CataloguePage({ actions }: { actions?: (ctx: CatalogueActionsCon
             </h2>
             {pageSizeChoice("top")}
           </div>
+          {catalogue.data?.meta.searchMatch === "prefix" && (
+            <p className="text-sm text-stone-700" data-testid="search-prefix-note">
+              No network has every word of “{params.get("q")}” as a whole word, so these match words that <em>begin</em> with
+              yours (e.g. “pollin” finds “pollinator”).
+            </p>
+          )}
           <div className="flex flex-wrap items-center gap-3 rounded-lg bg-moss-50 p-3 ring-1 ring-moss-200" aria-label="Selection">
             <p className="font-semibold text-moss-900" aria-live="polite" data-testid="selection-count">
               {selected.length} selected
