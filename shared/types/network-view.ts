@@ -89,6 +89,9 @@ export interface RunHistoryRow {
   error?: string | null;
 }
 
+/** The compare view plots at most this many networks at once (the API refuses more). */
+export const MAX_COMPARE = 60;
+
 /** One light row per network for the compare view: `GET /api/v1/network-views/summaries?refs=…`. */
 export interface NetworkCompareRow {
   ref: string;

@@ -9,7 +9,7 @@ import { doisOfDataset } from "../../jobs/dois";
 import type { CanonicalNetworkJson } from "../../../../shared/network/parse/serialize";
 import type { AnalysisResult } from "../../../../shared/network/analyze";
 import type { NetworkMetadata, NetworkMetricsSummary, StudyMetadata } from "../../../../shared/types/dataset";
-import type { AuditEntry, CompareRowsResponse, CompareUnavailable, MapPointRow, ModuleRow, NetworkCompareRow, NetworkView, RoleRow, RunHistoryRow } from "../../../../shared/types/network-view";
+import { MAX_COMPARE, type AuditEntry, type CompareRowsResponse, type CompareUnavailable, type MapPointRow, type ModuleRow, type NetworkCompareRow, type NetworkView, type RoleRow, type RunHistoryRow } from "../../../../shared/types/network-view";
 import { QueryTypes } from "sequelize";
 import { sequelize } from "../../db/sequelize";
 import { getCurrentMetrics } from "../../jobs/metrics-read";
@@ -254,7 +254,6 @@ export function partitionJson(view: NetworkView) {
 }
 
 const REF_RE = /^(TB-\d{6})\/v(\d{1,6})\/(\d{1,6})$/;
-export const MAX_COMPARE = 60;
 
 /**
  * Light rows for the compare view, in the order asked. A reference that cannot be plotted (malformed,

@@ -26,6 +26,7 @@ import {
   type ListFilter,
 } from "../utils/catalogue-params";
 import { SEARCH_EXAMPLE } from "../../../../../shared/types/catalogue";
+import { MAX_COMPARE } from "../../../../../shared/types/network-view";
 import { ApiClientError } from "../../../lib/api-client";
 import { useSelection } from "../utils/selection";
 import { NOT_RECORDED_LABELS, type NotRecordedField } from "../../../../../shared/validation/not-recorded";
@@ -515,8 +516,8 @@ export function CataloguePage({ actions }: { actions?: (ctx: CatalogueActionsCon
             </p>
             {selected.length > 0 && (
               <>
-                <Link className="font-semibold text-moss-700 underline" to={paths.compare.href(selected.slice(0, 50))}>
-                  Compare selected
+                <Link className="font-semibold text-moss-700 underline" to={paths.compare.href(selected.slice(0, MAX_COMPARE))}>
+                  {selected.length > MAX_COMPARE ? `Compare the first ${MAX_COMPARE} selected` : "Compare selected"}
                 </Link>
                 <button type="button" className="text-sm font-semibold text-stone-700 underline" onClick={clear}>
                   Clear selection
