@@ -12,6 +12,7 @@ import { Network } from "../../server/src/models";
 import { resetDatabase } from "../setup/db";
 import { agentFor, createUser, type SignedInAgent } from "./support/accounts";
 import { makeDraft, networkMeta } from "./support/deposit-helpers";
+import { csvText } from "../../shared/csv";
 
 let owner: SignedInAgent;
 let other: SignedInAgent;
@@ -28,7 +29,7 @@ afterAll(async () => {
   await shutdownServerResources();
 });
 
-const toCsv = (rows: string[][]) => rows.map((r) => r.map((c) => (/[",\n]/.test(c) ? `"${c.replace(/"/g, '""')}"` : c)).join(",")).join("\n") + "\n";
+const toCsv = (rows: string[][]) => csvText(rows);
 
 describe("metadata sheet", () => {
   it("downloads a sheet whose header comes from the schema, pre-filled from what was entered", async () => {

@@ -3,20 +3,14 @@
  * error responses into ApiClientError({ status, code, message, details }). No toasts, no redirects:
  * callers show errors through query state.
  */
-export interface ApiErrorDetail {
-  path?: string;
-  message: string;
-  file?: string;
-  row?: number;
-  column?: number;
-}
+import type { ApiErrorBody, ErrorDetail } from "../../../shared/types/api";
 
 export class ApiClientError extends Error {
   constructor(
     public readonly status: number,
     public readonly code: string,
     message: string,
-    public readonly details?: ApiErrorDetail[],
+    public readonly details?: ErrorDetail[],
   ) {
     super(message);
   }
@@ -60,7 +54,7 @@ export async function apiFetch<T>(path: string, init: RequestInit & { json?: unk
     data = null;
   }
   if (!res.ok) {
-    const e = (data ?? {}) as { code?: string; message?: string; details?: ApiErrorDetail[] };
+    const e = (data ?? {}) as Partial<ApiErrorBody>;
     if (e.code === "csrf_failed") csrfToken = null;
     throw new ApiClientError(res.status, e.code ?? "http_error", e.message ?? `Request failed with status ${res.status}`, e.details);
   }

@@ -1,22 +1,15 @@
 /** A typed error that services throw; the error handler maps it to `{ code, message, details }`. */
 import type { Tombstone } from "../../../shared/types/network-view";
+import type { ErrorDetail } from "../../../shared/types/api";
 
-export interface ErrorDetail {
-  /** JSON pointer (e.g. "/creators/0/name") or a field name. */
-  path?: string;
-  message: string;
-  file?: string;
-  row?: number;
-  column?: number;
-  [key: string]: unknown;
-}
+export type { ErrorDetail };
 
 export class ApiError extends Error {
   constructor(
     public readonly status: number,
     public readonly code: string,
     message: string,
-    public readonly details?: ErrorDetail[] | Record<string, unknown>,
+    public readonly details?: ErrorDetail[],
   ) {
     super(message);
     this.name = "ApiError";

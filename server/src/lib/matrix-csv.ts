@@ -5,7 +5,7 @@
  *
  * The output is byte for byte what the engine's `networkToMatrixCsv(deserializeNetwork(json))` gives
  * (tests/server/matrix-csv.test.ts compares them), but it skips building the typed arrays and the
- * per-cell strings: a row of zero cells (",0,0,…,0") is made once per network and copied into each line,
+ * per-cell strings (labels are quoted by the one CSV rule of shared/csv): a row of zero cells (",0,0,…,0") is made once per network and copied into each line,
  * and only the non-zero cells are written (an unweighted network only changes a "0" into a "1" in place).
  * Stored networks were validated when they were deposited; the checks here (array lengths, column
  * indices in range and strictly increasing, positive finite weights) only make sure a damaged row can
@@ -13,35 +13,12 @@
  */
 import type { CanonicalNetworkJson } from "../../../shared/network/parse/serialize";
 import { MATRIX_CORNER } from "../../../shared/network/parse/write";
+import { quoteField } from "../../../shared/csv";
 
 const COMMA = 0x2c;
 const NEWLINE = 0x0a;
 const ZERO = 0x30;
 const ONE = 0x31;
-
-/** RFC 4180 quoting, as the engine's writer does (delimiter ","): one pass over the label. */
-export function quote(s: string): string {
-  return needsQuotes(s) ? `"${s.replace(/"/g, '""')}"` : s;
-}
-
-/** A comma, quote or line break inside, or outer white space (what String.prototype.trim removes). */
-export function needsQuotes(s: string): boolean {
-  const n = s.length;
-  if (n === 0) return false;
-  if (isTrimmed(s.charCodeAt(0)) || isTrimmed(s.charCodeAt(n - 1))) return true;
-  for (let k = 0; k < n; k++) {
-    const c = s.charCodeAt(k);
-    if (c === 0x2c || c === 0x22 || c === 0x0a || c === 0x0d) return true;
-  }
-  return false;
-}
-
-/** White space and line terminators of ECMAScript (the characters trim() removes). */
-function isTrimmed(c: number): boolean {
-  if (c <= 0x20) return c === 0x20 || (c >= 0x09 && c <= 0x0d);
-  if (c < 0xa0) return false;
-  return c === 0xa0 || c === 0x1680 || (c >= 0x2000 && c <= 0x200a) || c === 0x2028 || c === 0x2029 || c === 0x202f || c === 0x205f || c === 0x3000 || c === 0xfeff;
-}
 
 /** A stored network that cannot be written as CSV (damaged): the only error the writer throws. */
 export class MatrixCsvError extends Error {
@@ -86,12 +63,12 @@ export function matrixCsvPieces(json: unknown, corner = MATRIX_CORNER, chunkByte
   for (let i = 0; i < I; i++) if (!(ptr[i + 1] >= ptr[i])) fail(`row pointers decrease at row ${i + 1}`);
 
   // exact sizes: header, then per row its label, J ",0" cells and a newline, plus the extra length of weights
-  const header = (cols.length ? quote(corner) + "," + cols.map(quote).join(",") : quote(corner)) + "\n";
+  const header = (cols.length ? quoteField(corner) + "," + cols.map((c) => quoteField(c)).join(",") : quoteField(corner)) + "\n";
   const headerBytes = Buffer.byteLength(header);
   const labels = new Array<string>(I);
   let ascii = true;
   for (let i = 0; i < I; i++) {
-    labels[i] = quote(rows[i]);
+    labels[i] = quoteField(rows[i]);
     if (ascii && !isAscii(labels[i])) ascii = false;
   }
   const rowBytes = new Float64Array(I);

@@ -7,24 +7,18 @@
  * - `networkToEdgeListCsv`: header `source,target` (plus `weight` when weighted); one line per stored
  *   link, an undirected link once (source ≤ target in node order). Isolated nodes cannot be written in an
  *   edge list, and node order becomes order of first appearance.
- * Labels holding the delimiter, a quote, a line break or outer spaces are quoted (RFC 4180). Numbers use
+ * Labels are quoted by the one CSV rule of shared/csv (the delimiter, a quote, a line break or outer white space). Numbers use
  * JavaScript's shortest round-trip form. Lines end with "\n".
  */
 import type { Network } from "../types";
+import { quoteField, type CsvDelimiter } from "../../csv";
 
 /** The header's first cell of every matrix CSV: the name of the column of row labels. */
 export const MATRIX_CORNER = "node";
 
 export interface CsvWriteOptions {
   /** Field delimiter (default ","). */
-  delimiter?: "," | "\t" | ";";
-}
-
-function quote(s: string, d: string): string {
-  if (s.includes(d) || s.includes('"') || s.includes("\n") || s.includes("\r") || s !== s.trim()) {
-    return `"${s.replace(/"/g, '""')}"`;
-  }
-  return s;
+  delimiter?: CsvDelimiter;
 }
 
 export function networkToMatrixCsv(net: Network, options: CsvWriteOptions = {}): string {
@@ -33,10 +27,10 @@ export function networkToMatrixCsv(net: Network, options: CsvWriteOptions = {}):
   const J = net.kind === "bipartite" ? net.colLabels.length : I;
   const cols = net.kind === "bipartite" ? net.colLabels : net.rowLabels;
   const lines: string[] = [];
-  lines.push([MATRIX_CORNER, ...cols.map((c) => quote(c, d))].join(d));
+  lines.push([MATRIX_CORNER, ...cols.map((c) => quoteField(c, d))].join(d));
   const cells: string[] = new Array(J + 1);
   for (let i = 0; i < I; i++) {
-    cells[0] = quote(net.rowLabels[i], d);
+    cells[0] = quoteField(net.rowLabels[i], d);
     for (let j = 1; j <= J; j++) cells[j] = "0";
     for (let p = net.rowPtr[i]; p < net.rowPtr[i + 1]; p++) cells[net.colIdx[p] + 1] = String(net.weights[p]);
     lines.push(cells.join(d));
@@ -54,7 +48,7 @@ export function networkToEdgeListCsv(net: Network, options: CsvWriteOptions = {}
     for (let p = net.rowPtr[i]; p < net.rowPtr[i + 1]; p++) {
       const j = net.colIdx[p];
       if (undirected && j < i) continue;
-      const parts = [quote(net.rowLabels[i], d), quote(cols[j], d)];
+      const parts = [quoteField(net.rowLabels[i], d), quoteField(cols[j], d)];
       if (net.weighted) parts.push(String(net.weights[p]));
       lines.push(parts.join(d));
     }

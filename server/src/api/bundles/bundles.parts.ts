@@ -22,7 +22,7 @@ import { deriveSeed } from "../../../../shared/network/random";
 import { NULL_STREAM } from "../../../../shared/network/significance";
 import { sequelize } from "../../db/sequelize";
 import { ApiError } from "../../lib/api-error";
-import { quote } from "../../lib/matrix-csv";
+import { csvLine, quoteField } from "../../../../shared/csv";
 import type { CatalogueEntry } from "../catalogue/catalogue.rows";
 
 export const BUNDLE_PARTS = ["partitions", "roles", "nulls", "edges", "originals"] as const;
@@ -103,11 +103,6 @@ export function takeParts(input: Record<string, unknown>): { parts: Set<BundlePa
     );
   }
   return { parts: new Set(list as BundlePart[]), rest };
-}
-
-/** A CSV line from values (numbers as JavaScript writes them, text quoted when needed, null empty). */
-export function csvLine(values: unknown[]): string {
-  return values.map((v) => (v === null || v === undefined ? "" : typeof v === "number" ? String(v) : quote(String(v)))).join(",");
 }
 
 export interface NetworkParts {
@@ -256,10 +251,10 @@ export function nullLines(ref: string, p: NetworkParts): string[] {
 
 /** edges.csv lines from the canonical form: every stored link, an undirected one-mode link once. */
 export function edgeLines(ref: string, c: CanonicalNetworkJson): string[] {
-  const rows = c.rows.map(quote);
-  const cols = c.kind === "bipartite" && c.cols ? c.cols.map(quote) : rows;
+  const rows = c.rows.map((r) => quoteField(r));
+  const cols = c.kind === "bipartite" && c.cols ? c.cols.map((r) => quoteField(r)) : rows;
   const undirected = c.kind !== "bipartite" && !c.directed;
-  const prefix = quote(ref) + ",";
+  const prefix = quoteField(ref) + ",";
   const lines: string[] = [];
   for (let i = 0; i < rows.length; i++) {
     for (let q = c.ptr[i]; q < c.ptr[i + 1]; q++) {

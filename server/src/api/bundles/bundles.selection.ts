@@ -26,7 +26,7 @@ export function parseSelection(input: Record<string, unknown>): Selection {
       if (!REF_RE.test(r)) errors.push({ path: `refs/${i}`, message: `"${r}" is not a network reference (TB-000001/v1/1).` });
     });
     if (errors.length) throw ApiError.badRequest("Some references are not valid.", errors.slice(0, 50));
-    if (new Set(list).size > BUNDLE_LIMIT) throw tooMany(new Set(list).size);
+    if (new Set(list).size > BUNDLE_LIMIT) throw tooMany(new Set(list).size, "refs");
     return { kind: "refs", refs: [...new Set(list)] };
   }
   const f = filter && typeof filter === "object" ? (filter as Record<string, unknown>) : rest;
@@ -34,11 +34,9 @@ export function parseSelection(input: Record<string, unknown>): Selection {
   return { kind: "filter", query: { ...parseCatalogueQuery(filterOnly), page: 1, pageSize: BUNDLE_LIMIT } };
 }
 
-function tooMany(n: number): ApiError {
-  return new ApiError(413, "bundle_too_large", `A bundle holds at most ${BUNDLE_LIMIT.toLocaleString("en")} networks; this selection has ${n.toLocaleString("en")}. Narrow the filter or split the selection.`, {
-    limit: BUNDLE_LIMIT,
-    count: n,
-  });
+function tooMany(n: number, path: "refs" | "filter"): ApiError {
+  const message = `A bundle holds at most ${BUNDLE_LIMIT.toLocaleString("en")} networks; this selection has ${n.toLocaleString("en")}. Narrow the filter or split the selection.`;
+  return new ApiError(413, "bundle_too_large", message, [{ path, message, limit: BUNDLE_LIMIT, count: n }]);
 }
 
 export interface SelectedNetwork {
@@ -72,7 +70,7 @@ export async function resolveSelection(sel: Selection, opts: { enforceLimit?: bo
   if (sel.kind === "filter") {
     const { matches } = await matchCatalogue(sel.query);
     ids = matches.map((m) => m.networkId);
-    if (opts.enforceLimit !== false && ids.length > BUNDLE_LIMIT) throw tooMany(ids.length);
+    if (opts.enforceLimit !== false && ids.length > BUNDLE_LIMIT) throw tooMany(ids.length, "filter");
   } else {
     const refsOrder = new Map(sel.refs.map((r, i) => [r, i]));
     const rows = await sequelize().query<{ ref: string; network_id: number; state: string | null }>(

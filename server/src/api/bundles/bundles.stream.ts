@@ -26,7 +26,8 @@ import { loadCatalogueRows, type CatalogueEntry } from "../catalogue/catalogue.r
 import { catalogueStore } from "../catalogue/catalogue.store";
 import { fileNameOf, matrixCells, matrixCsvBytes, type SelectedNetwork } from "./bundles.selection";
 import { bundleReadme } from "./bundles.readme";
-import { csvHeaderLabels, matrixCsvPieces, quote } from "../../lib/matrix-csv";
+import { csvHeaderLabels, matrixCsvPieces } from "../../lib/matrix-csv";
+import { csvLine } from "../../../../shared/csv";
 import { bundleMatrixCsv, MATRIX_CSV_CORNER, MATRIX_CSV_FORMAT, MATRIX_CSV_MAX_CELLS } from "./bundles.stored-csv";
 import type { CanonicalNetworkJson } from "../../../../shared/network/parse/serialize";
 import { useNativeCrc32 } from "./bundles.crc";
@@ -143,11 +144,6 @@ export const NETWORK_FIELDS: Array<[string, "string" | "integer" | "number" | "b
   ["taxonomic_resolution", "string", "Taxonomic resolution", (e) => e.taxonomicResolution],
   ["not_recorded", "string", "Fields the depositor marked not recorded, with the reason (their columns are empty; never a made-up value)", (e) => e.notRecordedText || null],
 ];
-
-export function csvCell(v: unknown): string {
-  if (v === null || v === undefined) return "";
-  return typeof v === "number" ? String(v) : quote(String(v));
-}
 
 function tableSchema(fields: Array<[string, string, string, unknown]>) {
   return { fields: fields.map(([name, type, description]) => ({ name, type, description })), missingValues: [""] };
@@ -515,8 +511,8 @@ export async function writeBundle(out: Writable, opts: BundleOptions): Promise<{
             `,"schema":{"fields":[${e.kind === "bipartite" ? NODE_FIELD_BIPARTITE : NODE_FIELD_ONE_MODE}${fields}],"primaryKey":["node"]}}`,
         );
         firstResource = false;
-        metricLines.push(METRICS_FIELDS.map((f) => csvCell(f[3](e))).join(","));
-        networkLines.push(NETWORK_FIELDS.map((f) => csvCell(f[3](e))).join(","));
+        metricLines.push(csvLine(METRICS_FIELDS.map((f) => f[3](e))));
+        networkLines.push(csvLine(NETWORK_FIELDS.map((f) => f[3](e))));
         const extra = extras.get(net.networkId);
         if (extra) {
           if (parts.has("partitions")) partLines.get("partitions")!.push(...partitionLines(net.ref, extra));

@@ -11,6 +11,7 @@
  * save, as for drafts; they come back one per cell: row, column, field and message.
  */
 import { parse as csvParse } from "csv-parse/sync";
+import { csvText } from "../../../../shared/csv";
 import { schemaJson } from "../../lib/schemas";
 import { ApiError, type ErrorDetail } from "../../lib/api-error";
 
@@ -42,12 +43,6 @@ export function sheetColumns(): SheetColumn[] {
 
 const ID_COLUMNS = ["network", "file"];
 
-function csvCell(v: unknown): string {
-  if (v === undefined || v === null) return "";
-  const s = String(v);
-  return /[",\r\n]|^\s|\s$/.test(s) ? `"${s.replace(/"/g, '""')}"` : s;
-}
-
 function get(obj: unknown, path: string[]): unknown {
   let cur = obj;
   for (const k of path) {
@@ -60,11 +55,9 @@ function get(obj: unknown, path: string[]): unknown {
 /** The sheet as CSV text (UTF-8 with a byte-order mark, so spreadsheet programs read accents right). */
 export function writeSheet(networks: Array<{ position: number; originalName: string; metadata: Record<string, unknown> }>): string {
   const cols = sheetColumns();
-  const lines = [[...ID_COLUMNS, ...cols.map((c) => c.name)].join(",")];
-  for (const n of networks) {
-    lines.push([n.position, csvCell(n.originalName), ...cols.map((c) => csvCell(get(n.metadata, c.name.split("."))))].join(","));
-  }
-  return `\ufeff${lines.join("\r\n")}\r\n`;
+  const rows: unknown[][] = [[...ID_COLUMNS, ...cols.map((c) => c.name)]];
+  for (const n of networks) rows.push([n.position, n.originalName, ...cols.map((c) => get(n.metadata, c.name.split(".")))]);
+  return csvText(rows, { eol: "\r\n", bom: true });
 }
 
 export interface SheetRow {

@@ -20,6 +20,7 @@ import { GoneError, resolveVersion } from "./network-views.access";
 import { matchCatalogue } from "../catalogue/catalogue.service";
 import { parseCatalogueQuery } from "../catalogue/catalogue.validation";
 import { publicLocality } from "../../lib/public-locality";
+import { csvText } from "../../../../shared/csv";
 
 interface RunResults {
   analysis?: AnalysisResult;
@@ -229,12 +230,11 @@ export async function getNetworkView(accession: string, versionNumber: number, p
 /** Partition as CSV rows `node,level,module` (bipartite level row/column; one-mode "node"). */
 export function partitionCsv(view: NetworkView): string {
   if (!view.rowModules || !view.colModules) throw ApiError.notFound(`${view.ref} has no partition yet (metrics status: ${view.metrics.status}).`);
-  const esc = (s: string) => (/[",\r\n]/.test(s) || /^\s|\s$/.test(s) ? `"${s.replace(/"/g, '""')}"` : s);
-  const lines = ["node,level,module"];
+  const rows: unknown[][] = [["node", "level", "module"]];
   const bip = view.kind === "bipartite";
-  view.rowLabels.forEach((l, i) => lines.push(`${esc(l)},${bip ? "row" : "node"},${view.rowModules![i]}`));
-  if (bip) view.colLabels.forEach((l, j) => lines.push(`${esc(l)},column,${view.colModules![j]}`));
-  return lines.join("\r\n") + "\r\n";
+  view.rowLabels.forEach((l, i) => rows.push([l, bip ? "row" : "node", view.rowModules![i]]));
+  if (bip) view.colLabels.forEach((l, j) => rows.push([l, "column", view.colModules![j]]));
+  return csvText(rows, { eol: "\r\n" });
 }
 
 export function partitionJson(view: NetworkView) {

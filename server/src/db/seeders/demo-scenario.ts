@@ -19,6 +19,7 @@ import { createCollection } from "../../api/collections/collections.service";
 import { addComment } from "../../api/deposits/deposits.comments";
 import type { Viewer } from "../../api/datasets/datasets.service";
 import { demoOrcidOf } from "./demo-researchers";
+import { csvText } from "../../../../shared/csv";
 
 const SEED = 20190501;
 
@@ -82,8 +83,7 @@ function plantedMatrix(rng: Rng, I: number, J: number, k: number, pIn: number, p
 }
 
 function toCsv(rows: string[], cols: string[], A: number[][], corner: string): string {
-  const q = (s: string) => (/[",]/.test(s) ? `"${s.replace(/"/g, '""')}"` : s);
-  return [[corner, ...cols].map(q).join(","), ...A.map((r, i) => [q(rows[i]), ...r.map((x) => (x === 0 ? "" : String(x)))].join(","))].join("\n") + "\n";
+  return csvText([[corner, ...cols], ...A.map((r, i) => [rows[i], ...r.map((x) => (x === 0 ? "" : x))])]);
 }
 
 // ---------- the scenario ----------
