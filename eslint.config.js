@@ -1,4 +1,6 @@
 import { readdirSync } from "node:fs";
+import { dirname, relative, resolve } from "node:path";
+import { fileURLToPath } from "node:url";
 import js from "@eslint/js";
 import tseslint from "typescript-eslint";
 import { importX } from "eslint-plugin-import-x";
@@ -26,6 +28,27 @@ const zones = [
   { target: "./client/src/features", from: "./client/src/app", message: "Features do not import the app shell." },
 ];
 
+// shared/ is imported as `@shared/…` (tsconfig.json "paths"; vite, vitest and the server build resolve it too),
+// never by climbing out of another folder with `../../…/shared/`. Relative imports inside shared/ stay relative.
+const SHARED = fileURLToPath(new globalThis.URL("./shared/", import.meta.url));
+const sharedAlias = {
+  meta: { type: "problem", messages: { alias: "Import shared/ as `@shared/{{rest}}`, not by a relative path from outside it." } },
+  create(context) {
+    if (context.filename.startsWith(SHARED)) return {};
+    const check = (source) => {
+      if (!source || source.type !== "Literal" || typeof source.value !== "string" || !source.value.startsWith(".")) return;
+      const target = resolve(dirname(context.filename), source.value);
+      if (target.startsWith(SHARED)) context.report({ node: source, messageId: "alias", data: { rest: relative(SHARED, target) } });
+    };
+    return {
+      ImportDeclaration: (n) => check(n.source),
+      ExportNamedDeclaration: (n) => check(n.source),
+      ExportAllDeclaration: (n) => check(n.source),
+      ImportExpression: (n) => check(n.source),
+    };
+  },
+};
+
 export default tseslint.config(
   { ignores: ["node_modules", "client/dist", "dist", "coverage", "test-artifacts", "bench-output", ".pg", ".pg-test", ".pg-devtest", ".data"] },
   js.configs.recommended,
@@ -40,13 +63,14 @@ export default tseslint.config(
   },
   {
     files: ["**/*.{ts,tsx}"],
-    plugins: { "import-x": importX },
+    plugins: { "import-x": importX, tanglebank: { rules: { "shared-alias": sharedAlias } } },
     settings: {
       ...importX.flatConfigs.typescript.settings,
       "import-x/resolver-next": [createTypeScriptImportResolver({ project: "./tsconfig.json" })],
     },
     rules: {
       "import-x/no-restricted-paths": ["error", { zones }],
+      "tanglebank/shared-alias": "error",
       "import-x/no-cycle": ["error", { ignoreExternal: true }],
     },
   },

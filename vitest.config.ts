@@ -1,3 +1,4 @@
+import { fileURLToPath } from "node:url";
 import { defineConfig } from "vitest/config";
 
 /**
@@ -6,9 +7,12 @@ import { defineConfig } from "vitest/config";
  * (Chromium via playwright-core against the built client).
  */
 export default defineConfig({
+  // `@shared/…` is shared/, as in tsconfig.json "paths" and vite.config.ts; each project extends this.
+  resolve: { alias: [{ find: /^@shared\//, replacement: fileURLToPath(new URL("./shared/", import.meta.url)) }] },
   test: {
     projects: [
       {
+        extends: true,
         test: {
           name: "unit",
           include: ["tests/shared/**/*.test.ts", "tests/client/**/*.test.ts", "tests/scripts/**/*.test.ts"],
@@ -17,6 +21,7 @@ export default defineConfig({
         },
       },
       {
+        extends: true,
         test: {
           name: "server",
           include: ["tests/server/**/*.test.ts"],
@@ -28,6 +33,7 @@ export default defineConfig({
         },
       },
       {
+        extends: true,
         test: {
           name: "e2e",
           include: ["tests/e2e/**/*.test.ts"],

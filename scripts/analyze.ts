@@ -32,17 +32,17 @@
 import { readFileSync } from "node:fs";
 import { pathToFileURL } from "node:url";
 import { parseArgs } from "node:util";
-import { analyzeNetwork, ANALYZE_DEFAULTS, type AnalysisResult } from "../shared/network/analyze";
-import { NetworkEngineError } from "../shared/network/errors";
-import { objectiveLabel } from "../shared/network/modularity/quality";
-import { NULL_MODEL_INFO, NULL_MODELS, nullModelLabel, type NullModelName } from "../shared/network/null-models/index";
-import type { AnnealingMode } from "../shared/network/optimizer/optimize";
-import type { OptimizerObjective } from "../shared/network/optimizer/quality-graph";
-import { NetworkParseError, parseNetworkFile, type ParseResult } from "../shared/network/parse/index";
-import type { CellMeaning } from "../shared/network/parse/parse";
+import { analyzeNetwork, ANALYZE_DEFAULTS, type AnalysisResult } from "@shared/network/analyze";
+import { NetworkEngineError } from "@shared/network/errors";
+import { objectiveLabel } from "@shared/network/modularity/quality";
+import { NULL_MODEL_INFO, NULL_MODELS, nullModelLabel, type NullModelName } from "@shared/network/null-models/index";
+import type { AnnealingMode } from "@shared/network/optimizer/optimize";
+import type { OptimizerObjective } from "@shared/network/optimizer/quality-graph";
+import { NetworkParseError, parseNetworkFile, type ParseResult } from "@shared/network/parse/index";
+import type { CellMeaning } from "@shared/network/parse/parse";
 
 const CELL_MEANINGS: readonly CellMeaning[] = ["no-interaction", "not-observed"];
-import type { NetworkKind } from "../shared/network/types";
+import type { NetworkKind } from "@shared/network/types";
 
 const USAGE = `usage: npm run -s analyze -- FILE [--kind bipartite|unipartite] [--directed]
          [--format auto|matrix|edgelist] [--sheet NAME] [--missing no-interaction|not-observed]

@@ -31,7 +31,7 @@ import http from "node:http";
 import os from "node:os";
 import { randomBytes } from "node:crypto";
 import autocannon from "autocannon";
-import { createRng } from "../shared/network/random";
+import { createRng } from "@shared/network/random";
 
 const MB = 1024 * 1024;
 const NETWORKS = 10_000;
@@ -56,8 +56,8 @@ const COUNTRIES = ["NO", "SE", "FI", "EE", "IS", "DK", "GB", "IE"];
 
 async function seed(url: string): Promise<void> {
   const { createSequelize } = await import("../server/src/db/sequelize");
-  const { serializeNetwork } = await import("../shared/network/parse/serialize");
-  const { basicMetrics } = await import("../shared/network/metrics/basic");
+  const { serializeNetwork } = await import("@shared/network/parse/serialize");
+  const { basicMetrics } = await import("@shared/network/metrics/basic");
   const { DEFAULT_PIPELINE_SETTINGS, settingsHash } = await import("../server/src/jobs/settings");
   const seq = createSequelize(url, { pool: 2 });
   const [[{ n }]] = (await seq.query(`SELECT count(*)::int AS n FROM networks n JOIN dataset_versions v ON v.id = n.version_id WHERE v.state = 'published'`)) as [[{ n: number }], unknown];

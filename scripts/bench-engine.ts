@@ -34,15 +34,15 @@ import { spawnSync } from "node:child_process";
 import { fileURLToPath } from "node:url";
 import Graph from "graphology";
 import louvain from "graphology-communities-louvain";
-import { modularity } from "../shared/network/modularity/quality";
-import { standardNullModels } from "../shared/network/null-models/index";
-import { leiden, type LeidenTrace } from "../shared/network/optimizer/leiden";
-import { annealingApplies, optimizeModularity, ANNEALING_MAX_NODES, DEFAULT_RESTARTS } from "../shared/network/optimizer/optimize";
-import { buildQualityGraph } from "../shared/network/optimizer/quality-graph";
-import { createRng, deriveSeed } from "../shared/network/random";
-import { nullReplicateQ } from "../shared/network/significance";
-import type { Network } from "../shared/network/types";
-import { ENGINE_VERSION } from "../shared/network/version";
+import { modularity } from "@shared/network/modularity/quality";
+import { standardNullModels } from "@shared/network/null-models/index";
+import { leiden, type LeidenTrace } from "@shared/network/optimizer/leiden";
+import { annealingApplies, optimizeModularity, ANNEALING_MAX_NODES, DEFAULT_RESTARTS } from "@shared/network/optimizer/optimize";
+import { buildQualityGraph } from "@shared/network/optimizer/quality-graph";
+import { createRng, deriveSeed } from "@shared/network/random";
+import { nullReplicateQ } from "@shared/network/significance";
+import type { Network } from "@shared/network/types";
+import { ENGINE_VERSION } from "@shared/network/version";
 import { lfrGraph, plantedBipartiteDC, type PlantedNetwork } from "./lib/hard-networks";
 
 interface Spec {

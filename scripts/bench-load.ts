@@ -21,7 +21,7 @@
 import { spawn, execFileSync, type ChildProcess } from "node:child_process";
 import { readFileSync } from "node:fs";
 import http from "node:http";
-import { createRng } from "../shared/network/random";
+import { createRng } from "@shared/network/random";
 
 const SECONDS = Number(process.env.TB_BENCH_LOAD_SECONDS ?? 20);
 const CLIENTS = 20;

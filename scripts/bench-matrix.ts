@@ -52,8 +52,8 @@ async function main() {
   const models = await import("../server/src/models");
   models.initModels();
 
-  const { createRng } = await import("../shared/network/random");
-  const { parseNetworkText, serializeNetwork, basicMetrics, analyzeNetwork } = await import("../shared/network/index");
+  const { createRng } = await import("@shared/network/random");
+  const { parseNetworkText, serializeNetwork, basicMetrics, analyzeNetwork } = await import("@shared/network/index");
   const { setPipelineSettings, settingsHash, DEFAULT_PIPELINE_SETTINGS } = await import("../server/src/jobs/settings");
   const { hashPassword } = await import("../server/src/lib/passwords");
 

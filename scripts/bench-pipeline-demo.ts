@@ -38,8 +38,8 @@ const { startMetricsWorker, stopMetricsWorker } = await import("../server/src/jo
 const { poolThreads } = await import("../server/src/jobs/pool");
 const { getPipelineSettings } = await import("../server/src/jobs/settings");
 const { seedDemoScenario } = await import("../server/src/db/seeders/demo-scenario");
-const { annealingApplies } = await import("../shared/network/optimizer/optimize");
-const { deserializeNetwork } = await import("../shared/network/index");
+const { annealingApplies } = await import("@shared/network/optimizer/optimize");
+const { deserializeNetwork } = await import("@shared/network/index");
 const { nullChunk, observedAnalysis } = await import("../server/src/jobs/compute");
 
 // ---- an empty database, as on a fresh clone --------------------------------------------------------

@@ -26,7 +26,7 @@ if (process.argv.includes("--demo")) await import("./bench-pipeline-demo");
 
 import { readFileSync } from "node:fs";
 import { availableParallelism, loadavg } from "node:os";
-import { createRng } from "../shared/network/random";
+import { createRng } from "@shared/network/random";
 
 const N = Number(process.env.BENCH_NETWORKS ?? 200);
 const NULLS = Number(process.env.BENCH_NULLS ?? 100);
@@ -52,7 +52,7 @@ const { closeSessionPool } = await import("../server/src/app");
 const { startMetricsWorker, stopMetricsWorker } = await import("../server/src/jobs/metrics-worker");
 const { poolThreads } = await import("../server/src/jobs/pool");
 const { startBatch, getBatch } = await import("../server/src/api/pipeline/pipeline.service");
-const { parseNetworkText, serializeNetwork, basicMetrics } = await import("../shared/network/index");
+const { parseNetworkText, serializeNetwork, basicMetrics } = await import("@shared/network/index");
 const { createHash } = await import("node:crypto");
 
 /** Uniform numbers in [0, 1) from the engine's seeded generator (shared/network/random.ts). */

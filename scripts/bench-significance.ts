@@ -22,7 +22,7 @@
 import { availableParallelism } from "node:os";
 import { parseArgs } from "node:util";
 import { Worker } from "node:worker_threads";
-import { NULL_MODEL_INFO, standardNullModels, type NullModelName } from "../shared/network/null-models/index";
+import { NULL_MODEL_INFO, standardNullModels, type NullModelName } from "@shared/network/null-models/index";
 import { classNetwork, type ClassName } from "./lib/significance-classes";
 import type { SignificanceJobResult, SignificanceTask } from "./lib/significance-job";
 

@@ -15,8 +15,8 @@
  *   module with probability `pIn` (else to any column), the column drawn in proportion to its propensity.
  *   With `modules: 1` it is a random bipartite network with heavy-tailed degrees and no modules.
  */
-import { createRng, type Rng } from "../../shared/network/random";
-import type { Network } from "../../shared/network/types";
+import { createRng, type Rng } from "@shared/network/random";
+import type { Network } from "@shared/network/types";
 
 /** Integer x ≥ min with P(x) ∝ x^−τ (continuous power law rounded down), capped at max. */
 function powerLawInt(rng: Rng, min: number, max: number, tau: number): number {

@@ -9,7 +9,7 @@
  * - planted: three diagonal blocks, link probability 2.4·C inside (0.6 at C = 0.25) and 0.2·C outside.
  * Normal deviates by Box–Muller from the engine's seeded generator, so a seed gives the same network anywhere.
  */
-import { createRng, networkFromTriples, type Network } from "../../shared/network/index";
+import { createRng, networkFromTriples, type Network } from "@shared/network/index";
 
 export const NON_MODULAR_CLASSES = ["binary", "lognormal", "counts", "nested"] as const;
 

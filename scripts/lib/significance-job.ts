@@ -3,10 +3,10 @@
  * then for each null model compute N null replicates optimized the same way, and return p and z per model
  * with the thread time spent on that model's replicates.
  */
-import { optimizeModularity } from "../../shared/network/optimizer/optimize";
-import { nullReplicateQ, summarizeNulls } from "../../shared/network/significance";
-import { deriveSeed } from "../../shared/network/random";
-import type { NullModelName } from "../../shared/network/null-models/index";
+import { optimizeModularity } from "@shared/network/optimizer/optimize";
+import { nullReplicateQ, summarizeNulls } from "@shared/network/significance";
+import { deriveSeed } from "@shared/network/random";
+import type { NullModelName } from "@shared/network/null-models/index";
 import { classNetwork, type ClassName } from "./significance-classes";
 
 export interface SignificanceTask {

@@ -10,7 +10,7 @@
  * 1 no such account or the last admin, 2 bad arguments or settings.
  */
 import { config } from "./config/env";
-import { ROLES, type Role } from "../../shared/types/auth";
+import { ROLES, type Role } from "@shared/types/auth";
 
 const USAGE = "usage: set-role EMAIL ROLE   (ROLE: depositor, curator or admin)";
 

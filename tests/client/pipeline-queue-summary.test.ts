@@ -1,6 +1,6 @@
 /** The Queue panel's sentence on the metrics pipeline page, from the counts of GET /api/v1/pipeline/queue. */
 import { describe, expect, it } from "vitest";
-import type { QueuePhaseCounts, QueueProgress } from "../../shared/types/pipeline";
+import type { QueuePhaseCounts, QueueProgress } from "@shared/types/pipeline";
 import { percentOf, queueSummary, timeLeftPhrase } from "../../client/src/features/pipeline/utils/format";
 
 function counts(c: Partial<QueuePhaseCounts>): QueuePhaseCounts {

@@ -1,7 +1,7 @@
 /** How the review page writes a diff's values, network sizes and node lists. */
 import { describe, expect, it } from "vitest";
 import { formatNames, formatShape, formatValue } from "../../client/src/features/review/utils/diff-format";
-import type { NetworkSide } from "../../shared/types/review";
+import type { NetworkSide } from "@shared/types/review";
 
 const side = (over: Partial<NetworkSide>): NetworkSide => ({
   networkId: 1, position: 1, name: "n", originalName: "n.csv", sha256: "", kind: "bipartite", directed: false, format: "matrix",

@@ -13,7 +13,7 @@ import { createApp } from "../../server/src/app";
 import { shutdownServerResources } from "../../server/src/index";
 import { sequelize } from "../../server/src/db/sequelize";
 import { catalogueStore } from "../../server/src/api/catalogue/catalogue.store";
-import { deserializeNetwork, parseNetworkText, serializeNetwork } from "../../shared/network/index";
+import { deserializeNetwork, parseNetworkText, serializeNetwork } from "@shared/network/index";
 import { resetDatabase } from "../setup/db";
 import { unzip } from "./support/unzip";
 import { publishDataset, type PublishedFixture } from "./support/catalogue-fixtures";

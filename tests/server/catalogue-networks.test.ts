@@ -8,7 +8,7 @@ import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { createApp } from "../../server/src/app";
 import { shutdownServerResources } from "../../server/src/index";
 import { Network } from "../../server/src/models";
-import { deserializeNetwork, networkToMatrixCsv, parseNetworkText, serializeNetwork } from "../../shared/network/index";
+import { deserializeNetwork, networkToMatrixCsv, parseNetworkText, serializeNetwork } from "@shared/network/index";
 import { resetDatabase } from "../setup/db";
 import { publishDataset, type PublishedFixture } from "./support/catalogue-fixtures";
 

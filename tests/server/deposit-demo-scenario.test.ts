@@ -12,7 +12,7 @@ import { sequelize } from "../../server/src/db/sequelize";
 import { seedDemoAccounts } from "../../server/src/db/seeders/demo-accounts";
 import { seedDemoScenario } from "../../server/src/db/seeders/demo-scenario";
 import { resetDatabase } from "../setup/db";
-import { SEARCH_EXAMPLE } from "../../shared/types/catalogue";
+import { SEARCH_EXAMPLE } from "@shared/types/catalogue";
 import { startMailCatcher } from "./support/stack";
 import type { MailCatcher } from "../../server/src/lib/mail-catcher";
 

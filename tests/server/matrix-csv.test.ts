@@ -8,8 +8,8 @@
  */
 import { describe, expect, it } from "vitest";
 import { parse as parseCsv } from "csv-parse/sync";
-import { createRng, deserializeNetwork, MATRIX_CORNER, networkToMatrixCsv, parseNetworkText, serializeNetwork, type Network } from "../../shared/network/index";
-import { networkFromTriples } from "../../shared/network/graph";
+import { createRng, deserializeNetwork, MATRIX_CORNER, networkToMatrixCsv, parseNetworkText, serializeNetwork, type Network } from "@shared/network/index";
+import { networkFromTriples } from "@shared/network/graph";
 import { csvHeaderLabels, matrixCsvPieces, matrixCsvFromCanonical } from "../../server/src/lib/matrix-csv";
 import { useNativeCrc32 } from "../../server/src/api/bundles/bundles.crc";
 import { numberFieldsOfCsv } from "../../server/src/api/bundles/bundles.stream";

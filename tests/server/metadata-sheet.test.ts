@@ -12,7 +12,7 @@ import { Network } from "../../server/src/models";
 import { resetDatabase } from "../setup/db";
 import { agentFor, createUser, type SignedInAgent } from "./support/accounts";
 import { makeDraft, networkMeta } from "./support/deposit-helpers";
-import { csvText } from "../../shared/csv";
+import { csvText } from "@shared/csv";
 
 let owner: SignedInAgent;
 let other: SignedInAgent;

@@ -10,8 +10,8 @@ import { createApp } from "../../server/src/app";
 import { shutdownServerResources } from "../../server/src/index";
 import { resetDatabase } from "../setup/db";
 import { createFixtureDataset, fixtureUser, FIXTURE_PASSWORD, DAVIS_CSV } from "./support/published-fixture";
-import { deserializeNetwork, modularity } from "../../shared/network/index";
-import type { NetworkView } from "../../shared/types/network-view";
+import { deserializeNetwork, modularity } from "@shared/network/index";
+import type { NetworkView } from "@shared/types/network-view";
 
 let app: Express;
 let pub: Awaited<ReturnType<typeof createFixtureDataset>>;

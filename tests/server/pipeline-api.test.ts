@@ -6,8 +6,8 @@
  * exists; the batch history and a network's run history keep every run.
  */
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import type { BatchProgress, PipelineSettings } from "../../shared/types/pipeline";
-import type { DatasetDetail } from "../../shared/types/dataset";
+import type { BatchProgress, PipelineSettings } from "@shared/types/pipeline";
+import type { DatasetDetail } from "@shared/types/dataset";
 import { createApp } from "../../server/src/app";
 import { sequelize } from "../../server/src/db/sequelize";
 import { shutdownServerResources } from "../../server/src/index";

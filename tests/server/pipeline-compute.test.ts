@@ -7,8 +7,8 @@
  * & Gardner 1941; 18 × 14, 89 links), from tests/fixtures (read by tests/shared/optimizer/helpers.ts).
  */
 import { afterAll, describe, expect, it } from "vitest";
-import { analyzeNetwork, serializeNetwork, type Network } from "../../shared/network/index";
-import type { PipelineSettings } from "../../shared/types/pipeline";
+import { analyzeNetwork, serializeNetwork, type Network } from "@shared/network/index";
+import type { PipelineSettings } from "@shared/types/pipeline";
 import { chunkReplicates, combineAnalysis, nullChunk, type NullReplicatesByModel } from "../../server/src/jobs/compute";
 import { closePool, runNulls, runObserved } from "../../server/src/jobs/pool";
 import { davis, karate } from "../shared/optimizer/helpers";

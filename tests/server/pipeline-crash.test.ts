@@ -6,7 +6,7 @@
  */
 import { spawn, type ChildProcess } from "node:child_process";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import type { PipelineSettings } from "../../shared/types/pipeline";
+import type { PipelineSettings } from "@shared/types/pipeline";
 import { closeSequelize, sequelize } from "../../server/src/db/sequelize";
 import { enqueueNetworkMetrics } from "../../server/src/jobs/enqueue";
 import { stopQueue } from "../../server/src/jobs/queue";

@@ -6,7 +6,7 @@
  */
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { QueryTypes } from "sequelize";
-import type { QueueProgress } from "../../shared/types/pipeline";
+import type { QueueProgress } from "@shared/types/pipeline";
 import { createApp } from "../../server/src/app";
 import { sequelize } from "../../server/src/db/sequelize";
 import { shutdownServerResources } from "../../server/src/index";

@@ -6,8 +6,8 @@
  * of the batch completes.
  */
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { analyzeNetwork, deserializeNetwork } from "../../shared/network/index";
-import type { PipelineSettings } from "../../shared/types/pipeline";
+import { analyzeNetwork, deserializeNetwork } from "@shared/network/index";
+import type { PipelineSettings } from "@shared/types/pipeline";
 import { sequelize } from "../../server/src/db/sequelize";
 import { closeSequelize } from "../../server/src/db/sequelize";
 import { enqueueNetworkMetrics } from "../../server/src/jobs/enqueue";

@@ -13,8 +13,8 @@ import pg from "pg";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { runParseTask } from "../../server/src/lib/parse/task";
 import { runTask } from "../../server/src/jobs/compute";
-import { serializeNetwork } from "../../shared/network/index";
-import type { PipelineSettings } from "../../shared/types/pipeline";
+import { serializeNetwork } from "@shared/network/index";
+import type { PipelineSettings } from "@shared/types/pipeline";
 import { karate } from "../shared/optimizer/helpers";
 
 const ROOT = join(import.meta.dirname, "..", "..");

@@ -15,7 +15,7 @@ import { shutdownServerResources } from "../../server/src/index";
 import { resetRateLimits } from "../../server/src/middlewares/rate-limit";
 import { catalogueStore } from "../../server/src/api/catalogue/catalogue.store";
 import { datasetHtmlRenderer } from "../../server/src/api/network-views/dataset-html";
-import type { Locality } from "../../shared/types/dataset";
+import type { Locality } from "@shared/types/dataset";
 import { resetDatabase } from "../setup/db";
 import { unzip } from "./support/unzip";
 import { agentFor, createUser } from "./support/accounts";

@@ -12,7 +12,7 @@ import { resetRateLimits } from "../../server/src/middlewares/rate-limit";
 import { sequelize } from "../../server/src/db/sequelize";
 import { cellDiff, fieldChanges } from "../../server/src/api/reviews/reviews.diff";
 import type { MailCatcher } from "../../server/src/lib/mail-catcher";
-import type { NetworkChange, SubmissionDiffResponse } from "../../shared/types/review";
+import type { NetworkChange, SubmissionDiffResponse } from "@shared/types/review";
 import { resetDatabase } from "../setup/db";
 import { agentFor, createUser, type SignedInAgent } from "./support/accounts";
 import { startMailCatcher } from "./support/stack";

@@ -13,7 +13,7 @@ import { createApp } from "../../server/src/app";
 import { SCHEMAS_DIR } from "../../server/src/config/paths";
 import { shutdownServerResources } from "../../server/src/index";
 import { rawSchemaErrors, schemaFindings, schemaJson, type SchemaName } from "../../server/src/lib/schemas";
-import { validateWithSchema, humanizeSchemaErrors, publicLocality, roundToGrid, networkCrossChecks } from "../../shared/validation";
+import { validateWithSchema, humanizeSchemaErrors, publicLocality, roundToGrid, networkCrossChecks } from "@shared/validation";
 
 const dir = (kind: "valid" | "invalid") => join(SCHEMAS_DIR, "examples", kind);
 const load = (kind: "valid" | "invalid", f: string) => JSON.parse(readFileSync(join(dir(kind), f), "utf8")) as unknown;

@@ -6,7 +6,7 @@
  * visible with a note of the failed attempt (its error only for curators and admins).
  */
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import type { BatchPreview, PipelineSettings } from "../../shared/types/pipeline";
+import type { BatchPreview, PipelineSettings } from "@shared/types/pipeline";
 import { createApp } from "../../server/src/app";
 import { sequelize } from "../../server/src/db/sequelize";
 import { shutdownServerResources } from "../../server/src/index";

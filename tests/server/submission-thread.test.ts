@@ -11,7 +11,7 @@ import { resetRateLimits } from "../../server/src/middlewares/rate-limit";
 import { AuditLog, SubmissionComment } from "../../server/src/models";
 import { mailSettled } from "../../server/src/emails/mailer";
 import type { MailCatcher } from "../../server/src/lib/mail-catcher";
-import type { ThreadEntry, ThreadResponse } from "../../shared/types/review";
+import type { ThreadEntry, ThreadResponse } from "@shared/types/review";
 import { resetDatabase } from "../setup/db";
 import { agentFor, createUser, type SignedInAgent } from "./support/accounts";
 import { startMailCatcher } from "./support/stack";

@@ -7,7 +7,7 @@ import { describe, expect, it } from "vitest";
 import { parse as parseBibTeX } from "@retorquere/bibtex-parser";
 import { Cite } from "@citation-js/core";
 import "@citation-js/plugin-ris";
-import { collectionToBibTeX, collectionToRIS, formatCollectionCitation, datasetBibTeX, formatCitationText, splitName, toBibTeX, toRIS, escapeBibTeX, type CitationInput } from "../../shared/citation";
+import { collectionToBibTeX, collectionToRIS, formatCollectionCitation, datasetBibTeX, formatCitationText, splitName, toBibTeX, toRIS, escapeBibTeX, type CitationInput } from "@shared/citation";
 
 const input: CitationInput = {
   metadata: {

@@ -5,7 +5,7 @@
  */
 import { describe, expect, it } from "vitest";
 import { parse } from "csv-parse/sync";
-import { csvCell, csvLine, csvText, needsQuotes, quoteField, type CsvDelimiter } from "../../shared/csv";
+import { csvCell, csvLine, csvText, needsQuotes, quoteField, type CsvDelimiter } from "@shared/csv";
 
 const PIECES = ["a", "Bombus", ",", '"', "\n", "\r", " ", "\t", "\v", "\f", "\u00a0", "\u1680", "\u2003", "\u2028", "\u2029", "\u202f", "\u205f", "\u3000", "\ufeff", "\u0085", "\u200b", "é", "鳥", ";", "'"];
 

@@ -4,9 +4,9 @@
  * pixel each cell falls in), on seeded random networks.
  */
 import { describe, expect, it } from "vitest";
-import { buildMatrixImage, orderByModule } from "../../shared/plots/matrix-image";
-import { createRng } from "../../shared/network/random";
-import { BETWEEN_MODULES, hexToRgb, moduleBand, moduleColour } from "../../shared/plots/palette";
+import { buildMatrixImage, orderByModule } from "@shared/plots/matrix-image";
+import { createRng } from "@shared/network/random";
+import { BETWEEN_MODULES, hexToRgb, moduleBand, moduleColour } from "@shared/plots/palette";
 
 function randomCsr(nRows: number, nCols: number, perRow: number, seed: number) {
   const rng = createRng(seed);

@@ -3,7 +3,7 @@
  * error responses into ApiClientError({ status, code, message, details }). No toasts, no redirects:
  * callers show errors through query state.
  */
-import type { ApiErrorBody, ErrorDetail } from "../../../shared/types/api";
+import type { ApiErrorBody, ErrorDetail } from "@shared/types/api";
 
 export class ApiClientError extends Error {
   constructor(

@@ -11,13 +11,13 @@
  * and `combineAnalysis` joins them into exactly the object `analyzeNetwork` returns for the same settings
  * (tests/server/pipeline-compute.test.ts checks the equality).
  */
-import { analyzeNetwork, buildNullFigures, primaryNull, resolveNullModels, type AnalysisResult, type NullModelChoice } from "../../../shared/network/analyze";
-import type { NullModelName } from "../../../shared/network/null-models/index";
-import { NetworkEngineError } from "../../../shared/network/errors";
-import { deserializeNetwork } from "../../../shared/network/parse/index";
-import { nullReplicateStats, type NullReplicate } from "../../../shared/network/significance";
-import type { OptimizerObjective } from "../../../shared/network/optimizer/quality-graph";
-import type { PipelineSettings } from "../../../shared/types/pipeline";
+import { analyzeNetwork, buildNullFigures, primaryNull, resolveNullModels, type AnalysisResult, type NullModelChoice } from "@shared/network/analyze";
+import type { NullModelName } from "@shared/network/null-models/index";
+import { NetworkEngineError } from "@shared/network/errors";
+import { deserializeNetwork } from "@shared/network/parse/index";
+import { nullReplicateStats, type NullReplicate } from "@shared/network/significance";
+import type { OptimizerObjective } from "@shared/network/optimizer/quality-graph";
+import type { PipelineSettings } from "@shared/types/pipeline";
 
 export interface ObservedTask {
   kind: "observed";

@@ -21,8 +21,8 @@ import { sequelize } from "../db/sequelize";
 import { logger } from "../lib/logger";
 import { DataciteClient } from "../lib/datacite/client";
 import { attributesHash, conceptDoiAttributes, conceptDoiName, versionDoiAttributes, versionDoiName, type DoiDatasetInput } from "../lib/datacite/metadata";
-import type { StudyMetadata } from "../../../shared/types/dataset";
-import { doiUrl } from "../../../shared/citation";
+import type { StudyMetadata } from "@shared/types/dataset";
+import { doiUrl } from "@shared/citation";
 import { getBoss } from "./queue";
 
 export const DOI_QUEUE = "doi-sync";

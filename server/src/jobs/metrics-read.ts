@@ -12,7 +12,7 @@
  * (metric_run_nulls), primary first, and the top-level z, Q_rel, ΔQ and p are the primary's (`nullModel`).
  */
 import { QueryTypes } from "sequelize";
-import type { MetricsStatus, NetworkMetricsSummary, NullFigureSummary } from "../../../shared/types/dataset";
+import type { MetricsStatus, NetworkMetricsSummary, NullFigureSummary } from "@shared/types/dataset";
 import { sequelize } from "../db/sequelize";
 import { readNullFigures } from "./null-figures";
 import { getPipelineSettings, settingsHash } from "./settings";

@@ -4,9 +4,9 @@
  * run succeeds), the test fixtures and every read path (pages, catalogue, bundles, compare view).
  */
 import { QueryTypes, type Transaction } from "sequelize";
-import type { AnalysisResult } from "../../../shared/network/analyze";
-import { NULL_MODELS } from "../../../shared/network/null-models/index";
-import type { NullFigureSummary } from "../../../shared/types/dataset";
+import type { AnalysisResult } from "@shared/network/analyze";
+import { NULL_MODELS } from "@shared/network/null-models/index";
+import type { NullFigureSummary } from "@shared/types/dataset";
 import { sequelize } from "../db/sequelize";
 
 /** Stores the figures of every null model of `analysis` for run `runId` (replacing any stored ones). */

@@ -5,7 +5,7 @@
 import { Piscina } from "piscina";
 import { jobSettings } from "../config/env";
 import { ConfigurationError, isConfigurationFailure, type MetricsTask, type ObservedResult } from "./compute";
-import type { NullReplicate } from "../../../shared/network/significance";
+import type { NullReplicate } from "@shared/network/significance";
 
 let pool: Piscina | undefined;
 

@@ -6,7 +6,7 @@
  * queued run whose job never arrived.
  */
 import { QueryTypes, type Transaction } from "sequelize";
-import type { PipelineSettings } from "../../../shared/types/pipeline";
+import type { PipelineSettings } from "@shared/types/pipeline";
 import { sequelize } from "../db/sequelize";
 import { normalizeSettings, settingsHash } from "./settings";
 

@@ -6,7 +6,7 @@
  * fine). The answer is a 422 whose details name each network and why.
  */
 import { QueryTypes } from "sequelize";
-import type { PipelineSettings } from "../../../shared/types/pipeline";
+import type { PipelineSettings } from "@shared/types/pipeline";
 import { sequelize } from "../db/sequelize";
 import { ApiError, type ErrorDetail } from "../lib/api-error";
 

@@ -7,9 +7,9 @@
  */
 import { createHash } from "node:crypto";
 import type { Transaction } from "sequelize";
-import { NULL_DATA_KIND_LABEL, NULL_MODELS as ENGINE_NULL_MODELS, NULL_MODEL_INFO, nullModelLabel, type NullDataKind } from "../../../shared/network/null-models/index";
-import { ENGINE_VERSION } from "../../../shared/network/version";
-import type { PipelineSettings } from "../../../shared/types/pipeline";
+import { NULL_DATA_KIND_LABEL, NULL_MODELS as ENGINE_NULL_MODELS, NULL_MODEL_INFO, nullModelLabel, type NullDataKind } from "@shared/network/null-models/index";
+import { ENGINE_VERSION } from "@shared/network/version";
+import type { PipelineSettings } from "@shared/types/pipeline";
 import { sequelize } from "../db/sequelize";
 import type { ErrorDetail } from "../lib/api-error";
 

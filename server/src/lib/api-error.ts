@@ -1,6 +1,6 @@
 /** A typed error that services throw; the error handler maps it to `{ code, message, details }`. */
-import type { Tombstone } from "../../../shared/types/network-view";
-import type { ErrorDetail } from "../../../shared/types/api";
+import type { Tombstone } from "@shared/types/network-view";
+import type { ErrorDetail } from "@shared/types/api";
 
 export type { ErrorDetail };
 

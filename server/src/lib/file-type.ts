@@ -1,5 +1,5 @@
 /** Content type of a stored original network file, from what its bytes are (a workbook may be named .csv). */
-import { detectSignature } from "../../../shared/network/parse/signature";
+import { detectSignature } from "@shared/network/parse/signature";
 
 export function originalFileType(name: string, bytes: Uint8Array): string {
   const sig = detectSignature(bytes);

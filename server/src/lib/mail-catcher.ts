@@ -8,7 +8,7 @@ import { appendFileSync, existsSync, mkdirSync, readFileSync } from "node:fs";
 import { dirname } from "node:path";
 import { SMTPServer } from "smtp-server";
 import { simpleParser } from "mailparser";
-import type { OutboxMessage } from "../../../shared/types/outbox";
+import type { OutboxMessage } from "@shared/types/outbox";
 
 /** A caught message: what the Outbox shows (shared/types/outbox.ts). */
 export type CapturedMail = OutboxMessage;

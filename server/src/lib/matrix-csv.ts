@@ -11,9 +11,9 @@
  * indices in range and strictly increasing, positive finite weights) only make sure a damaged row can
  * never produce a malformed file: it throws instead.
  */
-import type { CanonicalNetworkJson } from "../../../shared/network/parse/serialize";
-import { MATRIX_CORNER } from "../../../shared/network/parse/write";
-import { quoteField } from "../../../shared/csv";
+import type { CanonicalNetworkJson } from "@shared/network/parse/serialize";
+import { MATRIX_CORNER } from "@shared/network/parse/write";
+import { quoteField } from "@shared/csv";
 
 const COMMA = 0x2c;
 const NEWLINE = 0x0a;

@@ -5,8 +5,8 @@
  * unknown generalisation means 0.1°, the cautious default, never "exact"; coordinates that are not numbers
  * are left out; only the known locality fields are kept. The precision field then states the grid used.
  */
-import type { CoordinateGeneralisation, Locality } from "../../../shared/types/dataset";
-import { GENERALISATION_STEPS, publicLocality as toGrid } from "../../../shared/validation/coordinates";
+import type { CoordinateGeneralisation, Locality } from "@shared/types/dataset";
+import { GENERALISATION_STEPS, publicLocality as toGrid } from "@shared/validation/coordinates";
 
 function generalisationOf(l: Partial<Locality>): CoordinateGeneralisation {
   const g = l.generalisation as string | undefined;

@@ -8,7 +8,7 @@ import { join } from "node:path";
 import { Ajv2020 } from "ajv/dist/2020.js";
 import addFormatsModule from "ajv-formats";
 import type { ErrorObject, ValidateFunction } from "ajv";
-import { humanizeSchemaErrors, networkCrossChecks, type FieldError, type NetworkFacts } from "../../../shared/validation";
+import { humanizeSchemaErrors, networkCrossChecks, type FieldError, type NetworkFacts } from "@shared/validation";
 import { SCHEMAS_DIR } from "../config/paths";
 
 export type SchemaName = "study" | "network";

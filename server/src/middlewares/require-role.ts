@@ -1,6 +1,6 @@
 import type { RequestHandler } from "express";
 import { ApiError } from "../lib/api-error";
-import { hasRole, type Role } from "../../../shared/types/auth";
+import { hasRole, type Role } from "@shared/types/auth";
 
 const SAFE_METHODS = new Set(["GET", "HEAD", "OPTIONS"]);
 

@@ -1,6 +1,6 @@
 import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes, type Sequelize } from "sequelize";
 
-import { ROLES, type Role } from "../../../shared/types/auth";
+import { ROLES, type Role } from "@shared/types/auth";
 
 export { ROLES, type Role };
 

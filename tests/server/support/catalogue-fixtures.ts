@@ -6,14 +6,14 @@
  * Invented data, for tests only.
  */
 import { createHash } from "node:crypto";
-import { basicMetrics, parseNetworkText, serializeNetwork } from "../../../shared/network/index";
-import type { NetworkMetadata, StudyMetadata, VersionState } from "../../../shared/types/dataset";
+import { basicMetrics, parseNetworkText, serializeNetwork } from "@shared/network/index";
+import type { NetworkMetadata, StudyMetadata, VersionState } from "@shared/types/dataset";
 import { sequelize } from "../../../server/src/db/sequelize";
 import { DEFAULT_PIPELINE_SETTINGS, settingsHash } from "../../../server/src/jobs/settings";
 import { Dataset, DatasetVersion, MetricRun, Network, StoredFile, User } from "../../../server/src/models";
 import { hashPassword } from "../../../server/src/lib/passwords";
 import { storeMatrixCsvs } from "../../../server/src/api/bundles/bundles.stored-csv";
-import { createRng } from "../../../shared/network/random";
+import { createRng } from "@shared/network/random";
 
 export const CURRENT_HASH = settingsHash(DEFAULT_PIPELINE_SETTINGS);
 

@@ -3,10 +3,10 @@
  * service is exercised by its own tests). Networks are parsed by the engine from small matrices.
  */
 import { createHash } from "node:crypto";
-import { parseNetworkText, serializeNetwork, basicMetrics } from "../../../shared/network/index";
+import { parseNetworkText, serializeNetwork, basicMetrics } from "@shared/network/index";
 import { Dataset, DatasetVersion, Network, StoredFile, User } from "../../../server/src/models";
 import { networkMeta, studyMeta } from "./deposit-helpers";
-import { createRng } from "../../../shared/network/random";
+import { createRng } from "@shared/network/random";
 
 let counter = 0;
 

@@ -8,11 +8,11 @@
 import { createHash } from "node:crypto";
 import { readFileSync } from "node:fs";
 import { join } from "node:path";
-import { analyzeNetwork, nullReplicateStats, parseNetworkText, serializeNetwork, basicMetrics, type NullReplicate } from "../../../shared/network/index";
-import { resolveNullModels, type AnalysisResult } from "../../../shared/network/analyze";
+import { analyzeNetwork, nullReplicateStats, parseNetworkText, serializeNetwork, basicMetrics, type NullReplicate } from "@shared/network/index";
+import { resolveNullModels, type AnalysisResult } from "@shared/network/analyze";
 import { writeNullFigures } from "../../../server/src/jobs/null-figures";
-import type { NetworkMetadata, StudyMetadata, VersionState } from "../../../shared/types/dataset";
-import type { PipelineSettings } from "../../../shared/types/pipeline";
+import type { NetworkMetadata, StudyMetadata, VersionState } from "@shared/types/dataset";
+import type { PipelineSettings } from "@shared/types/pipeline";
 import { hashPassword } from "../../../server/src/lib/passwords";
 import { AuditLog, Dataset, DatasetVersion, MetricRun, Network, StoredFile, User } from "../../../server/src/models";
 import type { Role } from "../../../server/src/models/user.model";

@@ -13,7 +13,7 @@
  * columns); planted: three diagonal blocks with link probability 0.6 inside and 0.05 outside.
  */
 import { describe, expect, it } from "vitest";
-import { analyzeNetwork, deriveSeed, type NullModelName } from "../../../shared/network/index";
+import { analyzeNetwork, deriveSeed, type NullModelName } from "@shared/network/index";
 import { classNetwork, type ClassName } from "../../../scripts/lib/significance-classes";
 
 function significantShare(cls: ClassName, model: NullModelName, count = 40): number {

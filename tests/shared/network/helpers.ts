@@ -1,8 +1,8 @@
 /** Test helpers: small networks from edge lists or matrices, random graphs, and dense reference formulas. */
-import { networkFromTriples } from "../../../shared/network/graph";
-import type { Network } from "../../../shared/network/types";
-import type { Rng } from "../../../shared/network/random";
-import type { Objective } from "../../../shared/network/modularity/quality";
+import { networkFromTriples } from "@shared/network/graph";
+import type { Network } from "@shared/network/types";
+import type { Rng } from "@shared/network/random";
+import type { Objective } from "@shared/network/modularity/quality";
 
 export function labels(n: number, prefix = "n"): string[] {
   return Array.from({ length: n }, (_, i) => `${prefix}${i}`);

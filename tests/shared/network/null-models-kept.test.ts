@@ -7,7 +7,7 @@ import { describe, expect, it } from "vitest";
 import {
   basicMetrics, configurationNull, createRng, deriveSeed, generateNull, linkWeights, marginalTotals, nullModelProblem,
   probabilisticNull, totalsConnectanceNull, validateNetwork, weightShuffleNull, type Network, type NullModelName,
-} from "../../../shared/network/index";
+} from "@shared/network/index";
 import { bipartite, dense, oneMode, randomMatrix, randomOneMode } from "./helpers";
 
 const degrees = (n: Network) => {

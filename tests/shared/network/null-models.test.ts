@@ -2,7 +2,7 @@ import { describe, expect, it } from "vitest";
 import {
   basicMetrics, createRng, curveballNull, deriveSeed, erdosRenyiNull, generateNull, marginalTotals,
   NetworkEngineError, patefieldNull, serializeNetwork, validateNetwork, type Network, type NullModelName,
-} from "../../../shared/network/index";
+} from "@shared/network/index";
 import { bipartite, dense, oneMode, randomMatrix, randomOneMode } from "./helpers";
 
 const degreesOf = (net: Network) => {

@@ -5,7 +5,7 @@
  */
 import { readFileSync } from "node:fs";
 import { describe, expect, it } from "vitest";
-import { detectSignature, NetworkParseError, parseNetworkFile, parseNetworkText, type ParseOptions } from "../../../shared/network/index";
+import { detectSignature, NetworkParseError, parseNetworkFile, parseNetworkText, type ParseOptions } from "@shared/network/index";
 import { dense } from "./helpers";
 
 const shape = (name: string) => new Uint8Array(readFileSync(new URL(`../../fixtures/shapes/${name}`, import.meta.url)));

@@ -3,7 +3,7 @@ import { describe, expect, it } from "vitest";
 import {
   basicMetrics, createRng, deserializeNetwork, NetworkEngineError, NetworkParseError, networkToEdgeListCsv,
   networkToMatrixCsv, parseNetworkText, serializeNetwork, validateNetwork, type Network, type ParseOptions,
-} from "../../../shared/network/index";
+} from "@shared/network/index";
 import { bipartite, dense, oneMode, randomMatrix, randomOneMode } from "./helpers";
 
 const fixture = (name: string) => readFileSync(new URL(`../../fixtures/${name}`, import.meta.url));

@@ -4,7 +4,7 @@ import { readFileSync } from "node:fs";
 import { describe, expect, it } from "vitest";
 import {
   createRng, defaultObjective, modularity, NetworkEngineError, parseNetworkText, type Objective,
-} from "../../../shared/network/index";
+} from "@shared/network/index";
 import { bipartite, denseModularity, oneMode, randomMatrix, randomOneMode, randomPartition } from "./helpers";
 
 const fixture = (name: string) => readFileSync(new URL(`../../fixtures/${name}`, import.meta.url));

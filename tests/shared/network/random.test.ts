@@ -4,7 +4,7 @@
  * draws below 2^32 − (2^32 mod n), reduced mod n — computed with exact integer arithmetic (BigInt).
  */
 import { describe, expect, it } from "vitest";
-import { createRng, deriveSeed, DrawBuffer } from "../../../shared/network/random";
+import { createRng, deriveSeed, DrawBuffer } from "@shared/network/random";
 
 describe("createRng", () => {
   it("gives the pinned sequence for a seed", () => {

@@ -2,7 +2,7 @@ import { readFileSync } from "node:fs";
 import { describe, expect, it } from "vitest";
 import {
   basicMetrics, classifyRole, createRng, nodeRoles, nodf, parseNetworkText, type Network,
-} from "../../../shared/network/index";
+} from "@shared/network/index";
 import { bipartite, dense, oneMode, randomMatrix, randomOneMode, randomPartition } from "./helpers";
 
 const fixture = (name: string) => readFileSync(new URL(`../../fixtures/${name}`, import.meta.url));

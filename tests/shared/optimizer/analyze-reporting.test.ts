@@ -4,7 +4,7 @@
  * roles use the same weights as the partition.
  */
 import { describe, expect, it } from "vitest";
-import { analyzeNetwork, reportedPartition, shareReaching } from "../../../shared/network/analyze";
+import { analyzeNetwork, reportedPartition, shareReaching } from "@shared/network/analyze";
 import { bipartite } from "../network/helpers";
 
 describe("reported partition and restart share", () => {

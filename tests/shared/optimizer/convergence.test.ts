@@ -7,12 +7,12 @@
 import { createHash } from "node:crypto";
 import { describe, expect, it } from "vitest";
 import { lfrGraph, plantedBipartiteDC } from "../../../scripts/lib/hard-networks";
-import { modularity } from "../../../shared/network/modularity/quality";
-import { leiden, type LeidenTrace } from "../../../shared/network/optimizer/leiden";
-import { optimizeModularity } from "../../../shared/network/optimizer/optimize";
-import { buildQualityGraph, type QualityGraph } from "../../../shared/network/optimizer/quality-graph";
-import { createRng, deriveSeed } from "../../../shared/network/random";
-import type { Network } from "../../../shared/network/types";
+import { modularity } from "@shared/network/modularity/quality";
+import { leiden, type LeidenTrace } from "@shared/network/optimizer/leiden";
+import { optimizeModularity } from "@shared/network/optimizer/optimize";
+import { buildQualityGraph, type QualityGraph } from "@shared/network/optimizer/quality-graph";
+import { createRng, deriveSeed } from "@shared/network/random";
+import type { Network } from "@shared/network/types";
 import { davis, karate } from "./helpers";
 
 const hash = (p: Int32Array) => createHash("sha256").update(Array.from(p).join(",")).digest("hex").slice(0, 16);

@@ -5,9 +5,9 @@
  * (Method: exhaustive search, as docs/science.md describes for networks up to about 10 nodes.)
  */
 import { describe, expect, it } from "vitest";
-import { modularity, type Objective } from "../../../shared/network/modularity/quality";
-import { optimizeModularity } from "../../../shared/network/optimizer/optimize";
-import type { Network } from "../../../shared/network/types";
+import { modularity, type Objective } from "@shared/network/modularity/quality";
+import { optimizeModularity } from "@shared/network/optimizer/optimize";
+import type { Network } from "@shared/network/types";
 import { bipartite, createRng, oneMode, randomEdges, randomMatrix } from "./helpers";
 
 /** Calls visit(a) for every set partition of n nodes, as a restricted growth string a (a[0] = 0, a[i] ≤ 1 + max a[0..i−1]). */

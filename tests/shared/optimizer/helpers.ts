@@ -4,8 +4,8 @@
  */
 import { readFileSync } from "node:fs";
 import { fileURLToPath } from "node:url";
-import type { Network } from "../../../shared/network/types";
-import { createRng, type Rng } from "../../../shared/network/random";
+import type { Network } from "@shared/network/types";
+import { createRng, type Rng } from "@shared/network/random";
 
 export const FIXTURES = fileURLToPath(new URL("../../fixtures/", import.meta.url));
 

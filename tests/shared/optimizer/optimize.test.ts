@@ -1,7 +1,7 @@
 import { describe, expect, it } from "vitest";
-import { modularity } from "../../../shared/network/modularity/quality";
-import { optimizeModularity } from "../../../shared/network/optimizer/optimize";
-import type { Network } from "../../../shared/network/types";
+import { modularity } from "@shared/network/modularity/quality";
+import { optimizeModularity } from "@shared/network/optimizer/optimize";
+import type { Network } from "@shared/network/types";
 import { bipartite, createRng, davis, karate, oneMode, randomEdges, randomMatrix } from "./helpers";
 
 /** Checks the partition is 0-based, consecutive, one entry per node. */

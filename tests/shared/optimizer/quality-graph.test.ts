@@ -5,10 +5,10 @@
  * keeping Q (invariant listed in ../shared/conventions.md, "Science tests").
  */
 import { describe, expect, it } from "vitest";
-import { modularity, type Objective } from "../../../shared/network/modularity/quality";
-import { aggregateGraph, createWorkspace, refinePartition } from "../../../shared/network/optimizer/leiden";
-import { buildQualityGraph, graphQuality, renumber, type QualityGraph } from "../../../shared/network/optimizer/quality-graph";
-import type { Network } from "../../../shared/network/types";
+import { modularity, type Objective } from "@shared/network/modularity/quality";
+import { aggregateGraph, createWorkspace, refinePartition } from "@shared/network/optimizer/leiden";
+import { buildQualityGraph, graphQuality, renumber, type QualityGraph } from "@shared/network/optimizer/quality-graph";
+import type { Network } from "@shared/network/types";
 import { bipartite, createRng, oneMode, randomEdges, randomMatrix } from "./helpers";
 
 const rng = createRng(4242);

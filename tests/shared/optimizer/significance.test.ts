@@ -1,8 +1,8 @@
 import { Worker } from "node:worker_threads";
 import { describe, expect, it } from "vitest";
-import { analyzeNetwork, resolveNullModels } from "../../../shared/network/analyze";
-import { serializeNetwork } from "../../../shared/network/parse/index";
-import { nullReplicateNetwork, nullReplicateQ, nullReplicateStats, summarizeNulls, zStandardError } from "../../../shared/network/significance";
+import { analyzeNetwork, resolveNullModels } from "@shared/network/analyze";
+import { serializeNetwork } from "@shared/network/parse/index";
+import { nullReplicateNetwork, nullReplicateQ, nullReplicateStats, summarizeNulls, zStandardError } from "@shared/network/significance";
 import { bipartite, createRng, davis, karate, randomMatrix } from "./helpers";
 
 describe("summarizeNulls", () => {

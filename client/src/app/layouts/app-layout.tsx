@@ -1,7 +1,7 @@
 import { NavLink, Outlet, useNavigation } from "react-router-dom";
 import { useSession } from "../../features/auth/api/get-session";
 import { paths } from "../../config/paths";
-import { hasRole, type Role } from "../../../../shared/types/auth";
+import { hasRole, type Role } from "@shared/types/auth";
 
 interface NavItem {
   label: string;

@@ -3,10 +3,10 @@
  * p with "≤" at its floor, and the product's one wording of what the figures control for
  * (shared/figures/cautions.ts). Used by the network page, dataset page, catalogue and compare view.
  */
-import { NULL_MODEL_INFO, type NullModelName } from "../../../../shared/network/null-models/index";
-import { FIGURE_CAUTIONS, RESOLUTION_LIMIT_CAUTION } from "../../../../shared/figures/cautions";
+import { NULL_MODEL_INFO, type NullModelName } from "@shared/network/null-models/index";
+import { FIGURE_CAUTIONS, RESOLUTION_LIMIT_CAUTION } from "@shared/figures/cautions";
 
-export { FIGURE_CAUTIONS, FIGURE_CAUTION_SHORT, NODF_CAUTION, RESOLUTION_LIMIT_CAUTION } from "../../../../shared/figures/cautions";
+export { FIGURE_CAUTIONS, FIGURE_CAUTION_SHORT, NODF_CAUTION, RESOLUTION_LIMIT_CAUTION } from "@shared/figures/cautions";
 
 /** "fixed degrees" etc.; an unknown name is shown as it is. */
 export function nullTitle(model: string | null | undefined): string {

@@ -3,9 +3,9 @@
  * names (bipartite) or direction (directed one-mode), locality with coordinate generalisation for
  * sensitive sites, habitat, dates, sampling.
  */
-import type { Locality, NetworkMetadata } from "../../../../shared/types/dataset";
+import type { Locality, NetworkMetadata } from "@shared/types/dataset";
 import { Area, Choice, NumberText, Text } from "./fields";
-import { NOT_RECORDED_LABELS, type NotRecordedField } from "../../../../shared/validation/not-recorded";
+import { NOT_RECORDED_LABELS, type NotRecordedField } from "@shared/validation/not-recorded";
 import type { FieldErrors } from "./validate";
 
 export type NetworkDraft = Partial<Omit<NetworkMetadata, "locality" | "samplingEffort">> & {

@@ -1,5 +1,5 @@
 /** How pages show a field the depositor marked not recorded: the words and the reason, never a value. */
-import { notRecordedReason, type NotRecordedField } from "../../../../shared/validation/not-recorded";
+import { notRecordedReason, type NotRecordedField } from "@shared/validation/not-recorded";
 
 export function NotRecorded({ reason }: { reason: string }) {
   return (

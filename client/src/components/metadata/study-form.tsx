@@ -2,7 +2,7 @@
  * The study-level metadata form (fields of schemas/study.schema.json). Controlled: the parent owns the
  * value and decides when to save. Errors show for fields the person touched, or all after `showAll`.
  */
-import type { Creator, StudyMetadata } from "../../../../shared/types/dataset";
+import type { Creator, StudyMetadata } from "@shared/types/dataset";
 import { Area, Choice, Text } from "./fields";
 import type { FieldErrors } from "./validate";
 

@@ -4,7 +4,7 @@
  */
 import studySchema from "../../../../schemas/study.schema.json";
 import networkSchema from "../../../../schemas/network.schema.json";
-import { humanizeSchemaErrors, networkCrossChecks, NOT_RECORDED_LABELS, NOT_RECORDED_PATHS, validateWithSchema, withNormalisedDoi, type JsonSchema, type NetworkFacts, type NotRecordedField } from "../../../../shared/validation";
+import { humanizeSchemaErrors, networkCrossChecks, NOT_RECORDED_LABELS, NOT_RECORDED_PATHS, validateWithSchema, withNormalisedDoi, type JsonSchema, type NetworkFacts, type NotRecordedField } from "@shared/validation";
 
 export type FieldErrors = Record<string, string>;
 

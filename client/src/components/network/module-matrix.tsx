@@ -12,9 +12,9 @@
  * Used by the network view and the curators' review page: it needs only the cells, labels and partition.
  */
 import { useEffect, useMemo, useRef, useState, type ReactNode } from "react";
-import type { NetworkMetadata } from "../../../../shared/types/dataset";
-import type { MatrixImage } from "../../../../shared/plots/matrix-image";
-import { BETWEEN_MODULES, moduleBand, moduleColour, NO_PARTITION } from "../../../../shared/plots/palette";
+import type { NetworkMetadata } from "@shared/types/dataset";
+import type { MatrixImage } from "@shared/plots/matrix-image";
+import { BETWEEN_MODULES, moduleBand, moduleColour, NO_PARTITION } from "@shared/plots/palette";
 import { ChartFigure } from "../charts/chart-figure";
 import { chartTheme } from "../charts/theme";
 

@@ -1,6 +1,6 @@
 /// <reference lib="webworker" />
 /** Builds the matrix image off the main thread, so a 3000 × 5000 network never blocks the page. */
-import { buildMatrixImage, type MatrixInput } from "../../../../shared/plots/matrix-image";
+import { buildMatrixImage, type MatrixInput } from "@shared/plots/matrix-image";
 
 export interface MatrixRequest extends MatrixInput {
   id: number;

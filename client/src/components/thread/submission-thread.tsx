@@ -4,7 +4,7 @@
  * other side (they get it by e-mail). Presentational: the review and deposit features fetch and send.
  */
 import { useId, useState } from "react";
-import type { ThreadEntry } from "../../../../shared/types/review";
+import type { ThreadEntry } from "@shared/types/review";
 import { Alert, Button } from "../ui/form";
 
 const DECISIONS: Record<string, string> = { publish: "Published", request_changes: "Changes requested", decline: "Declined" };

@@ -2,7 +2,7 @@
  * A DOI as pages show it: a link to its resolver once DataCite has registered it, "DOI pending" before
  * (publishing reserves the name; a background job registers it, usually within a minute).
  */
-import type { DoiSummary } from "../../../../shared/types/dataset";
+import type { DoiSummary } from "@shared/types/dataset";
 
 export function DoiLine({ doi, label = "DOI", note }: { doi: DoiSummary | null; label?: string; note?: string }) {
   if (!doi) return null;

@@ -4,7 +4,7 @@ import { ApiError } from "../../lib/api-error";
 import { hashPassword, verifyPassword } from "../../lib/passwords";
 import { audit } from "../../lib/audit";
 import { endSessions } from "../auth/auth.service";
-import type { AccountProfile } from "../../../../shared/types/auth";
+import type { AccountProfile } from "@shared/types/auth";
 
 export function toProfile(u: User): AccountProfile {
   return {

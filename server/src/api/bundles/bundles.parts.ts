@@ -16,13 +16,13 @@
  * partition, roles and null Q values as the pipeline stored them.
  */
 import { QueryTypes } from "sequelize";
-import type { AnalysisRole } from "../../../../shared/network/analyze";
-import type { CanonicalNetworkJson } from "../../../../shared/network/parse/serialize";
-import { deriveSeed } from "../../../../shared/network/random";
-import { NULL_STREAM } from "../../../../shared/network/significance";
+import type { AnalysisRole } from "@shared/network/analyze";
+import type { CanonicalNetworkJson } from "@shared/network/parse/serialize";
+import { deriveSeed } from "@shared/network/random";
+import { NULL_STREAM } from "@shared/network/significance";
 import { sequelize } from "../../db/sequelize";
 import { ApiError } from "../../lib/api-error";
-import { csvLine, quoteField } from "../../../../shared/csv";
+import { csvLine, quoteField } from "@shared/csv";
 import type { CatalogueEntry } from "../catalogue/catalogue.rows";
 
 export const BUNDLE_PARTS = ["partitions", "roles", "nulls", "edges", "originals"] as const;

@@ -3,10 +3,10 @@
  * objective, optimizer, restarts, null model, replicates, seed, engine version) and the cautions a reader
  * needs before comparing networks. Formulas follow shared/network/README.md.
  */
-import type { PipelineSettings } from "../../../../shared/types/pipeline";
+import type { PipelineSettings } from "@shared/types/pipeline";
 import { nullModelGlossary, nullModelsText } from "../../jobs/settings";
 import { BUNDLE_PARTS, DEFAULT_PARTS, type BundlePart } from "./bundles.parts";
-import { FIGURE_CAUTIONS, NODF_CAUTION, RESOLUTION_LIMIT_CAUTION } from "../../../../shared/figures/cautions";
+import { FIGURE_CAUTIONS, NODF_CAUTION, RESOLUTION_LIMIT_CAUTION } from "@shared/figures/cautions";
 
 const wrap = (text: string, indent: string, width = 100): string => {
   const words = text.split(/\s+/);

@@ -15,7 +15,7 @@ import { QueryTypes, type Transaction } from "sequelize";
 import { sequelize } from "../../db/sequelize";
 import { logger } from "../../lib/logger";
 import { matrixCsvFromCanonical, MatrixCsvError } from "../../lib/matrix-csv";
-import { MATRIX_CORNER } from "../../../../shared/network/parse/write";
+import { MATRIX_CORNER } from "@shared/network/parse/write";
 
 /** Version of the writer below (raise it when the bundle's matrix CSV changes). */
 export const MATRIX_CSV_FORMAT = 1;

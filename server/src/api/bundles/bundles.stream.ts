@@ -15,10 +15,10 @@ import { Readable, Transform } from "node:stream";
 import type { Writable } from "node:stream";
 import { ZipArchive } from "archiver";
 import { QueryTypes } from "sequelize";
-import { ENGINE_VERSION } from "../../../../shared/network/version";
-import { datasetBibTeX, doiUrl, licenceUrl } from "../../../../shared/citation";
-import { NULL_MODEL_INFO, NULL_MODELS, type NullModelName } from "../../../../shared/network/null-models/index";
-import type { StudyMetadata } from "../../../../shared/types/dataset";
+import { ENGINE_VERSION } from "@shared/network/version";
+import { datasetBibTeX, doiUrl, licenceUrl } from "@shared/citation";
+import { NULL_MODEL_INFO, NULL_MODELS, type NullModelName } from "@shared/network/null-models/index";
+import type { StudyMetadata } from "@shared/types/dataset";
 import { config } from "../../config/env";
 import { sequelize } from "../../db/sequelize";
 import { getPipelineSettings, settingsHash } from "../../jobs/settings";
@@ -27,9 +27,9 @@ import { catalogueStore } from "../catalogue/catalogue.store";
 import { fileNameOf, matrixCells, matrixCsvBytes, type SelectedNetwork } from "./bundles.selection";
 import { bundleReadme } from "./bundles.readme";
 import { csvHeaderLabels, matrixCsvPieces } from "../../lib/matrix-csv";
-import { csvLine } from "../../../../shared/csv";
+import { csvLine } from "@shared/csv";
 import { bundleMatrixCsv, MATRIX_CSV_CORNER, MATRIX_CSV_FORMAT, MATRIX_CSV_MAX_CELLS } from "./bundles.stored-csv";
-import type { CanonicalNetworkJson } from "../../../../shared/network/parse/serialize";
+import type { CanonicalNetworkJson } from "@shared/network/parse/serialize";
 import { useNativeCrc32 } from "./bundles.crc";
 import {
   DEFAULT_PARTS,

@@ -8,7 +8,7 @@
 import { QueryTypes, type Transaction } from "sequelize";
 import { sequelize } from "../../db/sequelize";
 import { publicCoordinates } from "./public-locality";
-import { NOT_RECORDED, notRecordedList, notRecordedText, type NotRecordedField } from "../../../../shared/validation/not-recorded";
+import { NOT_RECORDED, notRecordedList, notRecordedText, type NotRecordedField } from "@shared/validation/not-recorded";
 import { getPipelineSettings, settingsHash } from "../../jobs/settings";
 import { readNullFigures } from "../../jobs/null-figures";
 

@@ -7,7 +7,7 @@ import { searchIndex, type SearchMode } from "./catalogue.search-index";
 import type { CatalogueEntry } from "./catalogue.rows";
 import { catalogueStore } from "./catalogue.store";
 import { DEFAULT_CATALOGUE_NULL_MODEL, type CatalogueQuery, type Range, type SortKey } from "./catalogue.validation";
-import { NULL_MODELS } from "../../../../shared/network/null-models/index";
+import { NULL_MODELS } from "@shared/network/null-models/index";
 import { CONTINENT_NAMES, continentOf } from "../../lib/continents";
 
 const nullCountCache = new WeakMap<CatalogueEntry[], FacetValue[]>();
@@ -22,8 +22,8 @@ function nullModelCounts(all: CatalogueEntry[]): FacetValue[] {
   nullCountCache.set(all, out);
   return out;
 }
-import type { CatalogueFacets, CataloguePage, CatalogueRow, FacetValue, RangeFacet } from "../../../../shared/types/catalogue";
-import { NOT_RECORDED_FIELDS } from "../../../../shared/validation/not-recorded";
+import type { CatalogueFacets, CataloguePage, CatalogueRow, FacetValue, RangeFacet } from "@shared/types/catalogue";
+import { NOT_RECORDED_FIELDS } from "@shared/validation/not-recorded";
 
 export type { CatalogueFacets, CatalogueRow, FacetValue, RangeFacet };
 

@@ -3,8 +3,8 @@
  * Multi-valued filters accept repeated parameters or comma-separated lists.
  */
 import { ApiError, type ErrorDetail } from "../../lib/api-error";
-import { NULL_MODELS } from "../../../../shared/network/null-models/index";
-import { CATALOGUE_PAGE_SIZES } from "../../../../shared/types/catalogue";
+import { NULL_MODELS } from "@shared/network/null-models/index";
+import { CATALOGUE_PAGE_SIZES } from "@shared/types/catalogue";
 import { CONTINENT_CODES } from "../../lib/continents";
 
 /**

@@ -3,7 +3,7 @@
  * server/src/lib/public-locality.ts (rounded to the locality's generalisation grid; missing or unknown
  * generalisation means 0.1°), so sensitive sites never leave the server with more precision than allowed.
  */
-import type { Locality } from "../../../../shared/types/dataset";
+import type { Locality } from "@shared/types/dataset";
 import { publicLocality } from "../../lib/public-locality";
 
 export function publicCoordinates(loc: Record<string, unknown>): { latitude: number | null; longitude: number | null; generalisation: Locality["generalisation"] } {

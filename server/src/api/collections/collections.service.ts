@@ -13,7 +13,7 @@
  *   owner may change or delete one.
  */
 import { QueryTypes, type Transaction } from "sequelize";
-import type { CollectionDetail, CollectionInput, CollectionMemberView, CollectionSummary, CollectionVisibility } from "../../../../shared/types/collection";
+import type { CollectionDetail, CollectionInput, CollectionMemberView, CollectionSummary, CollectionVisibility } from "@shared/types/collection";
 import { sequelize } from "../../db/sequelize";
 import { ApiError, type ErrorDetail } from "../../lib/api-error";
 import { audit } from "../../lib/audit";

@@ -7,7 +7,7 @@
  * (server/src/lib/public-locality.ts) and never the contact e-mail; owner, curators and admins see both.
  */
 import { Op } from "sequelize";
-import type { DatasetDetail, NetworkMetadata, NetworkSummary, StudyMetadata, VersionState, VersionSummary } from "../../../../shared/types/dataset";
+import type { DatasetDetail, NetworkMetadata, NetworkSummary, StudyMetadata, VersionState, VersionSummary } from "@shared/types/dataset";
 import { publicLocality } from "../../lib/public-locality";
 import { ApiError, GoneError } from "../../lib/api-error";
 import { tombstoneOf } from "../network-views/network-views.access";

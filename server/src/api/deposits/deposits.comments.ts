@@ -22,7 +22,7 @@ import { sessionRequired } from "../../middlewares/require-role";
 import { Dataset, DatasetVersion, Review, SubmissionComment, User } from "../../models";
 import { sendMail } from "../../emails/mailer";
 import { submissionCommentEmail } from "../../emails/templates/submission-comment";
-import type { ThreadEntry, ThreadResponse } from "../../../../shared/types/review";
+import type { ThreadEntry, ThreadResponse } from "@shared/types/review";
 import type { Viewer } from "../datasets/datasets.service";
 import { loadVisibleVersion } from "./deposits.service";
 

@@ -1,5 +1,5 @@
 import type { NextFunction, Request, Response } from "express";
-import type { ListResponse } from "../../../../shared/types/api";
+import type { ListResponse } from "@shared/types/api";
 import { config } from "../../config/env";
 import * as s from "./deposits.service";
 import { ApiError } from "../../lib/api-error";

@@ -9,15 +9,15 @@
  * - Every change writes an audit row in the same transaction; visible only to owner and curators (404).
  */
 import { Op, QueryTypes, type Transaction } from "sequelize";
-import type { BasicMetrics } from "../../../../shared/network";
-import type { CanonicalNetworkJson } from "../../../../shared/network/parse/serialize";
+import type { BasicMetrics } from "@shared/network";
+import type { CanonicalNetworkJson } from "@shared/network/parse/serialize";
 import { parseInThread } from "../../lib/parse/pool";
 import type { ParsedFile } from "../../lib/parse/task";
-import type { VersionState } from "../../../../shared/types/dataset";
+import type { VersionState } from "@shared/types/dataset";
 import { ApiError, type ErrorDetail } from "../../lib/api-error";
 import { audit } from "../../lib/audit";
 import { networkFindings, studyFindings } from "../../lib/schemas";
-import { withNormalisedDoi } from "../../../../shared/validation/doi";
+import { withNormalisedDoi } from "@shared/validation/doi";
 import { sequelize } from "../../db/sequelize";
 import { config } from "../../config/env";
 import { logger } from "../../lib/logger";
@@ -35,8 +35,8 @@ import { recordSubmission } from "./deposits.snapshots";
 export const OWNER_EDITABLE: VersionState[] = ["draft", "changes_requested"];
 const MAX_METADATA_CHARS = 200_000;
 
-export type { DepositDetail, DepositListItem } from "../../../../shared/types/deposit";
-import type { DepositDetail, DepositListItem } from "../../../../shared/types/deposit";
+export type { DepositDetail, DepositListItem } from "@shared/types/deposit";
+import type { DepositDetail, DepositListItem } from "@shared/types/deposit";
 
 function tx<T>(fn: (t: Transaction) => Promise<T>): Promise<T> {
   return sequelize().transaction(fn);

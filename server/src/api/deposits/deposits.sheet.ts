@@ -11,7 +11,7 @@
  * save, as for drafts; they come back one per cell: row, column, field and message.
  */
 import { parse as csvParse } from "csv-parse/sync";
-import { csvText } from "../../../../shared/csv";
+import { csvText } from "@shared/csv";
 import { schemaJson } from "../../lib/schemas";
 import { ApiError, type ErrorDetail } from "../../lib/api-error";
 

@@ -10,7 +10,7 @@
  */
 import { open, readFile } from "node:fs/promises";
 import yauzl from "yauzl";
-import { detectSignature } from "../../../../shared/network/parse/signature";
+import { detectSignature } from "@shared/network/parse/signature";
 import type { ErrorDetail } from "../../lib/api-error";
 import { ApiError } from "../../lib/api-error";
 

@@ -11,8 +11,8 @@
  * the script element.
  */
 import type { HtmlRenderer } from "../../app";
-import type { NetworkMetadata, StudyMetadata } from "../../../../shared/types/dataset";
-import { licenceUrl } from "../../../../shared/citation";
+import type { NetworkMetadata, StudyMetadata } from "@shared/types/dataset";
+import { licenceUrl } from "@shared/citation";
 import { escapeHtml } from "../../emails/mailer";
 import { config } from "../../config/env";
 import { ApiError } from "../../lib/api-error";
@@ -20,7 +20,7 @@ import { Network } from "../../models";
 import { citationFor, GoneError, resolveVersion, versionUrl } from "./network-views.access";
 import { publicLocality } from "../../lib/public-locality";
 import { doisOfDataset } from "../../jobs/dois";
-import { notRecordedList } from "../../../../shared/validation/not-recorded";
+import { notRecordedList } from "@shared/validation/not-recorded";
 
 const PATH_RE = /^\/datasets\/(TB-\d{6})(?:\/v\/(\d{1,6}))?(?:\/networks\/(\d{1,6}))?\/?$/;
 

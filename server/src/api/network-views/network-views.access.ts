@@ -4,9 +4,9 @@
  * declined versions exist only for their owner and curators (everyone else gets 404, as if absent).
  */
 import { Op } from "sequelize";
-import type { StudyMetadata } from "../../../../shared/types/dataset";
-import type { Tombstone } from "../../../../shared/types/network-view";
-import { formatCitationText } from "../../../../shared/citation";
+import type { StudyMetadata } from "@shared/types/dataset";
+import type { Tombstone } from "@shared/types/network-view";
+import { formatCitationText } from "@shared/citation";
 import { config } from "../../config/env";
 import { ApiError, GoneError } from "../../lib/api-error";
 import { hasRole } from "../../middlewares/require-role";

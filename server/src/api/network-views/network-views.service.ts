@@ -6,10 +6,10 @@
  * level); null Q values under `nullQs` (or `analysis.nullQs`) when the pipeline kept them.
  */
 import { doisOfDataset } from "../../jobs/dois";
-import type { CanonicalNetworkJson } from "../../../../shared/network/parse/serialize";
-import type { AnalysisResult } from "../../../../shared/network/analyze";
-import type { NetworkMetadata, NetworkMetricsSummary, StudyMetadata } from "../../../../shared/types/dataset";
-import { MAX_COMPARE, type AuditEntry, type CompareRowsResponse, type CompareUnavailable, type MapPointRow, type ModuleRow, type NetworkCompareRow, type NetworkView, type RoleRow, type RunHistoryRow } from "../../../../shared/types/network-view";
+import type { CanonicalNetworkJson } from "@shared/network/parse/serialize";
+import type { AnalysisResult } from "@shared/network/analyze";
+import type { NetworkMetadata, NetworkMetricsSummary, StudyMetadata } from "@shared/types/dataset";
+import { MAX_COMPARE, type AuditEntry, type CompareRowsResponse, type CompareUnavailable, type MapPointRow, type ModuleRow, type NetworkCompareRow, type NetworkView, type RoleRow, type RunHistoryRow } from "@shared/types/network-view";
 import { QueryTypes } from "sequelize";
 import { sequelize } from "../../db/sequelize";
 import { getCurrentMetrics } from "../../jobs/metrics-read";
@@ -20,7 +20,7 @@ import { GoneError, resolveVersion } from "./network-views.access";
 import { matchCatalogue } from "../catalogue/catalogue.service";
 import { parseCatalogueQuery } from "../catalogue/catalogue.validation";
 import { publicLocality } from "../../lib/public-locality";
-import { csvText } from "../../../../shared/csv";
+import { csvText } from "@shared/csv";
 
 interface RunResults {
   analysis?: AnalysisResult;

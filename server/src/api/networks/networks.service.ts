@@ -3,8 +3,8 @@
  * and the data as JSON (labels and links) or CSV (matrix or edge list, the engine's writers). Access as
  * everywhere: published for everyone, withdrawn → 410, unpublished only for the owner and curators.
  */
-import type { NetworkMetadata, NetworkMetricsSummary } from "../../../../shared/types/dataset";
-import { deserializeNetwork, networkToEdgeListCsv } from "../../../../shared/network";
+import type { NetworkMetadata, NetworkMetricsSummary } from "@shared/types/dataset";
+import { deserializeNetwork, networkToEdgeListCsv } from "@shared/network";
 import { MatrixCsvError, matrixCsvPieces } from "../../lib/matrix-csv";
 import { logger } from "../../lib/logger";
 import { publicLocality } from "../../lib/public-locality";

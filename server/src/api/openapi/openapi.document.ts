@@ -3,9 +3,9 @@
  * router and checks that every registered route is either described here or belongs to the web client's
  * own (non-public) resources listed in INTERNAL_PREFIXES, and that nothing described here is missing.
  */
-import { NULL_MODELS } from "../../../../shared/network/null-models/index";
-import { FIGURE_CAUTION_SHORT } from "../../../../shared/figures/cautions";
-import { ENGINE_VERSION } from "../../../../shared/network/version";
+import { NULL_MODELS } from "@shared/network/null-models/index";
+import { FIGURE_CAUTION_SHORT } from "@shared/figures/cautions";
+import { ENGINE_VERSION } from "@shared/network/version";
 import { config } from "../../config/env";
 import { CATALOGUE_PARAMS, MAX_PAGE_SIZE } from "../catalogue/catalogue.validation";
 import { BUNDLE_LIMIT } from "../bundles/bundles.selection";

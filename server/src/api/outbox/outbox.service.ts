@@ -1,6 +1,6 @@
 import { currentMailCatcher, type CapturedMail } from "../../lib/mail-catcher";
 import { ApiError } from "../../lib/api-error";
-import type { OutboxSummary } from "../../../../shared/types/outbox";
+import type { OutboxSummary } from "@shared/types/outbox";
 
 
 function catcher() {

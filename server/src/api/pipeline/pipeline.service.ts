@@ -8,9 +8,9 @@
  * is attached to the batch instead of queued twice.
  */
 import { QueryTypes } from "sequelize";
-import { ENGINE_VERSION } from "../../../../shared/network/version";
-import type { BatchPreview, BatchProgress, NetworkRunRow, PipelineSettings, PipelineSettingsResponse, QueuePhaseCounts, QueueProgress, RunFailure } from "../../../../shared/types/pipeline";
-import type { NetworkMetricsSummary } from "../../../../shared/types/dataset";
+import { ENGINE_VERSION } from "@shared/network/version";
+import type { BatchPreview, BatchProgress, NetworkRunRow, PipelineSettings, PipelineSettingsResponse, QueuePhaseCounts, QueueProgress, RunFailure } from "@shared/types/pipeline";
+import type { NetworkMetricsSummary } from "@shared/types/dataset";
 import { sequelize } from "../../db/sequelize";
 import { ApiError } from "../../lib/api-error";
 import { audit } from "../../lib/audit";

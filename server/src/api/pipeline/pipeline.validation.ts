@@ -1,5 +1,5 @@
 /** Request validation of the metrics pipeline routes. */
-import type { PipelineSettings } from "../../../../shared/types/pipeline";
+import type { PipelineSettings } from "@shared/types/pipeline";
 import { ApiError, type ErrorDetail } from "../../lib/api-error";
 import { validateSettings } from "../../jobs/settings";
 

@@ -14,8 +14,8 @@
  */
 import { QueryTypes } from "sequelize";
 import { sequelize } from "../../db/sequelize";
-import type { CanonicalNetworkJson } from "../../../../shared/network/parse/serialize";
-import type { CellChange, CellDiff, FieldChange, NetworkChange, NetworkSide, SubmissionDiff, SubmissionDiffResponse } from "../../../../shared/types/review";
+import type { CanonicalNetworkJson } from "@shared/network/parse/serialize";
+import type { CellChange, CellDiff, FieldChange, NetworkChange, NetworkSide, SubmissionDiff, SubmissionDiffResponse } from "@shared/types/review";
 import type { Viewer } from "../datasets/datasets.service";
 import { loadVisibleVersion } from "../deposits/deposits.service";
 

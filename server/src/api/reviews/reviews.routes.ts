@@ -1,6 +1,6 @@
 /** /api/v1/reviews — curators only: the queue, a submission's review data, decisions and corrections. */
 import { Router, type Request, type Response } from "express";
-import type { ListResponse } from "../../../../shared/types/api";
+import type { ListResponse } from "@shared/types/api";
 import { ApiError } from "../../lib/api-error";
 import { requireRole } from "../../middlewares/require-role";
 import { idParam } from "../deposits/deposits.validation";

@@ -14,7 +14,7 @@
  */
 import { Op, QueryTypes } from "sequelize";
 import { ApiError } from "../../lib/api-error";
-import { withNormalisedDoi } from "../../../../shared/validation/doi";
+import { withNormalisedDoi } from "@shared/validation/doi";
 import { audit } from "../../lib/audit";
 import { logger } from "../../lib/logger";
 import { sequelize } from "../../db/sequelize";
@@ -30,8 +30,8 @@ import { depositDetail, loadCuratorEditable, loadVisibleVersion, submissionProbl
 
 export type Decision = "publish" | "request_changes" | "decline";
 
-export type { HistoryEntry, QueueItem, ReviewDetail } from "../../../../shared/types/review";
-import type { HistoryEntry, QueueItem, ReviewDetail } from "../../../../shared/types/review";
+export type { HistoryEntry, QueueItem, ReviewDetail } from "@shared/types/review";
+import type { HistoryEntry, QueueItem, ReviewDetail } from "@shared/types/review";
 import { storeMatrixCsvs } from "../bundles/bundles.stored-csv";
 
 export const QUEUE_STATES = ["submitted", "changes_requested", "published", "declined", "withdrawn"] as const;

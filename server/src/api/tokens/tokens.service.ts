@@ -7,7 +7,7 @@ import { ApiError } from "../../lib/api-error";
 import { audit } from "../../lib/audit";
 import { hashApiToken } from "../../middlewares/authenticate";
 import { ApiToken } from "../../models";
-import type { ApiTokenView } from "../../../../shared/types/auth";
+import type { ApiTokenView } from "@shared/types/auth";
 
 export const MAX_ACTIVE_TOKENS = 20;
 

@@ -4,8 +4,8 @@ import { User } from "../../models";
 import type { Role } from "../../models/user.model";
 import { ApiError } from "../../lib/api-error";
 import { audit } from "../../lib/audit";
-import type { UserSummary } from "../../../../shared/types/auth";
-import type { ListResponse } from "../../../../shared/types/api";
+import type { UserSummary } from "@shared/types/auth";
+import type { ListResponse } from "@shared/types/api";
 import type { UserListQuery } from "./users.validation";
 
 export function toSummary(u: User): UserSummary {

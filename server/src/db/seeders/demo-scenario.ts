@@ -10,8 +10,8 @@
  * depositor's reply), one with changes requested (and the depositor's comment), one draft.
  * Idempotent: skipped when any dataset exists.
  */
-import { createRng, type Rng } from "../../../../shared/network/random";
-import type { StudyMetadata } from "../../../../shared/types/dataset";
+import { createRng, type Rng } from "@shared/network/random";
+import type { StudyMetadata } from "@shared/types/dataset";
 import { Dataset, User } from "../../models";
 import { addNetworks, createDeposit, startNewVersion, submitDeposit, updateNetwork, updateStudyMetadata } from "../../api/deposits/deposits.service";
 import { decide, withdrawDataset } from "../../api/reviews/reviews.service";
@@ -19,7 +19,7 @@ import { createCollection } from "../../api/collections/collections.service";
 import { addComment } from "../../api/deposits/deposits.comments";
 import type { Viewer } from "../../api/datasets/datasets.service";
 import { demoOrcidOf } from "./demo-researchers";
-import { csvText } from "../../../../shared/csv";
+import { csvText } from "@shared/csv";
 
 const SEED = 20190501;
 

@@ -1,7 +1,7 @@
 /** To the depositor: a curator's decision on their submission, or a withdrawal. */
 import type { EmailContent } from "../mailer";
 import { reviewEmail } from "./review-layout";
-import { doiUrl } from "../../../../shared/citation";
+import { doiUrl } from "@shared/citation";
 
 export type DecisionKind = "publish" | "request_changes" | "decline" | "withdraw";
 

@@ -12,8 +12,8 @@
  * it was withdrawn. Pure functions: the DOI job feeds them rows from the database.
  */
 import { createHash } from "node:crypto";
-import type { Creator, StudyMetadata } from "../../../../shared/types/dataset";
-import { PUBLISHER, splitName } from "../../../../shared/citation";
+import type { Creator, StudyMetadata } from "@shared/types/dataset";
+import { PUBLISHER, splitName } from "@shared/citation";
 import { DATACITE_SCHEMA_URI } from "./required-fields";
 
 export interface DoiVersionInput {

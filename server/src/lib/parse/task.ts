@@ -6,9 +6,9 @@
  */
 import { createHash } from "node:crypto";
 import { readFile } from "node:fs/promises";
-import { basicMetrics, parseNetworkFile, serializeNetwork, NetworkParseError, type ParseOptions, type ParseResult } from "../../../../shared/network";
-import type { BasicMetrics } from "../../../../shared/network/metrics/basic";
-import type { CanonicalNetworkJson } from "../../../../shared/network/parse/serialize";
+import { basicMetrics, parseNetworkFile, serializeNetwork, NetworkParseError, type ParseOptions, type ParseResult } from "@shared/network";
+import type { BasicMetrics } from "@shared/network/metrics/basic";
+import type { CanonicalNetworkJson } from "@shared/network/parse/serialize";
 
 export interface ParseTask {
   /** A temporary file of the upload… */

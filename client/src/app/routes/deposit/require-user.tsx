@@ -3,7 +3,7 @@ import type { ReactNode } from "react";
 import { Link, useLocation } from "react-router-dom";
 import { useSession } from "../../../features/auth/api/get-session";
 import { paths } from "../../../config/paths";
-import { hasRole, type Role } from "../../../../../shared/types/auth";
+import { hasRole, type Role } from "@shared/types/auth";
 
 export function RequireUser({ min = "depositor", children }: { min?: Role; children: ReactNode }) {
   const { data, isPending } = useSession();

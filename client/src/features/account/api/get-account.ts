@@ -1,6 +1,6 @@
 import { queryOptions, useQuery } from "@tanstack/react-query";
 import { apiFetch } from "../../../lib/api-client";
-import type { AccountProfile } from "../../../../../shared/types/auth";
+import type { AccountProfile } from "@shared/types/auth";
 
 export const accountKeys = {
   all: ["account"] as const,

@@ -1,6 +1,6 @@
 import { useMutation, useQueryClient } from "@tanstack/react-query";
 import { apiFetch } from "../../../lib/api-client";
-import type { AccountProfile } from "../../../../../shared/types/auth";
+import type { AccountProfile } from "@shared/types/auth";
 import { accountKeys } from "./get-account";
 
 export interface ProfilePatch {

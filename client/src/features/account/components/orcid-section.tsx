@@ -5,7 +5,7 @@ import { Alert, Button, Card } from "../../../components/ui/form";
 import { OrcidButton } from "../../../components/ui/orcid-button";
 import { apiFetch } from "../../../lib/api-client";
 import { orcidErrorMessage } from "../../../lib/orcid";
-import type { AccountProfile } from "../../../../../shared/types/auth";
+import type { AccountProfile } from "@shared/types/auth";
 import { accountKeys } from "../api/get-account";
 
 export function OrcidSection({ profile }: { profile: AccountProfile }) {

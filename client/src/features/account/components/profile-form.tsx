@@ -1,5 +1,5 @@
 import { Alert, Button, Card, fieldErrorsOf, TextField } from "../../../components/ui/form";
-import type { AccountProfile } from "../../../../../shared/types/auth";
+import type { AccountProfile } from "@shared/types/auth";
 import { useUpdateAccount } from "../api/update-account";
 
 export function ProfileForm({ profile }: { profile: AccountProfile }) {

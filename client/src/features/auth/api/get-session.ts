@@ -1,6 +1,6 @@
 import { queryOptions, useQuery } from "@tanstack/react-query";
 import { apiFetch, setCsrfToken } from "../../../lib/api-client";
-import type { SessionInfo } from "../../../../../shared/types/auth";
+import type { SessionInfo } from "@shared/types/auth";
 
 export const authKeys = {
   all: ["auth"] as const,

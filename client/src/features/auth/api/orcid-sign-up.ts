@@ -1,6 +1,6 @@
 import { queryOptions, useMutation, useQuery, useQueryClient } from "@tanstack/react-query";
 import { apiFetch, setCsrfToken } from "../../../lib/api-client";
-import type { OrcidPending, SessionUser } from "../../../../../shared/types/auth";
+import type { OrcidPending, SessionUser } from "@shared/types/auth";
 import { authKeys } from "./get-session";
 
 /** The ORCID iD verified a moment ago that has no account yet. */

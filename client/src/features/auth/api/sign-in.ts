@@ -1,6 +1,6 @@
 import { useMutation, useQueryClient } from "@tanstack/react-query";
 import { apiFetch, setCsrfToken } from "../../../lib/api-client";
-import type { SessionInfo, SessionUser } from "../../../../../shared/types/auth";
+import type { SessionInfo, SessionUser } from "@shared/types/auth";
 import { authKeys } from "./get-session";
 
 export interface SignInInput {

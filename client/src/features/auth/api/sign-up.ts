@@ -1,6 +1,6 @@
 import { useMutation } from "@tanstack/react-query";
 import { apiFetch } from "../../../lib/api-client";
-import type { SessionUser } from "../../../../../shared/types/auth";
+import type { SessionUser } from "@shared/types/auth";
 
 export interface SignUpInput {
   email: string;

@@ -1,4 +1,4 @@
-import type { Role } from "../../../../../shared/types/auth";
+import type { Role } from "@shared/types/auth";
 
 /** Shown to a signed-in person whose role is too low for a page (the API answers 403 as well). */
 export function NotAllowed({ min, what }: { min: Role; what: string }) {

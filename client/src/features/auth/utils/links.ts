@@ -1,5 +1,5 @@
 import { ApiClientError } from "../../../lib/api-client";
-import type { OneTimeLinkErrorCode } from "../../../../../shared/types/auth";
+import type { OneTimeLinkErrorCode } from "@shared/types/auth";
 
 /** Only same-site paths are followed after sign-in (no open redirect through `?next=`). */
 export function safeNext(next: string | null, fallback: string): string {

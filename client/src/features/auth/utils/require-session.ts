@@ -1,7 +1,7 @@
 import { redirect, type LoaderFunctionArgs } from "react-router-dom";
 import { queryClient } from "../../../lib/query-client";
 import { getSessionQueryOptions } from "../api/get-session";
-import { hasRole } from "../../../../../shared/types/auth";
+import { hasRole } from "@shared/types/auth";
 import { paths } from "../../../config/paths";
 
 export { hasRole };

@@ -1,8 +1,8 @@
 import { keepPreviousData, queryOptions, useQuery } from "@tanstack/react-query";
 import { apiFetch } from "../../../lib/api-client";
 
-export type { CatalogueFacets, CataloguePage, CatalogueRow, FacetValue, RangeFacet } from "../../../../../shared/types/catalogue";
-import type { CataloguePage } from "../../../../../shared/types/catalogue";
+export type { CatalogueFacets, CataloguePage, CatalogueRow, FacetValue, RangeFacet } from "@shared/types/catalogue";
+import type { CataloguePage } from "@shared/types/catalogue";
 
 export const catalogueKeys = {
   all: ["catalogue"] as const,

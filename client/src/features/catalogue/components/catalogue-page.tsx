@@ -25,11 +25,11 @@ import {
   withParams,
   type ListFilter,
 } from "../utils/catalogue-params";
-import { SEARCH_EXAMPLE } from "../../../../../shared/types/catalogue";
-import { MAX_COMPARE } from "../../../../../shared/types/network-view";
+import { SEARCH_EXAMPLE } from "@shared/types/catalogue";
+import { MAX_COMPARE } from "@shared/types/network-view";
 import { ApiClientError } from "../../../lib/api-client";
 import { useSelection } from "../utils/selection";
-import { NOT_RECORDED_LABELS, type NotRecordedField } from "../../../../../shared/validation/not-recorded";
+import { NOT_RECORDED_LABELS, type NotRecordedField } from "@shared/validation/not-recorded";
 
 export interface CatalogueActionsContext {
   /** Selected network references, across pages. */

@@ -26,7 +26,7 @@ export const RANGE_FILTERS: readonly RangeFilter[] = [
   { key: "elevation", label: "Elevation (m)", min: "elevationMin", max: "elevationMax", step: "1", lo: -500, hi: 9000 },
 ];
 export const PAGE_SIZE = 25;
-export { CATALOGUE_PAGE_SIZES } from "../../../../../shared/types/catalogue";
+export { CATALOGUE_PAGE_SIZES } from "@shared/types/catalogue";
 
 /**
  * What is wrong with the typed ranges, per range key (absent when nothing is): not a number, not whole,

@@ -1,6 +1,6 @@
 import { queryOptions, useQuery } from "@tanstack/react-query";
 import { apiFetch } from "../../../lib/api-client";
-import type { CollectionDetail, CollectionSummary } from "../../../../../shared/types/collection";
+import type { CollectionDetail, CollectionSummary } from "@shared/types/collection";
 
 export const collectionKeys = {
   all: ["collections"] as const,

@@ -1,6 +1,6 @@
 import { useMutation, useQueryClient } from "@tanstack/react-query";
 import { apiFetch } from "../../../lib/api-client";
-import type { CollectionDetail, CollectionInput, CollectionVisibility } from "../../../../../shared/types/collection";
+import type { CollectionDetail, CollectionInput, CollectionVisibility } from "@shared/types/collection";
 import { collectionKeys } from "./get-collections";
 
 export function createCollection(input: CollectionInput): Promise<CollectionDetail> {

@@ -5,8 +5,8 @@
  */
 import { useMemo, useState, type ReactNode } from "react";
 import { Link, useNavigate } from "react-router-dom";
-import { collectionToBibTeX, collectionToRIS, formatCollectionCitation, type CollectionCitationInput } from "../../../../../shared/citation";
-import type { CollectionDetail, CollectionMemberView } from "../../../../../shared/types/collection";
+import { collectionToBibTeX, collectionToRIS, formatCollectionCitation, type CollectionCitationInput } from "@shared/citation";
+import type { CollectionDetail, CollectionMemberView } from "@shared/types/collection";
 import { CitationPanel } from "../../../components/citation/citation-panel";
 import { Alert, Button } from "../../../components/ui/form";
 import { paths } from "../../../config/paths";

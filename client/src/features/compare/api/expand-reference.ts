@@ -4,8 +4,8 @@
  */
 import { queryOptions, useQuery } from "@tanstack/react-query";
 import { apiFetch } from "../../../lib/api-client";
-import type { DatasetDetail } from "../../../../../shared/types/dataset";
-import type { CollectionDetail } from "../../../../../shared/types/collection";
+import type { DatasetDetail } from "@shared/types/dataset";
+import type { CollectionDetail } from "@shared/types/collection";
 import { compareKeys } from "./get-compare-rows";
 
 export interface ExpandedSet {

@@ -4,7 +4,7 @@
  */
 import { keepPreviousData, queryOptions, useQuery } from "@tanstack/react-query";
 import { apiFetch } from "../../../lib/api-client";
-import type { CompareRowsResponse } from "../../../../../shared/types/network-view";
+import type { CompareRowsResponse } from "@shared/types/network-view";
 
 export const compareKeys = {
   all: ["compare"] as const,

@@ -9,7 +9,7 @@
  */
 import { useRef, useState, type FormEvent } from "react";
 import { Link, useSearchParams } from "react-router-dom";
-import type { CompareUnavailable, NetworkCompareRow } from "../../../../../shared/types/network-view";
+import type { CompareUnavailable, NetworkCompareRow } from "@shared/types/network-view";
 import { ApiClientError } from "../../../lib/api-client";
 import { paths } from "../../../config/paths";
 import { ChartFigure } from "../../../components/charts/chart-figure";
@@ -24,7 +24,7 @@ import { downloadBlob, downloadText } from "../../../lib/download";
 import { serializeSvg, svgToPng } from "../../../components/charts/image-export";
 import { adjustForSizeAndConnectance, MIN_ADJUST_NETWORKS } from "../utils/adjust";
 import { FigureCautions, NullBadge, fmtPFloor, fmtZ, isLiberal, nullInfo, nullLabel } from "../../../components/figures/significance";
-import { NULL_MODELS } from "../../../../../shared/network/null-models/index";
+import { NULL_MODELS } from "@shared/network/null-models/index";
 
 type Measure = "Q" | "z";
 const fmt = (v: number | null | undefined, d = 3) => (v === null || v === undefined || !Number.isFinite(v) ? "—" : v.toFixed(d));

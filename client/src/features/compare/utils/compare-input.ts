@@ -8,7 +8,7 @@ export type CompareInput =
   | { kind: "dataset"; accession: string; version: number | null }
   | { kind: "collection"; code: string; revision: number | null };
 
-export { MAX_COMPARE } from "../../../../../shared/types/network-view";
+export { MAX_COMPARE } from "@shared/types/network-view";
 
 export function parseCompareInput(raw: string): CompareInput | null {
   const s = raw.trim();

@@ -1,6 +1,6 @@
 /** Exports of the compare view: a CSV of the metrics table (the charts use components/charts/image-export). */
-import type { NetworkCompareRow } from "../../../../../shared/types/network-view";
-import { csvText } from "../../../../../shared/csv";
+import type { NetworkCompareRow } from "@shared/types/network-view";
+import { csvText } from "@shared/csv";
 
 export const COMPARE_COLUMNS = ["ref", "dataset", "network", "interaction_type", "kind", "directed", "weighted", "S", "I", "J", "L", "C", "objective", "Q", "modules", "null_model", "null_n", "null_mean", "null_sd", "z", "z_se", "Q_rel", "delta_Q", "p", "p_at_floor", "z_unstable", "NODF", "adjusted_measure", "adjusted_value", "metrics_status"] as const;
 

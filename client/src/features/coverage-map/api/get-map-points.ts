@@ -1,7 +1,7 @@
 /** GET /api/v1/network-views/map?<catalogue filters> — every matching network with public coordinates. */
 import { queryOptions, useQuery } from "@tanstack/react-query";
 import { apiFetch } from "../../../lib/api-client";
-import type { MapPointRow } from "../../../../../shared/types/network-view";
+import type { MapPointRow } from "@shared/types/network-view";
 
 export const coverageKeys = {
   all: ["coverage-map"] as const,

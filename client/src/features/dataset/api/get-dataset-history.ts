@@ -1,7 +1,7 @@
 /** GET /api/v1/network-views/history/:accession — the audit history (curators only). */
 import { queryOptions, useQuery } from "@tanstack/react-query";
 import { apiFetch } from "../../../lib/api-client";
-import type { AuditEntry } from "../../../../../shared/types/network-view";
+import type { AuditEntry } from "@shared/types/network-view";
 import { datasetKeys } from "./get-dataset";
 
 export const getDatasetHistoryQueryOptions = (accession: string) =>

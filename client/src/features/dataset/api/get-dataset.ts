@@ -4,8 +4,8 @@
  */
 import { queryOptions, useQuery } from "@tanstack/react-query";
 import { ApiClientError } from "../../../lib/api-client";
-import type { DatasetDetail } from "../../../../../shared/types/dataset";
-import type { Tombstone } from "../../../../../shared/types/network-view";
+import type { DatasetDetail } from "@shared/types/dataset";
+import type { Tombstone } from "@shared/types/network-view";
 
 /** The body of every 410 answer of the read API (a withdrawn version). */
 export type DatasetTombstone = Tombstone;

@@ -1,6 +1,6 @@
 /** How to cite this version: text with a copy button, BibTeX and RIS downloads (shared/citation). */
 import { useMemo } from "react";
-import { datasetBibTeX, formatCitationText, toRIS, type CitationInput } from "../../../../../shared/citation";
+import { datasetBibTeX, formatCitationText, toRIS, type CitationInput } from "@shared/citation";
 import { CitationPanel } from "../../../components/citation/citation-panel";
 
 export function CitationBlock({ input }: { input: CitationInput }) {

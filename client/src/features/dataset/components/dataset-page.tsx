@@ -1,7 +1,7 @@
 /** /datasets/:accession (latest published version) and /datasets/:accession/v/:n (one version). */
 import { useEffect, useMemo } from "react";
 import { Link } from "react-router-dom";
-import type { CitationInput } from "../../../../../shared/citation";
+import type { CitationInput } from "@shared/citation";
 import { paths } from "../../../config/paths";
 import { useDataset } from "../api/get-dataset";
 import { useDatasetHistory } from "../api/get-dataset-history";

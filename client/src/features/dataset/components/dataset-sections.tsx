@@ -1,9 +1,9 @@
 /** Parts of the dataset page: study header, locality with locator map, networks, versions, audit history, tombstone. */
-import { doiUrl } from "../../../../../shared/citation";
+import { doiUrl } from "@shared/citation";
 import { FigureCautions, fmtPFloor, fmtZ, nullLabel } from "../../../components/figures/significance";
 import { Link } from "react-router-dom";
-import type { DatasetDetail, Locality, NetworkSummary } from "../../../../../shared/types/dataset";
-import type { AuditEntry } from "../../../../../shared/types/network-view";
+import type { DatasetDetail, Locality, NetworkSummary } from "@shared/types/dataset";
+import type { AuditEntry } from "@shared/types/network-view";
 import { paths } from "../../../config/paths";
 import { WorldMap } from "../../../components/charts/world-map";
 import { ChartFigure } from "../../../components/charts/chart-figure";

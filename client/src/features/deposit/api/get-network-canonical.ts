@@ -1,6 +1,6 @@
 import { queryOptions, useQuery } from "@tanstack/react-query";
 import { apiFetch } from "../../../lib/api-client";
-import type { CanonicalNetworkJson } from "../../../../../shared/network/parse/serialize";
+import type { CanonicalNetworkJson } from "@shared/network/parse/serialize";
 import { depositKeys } from "./types";
 
 export const getNetworkCanonical = (versionId: number, networkId: number) => apiFetch<CanonicalNetworkJson>(`/deposits/${versionId}/networks/${networkId}/canonical`);

@@ -1,8 +1,8 @@
 /** Response shapes of /api/v1/deposits (server/src/api/deposits/deposits.service.ts). */
-import type { VersionState } from "../../../../../shared/types/dataset";
+import type { VersionState } from "@shared/types/dataset";
 
-export type { DepositDetail, DepositListItem } from "../../../../../shared/types/deposit";
-export type { FieldError as FieldFinding } from "../../../../../shared/validation/messages";
+export type { DepositDetail, DepositListItem } from "@shared/types/deposit";
+export type { FieldError as FieldFinding } from "@shared/validation/messages";
 
 export const depositKeys = {
   all: ["deposits"] as const,

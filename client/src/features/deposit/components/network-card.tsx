@@ -1,6 +1,6 @@
 /** One uploaded network of a deposit: summary, matrix picture, warnings, metadata form, order and delete. */
 import { useEffect, useState } from "react";
-import type { NetworkSummary } from "../../../../../shared/types/dataset";
+import type { NetworkSummary } from "@shared/types/dataset";
 import { MatrixPreview, matrixFromCanonical } from "../../../components/network/matrix-preview";
 import { NetworkForm, type NetworkDraft } from "../../../components/metadata/network-form";
 import { networkErrors, prune, visibleErrors } from "../../../components/metadata/validate";

@@ -5,7 +5,7 @@
  * whether a two-mode edge list should be read as bipartite), then upload with those answers.
  */
 import { useState } from "react";
-import { basicMetrics, parseNetworkFile, NetworkParseError, type CellMeaning, type ParseResult } from "../../../../../shared/network";
+import { basicMetrics, parseNetworkFile, NetworkParseError, type CellMeaning, type ParseResult } from "@shared/network";
 import { ApiClientError } from "../../../lib/api-client";
 import { MatrixPreview } from "../../../components/network/matrix-preview";
 import { Alert, Button } from "../../../components/ui/form";

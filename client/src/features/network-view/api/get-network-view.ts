@@ -1,6 +1,6 @@
 import { queryOptions, useQuery } from "@tanstack/react-query";
 import { apiFetch } from "../../../lib/api-client";
-import type { NetworkView } from "../../../../../shared/types/network-view";
+import type { NetworkView } from "@shared/types/network-view";
 
 export const networkViewKeys = {
   all: ["network-views"] as const,

@@ -6,7 +6,7 @@
  * which stay those of the last successful run.
  */
 import type { ReactNode } from "react";
-import type { NetworkView } from "../../../../../shared/types/network-view";
+import type { NetworkView } from "@shared/types/network-view";
 import { fmt, objectiveName } from "../utils/format";
 import { FigureCautions, NODF_CAUTION, NullBadge, fmtPFloor, fmtZ, nullInfo, nullLabel, RESOLUTION_LIMIT_CAUTION } from "../../../components/figures/significance";
 

@@ -1,5 +1,5 @@
-import type { NetworkView } from "../../../../../shared/types/network-view";
-import { moduleBand, moduleColour } from "../../../../../shared/plots/palette";
+import type { NetworkView } from "@shared/types/network-view";
+import { moduleBand, moduleColour } from "@shared/plots/palette";
 
 export function ModuleTable({ view }: { view: NetworkView }) {
   if (!view.modules.length) return null;

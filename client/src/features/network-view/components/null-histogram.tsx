@@ -1,4 +1,4 @@
-import type { NetworkView } from "../../../../../shared/types/network-view";
+import type { NetworkView } from "@shared/types/network-view";
 import { ChartFigure } from "../../../components/charts/chart-figure";
 import { Histogram } from "../../../components/charts/histogram";
 import { Legend } from "../../../components/charts/legend";

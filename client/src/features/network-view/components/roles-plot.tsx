@@ -2,7 +2,7 @@
  * Node roles (Guimerà & Amaral 2005): participation coefficient P against within-module degree z, with the
  * thresholds of Olesen et al. 2007 (z = 2.5, P = 0.62) and the four role regions labelled.
  */
-import type { NetworkView } from "../../../../../shared/types/network-view";
+import type { NetworkView } from "@shared/types/network-view";
 import { ChartFigure } from "../../../components/charts/chart-figure";
 import { Legend } from "../../../components/charts/legend";
 import { Scatter, type ScatterPoint } from "../../../components/charts/scatter";

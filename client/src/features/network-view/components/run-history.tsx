@@ -1,5 +1,5 @@
 /** The network's metrics runs, newest first: when, engine version, settings, null models, status (errors for curators and admins). */
-import type { NetworkView } from "../../../../../shared/types/network-view";
+import type { NetworkView } from "@shared/types/network-view";
 import { nullLabel } from "../../../components/figures/significance";
 import { fmt } from "../utils/format";
 

@@ -1,6 +1,6 @@
 import { queryOptions, useQuery } from "@tanstack/react-query";
 import { apiFetch } from "../../../lib/api-client";
-import type { OutboxMessage, OutboxSummary } from "../../../../../shared/types/outbox";
+import type { OutboxMessage, OutboxSummary } from "@shared/types/outbox";
 
 export type { OutboxMessage, OutboxSummary };
 

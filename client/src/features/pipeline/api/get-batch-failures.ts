@@ -1,6 +1,6 @@
 import { queryOptions, useQuery } from "@tanstack/react-query";
 import { apiFetch } from "../../../lib/api-client";
-import type { RunFailure } from "../../../../../shared/types/pipeline";
+import type { RunFailure } from "@shared/types/pipeline";
 import { PROGRESS_POLL_MS, pipelineKeys } from "./keys";
 
 export function getBatchFailures(batchId: number): Promise<{ data: RunFailure[]; meta: { total: number } }> {

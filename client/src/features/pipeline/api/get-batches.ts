@@ -1,7 +1,7 @@
 import { keepPreviousData, queryOptions, useQuery } from "@tanstack/react-query";
 import { apiFetch } from "../../../lib/api-client";
-import type { ListResponse } from "../../../../../shared/types/api";
-import type { BatchProgress } from "../../../../../shared/types/pipeline";
+import type { ListResponse } from "@shared/types/api";
+import type { BatchProgress } from "@shared/types/pipeline";
 import { pipelineKeys } from "./keys";
 
 export type BatchList = ListResponse<BatchProgress, { total: number; page: number; pageSize: number }>;

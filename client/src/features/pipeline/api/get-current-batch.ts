@@ -1,6 +1,6 @@
 import { queryOptions, useQuery } from "@tanstack/react-query";
 import { apiFetch } from "../../../lib/api-client";
-import type { BatchProgress } from "../../../../../shared/types/pipeline";
+import type { BatchProgress } from "@shared/types/pipeline";
 import { PROGRESS_POLL_MS, pipelineKeys } from "./keys";
 
 export function getCurrentBatch(): Promise<{ batch: BatchProgress | null }> {

@@ -1,6 +1,6 @@
 import { queryOptions, useQuery } from "@tanstack/react-query";
 import { apiFetch } from "../../../lib/api-client";
-import type { PipelineSettingsResponse } from "../../../../../shared/types/pipeline";
+import type { PipelineSettingsResponse } from "@shared/types/pipeline";
 import { pipelineKeys } from "./keys";
 
 export function getPipelineSettings(): Promise<PipelineSettingsResponse> {

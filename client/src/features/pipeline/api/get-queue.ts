@@ -1,6 +1,6 @@
 import { queryOptions, useQuery } from "@tanstack/react-query";
 import { apiFetch } from "../../../lib/api-client";
-import type { QueueProgress } from "../../../../../shared/types/pipeline";
+import type { QueueProgress } from "@shared/types/pipeline";
 import { PROGRESS_POLL_MS, QUEUE_IDLE_POLL_MS, pipelineKeys } from "./keys";
 
 export function getQueue(): Promise<QueueProgress> {

@@ -1,6 +1,6 @@
 import { useMutation, useQueryClient } from "@tanstack/react-query";
 import { apiFetch } from "../../../lib/api-client";
-import type { BatchProgress, PipelineSettings } from "../../../../../shared/types/pipeline";
+import type { BatchProgress, PipelineSettings } from "@shared/types/pipeline";
 import { pipelineKeys } from "./keys";
 
 export function startBatch(input: { settings: PipelineSettings; force: boolean }): Promise<BatchProgress> {

@@ -1,6 +1,6 @@
 import { useMutation, useQueryClient } from "@tanstack/react-query";
 import { apiFetch } from "../../../lib/api-client";
-import type { PipelineSettings, PipelineSettingsResponse } from "../../../../../shared/types/pipeline";
+import type { PipelineSettings, PipelineSettingsResponse } from "@shared/types/pipeline";
 import { pipelineKeys } from "./keys";
 
 export function updatePipelineSettings(settings: PipelineSettings): Promise<PipelineSettingsResponse> {

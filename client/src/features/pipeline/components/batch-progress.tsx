@@ -1,5 +1,5 @@
 import { Alert, Button } from "../../../components/ui/form";
-import type { BatchProgress } from "../../../../../shared/types/pipeline";
+import type { BatchProgress } from "@shared/types/pipeline";
 import { useBatchFailures } from "../api/get-batch-failures";
 import { useRetryBatch } from "../api/retry-batch";
 import { formatDateTime, formatDuration, formatRate, nullModelsShort, percentFinished } from "../utils/format";

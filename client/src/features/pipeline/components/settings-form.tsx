@@ -1,8 +1,8 @@
 import { useEffect, useState } from "react";
 import { Alert, Button, SelectField, TextField, fieldErrorsOf } from "../../../components/ui/form";
 import { ApiClientError } from "../../../lib/api-client";
-import type { BatchPreview, PipelineNullModelName, PipelineSettings } from "../../../../../shared/types/pipeline";
-import { NULL_MODEL_INFO, NULL_MODELS } from "../../../../../shared/network/null-models/index";
+import type { BatchPreview, PipelineNullModelName, PipelineSettings } from "@shared/types/pipeline";
+import { NULL_MODEL_INFO, NULL_MODELS } from "@shared/network/null-models/index";
 import { usePreviewBatch } from "../api/preview-batch";
 import { usePipelineSettings } from "../api/get-pipeline-settings";
 import { useStartBatch } from "../api/start-batch";

@@ -1,5 +1,5 @@
 /** Display helpers of the metrics pipeline page. */
-import type { QueueProgress } from "../../../../../shared/types/pipeline";
+import type { QueueProgress } from "@shared/types/pipeline";
 
 /** "45 s", "3 min 20 s", "2 h 05 min". */
 export function formatDuration(seconds: number | null): string {

@@ -1,7 +1,7 @@
 /** GET /reviews/:id/diff — what changed since the previous submission (or the published version it follows). */
 import { queryOptions, useQuery } from "@tanstack/react-query";
 import { apiFetch } from "../../../lib/api-client";
-import type { SubmissionDiffResponse } from "../../../../../shared/types/review";
+import type { SubmissionDiffResponse } from "@shared/types/review";
 import { reviewKeys } from "./types";
 
 export const getReviewDiff = (id: number) => apiFetch<SubmissionDiffResponse>(`/reviews/${id}/diff`);

@@ -1,6 +1,6 @@
 import { queryOptions, useQuery } from "@tanstack/react-query";
 import { apiFetch } from "../../../lib/api-client";
-import type { ListResponse } from "../../../../../shared/types/api";
+import type { ListResponse } from "@shared/types/api";
 import { reviewKeys, type QueueItem } from "./types";
 
 export interface QueueFilter {

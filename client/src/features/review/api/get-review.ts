@@ -1,6 +1,6 @@
 import { queryOptions, useQuery } from "@tanstack/react-query";
 import { apiFetch } from "../../../lib/api-client";
-import type { CanonicalNetworkJson } from "../../../../../shared/network/parse/serialize";
+import type { CanonicalNetworkJson } from "@shared/network/parse/serialize";
 import { reviewKeys, type ReviewDetail } from "./types";
 
 export const getReview = (id: number) => apiFetch<ReviewDetail>(`/reviews/${id}`);

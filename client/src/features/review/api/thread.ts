@@ -1,7 +1,7 @@
 /** GET and POST /deposits/:id/comments — the submission's conversation, from the curator's side. */
 import { queryOptions, useMutation, useQuery, useQueryClient } from "@tanstack/react-query";
 import { apiFetch } from "../../../lib/api-client";
-import type { ThreadResponse } from "../../../../../shared/types/review";
+import type { ThreadResponse } from "@shared/types/review";
 import { reviewKeys } from "./types";
 
 export const getReviewThread = (id: number) => apiFetch<ThreadResponse>(`/deposits/${id}/comments`);

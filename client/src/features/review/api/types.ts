@@ -1,6 +1,6 @@
 /** Response shapes of /api/v1/reviews (server/src/api/reviews/reviews.service.ts). */
 
-export type { HistoryEntry, QueueItem, ReviewDetail } from "../../../../../shared/types/review";
+export type { HistoryEntry, QueueItem, ReviewDetail } from "@shared/types/review";
 
 export const reviewKeys = {
   all: ["reviews"] as const,

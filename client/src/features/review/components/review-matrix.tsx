@@ -4,8 +4,8 @@
  * cells per pixel). Drawn when opened, so a study of 40 networks does not draw 40 matrices at once.
  */
 import { useMemo, useState } from "react";
-import type { NetworkSummary } from "../../../../../shared/types/dataset";
-import type { CanonicalNetworkJson } from "../../../../../shared/network/parse/serialize";
+import type { NetworkSummary } from "@shared/types/dataset";
+import type { CanonicalNetworkJson } from "@shared/network/parse/serialize";
 import { ModuleMatrix, type ModuleMatrixData } from "../../../components/network/module-matrix";
 import { useReviewCanonical } from "../api/get-review";
 

@@ -5,7 +5,7 @@
  */
 import { useState } from "react";
 import { Link } from "react-router-dom";
-import type { NetworkSummary } from "../../../../../shared/types/dataset";
+import type { NetworkSummary } from "@shared/types/dataset";
 import { ApiClientError } from "../../../lib/api-client";
 import { paths } from "../../../config/paths";
 import { MatrixPreview, matrixFromCanonical } from "../../../components/network/matrix-preview";

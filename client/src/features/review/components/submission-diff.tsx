@@ -4,7 +4,7 @@
  * metadata fields, and its cells compared by node names (nodes added and removed, links added, removed
  * and reweighted, the first changed cells).
  */
-import type { CellDiff, FieldChange, NetworkChange } from "../../../../../shared/types/review";
+import type { CellDiff, FieldChange, NetworkChange } from "@shared/types/review";
 import { Alert } from "../../../components/ui/form";
 import { useReviewDiff } from "../api/get-review-diff";
 import { formatNames, formatShape, formatValue } from "../utils/diff-format";

@@ -1,5 +1,5 @@
 /** How the review page writes the values of a diff. */
-import type { NetworkSide } from "../../../../../shared/types/review";
+import type { NetworkSide } from "@shared/types/review";
 
 /** A field's value: absent fields as "(none)", lists joined, true/false as yes/no, objects as JSON. */
 export function formatValue(v: unknown): string {

@@ -1,6 +1,6 @@
 import { queryOptions, useQuery } from "@tanstack/react-query";
 import { apiFetch } from "../../../lib/api-client";
-import type { ApiTokenView } from "../../../../../shared/types/auth";
+import type { ApiTokenView } from "@shared/types/auth";
 
 export type { ApiTokenView };
 

@@ -1,6 +1,6 @@
 import { useMutation, useQueryClient } from "@tanstack/react-query";
 import { apiFetch } from "../../../lib/api-client";
-import type { Role, UserSummary } from "../../../../../shared/types/auth";
+import type { Role, UserSummary } from "@shared/types/auth";
 import { usersKeys } from "./get-users";
 
 export function changeUserRole(input: { id: number; role: Role }): Promise<UserSummary> {

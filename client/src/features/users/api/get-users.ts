@@ -1,7 +1,7 @@
 import { keepPreviousData, queryOptions, useQuery } from "@tanstack/react-query";
 import { apiFetch } from "../../../lib/api-client";
-import type { Role, UserSummary } from "../../../../../shared/types/auth";
-import type { ListResponse } from "../../../../../shared/types/api";
+import type { Role, UserSummary } from "@shared/types/auth";
+import type { ListResponse } from "@shared/types/api";
 
 export interface UserFilters {
   role?: Role;

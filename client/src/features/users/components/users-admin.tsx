@@ -1,7 +1,7 @@
 import { useState } from "react";
 import { useSearchParams } from "react-router-dom";
 import { Alert, Button, SelectField, TextField } from "../../../components/ui/form";
-import { ROLES, type Role, type UserSummary } from "../../../../../shared/types/auth";
+import { ROLES, type Role, type UserSummary } from "@shared/types/auth";
 import { useUsers } from "../api/get-users";
 import { useChangeUserRole } from "../api/change-user-role";
 
