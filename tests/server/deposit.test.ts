@@ -288,6 +288,17 @@ describe("zip uploads", () => {
     expect(await before()).toEqual(b);
   });
 
+  it("refuses symbolic links in a zip by name, whatever their name ends with, and stores nothing", async () => {
+    const b = await before();
+    const res = await upZip(makeZip([
+      { name: "site.csv", data: SMALL_MATRIX, unixMode: 0o100644 },
+      { name: "passwd.csv", data: "/etc/passwd", unixMode: 0o120777 },
+    ]));
+    expect(res.status).toBe(422);
+    expect(res.body.details).toEqual([{ file: "networks.zip: passwd.csv", message: expect.stringMatching(/"passwd\.csv" is a symbolic link, not a file/) }]);
+    expect(await before()).toEqual(b);
+  });
+
   it("stops inflating when the expanded size passes the limit (zip bomb), even when the headers lie", async () => {
     process.env.TB_UPLOAD_MAX_BYTES = "50000";
     resetConfig();

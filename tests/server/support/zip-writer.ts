@@ -11,6 +11,8 @@ export interface ZipEntryInput {
   deflate?: boolean;
   /** Override the uncompressed size written in the headers (to lie about it). */
   declaredSize?: number;
+  /** A Unix mode written in the external attributes (made by Unix), e.g. 0o120777 for a symbolic link. */
+  unixMode?: number;
 }
 
 export function makeZip(entries: ZipEntryInput[]): Buffer {
@@ -35,7 +37,7 @@ export function makeZip(entries: ZipEntryInput[]): Buffer {
     locals.push(local, name, body);
     const central = Buffer.alloc(46);
     central.writeUInt32LE(0x02014b50, 0);
-    central.writeUInt16LE(20, 4);
+    central.writeUInt16LE(e.unixMode !== undefined ? 0x0314 : 20, 4);
     central.writeUInt16LE(20, 6);
     central.writeUInt16LE(0x0800, 8);
     central.writeUInt16LE(e.deflate ? 8 : 0, 10);
@@ -43,6 +45,7 @@ export function makeZip(entries: ZipEntryInput[]): Buffer {
     central.writeUInt32LE(body.length, 20);
     central.writeUInt32LE(size, 24);
     central.writeUInt16LE(name.length, 28);
+    if (e.unixMode !== undefined) central.writeUInt32LE((e.unixMode << 16) >>> 0, 38);
     central.writeUInt32LE(offset, 42);
     centrals.push(central, name);
     offset += 30 + name.length + body.length;

@@ -5,8 +5,10 @@
  * Zip rules (yauzl, read from memory): files may sit at the top level or inside one single top folder;
  * deeper folders are refused ("nested folders"); names with `..`, absolute paths, drive letters or
  * backslashes are refused (path traversal); files other than .csv/.tsv/.txt are listed as errors; macOS
- * metadata (`__MACOSX/`, `._*`, `.DS_Store`) is skipped. The expanded size is counted while inflating, so a
- * zip bomb stops at the upload limit instead of filling memory. Every problem names the file.
+ * metadata (`__MACOSX/`, `._*`, `.DS_Store`) is skipped. Symbolic links (and any other entry whose Unix
+ * mode is not a regular file or folder) are refused by name: their content is a path, never a network. The
+ * expanded size is counted while inflating, so a zip bomb stops at the upload limit instead of filling
+ * memory. Every problem names the file.
  */
 import { open, readFile } from "node:fs/promises";
 import yauzl from "yauzl";
@@ -60,6 +62,16 @@ function unsafeName(name: string): boolean {
   return name.includes("\\") || name.startsWith("/") || /^[a-zA-Z]:/.test(name) || name.split("/").some((seg) => seg === "..");
 }
 
+/**
+ * What an entry is by the Unix mode in the upper half of its external attributes (zips written on Unix and
+ * macOS; others leave it 0): a symbolic link, another special file, or null for a regular file or folder.
+ */
+export function specialEntry(externalFileAttributes: number): "symbolic link" | "special file" | null {
+  const type = (externalFileAttributes >>> 16) & 0o170000;
+  if (type === 0 || type === 0o100000 || type === 0o040000) return null;
+  return type === 0o120000 ? "symbolic link" : "special file";
+}
+
 /** Expands a zip into network files, or throws ApiError 422 listing every problem. */
 export async function readZip(zipName: string, bytes: Buffer, limits: { maxBytes: number; maxFiles: number }): Promise<UploadedFile[]> {
   const zip = await new Promise<yauzl.ZipFile>((resolve, reject) =>
@@ -104,6 +116,11 @@ export async function readZip(zipName: string, bytes: Buffer, limits: { maxBytes
           return next();
         }
         if (JUNK.test(name)) return next();
+        const special = specialEntry(entry.externalFileAttributes);
+        if (special) {
+          problems.push({ file: `${zipName}: ${name}`, message: `"${name}" is a ${special}, not a file: put the network files themselves in the zip; refused.` });
+          return next();
+        }
         const segs = name.split("/").filter(Boolean);
         const isDir = name.endsWith("/");
         if (isDir) {
