@@ -2,12 +2,16 @@
  * Generalisation of sensitive sites (e.g. threatened taxa). The depositor chooses how far public
  * coordinates are generalised: "exact", or a grid of 0.01°, 0.1° or 1°. Public pages, the API and bundles
  * carry `publicLocality(locality)`: latitude and longitude rounded to the nearest grid point, and
- * Darwin Core `coordinatePrecision` set to the grid size (the precision a reader may assume). Only
- * curators, admins and the owner see the exact values.
+ * Darwin Core `coordinatePrecision` set to the grid size (the precision a reader may assume). Elevation is
+ * generalised with them (ELEVATION_STEPS: 50 m, 100 m, 500 m), since an exact elevation on a slope narrows
+ * a grid cell down to one contour line. Only curators, admins and the owner see the exact values.
  */
 import type { CoordinateGeneralisation, Locality } from "../types/dataset";
 
 export const GENERALISATION_STEPS: Record<Exclude<CoordinateGeneralisation, "exact">, number> = { "0.01": 0.01, "0.1": 0.1, "1": 1 };
+
+/** Metres public elevations are rounded to, per coordinate grid (about a tenth of the relief a cell spans). */
+export const ELEVATION_STEPS: Record<Exclude<CoordinateGeneralisation, "exact">, number> = { "0.01": 50, "0.1": 100, "1": 500 };
 
 function decimalsOf(step: number): number {
   return step >= 1 ? 0 : Math.round(-Math.log10(step));
@@ -36,5 +40,9 @@ export function publicLocality<L extends Partial<Locality>>(locality: L): L {
     out.decimalLongitude = lon;
   }
   out.coordinatePrecision = Math.max(step, typeof locality.coordinatePrecision === "number" ? locality.coordinatePrecision : 0);
+  if (typeof locality.elevation === "number" && Number.isFinite(locality.elevation)) {
+    const m = ELEVATION_STEPS[g as keyof typeof ELEVATION_STEPS];
+    out.elevation = Math.round(locality.elevation / m) * m + 0;
+  }
   return out;
 }

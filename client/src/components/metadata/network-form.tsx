@@ -119,7 +119,7 @@ export function NetworkForm({ value, onChange, errors, kind, directed, disabled 
             onChange={(v) => setLoc({ generalisation: (v || undefined) as Locality["generalisation"] })}
             options={GENERALISATION}
             error={errors["/locality/generalisation"]}
-            hint="Sensitive site (e.g. threatened taxa)? Public pages, the API and bundles then show coordinates rounded to this grid; curators see the exact ones."
+            hint="Sensitive site (e.g. threatened taxa)? Public pages, the API and bundles then show coordinates rounded to this grid and the elevation to 50, 100 or 500 m; curators see the exact ones."
             className="md:col-span-3"
             disabled={disabled || nr.coordinates !== undefined}
           />

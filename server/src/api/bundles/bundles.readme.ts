@@ -89,7 +89,8 @@ FILES
                      set, a network without links, or metrics still pending).
   networks.csv       Network metadata (interaction type, what the row and column nodes are, habitat,
                      locality, dates, sampling). Coordinates are the public ones: sensitive sites are
-                     rounded to the grid their curator chose (column coordinate_generalisation).
+                     rounded to the grid their curator chose (column coordinate_generalisation), and
+                     their elevation with it (to 50, 100 or 500 m for the 0.01, 0.1 and 1 degree grids).
                      Fields a depositor did not know (coordinates, elevation, dates, habitat, sampling
                      effort) are empty, never invented, and the column not_recorded says which and why
                      (habitat then reads "not recorded").

@@ -135,7 +135,7 @@ export const NETWORK_FIELDS: Array<[string, "string" | "integer" | "number" | "b
   ["decimal_latitude", "number", "Latitude (WGS84), generalised to the locality's public grid", (e) => e.latitude],
   ["decimal_longitude", "number", "Longitude (WGS84), generalised to the locality's public grid", (e) => e.longitude],
   ["coordinate_generalisation", "string", "Grid the public coordinates were rounded to (degrees) or exact", (e) => e.generalisation],
-  ["elevation", "number", "Elevation (m)", (e) => e.elevation],
+  ["elevation", "number", "Elevation (m), rounded with the coordinates on generalised sites (50, 100 or 500 m for the 0.01, 0.1 and 1 degree grids)", (e) => e.elevation],
   ["start_date", "date", "First day of sampling", (e) => e.startDate],
   ["end_date", "date", "Last day of sampling", (e) => e.endDate],
   ["sampling_protocol", "string", "Sampling protocol", (e) => e.samplingProtocol],

@@ -209,7 +209,7 @@ function toEntry(r: RawRow): CatalogueEntry {
     latitude: coords.latitude,
     longitude: coords.longitude,
     generalisation: coords.latitude !== null || coords.longitude !== null ? (coords.generalisation ?? null) : str(loc.generalisation),
-    elevation: num(loc.elevation),
+    elevation: coords.elevation,
     startDate,
     endDate,
     startYear: yearOf(startDate),
