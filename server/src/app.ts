@@ -18,7 +18,7 @@ import { apiBody } from "./middlewares/body";
 import { apiNotFound, errorHandler } from "./middlewares/error-handler";
 import { apiRouter } from "./api";
 import { logger } from "./lib/logger";
-import { datasetHtmlRenderer, datasetPageMissing } from "./api/network-views/dataset-html";
+import { datasetHtmlRenderer, datasetPageMissing } from "./api/datasets/datasets.html";
 
 
 /** Server-side renderers for specific client routes (e.g. JSON-LD on dataset pages); return null to skip. */

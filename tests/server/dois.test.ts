@@ -23,7 +23,7 @@ import { startMailCatcher } from "./support/stack";
 import { decide, makeDraft, studyMeta, submit } from "./support/deposit-helpers";
 import { waitFor } from "./support/wait";
 import { unzip } from "./support/unzip";
-import { datasetHtmlRenderer } from "../../server/src/api/network-views/dataset-html";
+import { datasetHtmlRenderer } from "../../server/src/api/datasets/datasets.html";
 
 const PUBLIC_URL = "http://tanglebank.test:3000";
 let app: ReturnType<typeof createApp>;

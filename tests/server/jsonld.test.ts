@@ -12,7 +12,7 @@ import type { Express } from "express";
 import { createApp } from "../../server/src/app";
 import { CLIENT_DIST } from "../../server/src/config/paths";
 import { shutdownServerResources } from "../../server/src/index";
-import { datasetHtmlRenderer, jsonForScript } from "../../server/src/api/network-views/dataset-html";
+import { datasetHtmlRenderer, jsonForScript } from "../../server/src/api/datasets/datasets.html";
 import { resetDatabase } from "../setup/db";
 import { createFixtureDataset, DAVIS_CSV } from "./support/published-fixture";
 

@@ -14,7 +14,7 @@ import { CLIENT_DIST } from "../../server/src/config/paths";
 import { shutdownServerResources } from "../../server/src/index";
 import { resetRateLimits } from "../../server/src/middlewares/rate-limit";
 import { catalogueStore } from "../../server/src/api/catalogue/catalogue.store";
-import { datasetHtmlRenderer } from "../../server/src/api/network-views/dataset-html";
+import { datasetHtmlRenderer } from "../../server/src/api/datasets/datasets.html";
 import type { Locality } from "@shared/types/dataset";
 import { resetDatabase } from "../setup/db";
 import { unzip } from "./support/unzip";

@@ -10,7 +10,7 @@ import { Op } from "sequelize";
 import type { DatasetDetail, NetworkMetadata, NetworkSummary, StudyMetadata, VersionState, VersionSummary } from "@shared/types/dataset";
 import { publicLocality } from "../../lib/public-locality";
 import { ApiError, GoneError } from "../../lib/api-error";
-import { tombstoneOf } from "../network-views/network-views.access";
+import { tombstoneOf } from "../datasets/datasets.access";
 import { hasRole } from "../../middlewares/require-role";
 import { Dataset, DatasetVersion, Network, StoredFile, User } from "../../models";
 import { getCurrentMetrics } from "../../jobs/metrics-read";

@@ -9,16 +9,14 @@ import { doisOfDataset } from "../../jobs/dois";
 import type { CanonicalNetworkJson } from "@shared/network/parse/serialize";
 import type { AnalysisResult } from "@shared/network/analyze";
 import type { NetworkMetadata, NetworkMetricsSummary, StudyMetadata } from "@shared/types/dataset";
-import { MAX_COMPARE, type AuditEntry, type CompareRowsResponse, type CompareUnavailable, type MapPointRow, type ModuleRow, type NetworkCompareRow, type NetworkView, type RoleRow, type RunHistoryRow } from "@shared/types/network-view";
+import type { ModuleRow, NetworkView, RoleRow, RunHistoryRow } from "@shared/types/network-view";
 import { QueryTypes } from "sequelize";
 import { sequelize } from "../../db/sequelize";
 import { getCurrentMetrics } from "../../jobs/metrics-read";
 import { ApiError } from "../../lib/api-error";
-import { AuditLog, Dataset, MetricRun, Network, StoredFile, User } from "../../models";
+import { MetricRun, Network, StoredFile } from "../../models";
 import type { AuthUser } from "../../types";
-import { GoneError, resolveVersion } from "./network-views.access";
-import { matchCatalogue } from "../catalogue/catalogue.service";
-import { parseCatalogueQuery } from "../catalogue/catalogue.validation";
+import { resolveVersion } from "../datasets/datasets.access";
 import { publicLocality } from "../../lib/public-locality";
 import { csvText } from "@shared/csv";
 
@@ -251,109 +249,4 @@ export function partitionJson(view: NetworkView) {
     rows: view.rowLabels.map((label, i) => ({ label, module: view.rowModules![i] })),
     ...(view.kind === "bipartite" ? { columns: view.colLabels.map((label, j) => ({ label, module: view.colModules![j] })) } : {}),
   };
-}
-
-const REF_RE = /^(TB-\d{6})\/v(\d{1,6})\/(\d{1,6})$/;
-
-/**
- * Light rows for the compare view, in the order asked. A reference that cannot be plotted (malformed,
- * unknown, a draft the reader may not see, withdrawn) does not fail the others: it is listed in
- * `unavailable` with the reason (a withdrawn one with its tombstone), so a shared link keeps working.
- */
-export async function getCompareRows(refs: string[], user: AuthUser | undefined): Promise<CompareRowsResponse> {
-  if (refs.length > MAX_COMPARE) throw ApiError.badRequest(`At most ${MAX_COMPARE} networks can be compared at once; got ${refs.length}.`, [{ path: "refs", message: "too many" }]);
-  const found: Array<{ ref: string; net: Network; title: string }> = [];
-  const unavailable: CompareUnavailable[] = [];
-  for (const ref of refs) {
-    const m = REF_RE.exec(ref);
-    if (!m) {
-      unavailable.push({ ref, reason: "malformed", message: `"${ref}" is not a network reference (they look like TB-000042/v2/3).` });
-      continue;
-    }
-    const [, acc, v, pos] = m;
-    try {
-      const { version } = await resolveVersion(acc, Number(v), user);
-      const net = await Network.findOne({ where: { versionId: version.id, position: Number(pos) } });
-      if (!net) {
-        unavailable.push({ ref, reason: "unknown", message: `${acc} v${v} has no network ${pos}.` });
-        continue;
-      }
-      found.push({ ref, net, title: (version.metadata as unknown as StudyMetadata).title });
-    } catch (e) {
-      if (e instanceof GoneError) unavailable.push({ ref, reason: "withdrawn", message: e.message, tombstone: e.tombstone });
-      else if (e instanceof ApiError && e.status === 404) unavailable.push({ ref, reason: "unknown", message: e.message });
-      else throw e;
-    }
-  }
-  const metrics = await getCurrentMetrics(found.map((f) => f.net.id), { showErrors: isStaff(user) });
-  const data = found.map(({ ref, net, title }): NetworkCompareRow => {
-    const md = net.metadata as unknown as NetworkMetadata;
-    return {
-      ref,
-      datasetTitle: title,
-      name: md.name ?? `Network ${net.position}`,
-      interactionType: md.interactionType ?? "other",
-      kind: net.kind,
-      directed: net.directed,
-      weighted: net.weighted,
-      nNodes: net.nNodes,
-      nRows: net.nRows,
-      nCols: net.nCols,
-      nLinks: net.nLinks,
-      connectance: net.connectance,
-      metrics: metrics.get(net.id) ?? { status: "none" },
-    };
-  });
-  return { data, meta: { requested: refs.length, unavailable } };
-}
-
-/** The audit history of a dataset, newest first (curators only: checked by the route). */
-export async function getHistory(accession: string): Promise<AuditEntry[]> {
-  const dataset = await Dataset.findOne({ where: { accession } });
-  if (!dataset) throw ApiError.notFound(`No dataset ${accession}.`);
-  const rows = await AuditLog.findAll({
-    where: { datasetId: dataset.id },
-    include: [{ model: User, as: "actor", attributes: ["id", "displayName"] }],
-    order: [["createdAt", "DESC"], ["id", "DESC"]],
-    limit: 500,
-  });
-  return rows.map((r) => {
-    const actor = (r as AuditLog & { actor?: User | null }).actor;
-    return {
-      id: Number(r.id),
-      at: r.createdAt.toISOString(),
-      action: r.action,
-      entityType: r.entityType,
-      entityId: r.entityId,
-      actor: actor ? { id: actor.id, displayName: actor.displayName } : null,
-      details: r.details,
-    };
-  });
-}
-
-
-/**
- * Every catalogue network matching the catalogue's own filters (the same parser and matcher as
- * GET /api/v1/catalogue), with its public (generalised) coordinates, for the coverage map. The catalogue
- * rows do not carry coordinates, and paging through them 200 at a time would be slow for a map.
- */
-export async function getMapPoints(rawQuery: Record<string, unknown>): Promise<{ data: MapPointRow[]; meta: { total: number; placed: number } }> {
-  const q = parseCatalogueQuery({ ...rawQuery, page: "1", pageSize: "1" });
-  const { matches } = await matchCatalogue(q);
-  const data: MapPointRow[] = [];
-  for (const e of matches) {
-    if (e.latitude === null || e.longitude === null) continue;
-    data.push({
-      ref: e.ref,
-      name: e.name,
-      title: e.title,
-      interactionType: e.interactionType ?? "other",
-      placeName: e.placeName,
-      countryCode: e.countryCode,
-      latitude: e.latitude,
-      longitude: e.longitude,
-      nNodes: e.nNodes,
-    });
-  }
-  return { data, meta: { total: matches.length, placed: data.length } };
 }

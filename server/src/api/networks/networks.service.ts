@@ -12,7 +12,7 @@ import { getCurrentMetrics } from "../../jobs/metrics-read";
 import { ApiError } from "../../lib/api-error";
 import { Network, StoredFile } from "../../models";
 import type { AuthUser } from "../../types";
-import { parseVersionParam, resolveVersion } from "../network-views/network-views.access";
+import { parseVersionParam, resolveVersion } from "../datasets/datasets.access";
 
 export interface NetworkRefParams {
   accession: string;

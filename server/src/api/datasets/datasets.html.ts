@@ -17,7 +17,7 @@ import { escapeHtml } from "../../emails/mailer";
 import { config } from "../../config/env";
 import { ApiError } from "../../lib/api-error";
 import { Network } from "../../models";
-import { citationFor, GoneError, resolveVersion, versionUrl } from "./network-views.access";
+import { citationFor, GoneError, resolveVersion, versionUrl } from "./datasets.access";
 import { publicLocality } from "../../lib/public-locality";
 import { doisOfDataset } from "../../jobs/dois";
 import { notRecordedList } from "@shared/validation/not-recorded";

@@ -1,0 +1,19 @@
+/**
+ * /api/v1/network-views/history — a dataset's audit history, as the dataset page lists it to curators.
+ *
+ * | route                 | who     | answer        |
+ * |-----------------------|---------|---------------|
+ * | GET /:accession       | curator | AuditEntry[]  |
+ */
+import { Router } from "express";
+import { apiRateLimit } from "../../middlewares/api-rate-limit";
+import { requireRole } from "../../middlewares/require-role";
+import { parseAccession } from "../datasets/datasets.validation";
+import { getHistory } from "./dataset-history.service";
+
+export const datasetHistoryRouter = Router();
+datasetHistoryRouter.use(apiRateLimit); // the read API's limit, per token or IP
+
+datasetHistoryRouter.get("/:accession", requireRole("curator"), async (req, res) => {
+  res.json({ data: await getHistory(parseAccession(req.params.accession as string)) });
+});
