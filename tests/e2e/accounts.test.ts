@@ -4,10 +4,10 @@
  * Screenshots of every page go to test-artifacts/screenshots/accounts-*.png.
  */
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { AxeBuilder } from "@axe-core/playwright";
 import type { Page } from "playwright-core";
 import { startStack, type TestStack } from "../server/support/stack";
 import { openBrowser, screenshot, type BrowserSession } from "./support/browser";
+import { axeSerious } from "./support/a11y";
 import { resetDatabase } from "../setup/db";
 import { createUser, TEST_PASSWORD } from "../server/support/accounts";
 
@@ -27,11 +27,6 @@ afterAll(async () => {
   await browser?.close();
   await stack?.stop();
 });
-
-async function axeSerious(page: Page) {
-  const axe = await new AxeBuilder({ page }).withTags(["wcag2a", "wcag2aa"]).analyze();
-  return axe.violations.filter((v) => v.impact === "serious" || v.impact === "critical").map((v) => `${v.id}: ${v.nodes.map((n) => n.target.join(" ")).join(", ")}`);
-}
 
 async function signInThroughForm(page: Page, email: string, password: string) {
   await page.getByLabel("E-mail address").fill(email);

@@ -8,12 +8,12 @@
  */
 import { readFileSync } from "node:fs";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { AxeBuilder } from "@axe-core/playwright";
 import type { Page } from "playwright-core";
 import { QueryTypes } from "sequelize";
 import { startStack, type TestStack } from "../server/support/stack";
 import { join } from "node:path";
 import { openBrowser, screenshot, signInViaApi, SCREENSHOT_DIR, type BrowserSession } from "./support/browser";
+import { axeSerious } from "./support/a11y";
 import { resetDatabase } from "../setup/db";
 import { unzip } from "../server/support/unzip";
 import { catalogueStore } from "../../server/src/api/catalogue/catalogue.store";
@@ -31,9 +31,7 @@ const ref = (f: PublishedFixture, pos: number) => `${f.accession}/v1/${pos}`;
 
 /** Axe on the page, or on the part of it a test changed (the whole catalogue takes axe about 20 s). */
 async function axeCheck(page: Page, include?: string) {
-  const builder = new AxeBuilder({ page }).withTags(["wcag2a", "wcag2aa"]);
-  const axe = await (include ? builder.include(include) : builder).analyze();
-  expect(axe.violations.filter((v) => v.impact === "serious" || v.impact === "critical").map((v) => `${v.id}: ${v.nodes.map((n) => n.target.join(" ")).join(", ")}`)).toEqual([]);
+  expect(await axeSerious(page, include)).toEqual([]);
 }
 
 /** The visible part only (a phone's full page is too tall to look at in one picture). */

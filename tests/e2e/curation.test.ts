@@ -8,10 +8,9 @@
  */
 import { createHash } from "node:crypto";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { AxeBuilder } from "@axe-core/playwright";
-import type { Page } from "playwright-core";
 import { startStack, type TestStack } from "../server/support/stack";
 import { openBrowser, screenshot, signInViaApi, type BrowserSession } from "./support/browser";
+import { axeSerious } from "./support/a11y";
 import { resetDatabase } from "../setup/db";
 import { agentFor, createUser, TEST_PASSWORD, type SignedInAgent } from "../server/support/accounts";
 import { decide, makeDraft, networkMeta, studyMeta, submit } from "../server/support/deposit-helpers";
@@ -29,11 +28,6 @@ const DEPOSITOR = "ines.okafor@example.test";
 const FIRST = "plant,Turdus demo,Sylvia demo,Erithacus demo\nSorbus demo,12,3,0\nPrunus demo,4,0,2\nRubus demo,0,7,5\nTaxus demo,1,0,0\n";
 const CORRECTED = "plant,Turdus demo,Sylvia demo,Erithacus demo,Bombycilla demo\nSorbus demo,12,3,0,6\nPrunus demo,4,0,2,0\nRubus demo,0,9,5,1\n";
 const sha = (s: string) => createHash("sha256").update(s).digest("hex");
-
-async function axeSerious(page: Page) {
-  const axe = await new AxeBuilder({ page }).withTags(["wcag2a", "wcag2aa"]).analyze();
-  return axe.violations.filter((v) => v.impact === "serious" || v.impact === "critical").map((v) => `${v.id}: ${v.nodes.map((n) => n.target.join(" ")).join(", ")}`);
-}
 
 beforeAll(async () => {
   await resetDatabase();

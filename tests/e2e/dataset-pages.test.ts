@@ -7,10 +7,10 @@
  */
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { readFileSync } from "node:fs";
-import { AxeBuilder } from "@axe-core/playwright";
 import type { Page } from "playwright-core";
 import { startStack, type TestStack } from "../server/support/stack";
 import { openBrowser, screenshot, signInViaApi, type BrowserSession } from "./support/browser";
+import { axeSerious } from "./support/a11y";
 import { resetDatabase } from "../setup/db";
 import { createFixtureDataset, DAVIS_CSV, KARATE_CSV, fixtureUser, FIXTURE_PASSWORD } from "../server/support/published-fixture";
 
@@ -19,9 +19,7 @@ let browser: BrowserSession;
 let curatorEmail: string;
 
 async function axeCheck(page: Page) {
-  const axe = await new AxeBuilder({ page }).withTags(["wcag2a", "wcag2aa"]).analyze();
-  const bad = axe.violations.filter((v) => v.impact === "serious" || v.impact === "critical");
-  expect(bad.map((v) => `${v.id}: ${v.nodes.map((n) => n.target.join(" ")).join(", ")}`)).toEqual([]);
+  expect(await axeSerious(page)).toEqual([]);
 }
 
 beforeAll(async () => {

@@ -9,10 +9,10 @@ import { mkdtempSync, writeFileSync } from "node:fs";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { AxeBuilder } from "@axe-core/playwright";
-import type { Locator, Page } from "playwright-core";
+import type { Locator } from "playwright-core";
 import { startStack, type TestStack } from "../server/support/stack";
 import { openBrowser, screenshot, signInViaApi, type BrowserSession } from "./support/browser";
+import { axeSerious } from "./support/a11y";
 import { resetDatabase } from "../setup/db";
 import { createUser, TEST_PASSWORD } from "../server/support/accounts";
 import { resetRateLimits } from "../../server/src/middlewares/rate-limit";
@@ -45,11 +45,6 @@ afterAll(async () => {
   await curator?.close();
   await stack?.stop();
 });
-
-async function axeSerious(page: Page) {
-  const axe = await new AxeBuilder({ page }).withTags(["wcag2a", "wcag2aa"]).analyze();
-  return axe.violations.filter((v) => v.impact === "serious" || v.impact === "critical").map((v) => `${v.id}: ${v.nodes.map((n) => n.target.join(" ")).join(", ")}`);
-}
 
 async function fillNetwork(card: Locator, m: { name: string; rows: string; cols: string; place: string; lat: string; lon: string }) {
   await card.getByLabel("Network name", { exact: true }).fill(m.name);

@@ -6,7 +6,6 @@
  * stand-in remembers who signed in). Screenshots: test-artifacts/screenshots/orcid-*.png.
  */
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { AxeBuilder } from "@axe-core/playwright";
 import type { Page } from "playwright-core";
 import { resetConfig } from "../../server/src/config/env";
 import { OrcidStandIn } from "../../server/src/lib/orcid/stand-in";
@@ -15,6 +14,7 @@ import { User } from "../../server/src/models";
 import { startStack, type TestStack } from "../server/support/stack";
 import { createFixtureDataset, fixtureUser, FIXTURE_PASSWORD } from "../server/support/published-fixture";
 import { openBrowser, screenshot, signInViaApi, type BrowserSession } from "./support/browser";
+import { axeSerious } from "./support/a11y";
 import { resetDatabase } from "../setup/db";
 import { resetRateLimits } from "../../server/src/middlewares/rate-limit";
 
@@ -30,11 +30,6 @@ async function fresh(): Promise<Page> {
   b.page.setDefaultTimeout(15_000);
   open.push(b);
   return b.page;
-}
-
-async function axeSerious(page: Page) {
-  const axe = await new AxeBuilder({ page }).withTags(["wcag2a", "wcag2aa"]).analyze();
-  return axe.violations.filter((v) => v.impact === "serious" || v.impact === "critical").map((v) => `${v.id}: ${v.nodes.map((n) => n.target.join(" ")).join(", ")}`);
 }
 
 beforeAll(async () => {

@@ -6,10 +6,10 @@
  * (polling every 2 s) follows the queue to the plain idle statement.
  */
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { AxeBuilder } from "@axe-core/playwright";
 import { QueryTypes } from "sequelize";
 import { startStack, type TestStack } from "../server/support/stack";
 import { openBrowser, screenshot, signInViaApi, type BrowserSession } from "./support/browser";
+import { axeSerious } from "./support/a11y";
 import { resetDatabase } from "../setup/db";
 import { sequelize } from "../../server/src/db/sequelize";
 import { enqueueNetworkMetrics } from "../../server/src/jobs/enqueue";
@@ -67,8 +67,7 @@ describe("metrics pipeline page, Queue panel", () => {
     // The batch section is still there, below.
     await page.getByText("No batch has been started yet.", { exact: true }).waitFor();
     await screenshot(page, "pipeline-queue-progress");
-    const axe = await new AxeBuilder({ page }).withTags(["wcag2a", "wcag2aa"]).analyze();
-    expect(axe.violations.filter((v) => v.impact === "serious" || v.impact === "critical")).toEqual([]);
+    expect(await axeSerious(page)).toEqual([]);
 
     await startMetricsWorker({ pollingIntervalSeconds: 0.5 });
     await page

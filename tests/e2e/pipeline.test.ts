@@ -4,9 +4,9 @@
  * a network the engine cannot read shows up under Failures with its message.
  */
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { AxeBuilder } from "@axe-core/playwright";
 import { startStack, type TestStack } from "../server/support/stack";
 import { openBrowser, screenshot, signInViaApi, type BrowserSession } from "./support/browser";
+import { axeSerious } from "./support/a11y";
 import { resetDatabase } from "../setup/db";
 import { sequelize } from "../../server/src/db/sequelize";
 import { startMetricsWorker, stopMetricsWorker } from "../../server/src/jobs/metrics-worker";
@@ -72,8 +72,7 @@ describe("metrics pipeline page", () => {
     const history = page.getByRole("table", { name: "Batches, newest first" });
     await history.getByRole("cell", { name: "#1" }).waitFor();
     await screenshot(page, "pipeline-finished");
-    const axe = await new AxeBuilder({ page }).withTags(["wcag2a", "wcag2aa"]).analyze();
-    expect(axe.violations.filter((v) => v.impact === "serious" || v.impact === "critical")).toEqual([]);
+    expect(await axeSerious(page)).toEqual([]);
 
     await page.getByRole("button", { name: "Retry failed networks" }).click();
     await page.getByText("4 of 4 networks finished (100%)").waitFor({ timeout: 60_000 });
