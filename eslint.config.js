@@ -17,7 +17,7 @@ const zones = [
   { target: "./server", from: ["./client", "./scripts", "./tests"], message: "The server does not import the client, scripts or tests." },
   { target: "./client", from: ["./server", "./scripts", "./tests"], message: "The client does not import the server, scripts or tests." },
   { target: "./server/src/lib", from: ["./server/src/api", "./server/src/app.ts", "./server/src/index.ts"], message: "server/src/lib holds pieces the resources use: it does not import a resource (api/) or the app." },
-  { target: "./server/src/models", from: ["./server/src/api", "./server/src/jobs", "./server/src/app.ts"], message: "Models do not import resources, jobs or the app." },
+  { target: "./server/src/models", from: ["./server/src/api", "./server/src/pipeline", "./server/src/dois", "./server/src/app.ts"], message: "Models do not import resources, the pipeline, DOI registration or the app." },
   { target: ["./client/src/components", "./client/src/lib", "./client/src/config"], from: ["./client/src/features", "./client/src/app"], message: "Shared client code does not import a feature or the app: move the piece to where both can reach it." },
   ...features.map((f) => ({
     target: `./client/src/features/${f}`,

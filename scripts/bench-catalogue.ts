@@ -58,7 +58,7 @@ async function seed(url: string): Promise<void> {
   const { createSequelize } = await import("../server/src/db/sequelize");
   const { serializeNetwork } = await import("@shared/network/parse/serialize");
   const { basicMetrics } = await import("@shared/network/metrics/basic");
-  const { DEFAULT_PIPELINE_SETTINGS, settingsHash } = await import("../server/src/jobs/settings");
+  const { DEFAULT_PIPELINE_SETTINGS, settingsHash } = await import("../server/src/pipeline/settings");
   const seq = createSequelize(url, { pool: 2 });
   const [[{ n }]] = (await seq.query(`SELECT count(*)::int AS n FROM networks n JOIN dataset_versions v ON v.id = n.version_id WHERE v.state = 'published'`)) as [[{ n: number }], unknown];
   if (n === NETWORKS) {

@@ -211,7 +211,7 @@ async function main(): Promise<void> {
     // warm-up: compile routes, fill caches
     await phase("warm-up (not judged)", t, server.pid!).then(() => results.pop());
     await phase("idle", t, server.pid!);
-    const { enqueueNetworkMetrics } = await import("../server/src/jobs/enqueue");
+    const { enqueueNetworkMetrics } = await import("../server/src/pipeline/enqueue");
     await enqueueNetworkMetrics(t.networkIds, { force: true });
     await new Promise((r) => setTimeout(r, 3000));
     console.log(`\nRecomputing ${t.networkIds.length} networks (forced); ${await pipelineBusy()} runs queued or running.`);
@@ -220,7 +220,7 @@ async function main(): Promise<void> {
   } finally {
     server.kill("SIGTERM");
     await new Promise((r) => server.once("exit", r));
-    const { stopQueue } = await import("../server/src/jobs/queue");
+    const { stopQueue } = await import("../server/src/pipeline/queue");
     await stopQueue({ graceful: false }).catch(() => undefined);
     const { closeSequelize } = await import("../server/src/db/sequelize");
     await closeSequelize();

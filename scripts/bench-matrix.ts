@@ -54,7 +54,7 @@ async function main() {
 
   const { createRng } = await import("@shared/network/random");
   const { parseNetworkText, serializeNetwork, basicMetrics, analyzeNetwork } = await import("@shared/network/index");
-  const { setPipelineSettings, settingsHash, DEFAULT_PIPELINE_SETTINGS } = await import("../server/src/jobs/settings");
+  const { setPipelineSettings, settingsHash, DEFAULT_PIPELINE_SETTINGS } = await import("../server/src/pipeline/settings");
   const { hashPassword } = await import("../server/src/lib/passwords");
 
   // --- the synthetic network (edge list CSV, as a depositor would upload it)

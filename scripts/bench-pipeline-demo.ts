@@ -34,13 +34,13 @@ const { initModels } = await import("../server/src/models");
 const { seedDemoAccounts } = await import("../server/src/db/seeders/demo-accounts");
 const { startServer } = await import("../server/src/index");
 const { closeSessionPool } = await import("../server/src/app");
-const { startMetricsWorker, stopMetricsWorker } = await import("../server/src/jobs/metrics-worker");
-const { poolThreads } = await import("../server/src/jobs/pool");
-const { getPipelineSettings } = await import("../server/src/jobs/settings");
+const { startMetricsWorker, stopMetricsWorker } = await import("../server/src/pipeline/metrics-worker");
+const { poolThreads } = await import("../server/src/pipeline/pool");
+const { getPipelineSettings } = await import("../server/src/pipeline/settings");
 const { seedDemoScenario } = await import("../server/src/db/seeders/demo-scenario");
 const { annealingApplies } = await import("@shared/network/optimizer/optimize");
 const { deserializeNetwork } = await import("@shared/network/index");
-const { nullChunk, observedAnalysis } = await import("../server/src/jobs/compute");
+const { nullChunk, observedAnalysis } = await import("../server/src/pipeline/compute");
 
 // ---- an empty database, as on a fresh clone --------------------------------------------------------
 await migrateUp(url);

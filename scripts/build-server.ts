@@ -7,7 +7,7 @@
  *   dist/server/worker.js          one more metrics worker process (`npm run worker` from the source)
  *   dist/server/set-role.js        gives an account a role (a deployment's first admin; `npm run set-role`)
  *   dist/server/metrics-thread.mjs the body of the metrics worker threads; the pool starts the file of
- *                                  that name beside the module that creates it (server/src/jobs/pool.ts)
+ *                                  that name beside the module that creates it (server/src/pipeline/pool.ts)
  *   dist/server/parse-process.mjs  the body of the processes that read uploaded files (server/src/lib/parse/pool.ts
  *                                  starts the file of that name beside the module that creates the pool)
  *   dist/server/migrations/*.js    the migrations, found by the migrator beside the compiled server
@@ -41,7 +41,7 @@ rmSync(OUT, { recursive: true, force: true });
 const migrations = readdirSync(join(SRC, "db", "migrations")).filter((f) => /^\d{8}-\d{4}-[a-z0-9-]+\.ts$/.test(f));
 const results = await Promise.all([
   build({ ...common, entryPoints: [join(SRC, "main.ts"), join(SRC, "worker.ts"), join(SRC, "set-role.ts")], outdir: OUT }),
-  build({ ...common, entryPoints: { "metrics-thread": join(SRC, "jobs", "metrics-thread.ts"), "parse-process": join(SRC, "lib", "parse", "parse-process.ts") }, outdir: OUT, outExtension: { ".js": ".mjs" } }),
+  build({ ...common, entryPoints: { "metrics-thread": join(SRC, "pipeline", "metrics-thread.ts"), "parse-process": join(SRC, "lib", "parse", "parse-process.ts") }, outdir: OUT, outExtension: { ".js": ".mjs" } }),
   build({ ...common, entryPoints: migrations.map((f) => join(SRC, "db", "migrations", f)), outdir: join(OUT, "migrations") }),
 ]);
 

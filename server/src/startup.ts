@@ -9,12 +9,12 @@ export type ShutdownTask = () => Promise<void>;
 export const startupTasks: StartupTask[] = [];
 export const shutdownTasks: ShutdownTask[] = [];
 
-import { startMetricsWorkerTask, stopMetricsWorkerTask } from "./jobs/startup";
+import { startMetricsWorkerTask, stopMetricsWorkerTask } from "./pipeline/startup";
 startupTasks.push(startMetricsWorkerTask);
 shutdownTasks.unshift(stopMetricsWorkerTask);
 import { startCatalogueTask, stopCatalogueTask } from "./api/catalogue/catalogue.startup";
 startupTasks.push(startCatalogueTask);
 shutdownTasks.unshift(stopCatalogueTask);
-import { startDoiWorkerTask, stopDoiWorkerTask } from "./jobs/dois.startup";
+import { startDoiWorkerTask, stopDoiWorkerTask } from "./dois/dois.startup";
 startupTasks.push(startDoiWorkerTask);
 shutdownTasks.unshift(stopDoiWorkerTask);

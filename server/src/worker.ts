@@ -7,8 +7,8 @@ import { config } from "./config/env";
 import { migrateUp } from "./db/migrator";
 import { closeSequelize, waitForDatabase } from "./db/sequelize";
 import { installProcessGuards } from "./lib/process-guards";
-import { startMetricsWorker, stopMetricsWorker } from "./jobs/metrics-worker";
-import { poolThreads } from "./jobs/pool";
+import { startMetricsWorker, stopMetricsWorker } from "./pipeline/metrics-worker";
+import { poolThreads } from "./pipeline/pool";
 import { initModels } from "./models";
 
 installProcessGuards("metrics worker");

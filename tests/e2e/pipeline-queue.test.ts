@@ -12,9 +12,9 @@ import { openBrowser, screenshot, signInViaApi, type BrowserSession } from "./su
 import { axeSerious } from "./support/a11y";
 import { resetDatabase } from "../setup/db";
 import { sequelize } from "../../server/src/db/sequelize";
-import { enqueueNetworkMetrics } from "../../server/src/jobs/enqueue";
-import { processRun, startMetricsWorker, stopMetricsWorker } from "../../server/src/jobs/metrics-worker";
-import { setPipelineSettings } from "../../server/src/jobs/settings";
+import { enqueueNetworkMetrics } from "../../server/src/pipeline/enqueue";
+import { processRun, startMetricsWorker, stopMetricsWorker } from "../../server/src/pipeline/metrics-worker";
+import { setPipelineSettings } from "../../server/src/pipeline/settings";
 import { createUser, TEST_PASSWORD } from "../server/support/accounts";
 import { clearQueue, publishMatrices, randomMatrix } from "../server/support/pipeline-fixtures";
 

@@ -9,7 +9,7 @@ import { openBrowser, screenshot, signInViaApi, type BrowserSession } from "./su
 import { axeSerious } from "./support/a11y";
 import { resetDatabase } from "../setup/db";
 import { sequelize } from "../../server/src/db/sequelize";
-import { startMetricsWorker, stopMetricsWorker } from "../../server/src/jobs/metrics-worker";
+import { startMetricsWorker, stopMetricsWorker } from "../../server/src/pipeline/metrics-worker";
 import { createUser, TEST_PASSWORD } from "../server/support/accounts";
 import { clearQueue, createNetwork, matrixCsv, publishMatrices, randomMatrix } from "../server/support/pipeline-fixtures";
 

@@ -8,7 +8,7 @@ import { createApp } from "../../server/src/app";
 import { shutdownServerResources } from "../../server/src/index";
 import { resetRateLimits } from "../../server/src/middlewares/rate-limit";
 import { sequelize } from "../../server/src/db/sequelize";
-import { notifyFiguresIfDone } from "../../server/src/jobs/figures-mail";
+import { notifyFiguresIfDone } from "../../server/src/pipeline/figures-mail";
 import type { MailCatcher } from "../../server/src/lib/mail-catcher";
 import { resetDatabase } from "../setup/db";
 import { agentFor, createUser, type SignedInAgent } from "./support/accounts";

@@ -11,7 +11,7 @@ import type { DatasetDetail } from "@shared/types/dataset";
 import { createApp } from "../../server/src/app";
 import { sequelize } from "../../server/src/db/sequelize";
 import { shutdownServerResources } from "../../server/src/index";
-import { startMetricsWorker, stopMetricsWorker } from "../../server/src/jobs/metrics-worker";
+import { startMetricsWorker, stopMetricsWorker } from "../../server/src/pipeline/metrics-worker";
 import { MetricRun, Network } from "../../server/src/models";
 import { resetDatabase } from "../setup/db";
 import { waitFor } from "./support/wait";

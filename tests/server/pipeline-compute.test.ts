@@ -1,5 +1,5 @@
 /**
- * The pipeline's computation through its worker-thread pool (piscina, server/src/jobs/pool.ts) equals the
+ * The pipeline's computation through its worker-thread pool (piscina, server/src/pipeline/pool.ts) equals the
  * engine's single-threaded analyzeNetwork (shared/network/analyze.ts) for the same settings and seed:
  * null replicates spread over two threads in any chunking give the same numbers, and the combined result
  * is the very object analyzeNetwork returns. Reference data: Zachary's karate club (Zachary 1977,
@@ -9,8 +9,8 @@
 import { afterAll, describe, expect, it } from "vitest";
 import { analyzeNetwork, serializeNetwork, type Network } from "@shared/network/index";
 import type { PipelineSettings } from "@shared/types/pipeline";
-import { chunkReplicates, combineAnalysis, nullChunk, type NullReplicatesByModel } from "../../server/src/jobs/compute";
-import { closePool, runNulls, runObserved } from "../../server/src/jobs/pool";
+import { chunkReplicates, combineAnalysis, nullChunk, type NullReplicatesByModel } from "../../server/src/pipeline/compute";
+import { closePool, runNulls, runObserved } from "../../server/src/pipeline/pool";
 import { davis, karate } from "../shared/optimizer/helpers";
 
 afterAll(closePool);

@@ -10,7 +10,7 @@ import type { QueueProgress } from "@shared/types/pipeline";
 import { createApp } from "../../server/src/app";
 import { sequelize } from "../../server/src/db/sequelize";
 import { shutdownServerResources } from "../../server/src/index";
-import { getPipelineSettings, settingsHash } from "../../server/src/jobs/settings";
+import { getPipelineSettings, settingsHash } from "../../server/src/pipeline/settings";
 import { resetDatabase } from "../setup/db";
 import { agentFor, createUser, type SignedInAgent } from "./support/accounts";
 import { clearQueue, publishMatrices, randomMatrix } from "./support/pipeline-fixtures";

@@ -12,7 +12,7 @@ import { join } from "node:path";
 import pg from "pg";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { runParseTask } from "../../server/src/lib/parse/task";
-import { runTask } from "../../server/src/jobs/compute";
+import { runTask } from "../../server/src/pipeline/compute";
 import { serializeNetwork } from "@shared/network/index";
 import type { PipelineSettings } from "@shared/types/pipeline";
 import { karate } from "../shared/optimizer/helpers";

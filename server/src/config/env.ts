@@ -63,7 +63,7 @@ export interface Config {
 export const LOG_LEVELS = ["fatal", "error", "warn", "info", "debug", "trace", "silent"] as const;
 export type LogLevel = (typeof LOG_LEVELS)[number];
 
-/** Settings of the background jobs (the metrics pipeline in server/src/jobs/, DOI registration). */
+/** Settings of the background jobs (the metrics pipeline in server/src/pipeline/, DOI registration in server/src/dois/). */
 export interface JobSettings {
   /** Worker threads of a process's metrics pool (TB_METRICS_THREADS; default: the cores). */
   metricsThreads: number;

@@ -9,7 +9,7 @@ import { createHash } from "node:crypto";
 import { basicMetrics, parseNetworkText, serializeNetwork } from "@shared/network/index";
 import type { NetworkMetadata, StudyMetadata, VersionState } from "@shared/types/dataset";
 import { sequelize } from "../../../server/src/db/sequelize";
-import { DEFAULT_PIPELINE_SETTINGS, settingsHash } from "../../../server/src/jobs/settings";
+import { DEFAULT_PIPELINE_SETTINGS, settingsHash } from "../../../server/src/pipeline/settings";
 import { Dataset, DatasetVersion, MetricRun, Network, StoredFile, User } from "../../../server/src/models";
 import { hashPassword } from "../../../server/src/lib/passwords";
 import { storeMatrixCsvs } from "../../../server/src/api/bundles/bundles.stored-csv";

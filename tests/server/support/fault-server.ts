@@ -9,7 +9,7 @@ import { installProcessGuards } from "../../../server/src/lib/process-guards";
 import { initModels } from "../../../server/src/models";
 import { startServer } from "../../../server/src/index";
 import { startCatalogueTask } from "../../../server/src/api/catalogue/catalogue.startup";
-import { startMetricsWorker } from "../../../server/src/jobs/metrics-worker";
+import { startMetricsWorker } from "../../../server/src/pipeline/metrics-worker";
 import { config } from "../../../server/src/config/env";
 
 installProcessGuards("server");

@@ -10,13 +10,13 @@ import { readFileSync } from "node:fs";
 import { join } from "node:path";
 import { analyzeNetwork, nullReplicateStats, parseNetworkText, serializeNetwork, basicMetrics, type NullReplicate } from "@shared/network/index";
 import { resolveNullModels, type AnalysisResult } from "@shared/network/analyze";
-import { writeNullFigures } from "../../../server/src/jobs/null-figures";
+import { writeNullFigures } from "../../../server/src/pipeline/null-figures";
 import type { NetworkMetadata, StudyMetadata, VersionState } from "@shared/types/dataset";
 import type { PipelineSettings } from "@shared/types/pipeline";
 import { hashPassword } from "../../../server/src/lib/passwords";
 import { AuditLog, Dataset, DatasetVersion, MetricRun, Network, StoredFile, User } from "../../../server/src/models";
 import type { Role } from "../../../server/src/models/user.model";
-import { setPipelineSettings, settingsHash, DEFAULT_PIPELINE_SETTINGS } from "../../../server/src/jobs/settings";
+import { setPipelineSettings, settingsHash, DEFAULT_PIPELINE_SETTINGS } from "../../../server/src/pipeline/settings";
 
 export const FIXTURE_PASSWORD = "moss-and-lichen-42";
 export const FIXTURE_SETTINGS: PipelineSettings = { ...DEFAULT_PIPELINE_SETTINGS, restarts: 4, nulls: 30, seed: 7 };

@@ -4,7 +4,7 @@
  * needs before comparing networks. Formulas follow shared/network/README.md.
  */
 import type { PipelineSettings } from "@shared/types/pipeline";
-import { nullModelGlossary, nullModelsText } from "../../jobs/settings";
+import { nullModelGlossary, nullModelsText } from "../../pipeline/settings";
 import { BUNDLE_PARTS, DEFAULT_PARTS, type BundlePart } from "./bundles.parts";
 import { FIGURE_CAUTIONS, NODF_CAUTION, RESOLUTION_LIMIT_CAUTION } from "@shared/figures/cautions";
 

@@ -21,7 +21,7 @@ import { NULL_MODEL_INFO, NULL_MODELS, type NullModelName } from "@shared/networ
 import type { StudyMetadata } from "@shared/types/dataset";
 import { config } from "../../config/env";
 import { sequelize } from "../../db/sequelize";
-import { getPipelineSettings, settingsHash } from "../../jobs/settings";
+import { getPipelineSettings, settingsHash } from "../../pipeline/settings";
 import { loadCatalogueRows, type CatalogueEntry } from "../catalogue/catalogue.rows";
 import { catalogueStore } from "../catalogue/catalogue.store";
 import { fileNameOf, matrixCells, matrixCsvBytes, type SelectedNetwork } from "./bundles.selection";

@@ -9,8 +9,8 @@ import { QueryTypes, type Transaction } from "sequelize";
 import { sequelize } from "../../db/sequelize";
 import { publicCoordinates } from "./public-locality";
 import { NOT_RECORDED, notRecordedList, notRecordedText, type NotRecordedField } from "@shared/validation/not-recorded";
-import { getPipelineSettings, settingsHash } from "../../jobs/settings";
-import { readNullFigures } from "../../jobs/null-figures";
+import { getPipelineSettings, settingsHash } from "../../pipeline/settings";
+import { readNullFigures } from "../../pipeline/null-figures";
 
 /** One null model's figures of a catalogue network. */
 export interface CatalogueNullFigures {
@@ -105,7 +105,7 @@ export interface SearchDocument {
 
 /**
  * The current pipeline settings hash (the pipeline's settings in app_settings, hashed with the engine
- * version: server/src/jobs/settings.ts), so "current metrics" here means the same as on dataset pages.
+ * version: server/src/pipeline/settings.ts), so "current metrics" here means the same as on dataset pages.
  */
 export async function currentSettingsHash(transaction?: Transaction): Promise<string> {
   return settingsHash(await getPipelineSettings(transaction));

@@ -3,7 +3,7 @@
  */
 import type { NetworkMetadata, StudyMetadata } from "@shared/types/dataset";
 import { MAX_COMPARE, type CompareRowsResponse, type CompareUnavailable, type NetworkCompareRow } from "@shared/types/network-view";
-import { getCurrentMetrics } from "../../jobs/metrics-read";
+import { getCurrentMetrics } from "../../pipeline/metrics-read";
 import { ApiError } from "../../lib/api-error";
 import { hasRole } from "../../middlewares/require-role";
 import { Network } from "../../models";

@@ -11,7 +11,7 @@ import { config } from "../../config/env";
 import { ApiError, GoneError } from "../../lib/api-error";
 import { hasRole } from "../../middlewares/require-role";
 import { Dataset, DatasetVersion } from "../../models";
-import { registeredVersionDoi } from "../../jobs/dois";
+import { registeredVersionDoi } from "../../dois/dois";
 import type { AuthUser } from "../../types";
 
 export const ACCESSION_RE = /^TB-\d{6}$/;

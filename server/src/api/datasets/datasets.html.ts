@@ -19,7 +19,7 @@ import { ApiError } from "../../lib/api-error";
 import { Network } from "../../models";
 import { citationFor, GoneError, resolveVersion, versionUrl } from "./datasets.access";
 import { publicLocality } from "../../lib/public-locality";
-import { doisOfDataset } from "../../jobs/dois";
+import { doisOfDataset } from "../../dois/dois";
 import { notRecordedList } from "@shared/validation/not-recorded";
 
 const PATH_RE = /^\/datasets\/(TB-\d{6})(?:\/v\/(\d{1,6}))?(?:\/networks\/(\d{1,6}))?\/?$/;

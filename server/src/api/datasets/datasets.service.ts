@@ -13,8 +13,8 @@ import { ApiError, GoneError } from "../../lib/api-error";
 import { tombstoneOf } from "../datasets/datasets.access";
 import { hasRole } from "../../middlewares/require-role";
 import { Dataset, DatasetVersion, Network, StoredFile, User } from "../../models";
-import { getCurrentMetrics } from "../../jobs/metrics-read";
-import { doisOfDataset } from "../../jobs/dois";
+import { getCurrentMetrics } from "../../pipeline/metrics-read";
+import { doisOfDataset } from "../../dois/dois";
 import { verifiedOrcids } from "../auth/orcid.service";
 
 export interface Viewer {

@@ -5,14 +5,14 @@
  * The run's `results` hold the engine's `analyzeNetwork` output under `analysis` (older rows: at the top
  * level); null Q values under `nullQs` (or `analysis.nullQs`) when the pipeline kept them.
  */
-import { doisOfDataset } from "../../jobs/dois";
+import { doisOfDataset } from "../../dois/dois";
 import type { CanonicalNetworkJson } from "@shared/network/parse/serialize";
 import type { AnalysisResult } from "@shared/network/analyze";
 import type { NetworkMetadata, NetworkMetricsSummary, StudyMetadata } from "@shared/types/dataset";
 import type { ModuleRow, NetworkView, RoleRow, RunHistoryRow } from "@shared/types/network-view";
 import { QueryTypes } from "sequelize";
 import { sequelize } from "../../db/sequelize";
-import { getCurrentMetrics } from "../../jobs/metrics-read";
+import { getCurrentMetrics } from "../../pipeline/metrics-read";
 import { ApiError } from "../../lib/api-error";
 import { MetricRun, Network, StoredFile } from "../../models";
 import type { AuthUser } from "../../types";

@@ -8,7 +8,7 @@ import { deserializeNetwork, networkToEdgeListCsv } from "@shared/network";
 import { MatrixCsvError, matrixCsvPieces } from "../../lib/matrix-csv";
 import { logger } from "../../lib/logger";
 import { publicLocality } from "../../lib/public-locality";
-import { getCurrentMetrics } from "../../jobs/metrics-read";
+import { getCurrentMetrics } from "../../pipeline/metrics-read";
 import { ApiError } from "../../lib/api-error";
 import { Network, StoredFile } from "../../models";
 import type { AuthUser } from "../../types";

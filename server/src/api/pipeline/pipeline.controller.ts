@@ -1,5 +1,5 @@
 import type { Request, Response } from "express";
-import { getPipelineSettings } from "../../jobs/settings";
+import { getPipelineSettings } from "../../pipeline/settings";
 import * as service from "./pipeline.service";
 import * as v from "./pipeline.validation";
 

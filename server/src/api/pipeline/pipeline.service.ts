@@ -15,12 +15,12 @@ import { sequelize } from "../../db/sequelize";
 import { ApiError } from "../../lib/api-error";
 import { audit } from "../../lib/audit";
 import { logger } from "../../lib/logger";
-import { getCurrentMetrics } from "../../jobs/metrics-read";
-import { finishBatchIfDone } from "../../jobs/metrics-worker";
-import { sendRunJobs } from "../../jobs/queue";
-import { createQueuedRuns, type QueuedRun } from "../../jobs/runs";
-import { DEFAULT_PIPELINE_SETTINGS, getPipelineSettings, normalizeSettings, setPipelineSettings, settingsHash } from "../../jobs/settings";
-import { assertSettingsFitPublished } from "../../jobs/settings-compat";
+import { getCurrentMetrics } from "../../pipeline/metrics-read";
+import { finishBatchIfDone } from "../../pipeline/metrics-worker";
+import { sendRunJobs } from "../../pipeline/queue";
+import { createQueuedRuns, type QueuedRun } from "../../pipeline/runs";
+import { DEFAULT_PIPELINE_SETTINGS, getPipelineSettings, normalizeSettings, setPipelineSettings, settingsHash } from "../../pipeline/settings";
+import { assertSettingsFitPublished } from "../../pipeline/settings-compat";
 
 export async function readSettings(): Promise<PipelineSettingsResponse> {
   const settings = await getPipelineSettings();

@@ -1,7 +1,7 @@
 /** Request validation of the metrics pipeline routes. */
 import type { PipelineSettings } from "@shared/types/pipeline";
 import { ApiError, type ErrorDetail } from "../../lib/api-error";
-import { validateSettings } from "../../jobs/settings";
+import { validateSettings } from "../../pipeline/settings";
 
 const RUN_STATUSES = ["queued", "running", "succeeded", "failed", "superseded"];
 

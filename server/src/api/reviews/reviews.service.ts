@@ -10,7 +10,7 @@
  * on first publication only (`TB-` + six digits
  * from the sequence accession_seq, so never reused), freezes the version and queues the metrics of every
  * network, all in one transaction. It also reserves the dataset's DOIs (concept and version), which a job
- * registers with DataCite after the commit (jobs/dois.ts), so a DataCite outage never blocks publishing.
+ * registers with DataCite after the commit (server/src/dois/dois.ts), so a DataCite outage never blocks publishing.
  */
 import { Op, QueryTypes } from "sequelize";
 import { ApiError } from "../../lib/api-error";
@@ -20,9 +20,9 @@ import { logger } from "../../lib/logger";
 import { sequelize } from "../../db/sequelize";
 import { config } from "../../config/env";
 import { AuditLog, Dataset, DatasetVersion, Network, Review, User } from "../../models";
-import { enqueueNetworkMetrics } from "../../jobs/enqueue";
+import { enqueueNetworkMetrics } from "../../pipeline/enqueue";
 import { notifyCatalogueChanged } from "../catalogue/catalogue.events";
-import { doisOfDataset, requestDoiSync, reserveDois } from "../../jobs/dois";
+import { doisOfDataset, requestDoiSync, reserveDois } from "../../dois/dois";
 import { sendMail } from "../../emails/mailer";
 import { reviewDecisionEmail, type DecisionKind } from "../../emails/templates/review-decision";
 import type { Viewer } from "../datasets/datasets.service";

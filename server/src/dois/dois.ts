@@ -23,7 +23,7 @@ import { DataciteClient } from "../lib/datacite/client";
 import { attributesHash, conceptDoiAttributes, conceptDoiName, versionDoiAttributes, versionDoiName, type DoiDatasetInput } from "../lib/datacite/metadata";
 import type { StudyMetadata } from "@shared/types/dataset";
 import { doiUrl } from "@shared/citation";
-import { getBoss } from "./queue";
+import { getBoss } from "../pipeline/queue";
 
 export const DOI_QUEUE = "doi-sync";
 
