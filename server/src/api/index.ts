@@ -20,6 +20,7 @@ import { depositsRouter } from "./deposits/deposits.routes";
 import { reviewsRouter } from "./reviews/reviews.routes";
 import { pipelineRouter } from "./pipeline/pipeline.routes";
 import { collectionsRouter } from "./collections/collections.routes";
+import { previewsRouter } from "./previews/previews.routes";
 
 export function apiRouter(): Router {
   const r = Router();
@@ -43,5 +44,6 @@ export function apiRouter(): Router {
   r.use("/reviews", reviewsRouter);
   r.use("/pipeline", pipelineRouter);
   r.use("/collections", collectionsRouter);
+  r.use("/previews", previewsRouter);
   return r;
 }

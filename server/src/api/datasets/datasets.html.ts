@@ -21,6 +21,7 @@ import { citationFor, GoneError, resolveVersion, versionUrl } from "./datasets.a
 import { publicLocality } from "../../lib/public-locality";
 import { doisOfDataset } from "../../dois/dois";
 import { notRecordedList } from "@shared/validation/not-recorded";
+import { PREVIEW_HEIGHT, PREVIEW_WIDTH } from "../previews/previews.image";
 
 const PATH_RE = /^\/datasets\/(TB-\d{6})(?:\/v\/(\d{1,6}))?(?:\/networks\/(\d{1,6}))?\/?$/;
 
@@ -148,7 +149,13 @@ function injectHead(html: string, head: string, title: string): string {
   return out.replace(/<\/head>/i, () => `${head}\n</head>`);
 }
 
-function metaTags(title: string, description: string, url: string, extra = ""): string {
+/** The link-preview image of a page (drawn by /api/v1/previews). */
+interface PreviewImage {
+  url: string;
+  alt: string;
+}
+
+function metaTags(title: string, description: string, url: string, extra = "", image: PreviewImage | null = null): string {
   const t = escapeHtml(title);
   const d = escapeHtml(description);
   return [
@@ -157,6 +164,16 @@ function metaTags(title: string, description: string, url: string, extra = ""): 
     `<meta property="og:title" content="${t}">`,
     `<meta property="og:description" content="${d}">`,
     `<meta property="og:url" content="${escapeHtml(url)}">`,
+    ...(image
+      ? [
+          `<meta property="og:image" content="${escapeHtml(image.url)}">`,
+          `<meta property="og:image:type" content="image/png">`,
+          `<meta property="og:image:width" content="${PREVIEW_WIDTH}">`,
+          `<meta property="og:image:height" content="${PREVIEW_HEIGHT}">`,
+          `<meta property="og:image:alt" content="${escapeHtml(image.alt)}">`,
+          `<meta name="twitter:card" content="summary_large_image">`,
+        ]
+      : []),
     `<link rel="canonical" href="${escapeHtml(url)}">`,
     extra,
   ]
@@ -185,7 +202,11 @@ async function networkHead(accession: string, versionNumber: number, position: n
   const type = (nm.interactionType ?? "interaction").replace(/-/g, " ");
   const description = `${name} (${ref}): a ${type} network of ${size}, ${n.nLinks} links${where}${when}. Module-ordered matrix, null distribution and node roles. From the dataset “${datasetTitle}”.`;
   const title = `${name} (${ref}) · Tanglebank`;
-  return { title, description, url, datasetUrl };
+  const image: PreviewImage = {
+    url: `${config().publicUrl}/api/v1/previews/${ref}.png`,
+    alt: `Interaction matrix of ${name}, rows and columns ordered by module, each module shaded in its own colour`,
+  };
+  return { title, description, url, datasetUrl, image };
 }
 
 /**
@@ -218,11 +239,15 @@ export const datasetHtmlRenderer: HtmlRenderer = async (path, indexHtml) => {
       const net = await networkHead(accession, version.number, Number(m[3]), md.title, url);
       if (!net) return null;
       const head =
-        metaTags(net.title, shorten(net.description), net.url, `<link rel="up" href="${escapeHtml(url)}">`) + `\n<script type="application/ld+json">${jsonForScript(ld)}</script>`;
+        metaTags(net.title, shorten(net.description), net.url, `<link rel="up" href="${escapeHtml(url)}">`, net.image) + `\n<script type="application/ld+json">${jsonForScript(ld)}</script>`;
       return injectHead(indexHtml, head, net.title);
     }
     const title = `${md.title} (${accession} v${version.number}) · Tanglebank`;
-    const head = metaTags(title, shorten(md.description ?? md.title), url) + `\n<script type="application/ld+json">${jsonForScript(ld)}</script>`;
+    const image: PreviewImage = {
+      url: `${config().publicUrl}/api/v1/previews/${accession}/v${version.number}.png`,
+      alt: `Interaction matrices of the first networks of “${md.title}”, rows and columns ordered by module`,
+    };
+    const head = metaTags(title, shorten(md.description ?? md.title), url, "", image) + `\n<script type="application/ld+json">${jsonForScript(ld)}</script>`;
     return injectHead(indexHtml, head, title);
   } catch (err) {
     if (err instanceof GoneError) {

@@ -332,6 +332,24 @@ export function openapiDocument(): Json {
           responses: { 200: { description: "CSV", content: { "text/csv": { schema: { type: "string" } } } }, 404: error("Not found"), 410: error("Withdrawn") },
         },
       },
+      "/previews/{accession}/{version}.png": {
+        get: {
+          tags: ["Networks"],
+          operationId: "getDatasetPreview",
+          summary: "Link-preview image of a dataset version (1200 × 630 PNG): its first three networks' matrices ordered by module, each with a strip of its modules' sizes",
+          parameters: [pathParam("accession", "Dataset accession", "TB-000001"), pathParam("version", "Version, written v1, v2, …", "v1")],
+          responses: { 200: { description: "PNG (cached; ETag)", content: { "image/png": { schema: { type: "string", contentEncoding: "binary" } } } }, 404: error("Not found"), 410: error("Withdrawn") },
+        },
+      },
+      "/previews/{accession}/{version}/{position}.png": {
+        get: {
+          tags: ["Networks"],
+          operationId: "getNetworkPreview",
+          summary: "Link-preview image of a network (1200 × 630 PNG): its matrix ordered by module, with a strip of its modules' sizes",
+          parameters: NETWORK_REF_PARAMS,
+          responses: { 200: { description: "PNG (cached; ETag)", content: { "image/png": { schema: { type: "string", contentEncoding: "binary" } } } }, 404: error("Not found"), 410: error("Withdrawn") },
+        },
+      },
       "/networks/{accession}/{version}/{position}/data.json": {
         get: { tags: ["Networks"], operationId: "getNetworkJsonData", summary: "The network with its data (labels and links) as JSON", parameters: NETWORK_REF_PARAMS, responses: { 200: json(ref("Network")), 404: error("Not found"), 410: error("Withdrawn") } },
       },
