@@ -5,6 +5,7 @@ import { startNewVersion } from "../deposits/deposits.service";
 import { withdrawDataset } from "../reviews/reviews.service";
 import { getPublishedDetail, getPublishedNetworkFile } from "./datasets.service";
 import { originalFileType } from "../../lib/file-type";
+import { sendPublicAnswer } from "../../lib/public-answers";
 
 function positiveInt(raw: unknown, what: string): number {
   const n = Number(raw);
@@ -23,12 +24,15 @@ export async function show(req: Request, res: Response) {
   perViewer(res);
   const v = req.query.version;
   const number = v === undefined ? undefined : positiveInt(v, "version");
-  res.json(await getPublishedDetail(String(req.params.accession), number, req.user));
+  const accession = String(req.params.accession);
+  await sendPublicAnswer(req, res, accession, `dataset/${number ?? "latest"}`, () => getPublishedDetail(accession, number, req.user));
 }
 
 export async function showVersion(req: Request, res: Response) {
   perViewer(res);
-  res.json(await getPublishedDetail(String(req.params.accession), positiveInt(req.params.n, "version"), req.user));
+  const accession = String(req.params.accession);
+  const number = positiveInt(req.params.n, "version");
+  await sendPublicAnswer(req, res, accession, `dataset/${number}`, () => getPublishedDetail(accession, number, req.user));
 }
 
 export async function networkFile(req: Request, res: Response) {

@@ -12,6 +12,7 @@
  */
 import { Router, type Request } from "express";
 import { apiRateLimit } from "../../middlewares/api-rate-limit";
+import { sendPublicAnswer } from "../../lib/public-answers";
 import { parseAccession, parseVersion } from "../datasets/datasets.validation";
 import { getNetworkView, partitionCsv, partitionJson } from "./network-views.service";
 import { parsePosition } from "./network-views.validation";
@@ -25,7 +26,8 @@ async function view(req: Request) {
 
 networkViewsRouter.get("/:accession/:version/:position", async (req, res) => {
   res.setHeader("Cache-Control", "private, no-cache");
-  res.json(await view(req));
+  const [accession, version, position] = [parseAccession(req.params.accession as string), parseVersion(req.params.version as string), parsePosition(req.params.position as string)];
+  await sendPublicAnswer(req, res, accession, `view/${version}/${position}`, () => getNetworkView(accession, version, position, req.user));
 });
 
 networkViewsRouter.get("/:accession/:version/:position/partition.csv", async (req, res) => {

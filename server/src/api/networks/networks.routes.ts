@@ -16,6 +16,7 @@ import { pipeline } from "node:stream/promises";
 import { Router, type Request, type Response } from "express";
 import { ApiError } from "../../lib/api-error";
 import { logger } from "../../lib/logger";
+import { sendPublicAnswer } from "../../lib/public-answers";
 import { apiRateLimit } from "../../middlewares/api-rate-limit";
 import { config } from "../../config/env";
 import { listCatalogue } from "../catalogue/catalogue.routes";
@@ -62,5 +63,6 @@ networksRouter.get("/:accession/:version/:position/data.json", async (req, res) 
 });
 
 networksRouter.get("/:accession/:version/:position/metrics", async (req, res) => {
-  res.json(await getNetworkMetrics(req.params as unknown as NetworkRefParams, req.user));
+  const p = req.params as unknown as NetworkRefParams;
+  await sendPublicAnswer(req, res, p.accession, `metrics/${p.version}/${p.position}`, () => getNetworkMetrics(p, req.user));
 });
