@@ -11,7 +11,7 @@ import { createApp } from "../../server/src/app";
 import { shutdownServerResources } from "../../server/src/index";
 import { sequelize } from "../../server/src/db/sequelize";
 import { AnswerCache, datasetStamp, publicAnswers } from "../../server/src/lib/public-answers";
-import { setPipelineSettings } from "../../server/src/jobs/settings";
+import { setPipelineSettings } from "../../server/src/pipeline/settings";
 import { resetDatabase } from "../setup/db";
 import { agentFor } from "./support/accounts";
 import { createFixtureDataset, fixtureUser, DAVIS_CSV, FIXTURE_PASSWORD, FIXTURE_SETTINGS, STUDY } from "./support/published-fixture";
