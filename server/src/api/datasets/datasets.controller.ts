@@ -1,9 +1,9 @@
 import type { Request, Response } from "express";
 import { ApiError } from "../../lib/api-error";
 import { hasRole } from "../../middlewares/require-role";
-import { startNewVersion } from "../deposits/deposits.service";
-import { withdrawDataset } from "../reviews/reviews.service";
 import { getPublishedDetail, getPublishedNetworkFile } from "./datasets.service";
+import { startNewVersion } from "./datasets.versions";
+import { withdrawDataset } from "./datasets.withdrawal";
 import { originalFileType } from "../../lib/file-type";
 import { sendPublicAnswer } from "../../lib/public-answers";
 

@@ -1,6 +1,7 @@
 /**
  * Curation: the review queue, the review page's data, decisions with optimistic locking, metadata
- * corrections (audited with before/after), publishing and withdrawal.
+ * corrections (audited with before/after) and publishing. (Withdrawal is api/datasets/datasets.withdrawal.ts,
+ * which mails the depositor through mailDepositor here.)
  *
  * Decisions: publish, request changes (comment required), decline (reason required). A decision applies
  * only to a `submitted` version whose `lock_version` is the one the curator saw: the conditional UPDATE
@@ -12,7 +13,7 @@
  * network, all in one transaction. It also reserves the dataset's DOIs (concept and version), which a job
  * registers with DataCite after the commit (server/src/dois/dois.ts), so a DataCite outage never blocks publishing.
  */
-import { Op, QueryTypes } from "sequelize";
+import { QueryTypes } from "sequelize";
 import { ApiError } from "../../lib/api-error";
 import { withNormalisedDoi } from "@shared/validation/doi";
 import { audit } from "../../lib/audit";
@@ -122,7 +123,7 @@ function decisionUrl(kind: DecisionKind, accession: string | null, versionId: nu
   return `${base}/my-deposits`;
 }
 
-async function mailDepositor(kind: DecisionKind, dataset: Dataset, version: DatasetVersion, comment: string | null): Promise<void> {
+export async function mailDepositor(kind: DecisionKind, dataset: Dataset, version: DatasetVersion, comment: string | null): Promise<void> {
   try {
     const owner = await User.findByPk(dataset.ownerId);
     if (!owner) return;
@@ -244,28 +245,4 @@ export async function correctStudyMetadata(versionId: number, viewer: Viewer, me
 export async function correctNetworkMetadata(versionId: number, networkId: number, viewer: Viewer, metadata: unknown): Promise<ReviewDetail> {
   await updateNetwork(versionId, networkId, viewer, { metadata }, true);
   return reviewDetail(versionId, viewer);
-}
-
-/** Withdraws every published version of a dataset (curator or admin; reason required). */
-export async function withdrawDataset(accession: string, viewer: Viewer, reasonRaw: unknown): Promise<{ accession: string; reason: string; withdrawnAt: string }> {
-  const reason = typeof reasonRaw === "string" ? reasonRaw.trim() : "";
-  if (!reason) throw ApiError.unprocessable("A reason is required to withdraw a dataset.", [{ path: "/reason", message: "Say why the dataset is withdrawn; it is shown on the tombstone page." }]);
-  const result = await sequelize().transaction(async (t) => {
-    const dataset = await Dataset.findOne({ where: { accession }, transaction: t, lock: t.LOCK.UPDATE });
-    if (!dataset) throw ApiError.notFound(`No dataset ${accession}.`);
-    const published = await DatasetVersion.findAll({ where: { datasetId: dataset.id, state: "published" }, transaction: t });
-    if (!published.length) throw ApiError.conflict(`${accession} has no published version to withdraw.`);
-    const at = new Date();
-    await DatasetVersion.update(
-      { state: "withdrawn", withdrawnAt: at, withdrawalReason: reason, lockVersion: sequelize().literal("lock_version + 1") as unknown as number },
-      { where: { id: { [Op.in]: published.map((v) => v.id) } }, transaction: t },
-    );
-    await notifyCatalogueChanged(dataset.id, t);
-    // the DOIs stay and keep resolving (to the tombstone); their metadata says the version was withdrawn
-    await requestDoiSync(dataset.id, t);
-    await audit({ actorId: viewer.id, action: "dataset.withdraw", entityType: "dataset", entityId: dataset.id, datasetId: dataset.id, details: { accession, reason, versions: published.map((v) => v.number) } }, t);
-    return { dataset, latest: published.sort((a, b) => b.number - a.number)[0], at };
-  });
-  await mailDepositor("withdraw", result.dataset, result.latest, reason);
-  return { accession, reason, withdrawnAt: result.at.toISOString() };
 }

@@ -13,8 +13,10 @@
 import { createRng, type Rng } from "@shared/network/random";
 import type { StudyMetadata } from "@shared/types/dataset";
 import { Dataset, User } from "../../models";
-import { addNetworks, createDeposit, startNewVersion, submitDeposit, updateNetwork, updateStudyMetadata } from "../../api/deposits/deposits.service";
-import { decide, withdrawDataset } from "../../api/reviews/reviews.service";
+import { addNetworks, createDeposit, submitDeposit, updateNetwork, updateStudyMetadata } from "../../api/deposits/deposits.service";
+import { decide } from "../../api/reviews/reviews.service";
+import { startNewVersion } from "../../api/datasets/datasets.versions";
+import { withdrawDataset } from "../../api/datasets/datasets.withdrawal";
 import { createCollection } from "../../api/collections/collections.service";
 import { addComment } from "../../api/deposits/deposits.comments";
 import type { Viewer } from "../../api/datasets/datasets.service";
