@@ -19,7 +19,6 @@ import { execFileSync } from "node:child_process";
 import { existsSync, mkdtempSync, rmSync } from "node:fs";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
-import { createHash } from "node:crypto";
 import { chromium } from "playwright-core";
 
 const ROWS = 3000;
@@ -53,8 +52,9 @@ async function main() {
   models.initModels();
 
   const { createRng } = await import("@shared/network/random");
-  const { parseNetworkText, serializeNetwork, basicMetrics, analyzeNetwork } = await import("@shared/network/index");
-  const { setPipelineSettings, settingsHash, DEFAULT_PIPELINE_SETTINGS } = await import("../server/src/pipeline/settings");
+  const { parseNetworkText, basicMetrics, analyzeNetwork } = await import("@shared/network/index");
+  const { setPipelineSettings, DEFAULT_PIPELINE_SETTINGS } = await import("../server/src/pipeline/settings");
+  const { insertNetwork, insertRun, insertVersion } = await import("../server/src/db/seeders/published-network");
   const { hashPassword } = await import("../server/src/lib/passwords");
 
   // --- the synthetic network (edge list CSV, as a depositor would upload it)
@@ -83,12 +83,9 @@ async function main() {
   // --- published dataset with its current metric run
   await setPipelineSettings(settings);
   const owner = await models.User.create({ email: "bench@example.test", displayName: "Bench Depositor", passwordHash: await hashPassword("bench-password-1234"), role: "depositor", emailVerifiedAt: new Date() });
-  const dataset = await models.Dataset.create({ ownerId: owner.id, accession: "TB-000001" });
-  const version = await models.DatasetVersion.create({
-    datasetId: dataset.id,
-    number: 1,
-    state: "published",
-    publishedAt: new Date(),
+  const { version } = await insertVersion({
+    ownerId: owner.id,
+    accession: "TB-000001",
     metadata: {
       title: "Benchmark: a 3000 × 5000 planted-module network",
       description: "Synthetic, seeded network for the matrix-view benchmark (not real data).",
@@ -98,17 +95,12 @@ async function main() {
       contactEmail: "bench@example.test",
     },
   });
-  const bytes = Buffer.from(text, "utf8");
-  const file = await models.StoredFile.create({ sha256: createHash("sha256").update(bytes).digest("hex"), size: bytes.length, bytes });
-  const net = await models.Network.create({
+  const net = await insertNetwork({
     versionId: version.id,
     position: 1,
-    fileId: file.id,
-    originalName: "bench.csv",
-    format,
-    kind: "bipartite",
-    directed: false,
-    weighted: false,
+    text,
+    fileName: "bench.csv",
+    parsed: { network, format },
     metadata: {
       name: "Planted modules, 3000 × 5000",
       interactionType: "pollination",
@@ -121,36 +113,8 @@ async function main() {
       endDate: "2024-12-31",
       samplingProtocol: "generated",
     },
-    canonical: serializeNetwork(network),
-    nNodes: b.nodes,
-    nRows: b.rows,
-    nCols: b.cols,
-    nLinks: b.links,
-    totalWeight: b.totalWeight,
-    connectance: b.connectance,
   });
-  await models.MetricRun.create({
-    networkId: net.id,
-    settings: settings as unknown as Record<string, unknown>,
-    settingsHash: settingsHash(settings),
-    status: "succeeded",
-    algorithmName: analysis.algorithm.name,
-    algorithmVersion: analysis.algorithm.version,
-    seed: analysis.algorithm.seed,
-    startedAt: new Date(),
-    finishedAt: new Date(),
-    durationMs: analysis.elapsedMs,
-    results: { analysis } as unknown as Record<string, unknown>,
-    objective: analysis.modularity.objective,
-    q: analysis.modularity.Q,
-    modules: analysis.modularity.modules,
-    nullMean: analysis.null?.mean ?? null,
-    nullSd: analysis.null?.sd ?? null,
-    z: analysis.null?.z ?? null,
-    qRel: analysis.null?.qRel ?? null,
-    p: analysis.null?.p ?? null,
-    nodf: analysis.nodf,
-  });
+  await insertRun({ networkId: net.id, settings, analysis });
 
   // --- serve and measure
   const { startServer, shutdownServerResources } = await import("../server/src/index");

@@ -27,6 +27,7 @@ if (process.argv.includes("--demo")) await import("./bench-pipeline-demo");
 import { readFileSync } from "node:fs";
 import { availableParallelism, loadavg } from "node:os";
 import { createRng } from "@shared/network/random";
+import { csvText } from "@shared/csv";
 
 const N = Number(process.env.BENCH_NETWORKS ?? 200);
 const NULLS = Number(process.env.BENCH_NULLS ?? 100);
@@ -52,8 +53,8 @@ const { closeSessionPool } = await import("../server/src/app");
 const { startMetricsWorker, stopMetricsWorker } = await import("../server/src/pipeline/metrics-worker");
 const { poolThreads } = await import("../server/src/pipeline/pool");
 const { startBatch, getBatch } = await import("../server/src/api/pipeline/pipeline.service");
-const { parseNetworkText, serializeNetwork, basicMetrics } = await import("@shared/network/index");
-const { createHash } = await import("node:crypto");
+const { parseNetworkText, basicMetrics } = await import("@shared/network/index");
+const { insertNetwork, insertVersion } = await import("../server/src/db/seeders/published-network");
 
 /** Uniform numbers in [0, 1) from the engine's seeded generator (shared/network/random.ts). */
 function rng(seed: number): () => number {
@@ -78,9 +79,7 @@ function matrixCsv(nodes: number, seed: number): string {
     }
   }
   for (let j = 0; j < C; j++) m[j % R][j] = 1; // no empty column
-  const lines = ["," + Array.from({ length: C }, (_, j) => `c${j + 1}`).join(",")];
-  for (let i = 0; i < R; i++) lines.push(`r${i + 1},` + Array.from(m[i]).join(","));
-  return lines.join("\n") + "\n";
+  return csvText([["", ...Array.from({ length: C }, (_, j) => `c${j + 1}`)], ...Array.from(m, (row, i) => [`r${i + 1}`, ...row])]);
 }
 
 function quantile(xs: number[], q: number): number {
@@ -121,39 +120,19 @@ let totalLinks = 0;
 for (let d = 0; d * PER_DATASET < N; d++) {
   const accession = `TB-${String(d + 1).padStart(6, "0")}`;
   accessions.push(accession);
-  const ds = await models.Dataset.create({ ownerId: admin.id, accession });
-  const v = await models.DatasetVersion.create({
-    datasetId: ds.id,
-    number: 1,
-    state: "published",
-    publishedAt: new Date(),
+  const { version: v } = await insertVersion({
+    ownerId: admin.id,
+    accession,
     metadata: { title: `Benchmark study ${d + 1}`, description: "Seeded benchmark data.", creators: [{ name: "Bench" }], licence: "CC0-1.0", keywords: [], contactEmail: "bench@bench.test" },
   });
   for (let p = 1; p <= PER_DATASET && d * PER_DATASET + p <= N; p++) {
     const idx = d * PER_DATASET + p - 1;
     const csv = matrixCsv(sizes[idx], idx + 1);
-    const { network } = parseNetworkText(csv, { fileName: `n${idx + 1}.csv`, kind: "bipartite" });
-    const b = basicMetrics(network);
+    const parsed = parseNetworkText(csv, { fileName: `n${idx + 1}.csv`, kind: "bipartite" });
+    const b = basicMetrics(parsed.network);
     totalNodes += b.nodes;
     totalLinks += b.links;
-    const bytes = Buffer.from(csv);
-    const file = await models.StoredFile.create({ sha256: createHash("sha256").update(bytes).digest("hex"), size: bytes.length, bytes });
-    await models.Network.create({
-      versionId: v.id,
-      position: p,
-      fileId: file.id,
-      originalName: `n${idx + 1}.csv`,
-      format: "matrix",
-      kind: "bipartite",
-      metadata: { name: `Benchmark network ${idx + 1}` },
-      canonical: serializeNetwork(network),
-      nNodes: b.nodes,
-      nRows: b.rows,
-      nCols: b.cols,
-      nLinks: b.links,
-      totalWeight: b.totalWeight,
-      connectance: b.connectance,
-    });
+    await insertNetwork({ versionId: v.id, position: p, text: csv, fileName: `n${idx + 1}.csv`, parsed, metadata: { name: `Benchmark network ${idx + 1}` } });
   }
 }
 const seedSeconds = (Date.now() - tSeed) / 1000;

@@ -1,19 +1,18 @@
 /**
- * Published datasets for catalogue, bundle and API tests, written directly through the models (the
- * publishing service has its own tests). Networks are real engine networks: a seeded random matrix with
+ * Published datasets for catalogue, bundle and API tests, written through the one fixture builder
+ * (server/src/db/seeders/published-network.ts; the publishing service has its own tests). Networks are real engine networks: a seeded random matrix with
  * the given labels, parsed by `parseNetworkText`, stored with `serializeNetwork` and `basicMetrics`.
  * Metric runs are stored under the current pipeline settings hash, as the pipeline would.
  * Invented data, for tests only.
  */
-import { createHash } from "node:crypto";
-import { basicMetrics, parseNetworkText, serializeNetwork } from "@shared/network/index";
 import type { NetworkMetadata, StudyMetadata, VersionState } from "@shared/types/dataset";
-import { sequelize } from "../../../server/src/db/sequelize";
 import { DEFAULT_PIPELINE_SETTINGS, settingsHash } from "../../../server/src/pipeline/settings";
-import { Dataset, DatasetVersion, MetricRun, Network, StoredFile, User } from "../../../server/src/models";
+import { MetricRun, User } from "../../../server/src/models";
+import { insertNetwork, insertRun, insertVersion, type FixtureFigures } from "../../../server/src/db/seeders/published-network";
 import { hashPassword } from "../../../server/src/lib/passwords";
 import { storeMatrixCsvs } from "../../../server/src/api/bundles/bundles.stored-csv";
 import { createRng } from "@shared/network/random";
+import { csvText } from "@shared/csv";
 
 export const CURRENT_HASH = settingsHash(DEFAULT_PIPELINE_SETTINGS);
 
@@ -30,15 +29,7 @@ export async function makeUser(role: "depositor" | "curator" | "admin" = "deposi
   });
 }
 
-export interface FixtureMetrics {
-  q: number;
-  z?: number | null;
-  qRel?: number | null;
-  p?: number | null;
-  modules?: number;
-  nullMean?: number | null;
-  nullSd?: number | null;
-  nodf?: number | null;
+export interface FixtureMetrics extends FixtureFigures {
   settingsHash?: string;
 }
 
@@ -69,13 +60,13 @@ export function fixtureCsv(n: FixtureNetwork): string {
   const colLabels = n.kind === "unipartite" ? rowLabels : (n.colLabels ?? Array.from({ length: J }, (_, j) => `visitor_${j + 1}`));
   const r = rng(n.seed ?? 7);
   const p = n.density ?? 0.4;
-  const lines = [["", ...colLabels].join(",")];
+  const lines: unknown[][] = [["", ...colLabels]];
   for (let i = 0; i < I; i++) {
     const cells = Array.from({ length: J }, (_, j) => (r() < p || j === (i + 1) % J ? (n.weighted ? 1 + Math.floor(r() * 9) : 1) : 0));
     if (n.kind === "unipartite") cells[i] = 0;
-    lines.push([rowLabels[i], ...cells].join(","));
+    lines.push([rowLabels[i], ...cells]);
   }
-  return lines.join("\n") + "\n";
+  return csvText(lines);
 }
 
 export const baseNetworkMeta = (over: Partial<NetworkMetadata> = {}): NetworkMetadata => ({
@@ -124,62 +115,20 @@ export async function publishDataset(opts: {
   storeMatrixCsvs?: boolean;
 }): Promise<PublishedFixture> {
   const owner = opts.owner ?? (await makeUser());
-  let datasetId: number;
-  let accession: string;
-  if (opts.dataset) {
-    datasetId = opts.dataset.id;
-    accession = opts.dataset.accession;
-  } else {
-    const [[row]] = (await sequelize().query(`SELECT nextval('accession_seq') AS n`)) as [[{ n: string }], unknown];
-    accession = `TB-${String(row.n).padStart(6, "0")}`;
-    const ds = await Dataset.create({ ownerId: owner.id, accession });
-    datasetId = ds.id;
-  }
   const state = opts.state ?? "published";
   const number = opts.number ?? 1;
-  const v = await DatasetVersion.create({
-    datasetId,
-    number,
-    state,
-    metadata: baseStudy(opts.study) as unknown as Record<string, unknown>,
-    publishedAt: state === "published" || state === "withdrawn" ? new Date() : null,
-    withdrawnAt: state === "withdrawn" ? new Date() : null,
-    withdrawalReason: state === "withdrawn" ? "Test withdrawal" : null,
-  });
+  const { dataset, version } = await insertVersion({ ownerId: owner.id, datasetId: opts.dataset?.id, accession: "next", number, state, metadata: baseStudy(opts.study), withdrawalReason: "Test withdrawal" });
   const networkIds: number[] = [];
   for (let i = 0; i < opts.networks.length; i++) {
     const spec = opts.networks[i];
-    const csv = fixtureCsv(spec);
-    const bytes = Buffer.from(csv);
-    const sha256 = createHash("sha256").update(bytes).update(`${datasetId}/${number}/${i}/${Math.random()}`).digest("hex");
-    const file = await StoredFile.create({ sha256, size: bytes.length, bytes });
     const kind = spec.kind ?? "bipartite";
-    const { network } = parseNetworkText(csv, { fileName: `n${i + 1}.csv`, kind, directed: kind === "unipartite" });
-    const b = basicMetrics(network);
-    const n = await Network.create({
-      versionId: v.id,
-      position: i + 1,
-      fileId: file.id,
-      originalName: `n${i + 1}.csv`,
-      format: "matrix",
-      kind,
-      directed: network.directed,
-      weighted: network.weighted,
-      metadata: baseNetworkMeta(spec.meta) as unknown as Record<string, unknown>,
-      canonical: serializeNetwork(network),
-      nNodes: b.nodes,
-      nRows: b.rows,
-      nCols: b.cols,
-      nLinks: b.links,
-      totalWeight: b.totalWeight,
-      connectance: b.connectance,
-    });
+    const n = await insertNetwork({ versionId: version.id, position: i + 1, text: fixtureCsv(spec), kind, directed: kind === "unipartite", metadata: baseNetworkMeta(spec.meta), ownFile: true });
     networkIds.push(n.id);
     if (spec.metrics) await addRun(n.id, spec.metrics);
   }
   // as publishing does: the matrix CSVs bundles copy (bundles.stored-csv.ts)
   if ((state === "published" || state === "withdrawn") && opts.storeMatrixCsvs !== false) await storeMatrixCsvs(networkIds);
-  return { datasetId, accession, versionId: v.id, version: number, networkIds };
+  return { datasetId: dataset.id, accession: dataset.accession!, versionId: version.id, version: number, networkIds };
 }
 
 /**
@@ -187,44 +136,6 @@ export async function publishDataset(opts: {
  * (curveball, fixed degrees) in metric_run_nulls, as the pipeline stores them.
  */
 export async function addRun(networkId: number, m: FixtureMetrics): Promise<MetricRun> {
-  const run = await MetricRun.create({
-    networkId,
-    settings: { ...DEFAULT_PIPELINE_SETTINGS },
-    settingsHash: m.settingsHash ?? CURRENT_HASH,
-    status: "succeeded",
-    algorithmName: "leiden+annealing",
-    algorithmVersion: "tanglebank-engine 1.0.0",
-    seed: 1,
-    startedAt: new Date(),
-    finishedAt: new Date(),
-    durationMs: 12,
-    results: { analysis: { null: { model: "curveball", n: 100 } } },
-    nullModel: "curveball",
-    objective: "barber",
-    q: m.q,
-    modules: m.modules ?? 3,
-    nullMean: m.nullMean ?? 0.2,
-    nullSd: m.nullSd ?? 0.05,
-    z: m.z ?? null,
-    qRel: m.qRel ?? null,
-    p: m.p ?? null,
-    nodf: m.nodf ?? null,
-  });
-  await MetricRun.sequelize!.query(
-    `INSERT INTO metric_run_nulls (run_id, model, is_primary, n, mean, sd, z, q_rel, delta_q, p, p_at_floor)
-     VALUES (:runId, 'curveball', true, 100, :mean, :sd, :z, :qRel, :deltaQ, :p, :floor)`,
-    {
-      replacements: {
-        runId: run.id,
-        mean: m.nullMean ?? 0.2,
-        sd: m.nullSd ?? 0.05,
-        z: m.z ?? null,
-        qRel: m.qRel ?? null,
-        deltaQ: m.q === null || m.q === undefined ? null : m.q - (m.nullMean ?? 0.2),
-        p: m.p ?? null,
-        floor: m.p !== null && m.p !== undefined && Math.abs(m.p - 1 / 101) < 1e-12,
-      },
-    },
-  );
-  return run;
+  const { settingsHash: hash, ...figures } = m;
+  return insertRun({ networkId, settings: { ...DEFAULT_PIPELINE_SETTINGS }, settingsHash: hash ?? CURRENT_HASH, figures });
 }

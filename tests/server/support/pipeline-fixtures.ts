@@ -1,10 +1,10 @@
 /**
- * Published networks for metrics pipeline tests, created directly through the models (the publishing
- * service is exercised by its own tests). Networks are parsed by the engine from small matrices.
+ * Published networks for metrics pipeline tests, created through the one fixture builder
+ * (server/src/db/seeders/published-network.ts; the publishing service is exercised by its own tests). Networks are parsed by the engine from small matrices.
  */
-import { createHash } from "node:crypto";
-import { parseNetworkText, serializeNetwork, basicMetrics } from "@shared/network/index";
-import { Dataset, DatasetVersion, Network, StoredFile, User } from "../../../server/src/models";
+import { User } from "../../../server/src/models";
+import { insertNetwork, insertVersion } from "../../../server/src/db/seeders/published-network";
+import { csvText } from "@shared/csv";
 import { networkMeta, studyMeta } from "./deposit-helpers";
 import { createRng } from "@shared/network/random";
 
@@ -22,8 +22,7 @@ export async function makeOwner(): Promise<User> {
 
 /** A bipartite binary matrix as CSV text (first row: column labels; first column: row labels). */
 export function matrixCsv(m: number[][]): string {
-  const head = ["", ...m[0].map((_, j) => `c${j + 1}`)].join(",");
-  return [head, ...m.map((row, i) => [`r${i + 1}`, ...row].join(","))].join("\n") + "\n";
+  return csvText([["", ...m[0].map((_, j) => `c${j + 1}`)], ...m.map((row, i) => [`r${i + 1}`, ...row])]);
 }
 
 /**
@@ -37,48 +36,23 @@ export async function publishMatrices(
   const user = opts.owner ?? (await makeOwner());
   const state = opts.state ?? "published";
   counter++;
-  const accession = state === "published" ? `TB-${String(900000 + counter).slice(-6)}` : null;
-  const ds = await Dataset.create({ ownerId: user.id, accession });
-  const v = await DatasetVersion.create({
-    datasetId: ds.id,
-    number: 1,
+  const { dataset, version } = await insertVersion({
+    ownerId: user.id,
+    accession: state === "published" ? `TB-${String(900000 + counter).slice(-6)}` : null,
     state,
-    publishedAt: state === "published" ? new Date() : null,
     submittedAt: new Date(),
     // Complete, schema-valid metadata: publishing re-validates a submission before it publishes it.
     metadata: studyMeta({ title: `Pipeline test ${counter}` }),
   });
   const networkIds: number[] = [];
   for (let i = 0; i < matrices.length; i++) {
-    networkIds.push(await createNetwork(v.id, i + 1, matrixCsv(matrices[i])));
+    networkIds.push(await createNetwork(version.id, i + 1, matrixCsv(matrices[i])));
   }
-  return { datasetId: ds.id, versionId: v.id, accession, networkIds };
+  return { datasetId: dataset.id, versionId: version.id, accession: dataset.accession, networkIds };
 }
 
 export async function createNetwork(versionId: number, position: number, csv: string, canonicalOverride?: unknown): Promise<number> {
-  const bytes = Buffer.from(csv);
-  const sha256 = createHash("sha256").update(bytes).update(String(Math.random())).digest("hex");
-  const file = await StoredFile.create({ sha256, size: bytes.length, bytes });
-  const { network } = parseNetworkText(csv, { fileName: `n${position}.csv`, kind: "bipartite" });
-  const b = basicMetrics(network);
-  const n = await Network.create({
-    versionId,
-    position,
-    fileId: file.id,
-    originalName: `n${position}.csv`,
-    format: "matrix",
-    kind: "bipartite",
-    directed: false,
-    weighted: false,
-    metadata: networkMeta({ name: `Network ${position}` }),
-    canonical: canonicalOverride ?? serializeNetwork(network),
-    nNodes: b.nodes,
-    nRows: b.rows,
-    nCols: b.cols,
-    nLinks: b.links,
-    totalWeight: b.totalWeight,
-    connectance: b.connectance,
-  });
+  const n = await insertNetwork({ versionId, position, text: csv, metadata: networkMeta({ name: `Network ${position}` }), ownFile: true, canonical: canonicalOverride });
   return n.id;
 }
 

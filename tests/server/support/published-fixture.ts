@@ -1,22 +1,22 @@
 /**
- * Inserts datasets straight through the models, as publishing and the metrics pipeline would leave them:
- * dataset + version (any state) + stored file + parsed network + a succeeded metric run whose results are
- * the engine's real `analyzeNetwork` output (computed here with small effort) plus the null Q values.
+ * Datasets as publishing and the metrics pipeline would leave them, through the one fixture builder
+ * (server/src/db/seeders/published-network.ts): dataset + version (any state) + stored file + parsed network
+ * + a succeeded metric run whose results are the engine's real `analyzeNetwork` output (computed here with
+ * small effort) plus the null Q values.
  * The pipeline settings are set to that effort so the run is the "current" one for getCurrentMetrics.
  * Metadata is invented (demo only); network data comes from files in tests/fixtures.
  */
-import { createHash } from "node:crypto";
 import { readFileSync } from "node:fs";
 import { join } from "node:path";
-import { analyzeNetwork, nullReplicateStats, parseNetworkText, serializeNetwork, basicMetrics, type NullReplicate } from "@shared/network/index";
+import { analyzeNetwork, nullReplicateStats, parseNetworkText, type NullReplicate } from "@shared/network/index";
 import { resolveNullModels, type AnalysisResult } from "@shared/network/analyze";
-import { writeNullFigures } from "../../../server/src/pipeline/null-figures";
 import type { NetworkMetadata, StudyMetadata, VersionState } from "@shared/types/dataset";
 import type { PipelineSettings } from "@shared/types/pipeline";
 import { hashPassword } from "../../../server/src/lib/passwords";
-import { AuditLog, Dataset, DatasetVersion, MetricRun, Network, StoredFile, User } from "../../../server/src/models";
+import { AuditLog, Dataset, Network, User } from "../../../server/src/models";
+import { insertNetwork, insertRun, insertVersion } from "../../../server/src/db/seeders/published-network";
 import type { Role } from "../../../server/src/models/user.model";
-import { setPipelineSettings, settingsHash, DEFAULT_PIPELINE_SETTINGS } from "../../../server/src/pipeline/settings";
+import { setPipelineSettings, DEFAULT_PIPELINE_SETTINGS } from "../../../server/src/pipeline/settings";
 
 export const FIXTURE_PASSWORD = "moss-and-lichen-42";
 export const FIXTURE_SETTINGS: PipelineSettings = { ...DEFAULT_PIPELINE_SETTINGS, restarts: 4, nulls: 30, seed: 7 };
@@ -120,83 +120,33 @@ let accessionCounter = 0;
 
 export async function createFixtureDataset(opts: FixtureOptions = {}) {
   await setPipelineSettings(FIXTURE_SETTINGS);
-  const hash = settingsHash(FIXTURE_SETTINGS);
   const owner = opts.owner ?? (await fixtureUser("depositor", "Rowan Hale"));
   const state = opts.state ?? "published";
-  let dataset = opts.dataset;
-  if (!dataset) {
-    accessionCounter++;
-    const accession = opts.accession === undefined ? `TB-${String(900000 + accessionCounter).padStart(6, "0")}` : opts.accession;
-    dataset = await Dataset.create({ ownerId: owner.id, accession });
-  }
-  const publishedAt = opts.publishedAt ?? new Date("2025-03-14T10:00:00Z");
-  const version = await DatasetVersion.create({
-    datasetId: dataset.id,
-    number: opts.number ?? 1,
+  if (!opts.dataset) accessionCounter++;
+  const { dataset, version } = await insertVersion({
+    ownerId: owner.id,
+    datasetId: opts.dataset?.id,
+    accession: opts.accession === undefined ? `TB-${String(900000 + accessionCounter).padStart(6, "0")}` : opts.accession,
+    number: opts.number,
     state,
-    metadata: { ...STUDY, ...opts.study } as unknown as Record<string, unknown>,
-    publishedAt: state === "published" || state === "withdrawn" ? publishedAt : null,
-    withdrawnAt: state === "withdrawn" ? new Date("2025-05-01T09:00:00Z") : null,
-    withdrawalReason: state === "withdrawn" ? (opts.withdrawalReason ?? "The depositor found duplicated transects.") : null,
+    metadata: { ...STUDY, ...opts.study },
+    publishedAt: opts.publishedAt ?? new Date("2025-03-14T10:00:00Z"),
+    withdrawnAt: new Date("2025-05-01T09:00:00Z"),
+    withdrawalReason: opts.withdrawalReason ?? "The depositor found duplicated transects.",
   });
   const networks: Network[] = [];
   const specs = opts.networks ?? [{ text: DAVIS_CSV, fileName: "davis.csv" }];
   for (let k = 0; k < specs.length; k++) {
     const spec = specs[k];
     const kind = spec.kind ?? "bipartite";
-    const bytes = Buffer.from(spec.text, "utf8");
-    const sha256 = createHash("sha256").update(bytes).digest("hex");
-    const file = (await StoredFile.findOne({ where: { sha256 } })) ?? (await StoredFile.create({ sha256, size: bytes.length, bytes }));
-    const { network, format } = parseNetworkText(spec.text, { fileName: spec.fileName ?? "net.csv", kind, directed: spec.directed ?? false });
-    const b = basicMetrics(network);
-    const net = await Network.create({
-      versionId: version.id,
-      position: k + 1,
-      fileId: file.id,
-      originalName: spec.fileName ?? "net.csv",
-      format: format === "edgelist" ? "edgelist" : "matrix",
-      kind,
-      directed: network.directed,
-      weighted: network.weighted,
-      metadata: { ...NETWORK_MD, ...spec.metadata } as unknown as Record<string, unknown>,
-      canonical: serializeNetwork(network),
-      nNodes: b.nodes,
-      nRows: b.rows,
-      nCols: b.cols,
-      nLinks: b.links,
-      totalWeight: b.totalWeight,
-      connectance: b.connectance,
-    });
+    const fileName = spec.fileName ?? "net.csv";
+    const net = await insertNetwork({ versionId: version.id, position: k + 1, text: spec.text, fileName, kind, directed: spec.directed ?? false, metadata: { ...NETWORK_MD, ...spec.metadata } });
     networks.push(net);
     const wantMetrics = spec.metrics ?? true;
-    if (wantMetrics === "queued") {
-      await MetricRun.create({ networkId: net.id, settings: FIXTURE_SETTINGS as unknown as Record<string, unknown>, settingsHash: hash, status: "queued" });
-    } else if (wantMetrics) {
+    if (wantMetrics === "queued") await insertRun({ networkId: net.id, settings: FIXTURE_SETTINGS, status: "queued" });
+    else if (wantMetrics) {
       const { analysis, nullQs, nullQsByModel } = analysisFor(spec.text, kind, spec.directed ?? false, spec.fileName);
-      const run = await MetricRun.create({
-        networkId: net.id,
-        settings: FIXTURE_SETTINGS as unknown as Record<string, unknown>,
-        settingsHash: hash,
-        status: "succeeded",
-        algorithmName: analysis.algorithm.name,
-        algorithmVersion: analysis.algorithm.version,
-        seed: analysis.algorithm.seed,
-        startedAt: new Date("2025-03-14T10:01:00Z"),
-        finishedAt: new Date("2025-03-14T10:01:05Z"),
-        durationMs: analysis.elapsedMs,
-        results: { phase: "complete", analysis, nullQs, nullQsByModel } as unknown as Record<string, unknown>,
-        nullModel: analysis.null?.model ?? null,
-        objective: analysis.modularity.objective,
-        q: analysis.modularity.Q,
-        modules: analysis.modularity.modules,
-        nullMean: analysis.null?.mean ?? null,
-        nullSd: analysis.null?.sd ?? null,
-        z: analysis.null?.z ?? null,
-        qRel: analysis.null?.qRel ?? null,
-        p: analysis.null?.p ?? null,
-        nodf: analysis.nodf,
-      });
-      await writeNullFigures(run.id, analysis);
+      await insertRun({ networkId: net.id, settings: FIXTURE_SETTINGS, analysis, extraResults: { nullQs, nullQsByModel }, startedAt: new Date("2025-03-14T10:01:00Z"), finishedAt: new Date("2025-03-14T10:01:05Z") });
     }
   }
   await AuditLog.create({ actorId: owner.id, action: "version.submitted", entityType: "dataset_version", entityId: String(version.id), datasetId: dataset.id, details: { number: version.number } });
