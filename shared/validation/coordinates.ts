@@ -1,7 +1,7 @@
 /**
  * Generalisation of sensitive sites (e.g. threatened taxa). The depositor chooses how far public
  * coordinates are generalised: "exact", or a grid of 0.01°, 0.1° or 1°. Public pages, the API and bundles
- * carry `publicLocality(locality)`: latitude and longitude rounded to the nearest grid point, and
+ * carry `generaliseLocality(locality)`: latitude and longitude rounded to the nearest grid point, and
  * Darwin Core `coordinatePrecision` set to the grid size (the precision a reader may assume). Elevation is
  * generalised with them (ELEVATION_STEPS: 50 m, 100 m, 500 m), since an exact elevation on a slope narrows
  * a grid cell down to one contour line. Only curators, admins and the owner see the exact values.
@@ -27,7 +27,7 @@ export function roundToGrid(value: number, step: number): number {
 }
 
 /** The locality as the public may see it. Returns the same object when nothing is generalised. */
-export function publicLocality<L extends Partial<Locality>>(locality: L): L {
+export function generaliseLocality<L extends Partial<Locality>>(locality: L): L {
   const g = locality.generalisation;
   if (!g || g === "exact" || !(g in GENERALISATION_STEPS)) return locality;
   const step = GENERALISATION_STEPS[g as keyof typeof GENERALISATION_STEPS];

@@ -13,7 +13,7 @@ import { createApp } from "../../server/src/app";
 import { SCHEMAS_DIR } from "../../server/src/config/paths";
 import { shutdownServerResources } from "../../server/src/index";
 import { rawSchemaErrors, schemaFindings, schemaJson, type SchemaName } from "../../server/src/lib/schemas";
-import { validateWithSchema, humanizeSchemaErrors, publicLocality, roundToGrid, networkCrossChecks } from "@shared/validation";
+import { validateWithSchema, humanizeSchemaErrors, generaliseLocality, roundToGrid, networkCrossChecks } from "@shared/validation";
 
 const dir = (kind: "valid" | "invalid") => join(SCHEMAS_DIR, "examples", kind);
 const load = (kind: "valid" | "invalid", f: string) => JSON.parse(readFileSync(join(dir(kind), f), "utf8")) as unknown;
@@ -87,12 +87,12 @@ describe("cross-field rules", () => {
 describe("coordinate generalisation", () => {
   const loc = { placeName: "x", countryCode: "FI", decimalLatitude: 61.23456, decimalLongitude: -25.98765, coordinatePrecision: 0.00001, generalisation: "exact" as const };
   it("keeps exact coordinates when the depositor chose exact", () => {
-    expect(publicLocality(loc)).toEqual(loc);
+    expect(generaliseLocality(loc)).toEqual(loc);
   });
   it("rounds to the chosen grid and sets coordinatePrecision to it", () => {
-    expect(publicLocality({ ...loc, generalisation: "0.01" })).toMatchObject({ decimalLatitude: 61.23, decimalLongitude: -25.99, coordinatePrecision: 0.01 });
-    expect(publicLocality({ ...loc, generalisation: "0.1" })).toMatchObject({ decimalLatitude: 61.2, decimalLongitude: -26, coordinatePrecision: 0.1 });
-    expect(publicLocality({ ...loc, generalisation: "1" })).toMatchObject({ decimalLatitude: 61, decimalLongitude: -26, coordinatePrecision: 1 });
+    expect(generaliseLocality({ ...loc, generalisation: "0.01" })).toMatchObject({ decimalLatitude: 61.23, decimalLongitude: -25.99, coordinatePrecision: 0.01 });
+    expect(generaliseLocality({ ...loc, generalisation: "0.1" })).toMatchObject({ decimalLatitude: 61.2, decimalLongitude: -26, coordinatePrecision: 0.1 });
+    expect(generaliseLocality({ ...loc, generalisation: "1" })).toMatchObject({ decimalLatitude: 61, decimalLongitude: -26, coordinatePrecision: 1 });
   });
   it("rounds to the nearest grid point without floating-point residue", () => {
     expect(roundToGrid(0.35, 0.1)).toBe(0.4);

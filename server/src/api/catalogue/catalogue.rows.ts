@@ -7,7 +7,7 @@
  */
 import { QueryTypes, type Transaction } from "sequelize";
 import { sequelize } from "../../db/sequelize";
-import { publicCoordinates } from "./public-locality";
+import { publicCoordinates } from "./catalogue.coordinates";
 import { NOT_RECORDED, notRecordedList, notRecordedText, type NotRecordedField } from "@shared/validation/not-recorded";
 import { getPipelineSettings, settingsHash } from "../../pipeline/settings";
 import { readNullFigures } from "../../pipeline/null-figures";
