@@ -167,17 +167,27 @@ describe("network view", () => {
       const [d] = await Promise.all([page.waitForEvent("download"), page.getByRole("group", { name: group }).getByRole("button", { name: format, exact: true }).click()]);
       return { name: d.suggestedFilename(), bytes: readFileSync((await d.path())!) };
     };
+    // each file is a figure: the chart's title above it, its caption below
     const hist = await downloadOf(/^Download Null distribution of modularity: .* as an image$/, "PNG");
     expect(hist.name).toMatch(/^tanglebank-TB-000001-v2-1-null-q-[a-z-]+\.png$/);
-    expect(pngSize(hist.bytes)).toEqual({ width: 1280, height: 600 }); // the histogram's 640 × 300 view box, twice
-    const histSvg = await downloadOf(/^Download Null distribution of modularity: .* as an image$/, "SVG");
-    expect(histSvg.bytes.toString("utf8")).toMatch(/^<\?xml[^>]*>\n<svg[^>]*xmlns="http:\/\/www\.w3\.org\/2000\/svg"[^>]*width="640"/);
-    expect((histSvg.bytes.toString("utf8").match(/<rect[^>]*fill="rgb/g) ?? []).length).toBeGreaterThan(0); // colours travel with the file
-    const matrixGroup = page.getByRole("group", { name: /^Download Interaction matrix ordered by module as an image$/ });
-    expect(await matrixGroup.getByRole("button", { name: "SVG", exact: true }).count()).toBe(0); // drawn on a canvas: PNG only
+    const histPng = pngSize(hist.bytes);
+    expect(histPng.width).toBe(1280); // the histogram's 640-wide view box, twice
+    expect(histPng.height).toBeGreaterThan(600 + 2 * 40); // its 300 high view box, twice, plus title and caption
+    const histSvg = (await downloadOf(/^Download Null distribution of modularity: .* as an image$/, "SVG")).bytes.toString("utf8");
+    expect(histSvg).toMatch(/^<\?xml[^>]*>\n<svg[^>]*xmlns="http:\/\/www\.w3\.org\/2000\/svg"[^>]*width="640"/);
+    expect((histSvg.match(/<rect[^>]*fill="rgb/g) ?? []).length).toBeGreaterThan(0); // colours travel with the file
+    expect(histSvg).toMatch(/font-weight="700"[^>]*>Null distribution of modularity/);
+    const captionStart = (await page.locator("figure", { hasText: "Null distribution of modularity" }).locator("figcaption").first().innerText()).split(/\s+/).slice(0, 3).join(" ");
+    expect(histSvg).toContain(captionStart);
+    // the matrix, drawn on a canvas, gives the same drawing as SVG (pixels embedded, labels as text)
+    const matrixSvg = (await downloadOf("Download Interaction matrix ordered by module as an image", "SVG")).bytes.toString("utf8");
+    expect(matrixSvg).toMatch(/<image [^>]*href="data:image\/png;base64,/);
+    expect(matrixSvg).toContain(">Evelyn Jefferson</text>");
     const matrix = await downloadOf("Download Interaction matrix ordered by module as an image", "PNG");
     const canvasSize = await page.getByTestId("matrix-canvas").evaluate((c) => ({ width: (c as HTMLCanvasElement).width, height: (c as HTMLCanvasElement).height }));
-    expect(pngSize(matrix.bytes)).toEqual(canvasSize);
+    const matrixPng = pngSize(matrix.bytes);
+    expect(matrixPng.width).toBe(2 * Math.max(480, canvasSize.width));
+    expect(matrixPng.height).toBeGreaterThan(2 * canvasSize.height);
     expect((await downloadOf("Download Node roles: participation P against within-module degree z as an image", "PNG")).name).toBe("tanglebank-TB-000001-v2-1-roles.png");
   });
 
@@ -206,7 +216,11 @@ describe("compare view and coverage map", () => {
     const csvText = readFileSync((await csv.path())!, "utf8");
     expect(csvText.split("\r\n")[0]).toMatch(/^ref,dataset,network,interaction_type/);
     expect(csvText.trim().split("\r\n")).toHaveLength(4);
-    const [svg] = await Promise.all([page.waitForEvent("download"), page.getByRole("button", { name: "Export chart vs C (SVG)" }).click()]);
+    const [svg] = await Promise.all([
+      page.waitForEvent("download"),
+      page.getByRole("group", { name: "Download z against connectance as an image" }).getByRole("button", { name: "SVG", exact: true }).click(),
+    ]);
+    expect(svg.suggestedFilename()).toMatch(/^tanglebank-compare-z.*-vs-connectance\.svg$/);
     const svgText = readFileSync((await svg.path())!, "utf8");
     expect(svgText).toMatch(/^<\?xml[^>]*>\n<svg[^>]*xmlns="http:\/\/www\.w3\.org\/2000\/svg"/);
     expect((svgText.match(/<circle/g) ?? []).length).toBe(3);

@@ -4,7 +4,7 @@
  */
 import { useRef, useState, type ReactNode } from "react";
 import { downloadBlob, downloadText } from "../../lib/download";
-import { canvasToPng, serializeSvg, svgToPng } from "./image-export";
+import { figureSvg, serializeSvg, svgSize, svgToPng, type SvgFile } from "./image-export";
 
 export interface DataTableSpec {
   caption: string;
@@ -15,28 +15,32 @@ export interface DataTableSpec {
 }
 
 /**
- * Download buttons for the chart inside `body`: SVG and PNG for an SVG chart, PNG for one drawn on a canvas.
+ * Download buttons for the chart inside `body`: an SVG file and a PNG (twice the drawn size), each with
+ * the chart's title and caption. A chart drawn on a canvas gives its SVG through `svgOf`.
  * `name` is the file name without extension.
  */
-function ImageDownloads({ body, name, title, canvas }: { body: React.RefObject<HTMLDivElement | null>; name: string; title: string; canvas: boolean }) {
+function ImageDownloads({ body, caption, name, title, svgOf }: { body: React.RefObject<HTMLDivElement | null>; caption: React.RefObject<HTMLElement | null>; name: string; title: string; svgOf?: () => SvgFile | null }) {
   const [error, setError] = useState<string | null>(null);
-  const chart = () => {
+  const file = (): SvgFile | null => {
+    const own = svgOf?.();
     const el = body.current;
-    return (el?.querySelector("svg[role='img']") ?? el?.querySelector("canvas") ?? el?.querySelector("svg")) as SVGSVGElement | HTMLCanvasElement | null;
+    const svg = (el?.querySelector("svg[role='img']") ?? el?.querySelector("svg")) as SVGSVGElement | null;
+    const chart = own ?? (svg ? { text: serializeSvg(svg), ...svgSize(svg) } : null);
+    return chart ? figureSvg(chart, title, caption.current?.textContent ?? "") : null;
   };
   const png = async () => {
     setError(null);
-    const c = chart();
-    if (!c) return;
+    const f = file();
+    if (!f) return;
     try {
-      downloadBlob(`${name}.png`, c instanceof HTMLCanvasElement ? await canvasToPng(c) : await svgToPng(c));
+      downloadBlob(`${name}.png`, await svgToPng(f));
     } catch (e) {
       setError((e as Error).message);
     }
   };
   const svg = () => {
-    const c = chart();
-    if (c && !(c instanceof HTMLCanvasElement)) downloadText(`${name}.svg`, "image/svg+xml", serializeSvg(c));
+    const f = file();
+    if (f) downloadText(`${name}.svg`, "image/svg+xml", f.text);
   };
   const btn = "rounded border border-stone-300 bg-white px-2 py-0.5 text-xs font-semibold text-moss-700 hover:bg-moss-50";
   return (
@@ -44,11 +48,9 @@ function ImageDownloads({ body, name, title, canvas }: { body: React.RefObject<H
       <span className="text-xs text-stone-600" aria-hidden="true">
         Download
       </span>
-      {!canvas && (
-        <button type="button" className={btn} onClick={svg}>
-          SVG
-        </button>
-      )}
+      <button type="button" className={btn} onClick={svg}>
+        SVG
+      </button>
       <button type="button" className={btn} onClick={() => void png()}>
         PNG
       </button>
@@ -64,7 +66,7 @@ export function ChartFigure({
   children,
   id,
   download,
-  drawnOnCanvas = false,
+  svgOf,
 }: {
   title: string;
   caption: ReactNode;
@@ -73,21 +75,24 @@ export function ChartFigure({
   id?: string;
   /** File name (no extension) of the chart's image downloads; none without it. */
   download?: string;
-  /** The chart is a canvas: PNG only. */
-  drawnOnCanvas?: boolean;
+  /** A chart drawn on a canvas: its SVG for the downloads. */
+  svgOf?: () => SvgFile | null;
 }) {
   const max = table?.maxRows ?? 200;
   const body = useRef<HTMLDivElement>(null);
+  const captionRef = useRef<HTMLElement>(null);
   return (
     <figure className="rounded-lg bg-white p-4 ring-1 ring-stone-200" aria-labelledby={id ? `${id}-title` : undefined}>
       <div className="mb-2 flex flex-wrap items-start justify-between gap-2">
         <h3 id={id ? `${id}-title` : undefined} className="font-bold text-moss-700">
           {title}
         </h3>
-        {download && <ImageDownloads body={body} name={download} title={title} canvas={drawnOnCanvas} />}
+        {download && <ImageDownloads body={body} caption={captionRef} name={download} title={title} svgOf={svgOf} />}
       </div>
       <div ref={body}>{children}</div>
-      <figcaption className="mt-2 text-sm text-stone-700">{caption}</figcaption>
+      <figcaption ref={captionRef} className="mt-2 text-sm text-stone-700">
+        {caption}
+      </figcaption>
       {table && (
         <details className="mt-2 text-sm">
           <summary className="cursor-pointer font-semibold text-moss-700">Data as a table</summary>

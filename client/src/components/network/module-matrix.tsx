@@ -16,6 +16,7 @@ import type { NetworkMetadata } from "@shared/types/dataset";
 import type { MatrixImage } from "@shared/plots/matrix-image";
 import { BETWEEN_MODULES, moduleBand, moduleColour, NO_PARTITION } from "@shared/plots/palette";
 import { ChartFigure } from "../charts/chart-figure";
+import { escapeXml, type SvgFile } from "../charts/image-export";
 import { chartTheme } from "../charts/theme";
 
 const MAX_W = 960;
@@ -23,6 +24,8 @@ const MAX_H = 720;
 /** Width of the module strips along the rows and columns (pixels), and the gap to the matrix. */
 const STRIP = 7;
 const GAP = 2;
+const LABEL_SIZE = 11;
+const FRAME = "#d6d3d1"; // stone-300
 /** Modules named one by one in the legend; the rest are summed up. */
 const LEGEND_MAX = 24;
 let nextId = 1;
@@ -43,6 +46,46 @@ export interface ModuleMatrixData {
 export function nodeSides(view: Pick<ModuleMatrixData, "kind" | "metadata">): { rows: string; cols: string } {
   if (view.kind !== "bipartite") return { rows: "nodes", cols: "nodes" };
   return { rows: view.metadata.rowLevel ?? "row nodes", cols: view.metadata.colLevel ?? "column nodes" };
+}
+
+interface Rect {
+  x: number;
+  y: number;
+  w: number;
+  h: number;
+  fill: string;
+}
+interface Label {
+  x: number;
+  y: number;
+  text: string;
+}
+
+/**
+ * The module strips (a band of the module's hue along its rows, left, and its columns, top) and the node
+ * labels (cut to 20 characters; column labels leaning 60°), in the drawing's pixel coordinates.
+ */
+function decorations(img: MatrixImage, view: ModuleMatrixData, g: { left: number; top: number; strip: number; labelled: boolean }): { strips: Rect[]; rowLabels: Label[]; colLabels: Label[] } {
+  const nRows = view.rowLabels.length;
+  const nCols = view.colLabels.length;
+  const sx = img.width / nCols;
+  const sy = img.height / nRows;
+  const strips: Rect[] = [];
+  for (const b of img.blocks) {
+    const fill = moduleColour(b.module);
+    if (b.rowEnd > b.rowStart) {
+      const y0 = g.top + 1 + Math.floor(b.rowStart * sy);
+      strips.push({ x: g.left - STRIP - GAP + 1, y: y0, w: STRIP, h: Math.max(1, g.top + 1 + Math.ceil(b.rowEnd * sy) - y0), fill });
+    }
+    if (b.colEnd > b.colStart) {
+      const x0 = g.left + 1 + Math.floor(b.colStart * sx);
+      strips.push({ x: x0, y: g.top - STRIP - GAP + 1, w: Math.max(1, g.left + 1 + Math.ceil(b.colEnd * sx) - x0), h: STRIP, fill });
+    }
+  }
+  if (!g.labelled) return { strips, rowLabels: [], colLabels: [] };
+  const rowLabels = Array.from(img.rowOrder, (orig, pos) => ({ x: g.left - g.strip - 4, y: g.top + 1 + (pos + 0.5) * img.cell, text: view.rowLabels[orig].slice(0, 20) }));
+  const colLabels = Array.from(img.colOrder, (orig, pos) => ({ x: g.left + 1 + (pos + 0.5) * img.cell, y: g.top - g.strip - 4, text: view.colLabels[orig].slice(0, 20) }));
+  return { strips, rowLabels, colLabels };
 }
 
 /** `id` prefixes the figure's element ids: give each matrix on a page its own. */
@@ -90,58 +133,73 @@ export function ModuleMatrix({ view, title = "Interaction matrix ordered by modu
     if (!labelled) return { left: strip, top: strip, right: 0 };
     const ctx = document.createElement("canvas").getContext("2d");
     if (!ctx) return { left: 130 + strip, top: 110 + strip, right: 60 };
-    ctx.font = `11px ${chartTheme.font}`;
+    ctx.font = `${LABEL_SIZE}px ${chartTheme.font}`;
     const widest = (labels: string[]) => labels.reduce((w, l) => Math.max(w, ctx.measureText(l.slice(0, 20)).width), 0);
     const colWidest = widest(view.colLabels);
     // the last column's label leans right past the matrix
     return { left: Math.ceil(widest(view.rowLabels)) + 10 + strip, top: Math.ceil(colWidest * Math.sin(Math.PI / 3)) + 12 + strip, right: Math.ceil(colWidest * Math.cos(Math.PI / 3)) };
   }, [labelled, view, strip]);
 
+  // What is drawn around the matrix image (module strips, labels), shared by the canvas and the SVG file.
+  const deco = useMemo(() => (img ? decorations(img, view, { left, top, strip, labelled }) : null), [img, view, left, top, strip, labelled]);
+  const size = useMemo(() => (img ? { width: img.width + left + 2 + right, height: img.height + top + 2 } : null), [img, left, top, right]);
+
   useEffect(() => {
     const canvas = canvasRef.current;
-    if (!img || !canvas) return;
-    canvas.width = img.width + left + 2 + right;
-    canvas.height = img.height + top + 2;
+    if (!img || !canvas || !deco || !size) return;
+    canvas.width = size.width;
+    canvas.height = size.height;
     const ctx = canvas.getContext("2d")!;
     ctx.fillStyle = "#ffffff";
     ctx.fillRect(0, 0, canvas.width, canvas.height);
     ctx.putImageData(new ImageData(new Uint8ClampedArray(img.pixels), img.width, img.height), left + 1, top + 1);
-    ctx.strokeStyle = "#d6d3d1";
+    ctx.strokeStyle = FRAME;
     ctx.lineWidth = 1;
     ctx.strokeRect(left + 0.5, top + 0.5, img.width + 1, img.height + 1);
-    const sx = img.width / nCols;
-    const sy = img.height / nRows;
-    // the module strips: a band of the module's hue along its rows (left) and its columns (top)
-    for (const b of img.blocks) {
-      ctx.fillStyle = moduleColour(b.module);
-      if (b.rowEnd > b.rowStart) {
-        const y0 = top + 1 + Math.floor(b.rowStart * sy);
-        ctx.fillRect(left - STRIP - GAP + 1, y0, STRIP, Math.max(1, top + 1 + Math.ceil(b.rowEnd * sy) - y0));
-      }
-      if (b.colEnd > b.colStart) {
-        const x0 = left + 1 + Math.floor(b.colStart * sx);
-        ctx.fillRect(x0, top - STRIP - GAP + 1, Math.max(1, left + 1 + Math.ceil(b.colEnd * sx) - x0), STRIP);
-      }
+    for (const r of deco.strips) {
+      ctx.fillStyle = r.fill;
+      ctx.fillRect(r.x, r.y, r.w, r.h);
     }
-    if (labelled) {
-      ctx.fillStyle = chartTheme.text;
-      ctx.font = `11px ${chartTheme.font}`;
-      ctx.textAlign = "right";
-      ctx.textBaseline = "middle";
-      img.rowOrder.forEach((orig, pos) => ctx.fillText(view.rowLabels[orig].slice(0, 20), left - strip - 4, top + 1 + (pos + 0.5) * img.cell));
+    ctx.fillStyle = chartTheme.text;
+    ctx.font = `${LABEL_SIZE}px ${chartTheme.font}`;
+    ctx.textBaseline = "middle";
+    ctx.textAlign = "right";
+    for (const l of deco.rowLabels) ctx.fillText(l.text, l.x, l.y);
+    ctx.textAlign = "left";
+    for (const l of deco.colLabels) {
       ctx.save();
-      ctx.textAlign = "left";
-      img.colOrder.forEach((orig, pos) => {
-        ctx.save();
-        ctx.translate(left + 1 + (pos + 0.5) * img.cell, top - strip - 4);
-        ctx.rotate(-Math.PI / 3);
-        ctx.fillText(view.colLabels[orig].slice(0, 20), 0, 0);
-        ctx.restore();
-      });
+      ctx.translate(l.x, l.y);
+      ctx.rotate(-Math.PI / 3);
+      ctx.fillText(l.text, 0, 0);
       ctx.restore();
     }
     canvas.dataset.rendered = "true";
-  }, [img, left, top, right, labelled, nCols, nRows, view, strip]);
+  }, [img, deco, size, left, top]);
+
+  /** The same drawing as an SVG file: the matrix's pixels as an embedded image, strips and labels as shapes and text. */
+  const svgOf = (): SvgFile | null => {
+    if (!img || !deco || !size) return null;
+    const c = document.createElement("canvas");
+    c.width = img.width;
+    c.height = img.height;
+    c.getContext("2d")!.putImageData(new ImageData(new Uint8ClampedArray(img.pixels), img.width, img.height), 0, 0);
+    const font = escapeXml(chartTheme.font);
+    const text = [
+      `<?xml version="1.0" encoding="UTF-8"?>`,
+      `<svg xmlns="http://www.w3.org/2000/svg" width="${size.width}" height="${size.height}" viewBox="0 0 ${size.width} ${size.height}">`,
+      `<rect width="${size.width}" height="${size.height}" fill="#ffffff"/>`,
+      `<image x="${left + 1}" y="${top + 1}" width="${img.width}" height="${img.height}" image-rendering="pixelated" style="image-rendering:pixelated" href="${c.toDataURL("image/png")}"/>`,
+      `<rect x="${left + 0.5}" y="${top + 0.5}" width="${img.width + 1}" height="${img.height + 1}" fill="none" stroke="${FRAME}"/>`,
+      ...deco.strips.map((r) => `<rect x="${r.x}" y="${r.y}" width="${r.w}" height="${r.h}" fill="${r.fill}"/>`),
+      `<g font-family="${font}" font-size="${LABEL_SIZE}" fill="${chartTheme.text}" dominant-baseline="middle">`,
+      ...deco.rowLabels.map((l) => `<text x="${l.x}" y="${l.y}" text-anchor="end">${escapeXml(l.text)}</text>`),
+      ...deco.colLabels.map((l) => `<text transform="translate(${l.x} ${l.y}) rotate(-60)">${escapeXml(l.text)}</text>`),
+      `</g>`,
+      `</svg>`,
+      ``,
+    ].join("\n");
+    return { text, width: size.width, height: size.height };
+  };
 
   function onMove(e: React.MouseEvent<HTMLCanvasElement>) {
     const canvas = canvasRef.current;
@@ -189,7 +247,7 @@ export function ModuleMatrix({ view, title = "Interaction matrix ordered by modu
       id={id}
       title={title}
       download={download}
-      drawnOnCanvas
+      svgOf={svgOf}
       caption={
         <>
           {nRows} {sides.rows} ({square ? "rows" : "row nodes"}) × {nCols} {sides.cols} ({square ? "columns" : "column nodes"}), {view.nLinks} links.{" "}

@@ -7,7 +7,7 @@
  * (malformed, unknown, withdrawn) are listed beside the charts with their reason and a Remove button while
  * the others are plotted; "Add" takes a network, a whole dataset version or a collection.
  */
-import { useRef, useState, type FormEvent } from "react";
+import { useState, type FormEvent } from "react";
 import { Link, useSearchParams } from "react-router-dom";
 import type { CompareUnavailable, NetworkCompareRow } from "@shared/types/network-view";
 import { ApiClientError } from "../../../lib/api-client";
@@ -20,8 +20,7 @@ import { useCompareRows } from "../api/get-compare-rows";
 import { expandCollection, expandDataset, useCompareCollection } from "../api/expand-reference";
 import { MAX_COMPARE, mergeRefs, parseCompareInput } from "../utils/compare-input";
 import { compareCsv } from "../utils/export";
-import { downloadBlob, downloadText } from "../../../lib/download";
-import { serializeSvg, svgToPng } from "../../../components/charts/image-export";
+import { downloadText } from "../../../lib/download";
 import { adjustForSizeAndConnectance, MIN_ADJUST_NETWORKS } from "../utils/adjust";
 import { FigureCautions, NullBadge, fmtPFloor, fmtZ, isLiberal, nullInfo, nullLabel } from "../../../components/figures/significance";
 import { NULL_MODELS } from "@shared/network/null-models/index";
@@ -56,8 +55,6 @@ export function ComparePage() {
   const [inputError, setInputError] = useState<string | null>(null);
   const [addNote, setAddNote] = useState<string | null>(null);
   const [adding, setAdding] = useState(false);
-  const svgC = useRef<SVGSVGElement>(null);
-  const svgS = useRef<SVGSVGElement>(null);
 
   /** Any edit turns an opened collection into an explicit list of references (the link then names them). */
   function setRefs(next: string[]) {
@@ -321,18 +318,6 @@ export function ComparePage() {
               >
                 Export table (CSV)
               </button>
-              <button type="button" className={btn} onClick={() => svgC.current && downloadText(`tanglebank-compare-${chartName}-vs-connectance.svg`, "image/svg+xml", serializeSvg(svgC.current))}>
-                Export chart vs C (SVG)
-              </button>
-              <button type="button" className={btn} onClick={() => svgS.current && downloadText(`tanglebank-compare-${chartName}-vs-size.svg`, "image/svg+xml", serializeSvg(svgS.current))}>
-                Export chart vs S (SVG)
-              </button>
-              <button type="button" className={btn} onClick={() => void (svgC.current && svgToPng(svgC.current).then((b) => downloadBlob(`tanglebank-compare-${chartName}-vs-connectance.png`, b)))}>
-                Chart vs C (PNG)
-              </button>
-              <button type="button" className={btn} onClick={() => void (svgS.current && svgToPng(svgS.current).then((b) => downloadBlob(`tanglebank-compare-${chartName}-vs-size.png`, b)))}>
-                Chart vs S (PNG)
-              </button>
             </span>
           </fieldset>
           {objectives.size > 1 && measure === "Q" && (
@@ -348,19 +333,21 @@ export function ComparePage() {
             <ChartFigure
               id="cmp-c"
               title={`${measure} against connectance`}
+              download={`tanglebank-compare-${chartName}-vs-connectance`}
               caption={`${byC.length} networks; colour shows the interaction type. Connectance uses each network's own variant (bipartite L/(I·J), directed L/S², undirected 2L/(S(S−1))).${overlapNote(byC)}`}
               table={{ caption: `${measure} and connectance`, columns: ["network", "C", measure], rows: byC.map((p) => [p.id, fmt(p.x, 4), fmt(p.y, 3)]) }}
             >
-              <Scatter ref={svgC} points={byC} xLabel="Connectance C (proportion of possible links)" yLabel={yLabel} label={`Scatter plot of ${measure} against connectance`} focusable radius={5} title={`${measure} against connectance`} />
+              <Scatter points={byC} xLabel="Connectance C (proportion of possible links)" yLabel={yLabel} label={`Scatter plot of ${measure} against connectance`} focusable radius={5} title={`${measure} against connectance`} />
               <Legend title="Interaction type" items={types.map((t) => ({ label: interactionTypeLabel[t] ?? t, colour: interactionTypeColour[t] ?? "#000" }))} />
             </ChartFigure>
             <ChartFigure
               id="cmp-s"
               title={`${measure} against size S`}
+              download={`tanglebank-compare-${chartName}-vs-size`}
               caption={`${byS.length} networks; S counts all nodes (I + J for bipartite networks).${overlapNote(byS)}`}
               table={{ caption: `${measure} and size`, columns: ["network", "S", measure], rows: byS.map((p) => [p.id, p.x, fmt(p.y, 3)]) }}
             >
-              <Scatter ref={svgS} points={byS} xLabel="Network size S (nodes)" yLabel={yLabel} label={`Scatter plot of ${measure} against network size`} focusable radius={5} title={`${measure} against size S`} />
+              <Scatter points={byS} xLabel="Network size S (nodes)" yLabel={yLabel} label={`Scatter plot of ${measure} against network size`} focusable radius={5} title={`${measure} against size S`} />
               <Legend title="Interaction type" items={types.map((t) => ({ label: interactionTypeLabel[t] ?? t, colour: interactionTypeColour[t] ?? "#000" }))} />
             </ChartFigure>
           </div>
