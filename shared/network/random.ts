@@ -128,9 +128,14 @@ function rotl(x: number, k: number): number {
  * from `rng` afterwards sees the same numbers as without the buffer.
  */
 export class DrawBuffer {
-  private readonly buf: Uint32Array;
-  private i = 0;
-  private len = 0;
+  /**
+   * The block of draws, the next one to use (`i`) and the number filled (`len`). A hot loop may read
+   * `buf[i++]` itself while i < len, calling refill() when i reaches len, and write `i` back before any
+   * other method is called: the draws are the same as through nextUint32().
+   */
+  readonly buf: Uint32Array;
+  i = 0;
+  len = 0;
   private saved: number[];
 
   constructor(
@@ -146,7 +151,8 @@ export class DrawBuffer {
     return this.buf[this.i++];
   }
 
-  private refill(): void {
+  /** Takes the next block of draws (i = 0, len = the block size). */
+  refill(): void {
     this.saved = this.rng.save();
     this.rng.fill(this.buf);
     this.len = this.buf.length;

@@ -20,8 +20,11 @@
  *   0.995^50 ≈ 0.78 without progress), or after 3000 temperatures. The best partition visited is returned.
  *
  * Cost: about f·S²·(mean degree) work per temperature and a few hundred temperatures, so the engine runs
- * it only on small networks (see ANNEALING_MAX_NODES in optimize.ts). Randomness comes only from the
- * injected generator; Math.exp is only compared with a uniform draw (see leiden.ts on determinism).
+ * it only on small networks (see ANNEALING_MAX_NODES in optimize.ts). The single-node proposals, most of
+ * the work, run in one loop (singleMoves) that reads its draws straight from the buffer and decides most
+ * Metropolis tests without the exponential (metropolisAccepts), with exactly the draws and decisions of
+ * the plain form. Randomness comes only from the injected generator; Math.exp is only compared with a
+ * uniform draw (see leiden.ts on determinism).
  */
 import { DrawBuffer, type Rng } from "../random";
 import { graphQuality, type QualityGraph } from "./quality-graph";
@@ -119,19 +122,6 @@ function annealWith(g: QualityGraph, initial: Int32Array, rng: DrawBuffer, optio
     return empty[nEmpty - 1];
   }
 
-  function moveNode(v: number, t: number) {
-    const cur = memb[v];
-    if (t === empty[nEmpty - 1] && modSize[t] === 0 && nEmpty > 0) nEmpty--;
-    modA[cur] -= a[v];
-    modB[cur] -= b[v];
-    modSize[cur]--;
-    modA[t] += a[v];
-    modB[t] += b[v];
-    modSize[t]++;
-    memb[v] = t;
-    if (modSize[cur] === 0) empty[nEmpty++] = cur;
-  }
-
   // Start temperature from a sample of single-node proposals at the start partition.
   let worse = 0;
   let nWorse = 0;
@@ -157,6 +147,10 @@ function annealWith(g: QualityGraph, initial: Int32Array, rng: DrawBuffer, optio
   const tol = 1e-12;
   let sinceBest = 0;
   let temps = 0;
+  const st: SingleMoveState = {
+    ptr, nbr, ew, a, b, alpha, gamma, memb, modA, modB, modSize, empty, active, nActive, best, rng, tol,
+    nEmpty, T, q, bestQ,
+  };
 
   function accept(dq: number): boolean {
     if (dq >= 0) return true;
@@ -170,21 +164,15 @@ function annealWith(g: QualityGraph, initial: Int32Array, rng: DrawBuffer, optio
 
   for (; temps < maxTemperatures; temps++) {
     const improvedBefore = bestQ;
+    st.T = T;
     for (let round = 0; round < nCollective; round++) {
-      for (let s = 0; s < singlePerCollective; s++) {
-        const v = active[rng.nextInt(nActive)];
-        const t = proposeTarget(v);
-        if (t < 0 || t === memb[v]) continue;
-        const dq = alpha * singleMoveDelta(v, t);
-        if (accept(dq)) {
-          moveNode(v, t);
-          q += dq;
-          if (q > bestQ + tol) {
-            bestQ = q;
-            best.set(memb);
-          }
-        }
-      }
+      st.q = q;
+      st.bestQ = bestQ;
+      st.nEmpty = nEmpty;
+      singleMoves(st, singlePerCollective);
+      q = st.q;
+      bestQ = st.bestQ;
+      nEmpty = st.nEmpty;
       // One collective move.
       const v = active[rng.nextInt(nActive)];
       const c1 = memb[v];
@@ -307,4 +295,155 @@ function annealWith(g: QualityGraph, initial: Int32Array, rng: DrawBuffer, optio
     T *= cooling;
   }
   return { membership: best, Q: graphQuality(g, best), temperatures: temps };
+}
+
+/**
+ * Bounds of exp(x) for the acceptance test u < exp(x) on −23 ≤ x < 0, so that most tests need no
+ * exponential: with x_j = −23 + j/EXP_STEPS, the computed index i = ⌊(x + 23)·EXP_STEPS⌋ places x in
+ * [x_{i−1}, x_{i+2}] (the product's rounding error is far below 1/EXP_STEPS), so Math.exp(x) lies between
+ * Math.exp(x_{i−1}) and Math.exp(x_{i+2}) up to its own error (under one unit in the last place; the
+ * factors 1 ∓ 2⁻⁴⁰ leave a wide margin). u below EXP_BELOW[i] is below Math.exp(x), u at or above
+ * EXP_ABOVE[i] is not; only between them (a band of about 5 % of exp(x)) is Math.exp called. The decisions
+ * are therefore exactly those of the plain comparison.
+ */
+const EXP_STEPS = 64;
+const EXP_BELOW = new Float64Array(23 * EXP_STEPS + 1);
+const EXP_ABOVE = new Float64Array(23 * EXP_STEPS + 1);
+for (let i = 0; i <= 23 * EXP_STEPS; i++) {
+  EXP_BELOW[i] = Math.exp(-23 + Math.max(0, i - 1) / EXP_STEPS) * (1 - 2 ** -40);
+  EXP_ABOVE[i] = Math.exp(-23 + (i + 2) / EXP_STEPS) * (1 + 2 ** -40);
+}
+
+/**
+ * The Metropolis test u < exp(x) for a uniform draw u (a multiple of 2⁻³²) and x = ΔQ/T < 0: the same
+ * decision as `accept` in annealWith, with the exponential computed only when u falls near exp(x).
+ */
+export function metropolisAccepts(u: number, x: number): boolean {
+  if (x >= -23) {
+    const i = ((x + 23) * EXP_STEPS) | 0;
+    return u < EXP_BELOW[i] || (u < EXP_ABOVE[i] && u < Math.exp(x));
+  }
+  // Below x = −23, exp(x) < 1.1e-10 < 2⁻³²: only u = 0 can fall below it.
+  return u === 0 && Math.exp(x) > 0;
+}
+
+/** What the single-node moves of one round read and change (scalars written back by the caller). */
+interface SingleMoveState {
+  ptr: Int32Array;
+  nbr: Int32Array;
+  ew: Float64Array;
+  a: Float64Array;
+  b: Float64Array;
+  alpha: number;
+  gamma: number;
+  memb: Int32Array;
+  modA: Float64Array;
+  modB: Float64Array;
+  modSize: Int32Array;
+  empty: Int32Array;
+  active: Int32Array;
+  nActive: number;
+  best: Int32Array;
+  rng: DrawBuffer;
+  tol: number;
+  nEmpty: number;
+  T: number;
+  q: number;
+  bestQ: number;
+}
+
+/**
+ * `count` single-node proposals at temperature st.T: exactly the proposals, draws and decisions of
+ * proposeTarget, singleMoveDelta, accept and moveNode in annealWith, written out in one loop that reads
+ * the draws from the buffer itself (the hot loop of the annealing: no calls, no boxed numbers).
+ */
+function singleMoves(st: SingleMoveState, count: number): void {
+  const { ptr, nbr, ew, a, b, alpha, gamma, memb, modA, modB, modSize, empty, active, nActive, best, rng, tol, T } = st;
+  const buf = rng.buf;
+  let bi = rng.i;
+  let bl = rng.len;
+  let nEmpty = st.nEmpty;
+  let q = st.q;
+  let bestQ = st.bestQ;
+  for (let s = 0; s < count; s++) {
+    // v = active[nextInt(nActive)] (rejection rule of Rng.nextInt).
+    let r: number;
+    for (;;) {
+      if (bi === bl) {
+        rng.i = bi;
+        rng.refill();
+        bi = rng.i;
+        bl = rng.len;
+      }
+      const x = buf[bi++];
+      r = x - Math.floor(x / nActive) * nActive;
+      r = r < 0 ? r + nActive : r >= nActive ? r - nActive : r;
+      if (x - r + nActive <= 4294967296) break;
+    }
+    const v = active[r];
+    // Target: the module of a random neighbour, or (x = deg) an empty module.
+    const p0 = ptr[v];
+    const p1 = ptr[v + 1];
+    const deg1 = p1 - p0 + 1;
+    for (;;) {
+      if (bi === bl) {
+        rng.i = bi;
+        rng.refill();
+        bi = rng.i;
+        bl = rng.len;
+      }
+      const x = buf[bi++];
+      r = x - Math.floor(x / deg1) * deg1;
+      r = r < 0 ? r + deg1 : r >= deg1 ? r - deg1 : r;
+      if (x - r + deg1 <= 4294967296) break;
+    }
+    const cur = memb[v];
+    let t: number;
+    if (r < deg1 - 1) t = memb[nbr[p0 + r]];
+    else if (modSize[cur] === 1 || nEmpty === 0) continue;
+    else t = empty[nEmpty - 1];
+    if (t === cur) continue;
+    let eCur = 0;
+    let eT = 0;
+    for (let e = p0; e < p1; e++) {
+      const c = memb[nbr[e]];
+      if (c === cur) eCur += ew[e];
+      else if (c === t) eT += ew[e];
+    }
+    const av = a[v];
+    const bv = b[v];
+    const gainT = eT - gamma * (av * modB[t] + bv * modA[t]);
+    const gainCur = eCur - gamma * (av * (modB[cur] - bv) + bv * (modA[cur] - av));
+    const dq = alpha * (gainT - gainCur);
+    if (!(dq >= 0)) {
+      if (bi === bl) {
+        rng.i = bi;
+        rng.refill();
+        bi = rng.i;
+        bl = rng.len;
+      }
+      const u = buf[bi++] / 4294967296;
+      const x = dq / T;
+      if (!metropolisAccepts(u, x)) continue;
+    }
+    // Move v to t.
+    if (t === empty[nEmpty - 1] && modSize[t] === 0 && nEmpty > 0) nEmpty--;
+    modA[cur] -= av;
+    modB[cur] -= bv;
+    modSize[cur]--;
+    modA[t] += av;
+    modB[t] += bv;
+    modSize[t]++;
+    memb[v] = t;
+    if (modSize[cur] === 0) empty[nEmpty++] = cur;
+    q += dq;
+    if (q > bestQ + tol) {
+      bestQ = q;
+      best.set(memb);
+    }
+  }
+  rng.i = bi;
+  st.nEmpty = nEmpty;
+  st.q = q;
+  st.bestQ = bestQ;
 }
