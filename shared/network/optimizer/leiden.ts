@@ -218,7 +218,9 @@ export function moveNodesFast(g: QualityGraph, memb: Int32Array, rng: Rng, ws: W
     mark[cur] = stamp;
     nw[cur] = 0;
     touched[nt++] = cur;
-    for (let e = ptr[v]; e < ptr[v + 1]; e++) {
+    const e0 = ptr[v];
+    const e1 = ptr[v + 1];
+    for (let e = e0; e < e1; e++) {
       const c = memb[nbr[e]];
       if (mark[c] !== stamp) {
         mark[c] = stamp;
@@ -256,7 +258,7 @@ export function moveNodesFast(g: QualityGraph, memb: Int32Array, rng: Rng, ws: W
     if (best !== cur) {
       memb[v] = best;
       if (modSize[cur] === 0) empty[nEmpty++] = cur;
-      for (let e = ptr[v]; e < ptr[v + 1]; e++) {
+      for (let e = e0; e < e1; e++) {
         const u = nbr[e];
         const mu = memb[u];
         if (mu === cur) cut[u] -= ew[e];
@@ -329,7 +331,8 @@ export function refinePartition(
     const bv = b[v];
     const stamp = nextStamp(ws);
     let nt = 0;
-    for (let e = ptr[v]; e < ptr[v + 1]; e++) {
+    const e1 = ptr[v + 1];
+    for (let e = ptr[v]; e < e1; e++) {
       const u = nbr[e];
       if (memb[u] !== S) continue;
       const c = refined[u];
@@ -391,6 +394,11 @@ export function refinePartition(
  * Writes into `out` when given (the optimizer's level buffers), else into new arrays.
  */
 export function aggregateGraph(g: QualityGraph, memb: Int32Array, k: number, ws: Workspace, out?: LevelBuffers): QualityGraph {
+  return aggregateInto(g, memb, k, ws, out ?? levelBuffers(k, g.ptr[g.n]));
+}
+
+/** aggregateGraph into `buf` (views of it are returned), in one form so the compiled code stays one. */
+function aggregateInto(g: QualityGraph, memb: Int32Array, k: number, ws: Workspace, buf: LevelBuffers): QualityGraph {
   const { n, ptr, nbr, ew, self, a, b } = g;
   const { mark, nw, touched } = ws;
   const start = ws.start;
@@ -402,7 +410,6 @@ export function aggregateGraph(g: QualityGraph, memb: Int32Array, k: number, ws:
   for (let c = 0; c < k; c++) fill[c] = start[c];
   for (let v = 0; v < n; v++) members[fill[memb[v]]++] = v;
 
-  const buf = out ?? levelBuffers(k, ptr[n]);
   const nPtr = buf.ptr;
   const nNbr = buf.nbr;
   const nEw = buf.ew;
@@ -418,12 +425,14 @@ export function aggregateGraph(g: QualityGraph, memb: Int32Array, k: number, ws:
     let sw = 0;
     let sa = 0;
     let sb = 0;
-    for (let i = start[c]; i < start[c + 1]; i++) {
+    const i1 = start[c + 1];
+    for (let i = start[c]; i < i1; i++) {
       const v = members[i];
       sw += self[v];
       sa += a[v];
       sb += b[v];
-      for (let e = ptr[v]; e < ptr[v + 1]; e++) {
+      const e1 = ptr[v + 1];
+      for (let e = ptr[v]; e < e1; e++) {
         const d = memb[nbr[e]];
         if (d === c) {
           innerW += ew[e];
@@ -441,20 +450,20 @@ export function aggregateGraph(g: QualityGraph, memb: Int32Array, k: number, ws:
     nB[c] = sb;
     nSelf[c] = sw + innerW / 2;
     for (let t = 0; t < nt; t++) {
-      nNbr[pos] = touched[t];
-      nEw[pos++] = nw[touched[t]];
+      const d = touched[t];
+      nNbr[pos] = d;
+      nEw[pos++] = nw[d];
     }
     nPtr[c + 1] = pos;
   }
-  const sized = out !== undefined || pos < nNbr.length;
   return {
     n: k,
-    ptr: out ? nPtr.subarray(0, k + 1) : nPtr,
-    nbr: sized ? nNbr.subarray(0, pos) : nNbr,
-    ew: sized ? nEw.subarray(0, pos) : nEw,
-    self: out ? nSelf.subarray(0, k) : nSelf,
-    a: out ? nA.subarray(0, k) : nA,
-    b: out ? nB.subarray(0, k) : nB,
+    ptr: nPtr.subarray(0, k + 1),
+    nbr: nNbr.subarray(0, pos),
+    ew: nEw.subarray(0, pos),
+    self: nSelf.subarray(0, k),
+    a: nA.subarray(0, k),
+    b: nB.subarray(0, k),
     alpha: g.alpha,
     gamma: g.gamma,
     totalW: g.totalW,
@@ -470,11 +479,12 @@ interface PassOutcome {
 }
 
 /**
- * One Leiden pass from `memb0` on graph g0; returns the membership of g0's nodes, renumbered.
+ * One Leiden pass from `memb0` on graph g0; writes the membership of g0's nodes, renumbered, into `out`.
  */
 function leidenPass(
   g0: QualityGraph,
   memb0: Int32Array,
+  out: Int32Array,
   rng: Rng,
   ws: Workspace,
   eps: number,
@@ -519,7 +529,7 @@ function leidenPass(
       kr = k;
     }
     const t2 = trace ? performance.now() : 0;
-    const agg = aggregateGraph(g, refined, kr, ws, ws.levels[level & 1]);
+    const agg = aggregateInto(g, refined, kr, ws, ws.levels[level & 1]);
     const next = ws.memb[1 - side].subarray(0, kr);
     for (let v = 0; v < g.n; v++) next[refined[v]] = memb[v];
     for (let i = 0; i < n0; i++) map[i] = refined[map[i]];
@@ -528,7 +538,6 @@ function leidenPass(
     side = 1 - side;
     memb = next;
   }
-  const out = new Int32Array(n0);
   for (let i = 0; i < n0; i++) out[i] = memb[map[i]];
   renumber(out, ws.map);
   if (capped) q = graphQuality(g0, out);
@@ -567,6 +576,19 @@ export interface LeidenOptions {
   trace?: LeidenTrace;
 }
 
+/**
+ * Q of the partition into singletons, as graphQuality computes it (same sums in the same order: no link
+ * lies inside a singleton, and each module's totals are its node's a and b), without a sweep of the links.
+ */
+function singletonQuality(g: QualityGraph): number {
+  const { n, self, a, b } = g;
+  let inner = 0;
+  for (let v = 0; v < n; v++) inner += self[v];
+  let nullTerm = 0;
+  for (let v = 0; v < n; v++) nullTerm += a[v] * b[v];
+  return g.alpha * (inner - g.gamma * nullTerm);
+}
+
 /** Mean weight of a stored undirected link (E entries), the unit of the refinement randomness. */
 function meanLinkWeight(g: QualityGraph): number {
   const m = g.ptr[g.n];
@@ -586,25 +608,30 @@ export function leiden(g: QualityGraph, rng: Rng, options: LeidenOptions = {}): 
   const eps = 1e-13 * Math.max(g.totalW, 1e-300);
   const meanW = meanLinkWeight(g);
   let memb: Int32Array;
+  let q: number;
   if (options.initial) {
     memb = options.initial.slice();
     renumber(memb, ws.map);
+    q = graphQuality(g, memb);
   } else {
     memb = new Int32Array(g.n);
     for (let i = 0; i < g.n; i++) memb[i] = i;
+    q = singletonQuality(g);
   }
-  let q = graphQuality(g, memb);
+  // The pass writes into `spare`; an accepted pass swaps the two (no array per pass).
+  let spare: Int32Array = new Int32Array(g.n);
   let passes = 0;
   let converged = false;
   let capped: LeidenResult["capped"];
   while (passes < PASS_CAP) {
-    const pass = leidenPass(g, memb, rng, ws, eps, meanW, trace, passes);
+    const pass = leidenPass(g, memb, spare, rng, ws, eps, meanW, trace, passes);
     passes++;
     const next = pass.membership;
     const qn = pass.q;
     trace?.passQ.push(qn);
     if (pass.capped) capped = "levels";
     if (qn > q + 1e-12 * Math.max(1, Math.abs(q))) {
+      spare = memb;
       memb = next;
       q = qn;
     } else {
