@@ -5,8 +5,8 @@
  * placed at, just below and just above exp(x), where a wrong bound would show, and on random pairs.
  */
 import { describe, expect, it } from "vitest";
-import { metropolisAccepts } from "../../../shared/network/optimizer/annealing";
-import { createRng } from "../../../shared/network/random";
+import { metropolisAccepts } from "@shared/network/optimizer/annealing";
+import { createRng } from "@shared/network/random";
 
 const TWO32 = 4294967296;
 
