@@ -21,11 +21,11 @@ const routes: RouteObject[] = [
       { path: paths.catalogue.path, lazy: () => import("./routes/catalogue") },
       { path: paths.apiDocs.path, lazy: () => import("./routes/api-docs") },
       // deposit and curation
-      { path: paths.deposit.path, lazy: () => import("./routes/deposit/deposit") },
-      { path: paths.depositResume.path, lazy: () => import("./routes/deposit/deposit") },
-      { path: paths.myDeposits.path, lazy: () => import("./routes/deposit/my-deposits") },
-      { path: paths.reviewQueue.path, lazy: () => import("./routes/review/queue") },
-      { path: paths.review.path, lazy: () => import("./routes/review/review") },
+      { path: paths.deposit.path, lazy: () => import("./routes/deposits/deposit") },
+      { path: paths.depositResume.path, lazy: () => import("./routes/deposits/deposit") },
+      { path: paths.myDeposits.path, lazy: () => import("./routes/deposits/my-deposits") },
+      { path: paths.reviewQueue.path, lazy: () => import("./routes/reviews/queue") },
+      { path: paths.review.path, lazy: () => import("./routes/reviews/review") },
       { path: paths.pipeline.path, lazy: () => import("./routes/admin/pipeline") },
       // accounts
       { path: paths.signIn.path, lazy: () => import("./routes/accounts/sign-in") },

@@ -1,7 +1,7 @@
 /** Route modules of the dataset pages: the dataset feature's page with the signed-in role from the auth feature. */
 import { useParams } from "react-router-dom";
 import { useSession } from "../../../features/auth/api/get-session";
-import { DatasetPage } from "../../../features/dataset/components/dataset-page";
+import { DatasetPage } from "../../../features/datasets/components/dataset-page";
 
 export function Component() {
   const { accession = "", n } = useParams();

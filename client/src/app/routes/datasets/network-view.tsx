@@ -1,4 +1,4 @@
-import { NetworkViewPage } from "../../../features/network-view/components/network-view-page";
+import { NetworkViewPage } from "../../../features/network-views/components/network-view-page";
 
 export function Component() {
   return <NetworkViewPage />;

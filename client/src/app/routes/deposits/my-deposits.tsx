@@ -1,4 +1,4 @@
-import { MyDepositsPage } from "../../../features/deposit/components/my-deposits-page";
+import { MyDepositsPage } from "../../../features/deposits/components/my-deposits-page";
 import { RequireUser } from "./require-user";
 
 export function Component() {

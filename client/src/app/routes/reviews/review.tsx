@@ -1,6 +1,6 @@
 import { useParams } from "react-router-dom";
-import { ReviewPage } from "../../../features/review/components/review-page";
-import { RequireUser } from "../deposit/require-user";
+import { ReviewPage } from "../../../features/reviews/components/review-page";
+import { RequireUser } from "../deposits/require-user";
 
 export function Component() {
   const { versionId } = useParams();

@@ -1,5 +1,5 @@
 import { useParams } from "react-router-dom";
-import { DepositFlow } from "../../../features/deposit/components/deposit-flow";
+import { DepositFlow } from "../../../features/deposits/components/deposit-flow";
 import { RequireUser } from "./require-user";
 
 export function Component() {
