@@ -65,4 +65,5 @@ export function initModels(seq: Sequelize = appSequelize()): Sequelize {
   return seq;
 }
 
+export { networkShape } from "./network.model";
 export { ApiToken, AuditLog, Collection, CollectionMember, Dataset, DatasetVersion, MetricBatch, MetricRun, Network, Review, StoredFile, SubmissionComment, User, UserToken };

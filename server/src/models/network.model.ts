@@ -37,6 +37,11 @@ export class Network extends Model<InferAttributes<Network>, InferCreationAttrib
   declare updatedAt: CreationOptional<Date>;
 }
 
+/** A network's kind and size, as every public answer about it states them. */
+export function networkShape(n: Network) {
+  return { kind: n.kind, directed: n.directed, weighted: n.weighted, nNodes: n.nNodes, nRows: n.nRows, nCols: n.nCols, nLinks: n.nLinks, connectance: n.connectance };
+}
+
 export function initNetwork(sequelize: Sequelize): void {
   Network.init(
     {

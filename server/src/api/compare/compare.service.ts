@@ -6,7 +6,7 @@ import { MAX_COMPARE, type CompareRowsResponse, type CompareUnavailable, type Ne
 import { getCurrentMetrics } from "../../pipeline/metrics-read";
 import { ApiError } from "../../lib/api-error";
 import { hasRole } from "../../middlewares/require-role";
-import { Network } from "../../models";
+import { Network, networkShape } from "../../models";
 import type { AuthUser } from "../../types";
 import { GoneError, resolveVersion } from "../datasets/datasets.access";
 
@@ -50,14 +50,7 @@ export async function getCompareRows(refs: string[], user: AuthUser | undefined)
       datasetTitle: title,
       name: md.name ?? `Network ${net.position}`,
       interactionType: md.interactionType ?? "other",
-      kind: net.kind,
-      directed: net.directed,
-      weighted: net.weighted,
-      nNodes: net.nNodes,
-      nRows: net.nRows,
-      nCols: net.nCols,
-      nLinks: net.nLinks,
-      connectance: net.connectance,
+      ...networkShape(net),
       metrics: metrics.get(net.id) ?? { status: "none" },
     };
   });

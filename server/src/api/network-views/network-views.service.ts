@@ -14,7 +14,7 @@ import { QueryTypes } from "sequelize";
 import { sequelize } from "../../db/sequelize";
 import { getCurrentMetrics } from "../../pipeline/metrics-read";
 import { ApiError } from "../../lib/api-error";
-import { MetricRun, Network, StoredFile } from "../../models";
+import { MetricRun, Network, networkShape, StoredFile } from "../../models";
 import type { AuthUser } from "../../types";
 import { resolveVersion } from "../datasets/datasets.access";
 import { publicLocality } from "../../lib/public-locality";
@@ -182,15 +182,8 @@ export async function getNetworkView(accession: string, versionNumber: number, p
     datasetTitle: study.title,
     licence: study.licence,
     metadata: { ...md, locality: publicLocality(md.locality) },
-    kind: net.kind,
-    directed: net.directed,
-    weighted: net.weighted,
-    nNodes: net.nNodes,
-    nRows: net.nRows,
-    nCols: net.nCols,
-    nLinks: net.nLinks,
+    ...networkShape(net),
     totalWeight: net.totalWeight,
-    connectance: net.connectance,
     rowLabels: rows,
     colLabels: cols,
     cells: { ptr: c.ptr, idx: c.idx, w: c.w },
