@@ -1,10 +1,22 @@
 import { ApiClientError } from "../../../lib/api-client";
 import type { OneTimeLinkErrorCode } from "@shared/types/auth";
 
-/** Only same-site paths are followed after sign-in (no open redirect through `?next=`). */
+/**
+ * Only same-origin paths are followed after sign-in (no open redirect through `?next=`). Browsers drop tabs
+ * and line breaks from addresses and read a backslash as a slash, so `/\t/host` or `/\\host` would go to
+ * another site: any white space, control character or backslash is refused, and the path must stay on this
+ * origin once resolved the way the browser resolves it.
+ */
 export function safeNext(next: string | null, fallback: string): string {
-  if (!next || !next.startsWith("/") || next.startsWith("//") || next.startsWith("/\\")) return fallback;
-  return next;
+  // eslint-disable-next-line no-control-regex
+  if (!next || !next.startsWith("/") || /[\s\u0000-\u001f\u007f\\]/.test(next)) return fallback;
+  const base = "http://same-origin.invalid";
+  try {
+    const u = new URL(next, base);
+    return u.origin === base ? `${u.pathname}${u.search}${u.hash}` : fallback;
+  } catch {
+    return fallback;
+  }
 }
 
 /** What a page says about a one-time link the server refused. */
