@@ -2,7 +2,7 @@
  * A small JSON Schema (draft 2020-12) validator for the subset of keywords our metadata schemas use, with
  * ajv-compatible error objects. Why not ajv in the browser: ajv compiles schemas to functions with
  * `new Function`, which our Content-Security-Policy (`script-src 'self'`, no 'unsafe-eval') forbids. The
- * server validates with ajv (server/src/lib/schemas.ts); tests/server/schemas.test.ts checks that this
+ * server validates with ajv (server/src/lib/schemas.ts); tests/server/lib/schemas.test.ts checks that this
  * validator reports the same (path, keyword) pairs as ajv on every example file.
  *
  * Keywords: type, enum, required, properties, additionalProperties (false or a schema), items, minItems,

@@ -1,7 +1,7 @@
 /**
  * The deposit forms' inline errors: blank optional fields are dropped before validation, errors show only
  * for fields that hold something until the person asks to see all, and cross-field rules apply.
- * (The browser validator itself is checked against ajv in tests/server/schemas.test.ts.)
+ * (The browser validator itself is checked against ajv in tests/server/lib/schemas.test.ts.)
  */
 import { describe, expect, it } from "vitest";
 import { networkErrors, prune, studyErrors, visibleErrors } from "../../client/src/components/metadata/validate";

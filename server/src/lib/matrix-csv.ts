@@ -4,7 +4,7 @@
  * download stream those, so a 20,000-node network's 800 MB of ",0" is never held whole).
  *
  * The output is byte for byte what the engine's `networkToMatrixCsv(deserializeNetwork(json))` gives
- * (tests/server/matrix-csv.test.ts compares them), but it skips building the typed arrays and the
+ * (tests/server/lib/matrix-csv.test.ts compares them), but it skips building the typed arrays and the
  * per-cell strings (labels are quoted by the one CSV rule of shared/csv): a row of zero cells (",0,0,…,0") is made once per network and copied into each line,
  * and only the non-zero cells are written (an unweighted network only changes a "0" into a "1" in place).
  * Stored networks were validated when they were deposited; the checks here (array lengths, column

@@ -9,7 +9,7 @@
  *     replicate r depends only on network, settings, model, seed and r, so any chunking gives the
  *     single-threaded numbers);
  * and `combineAnalysis` joins them into exactly the object `analyzeNetwork` returns for the same settings
- * (tests/server/pipeline-compute.test.ts checks the equality).
+ * (tests/server/pipeline/pipeline-compute.test.ts checks the equality).
  */
 import { analyzeNetwork, buildNullFigures, primaryNull, resolveNullModels, type AnalysisResult, type NullModelChoice } from "@shared/network/analyze";
 import type { NullModelName } from "@shared/network/null-models/index";
