@@ -2,17 +2,12 @@
  * The accessibility check every browser test runs: axe-core with the WCAG 2 A and AA rules over the page
  * (or the part named by `include`), answering the serious and critical violations as "rule: selectors" so
  * a failure says what to fix. An empty list means none.
- *
- * axe runs in the page itself (`axe.run`; axe still enters any frame the page has) and reports only the
- * violations in full: the same rules and the same verdicts as @axe-core/playwright's default, which opens
- * a blank page per check to merge per-frame results and serialises every node that passed — about three
- * times the time on our pages.
  */
 import { AxeBuilder } from "@axe-core/playwright";
 import type { Page } from "playwright-core";
 
 export async function axeSerious(page: Page, include?: string): Promise<string[]> {
-  const builder = new AxeBuilder({ page }).withTags(["wcag2a", "wcag2aa"]).options({ resultTypes: ["violations"] }).setLegacyMode();
+  const builder = new AxeBuilder({ page }).withTags(["wcag2a", "wcag2aa"]);
   const result = await (include ? builder.include(include) : builder).analyze();
   return result.violations
     .filter((v) => v.impact === "serious" || v.impact === "critical")
