@@ -1,6 +1,6 @@
 /** The compare view's size- and connectance-adjusted comparison (client/src/features/compare/utils/adjust.ts). */
 import { describe, expect, it } from "vitest";
-import { adjustForSizeAndConnectance } from "../../client/src/features/compare/utils/adjust";
+import { adjustForSizeAndConnectance } from "../../../../../client/src/features/compare/utils/adjust";
 
 describe("adjustment for size and connectance (least squares on ln S and C)", () => {
   it("recovers exact coefficients of noiseless data and gives every network the same adjusted value", () => {

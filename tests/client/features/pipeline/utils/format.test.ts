@@ -1,6 +1,6 @@
 /** Display helpers of the metrics pipeline page (durations, rates, progress share). */
 import { describe, expect, it } from "vitest";
-import { formatDateTime, formatDuration, formatRate, percentFinished } from "../../client/src/features/pipeline/utils/format";
+import { formatDateTime, formatDuration, formatRate, percentFinished } from "../../../../../client/src/features/pipeline/utils/format";
 
 describe("pipeline page formatting", () => {
   it("writes durations in s, min and h", () => {

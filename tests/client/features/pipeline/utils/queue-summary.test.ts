@@ -1,7 +1,7 @@
 /** The Queue panel's sentence on the metrics pipeline page, from the counts of GET /api/v1/pipeline/queue. */
 import { describe, expect, it } from "vitest";
 import type { QueuePhaseCounts, QueueProgress } from "@shared/types/pipeline";
-import { percentOf, queueSummary, timeLeftPhrase } from "../../client/src/features/pipeline/utils/format";
+import { percentOf, queueSummary, timeLeftPhrase } from "../../../../../client/src/features/pipeline/utils/format";
 
 function counts(c: Partial<QueuePhaseCounts>): QueuePhaseCounts {
   const base = { queued: 0, running: 0, nullsPending: 0, done: 0, failed: 0, ...c };

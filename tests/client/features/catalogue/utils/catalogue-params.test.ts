@@ -3,8 +3,8 @@
  * "everything matching" sends to the bundle endpoint (filters only, never paging or sorting).
  */
 import { describe, expect, it } from "vitest";
-import { filterOnly, hasFilters, listValues, rangeProblems, rangeProblemsFromApi, toggleValue, withParams } from "../../client/src/features/catalogue/utils/catalogue-params";
-import { bundleUrlForFilter, bundleUrlForRefs, DEFAULT_PARTS, formatBytes } from "../../client/src/features/bundles/utils/bundle-url";
+import { filterOnly, hasFilters, listValues, rangeProblems, rangeProblemsFromApi, toggleValue, withParams } from "../../../../../client/src/features/catalogue/utils/catalogue-params";
+import { bundleUrlForFilter, bundleUrlForRefs, DEFAULT_PARTS, formatBytes } from "../../../../../client/src/features/bundles/utils/bundle-url";
 
 describe("catalogue URL parameters", () => {
   it("toggles facet values as a comma list and goes back to page 1", () => {

@@ -4,7 +4,7 @@
  * (The browser validator itself is checked against ajv in tests/server/lib/schemas.test.ts.)
  */
 import { describe, expect, it } from "vitest";
-import { networkErrors, prune, studyErrors, visibleErrors } from "../../client/src/components/metadata/validate";
+import { networkErrors, prune, studyErrors, visibleErrors } from "../../../../client/src/components/metadata/validate";
 
 describe("metadata form validation", () => {
   it("drops blank optional fields so they are not reported", () => {

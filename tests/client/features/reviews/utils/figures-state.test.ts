@@ -1,6 +1,6 @@
 /** The review page of a published version says where the metrics pipeline is now, not at publication. */
 import { describe, expect, it } from "vitest";
-import { figuresState } from "../../client/src/features/reviews/utils/figures-state";
+import { figuresState } from "../../../../../client/src/features/reviews/utils/figures-state";
 
 const net = (status: string | null) => ({ metrics: status === null ? null : { status } });
 

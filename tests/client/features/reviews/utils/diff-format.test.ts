@@ -1,6 +1,6 @@
 /** How the review page writes a diff's values, network sizes and node lists. */
 import { describe, expect, it } from "vitest";
-import { formatNames, formatShape, formatValue } from "../../client/src/features/reviews/utils/diff-format";
+import { formatNames, formatShape, formatValue } from "../../../../../client/src/features/reviews/utils/diff-format";
 import type { NetworkSide } from "@shared/types/review";
 
 const side = (over: Partial<NetworkSide>): NetworkSide => ({

@@ -3,7 +3,7 @@
  * collection (at a revision), bare or as a page address; anything else is refused (null).
  */
 import { describe, expect, it } from "vitest";
-import { mergeRefs, parseCompareInput } from "../../client/src/features/compare/utils/compare-input";
+import { mergeRefs, parseCompareInput } from "../../../../../client/src/features/compare/utils/compare-input";
 
 describe("compare input", () => {
   it("reads networks, datasets and collections written bare", () => {

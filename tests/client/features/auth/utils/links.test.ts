@@ -1,6 +1,6 @@
 import { describe, expect, it } from "vitest";
-import { linkProblem, safeNext } from "../../client/src/features/auth/utils/links";
-import { ApiClientError } from "../../client/src/lib/api-client";
+import { linkProblem, safeNext } from "../../../../../client/src/features/auth/utils/links";
+import { ApiClientError } from "../../../../../client/src/lib/api-client";
 
 describe("safeNext: where sign-in may send you", () => {
   it("follows same-site paths only", () => {
