@@ -1,5 +1,7 @@
 /**
- * The OpenAPI 3.1 document of the public API. Written by hand from the routers; a test walks the Express
+ * The OpenAPI 3.1 document of the public API. Written by hand from the routers, except the parameters and
+ * request bodies of routes that mount validate(schema): those come from the same schemas (from-schemas.ts);
+ * a test walks the Express
  * router and checks that every registered route is either described here or belongs to the web client's
  * own (non-public) resources listed in INTERNAL_PREFIXES, and that nothing described here is missing.
  */
@@ -10,6 +12,8 @@ import { config } from "../../config/env";
 import { CATALOGUE_PARAMS, MAX_PAGE_SIZE } from "../catalogue/catalogue.validation";
 import { BUNDLE_LIMIT } from "../bundles/bundles.selection";
 import { BUNDLE_PARTS, DEFAULT_PARTS } from "../bundles/bundles.parts";
+import { createTokenSchema, revokeTokenSchema } from "../tokens/tokens.schemas";
+import { operationInput } from "./from-schemas";
 
 /** Resources used only by the web client (accounts, deposits, review, administration): not part of the public API. */
 export const INTERNAL_PREFIXES = ["/auth/", "/account", "/users", "/outbox", "/deposits", "/reviews", "/admin", "/pipeline", "/metrics-admin", "/network-views/history"];
@@ -471,12 +475,12 @@ export function openapiDocument(): Json {
           operationId: "createToken",
           summary: "Create a token (signed in through the browser); the secret is shown once",
           security: [{ session: [] }],
-          requestBody: { content: { "application/json": { schema: { type: "object", required: ["name"], properties: { name: { type: "string", maxLength: 80 } } } } } },
+          ...operationInput(createTokenSchema),
           responses: { 201: json({ type: "object", properties: { token: ref("ApiToken"), secret: { type: "string", example: "tb_…" } } }), 401: error("Sign in"), 403: error("Not with a token"), 422: error("Name missing") },
         },
       },
       "/tokens/{id}": {
-        delete: { tags: ["Tokens"], operationId: "revokeToken", summary: "Revoke one of your tokens", security: [{ session: [] }], parameters: [pathParam("id", "Token id", "1")], responses: { 200: json({ type: "object", properties: { token: ref("ApiToken") } }), 404: error("Not your token") } },
+        delete: { tags: ["Tokens"], operationId: "revokeToken", summary: "Revoke one of your tokens", security: [{ session: [] }], ...operationInput(revokeTokenSchema), responses: { 200: json({ type: "object", properties: { token: ref("ApiToken") } }), 404: error("Not your token") } },
       },
       "/health": { get: { tags: ["Service"], operationId: "health", summary: "Whether the service and its database answer", responses: { 200: json({ type: "object" }), 503: json({ type: "object" }, "Degraded") } } },
       "/auth/session": { get: { tags: ["Service"], operationId: "getSession", summary: "The signed-in user (or null) and the CSRF token for state-changing browser calls", responses: { 200: json({ type: "object", properties: { user: { type: ["object", "null"] }, csrfToken: { type: "string" } } }) } } },

@@ -3,6 +3,9 @@ import { getPipelineSettings } from "../../pipeline/settings";
 import * as service from "./pipeline.service";
 import * as v from "./pipeline.validation";
 
+/** Ids, pages and filters are checked and coerced by validate() in pipeline.routes.ts. */
+const idOf = (req: Request): number => (req.params as unknown as { id: number }).id;
+
 export async function getSettings(_req: Request, res: Response) {
   res.json(await service.readSettings());
 }
@@ -13,7 +16,7 @@ export async function putSettings(req: Request, res: Response) {
 }
 
 export async function listBatches(req: Request, res: Response) {
-  const { page, pageSize } = v.parsePage(req.query as Record<string, unknown>);
+  const { page, pageSize } = req.query as unknown as { page: number; pageSize: number };
   res.json(await service.listBatches(page, pageSize));
 }
 
@@ -32,23 +35,23 @@ export async function previewBatch(req: Request, res: Response) {
 }
 
 export async function getBatch(req: Request, res: Response) {
-  res.json(await service.getBatch(v.parseId(req.params.id, "batch")));
+  res.json(await service.getBatch(idOf(req)));
 }
 
 export async function batchFailures(req: Request, res: Response) {
-  res.json(await service.batchFailures(v.parseId(req.params.id, "batch")));
+  res.json(await service.batchFailures(idOf(req)));
 }
 
 export async function retryFailed(req: Request, res: Response) {
-  res.json(await service.retryFailed(req.user!.id, v.parseId(req.params.id, "batch")));
+  res.json(await service.retryFailed(req.user!.id, idOf(req)));
 }
 
 export async function listRuns(req: Request, res: Response) {
-  res.json(await service.listRuns(v.parseRunQuery(req.query as Record<string, unknown>)));
+  res.json(await service.listRuns(req.query as unknown as { status?: string; batchId?: number; page: number; pageSize: number }));
 }
 
 export async function networkMetrics(req: Request, res: Response) {
-  res.json(await service.networkMetrics(v.parseId(req.params.id, "network")));
+  res.json(await service.networkMetrics(idOf(req)));
 }
 
 export async function queueProgress(_req: Request, res: Response) {

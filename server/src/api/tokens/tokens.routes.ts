@@ -11,7 +11,8 @@
 import { Router } from "express";
 import { requireBrowserSession, requireSignedIn } from "../../middlewares/require-role";
 import { createToken, listTokens, revokeToken } from "./tokens.service";
-import { parseTokenId, parseTokenName } from "./tokens.validation";
+import { validate } from "../../middlewares/validate";
+import { createTokenSchema, revokeTokenSchema } from "./tokens.schemas";
 
 export const tokensRouter = Router();
 
@@ -19,10 +20,10 @@ tokensRouter.get("/", requireSignedIn, async (req, res) => {
   res.json({ data: await listTokens(req.user!.id) });
 });
 
-tokensRouter.post("/", requireBrowserSession, async (req, res) => {
-  res.status(201).json(await createToken(req.user!.id, parseTokenName(req.body)));
+tokensRouter.post("/", requireBrowserSession, validate(createTokenSchema), async (req, res) => {
+  res.status(201).json(await createToken(req.user!.id, (req.body as { name: string }).name.trim()));
 });
 
-tokensRouter.delete("/:id", requireBrowserSession, async (req, res) => {
-  res.json({ token: await revokeToken(req.user!.id, parseTokenId(req.params.id as string)) });
+tokensRouter.delete("/:id", requireBrowserSession, validate(revokeTokenSchema), async (req, res) => {
+  res.json({ token: await revokeToken(req.user!.id, req.params.id as unknown as number) });
 });

@@ -6,7 +6,13 @@ import { ApiError } from "../../lib/api-error";
 import { audit } from "../../lib/audit";
 import type { UserSummary } from "@shared/types/auth";
 import type { ListResponse } from "@shared/types/api";
-import type { UserListQuery } from "./users.validation";
+
+export interface UserListQuery {
+  role?: Role;
+  email?: string;
+  page: number;
+  pageSize: number;
+}
 
 export function toSummary(u: User): UserSummary {
   return {

@@ -48,6 +48,24 @@ describe("OpenAPI document", () => {
     const stale: string[] = [];
     for (const [p, item] of Object.entries(doc.paths)) for (const m of Object.keys(item)) if (!registeredSet.has(`${m} ${p}`)) stale.push(`${m.toUpperCase()} ${p}`);
     expect(stale).toEqual([]);
+    // a route that mounts validate(schema) is documented from that schema: every parameter and the body
+    type Op = { parameters?: Array<{ name: string; in: string; schema: object }>; requestBody?: { content: Record<string, { schema: object }> } };
+    const ops = doc.paths as unknown as Record<string, Record<string, Op>>;
+    let checked = 0;
+    for (const r of registered) {
+      if (isInternal(r.path) || !r.schema) continue;
+      const op = ops[toOpenApiPath(r.path)][r.method];
+      for (const [where, o] of [["path", r.schema.params], ["query", r.schema.query]] as const) {
+        for (const [name, s] of Object.entries(o?.properties ?? {})) {
+          const p = op.parameters?.find((x) => x.name === name && x.in === where);
+          expect(p, `${r.method} ${r.path} ${where} ${name}`).toBeDefined();
+          expect(p!.schema).toMatchObject({ type: s.type });
+        }
+      }
+      if (r.schema.body) expect(op.requestBody?.content["application/json"].schema, `${r.method} ${r.path} body`).toEqual(r.schema.body);
+      checked++;
+    }
+    expect(checked).toBeGreaterThanOrEqual(2);
     // the catalogue, bundles, networks and tokens routes are really there
     for (const must of ["get /catalogue", "get /bundles", "post /bundles/estimate", "get /networks/{accession}/{version}/{position}/data.csv", "delete /tokens/{id}", "get /health", "get /auth/session"]) {
       expect(registeredSet.has(must), must).toBe(true);

@@ -80,7 +80,7 @@ describe("review queue by state", () => {
   it("refuses an unknown state with 400 naming the allowed ones", async () => {
     const r = await queue({ state: "draft" });
     expect(r.status).toBe(400);
-    expect(r.body.details).toEqual([{ path: "state", message: "One of submitted, changes_requested, published, declined, withdrawn." }]);
+    expect(r.body.details).toEqual([{ path: "state", message: "state must be one of submitted, changes_requested, published, declined, withdrawn." }]);
   });
 
   it("is for curators only", async () => {

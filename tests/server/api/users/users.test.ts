@@ -75,7 +75,7 @@ describe("admin: users and roles", () => {
 
     const invalid = await a.agent.patch(`/api/v1/users/${person.id}/role`).set("x-csrf-token", a.csrf).send({ role: "emperor" });
     expect(invalid.status).toBe(422);
-    expect(invalid.body.details[0].path).toBe("role");
+    expect(invalid.body.details[0].path).toBe("/role");
     expect((await a.agent.patch(`/api/v1/users/99999/role`).set("x-csrf-token", a.csrf).send({ role: "curator" })).status).toBe(404);
 
     // With a second admin, the first may step down.

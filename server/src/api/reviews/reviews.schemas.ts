@@ -1,0 +1,35 @@
+/** Request schemas of /api/v1/reviews (curators): mounted by the routes through validate(). */
+import type { FieldSchema, ObjectSchema, RequestSchema } from "../../middlewares/validate";
+import { QUEUE_STATES } from "./reviews.service";
+
+const versionId: FieldSchema = { type: "integer", minimum: 1, maximum: 2147483647, title: "submission", description: "The submitted version's id" };
+const submission: ObjectSchema = { type: "object", properties: { versionId }, required: ["versionId"] };
+
+export const queueSchema: RequestSchema = {
+  query: {
+    type: "object",
+    properties: {
+      state: { type: "string", enum: [...QUEUE_STATES], description: "Only submissions in this state" },
+      q: { type: "string", description: "Words of the title, accession or depositor (the first 200 characters are used)" },
+    },
+  },
+};
+
+export const submissionSchema: RequestSchema = { params: submission };
+
+export const decisionSchema: RequestSchema = {
+  params: submission,
+  body: {
+    type: "object",
+    properties: {
+      decision: { type: "string", enum: ["publish", "request_changes", "decline"], description: "Publish, request changes or decline" },
+      comment: { type: ["string", "null"], maxLength: 20000, description: "To the depositor (e-mailed and shown in the conversation)" },
+      lockVersion: { type: "integer", description: "The version's lock number as read (a decision on a changed submission is refused)" },
+    },
+    required: ["decision"],
+  },
+};
+
+export const networkCorrectionSchema: RequestSchema = {
+  params: { type: "object", properties: { versionId, networkId: { type: "integer", minimum: 1, maximum: 2147483647, title: "network", description: "The network's id" } }, required: ["versionId", "networkId"] },
+};
