@@ -23,6 +23,12 @@ export interface Config {
   uploadMaxRequestBytes: number;
   /** Folder for the temporary files of uploads in progress (removed when the request ends). */
   uploadTmpDir: string;
+  /** Seconds for a request's headers to arrive (TB_HEADERS_TIMEOUT_SECONDS; default 20). */
+  headersTimeoutSeconds: number;
+  /** Seconds for a whole request, body included, to arrive (TB_REQUEST_TIMEOUT_SECONDS; default 600). */
+  requestTimeoutSeconds: number;
+  /** Seconds a connection may stay silent mid-request before it is answered 408 and closed (TB_IDLE_TIMEOUT_SECONDS; default 60). */
+  idleTimeoutSeconds: number;
   /** Reading one uploaded file in the parse thread: time limit (ms) and heap limit (MB). */
   parseTimeoutMs: number;
   parseMaxMemoryMb: number;
@@ -242,6 +248,9 @@ export function loadConfig(): Config {
     uploadMaxFiles: int("TB_UPLOAD_MAX_FILES", 50, 1, 1000),
     uploadMaxRequestBytes: int("TB_UPLOAD_MAX_REQUEST_BYTES", 200 * 1024 * 1024, 1024),
     uploadTmpDir: str("TB_UPLOAD_TMP_DIR", join(tmpdir(), "tanglebank-uploads")),
+    headersTimeoutSeconds: int("TB_HEADERS_TIMEOUT_SECONDS", 20, 1, 3600),
+    requestTimeoutSeconds: int("TB_REQUEST_TIMEOUT_SECONDS", 600, 1, 86_400),
+    idleTimeoutSeconds: int("TB_IDLE_TIMEOUT_SECONDS", 60, 1, 3600),
     parseTimeoutMs: int("TB_PARSE_TIMEOUT_MS", 120_000, 10),
     parseMaxMemoryMb: int("TB_PARSE_MAX_MEMORY_MB", 2048, 16),
     parseThreads: int("TB_PARSE_THREADS", 1, 1, 64),
