@@ -10,6 +10,7 @@ import { ChartFigure } from "../../../components/charts/chart-figure";
 import { interactionTypeColour, interactionTypeLabel } from "../../../components/charts/theme";
 import type { DatasetTombstone } from "../api/get-dataset";
 import { ValueOrNotRecorded } from "../../../components/metadata/not-recorded";
+import { KeywordList } from "../../../components/metadata/keyword-list";
 
 const fmt = (v: number | null | undefined, d = 3) => (v === null || v === undefined || !Number.isFinite(v) ? "—" : v.toFixed(d));
 const card = "rounded-lg bg-white p-4 ring-1 ring-stone-200";
@@ -64,7 +65,9 @@ export function StudySection({ d }: { d: DatasetDetail }) {
         {md.keywords.length > 0 && (
           <>
             <dt className="font-semibold text-stone-800">Keywords</dt>
-            <dd>{md.keywords.join(", ")}</dd>
+            <dd>
+              <KeywordList keywords={md.keywords} />
+            </dd>
           </>
         )}
         <dt className="font-semibold text-stone-800">Licence</dt>
