@@ -37,9 +37,10 @@ as_pg() {
   if [ "$(id -u)" = 0 ]; then (cd / && runuser -u postgres -- "$@"); else "$@"; fi
 }
 
-# pg_up DIR PORT — create (if needed) and start a cluster whose data lives in DIR/data.
+# pg_up DIR PORT [OPTIONS] — create (if needed) and start a cluster whose data lives in DIR/data; OPTIONS are
+# more server settings ("-c name=value …").
 pg_up() {
-  local home="$1" port="$2"
+  local home="$1" port="$2" extra="${3:-}"
   find_pgbin
   local data="$home/data"
   mkdir -p "$home"
@@ -56,7 +57,7 @@ pg_up() {
   fi
   if ! as_pg "$PGBIN/pg_ctl" -D "$data" status >/dev/null 2>&1; then
     as_pg "$PGBIN/pg_ctl" -D "$data" -l "$home/server.log" -w -t 60 \
-      -o "-c listen_addresses=127.0.0.1 -c port=$port -c unix_socket_directories='' -c max_connections=200" start >/dev/null \
+      -o "-c listen_addresses=127.0.0.1 -c port=$port -c unix_socket_directories='' -c max_connections=200 $extra" start >/dev/null \
       || { tail -20 "$home/server.log" >&2; die "PostgreSQL did not start on port $port (is the port taken? set TB_DB_PORT)"; }
   fi
   local i
