@@ -2,8 +2,8 @@
  * Sign-in with ORCID in Chromium, end to end through OpenID Connect against the local ORCID stand-in
  * (oidc-provider on an ephemeral port): a new account made from an ORCID record, linking an iD from the
  * Account page (shown as verified, and the dataset creator with that iD marked verified), and answers
- * whose state or nonce were tampered with refused. Each journey runs in a fresh browser profile (the
- * stand-in remembers who signed in). Screenshots: test-artifacts/screenshots/orcid-*.png.
+ * whose state or nonce were tampered with refused. Each journey runs in a fresh browser session, with
+ * cookies of its own (the stand-in remembers who signed in). Screenshots: test-artifacts/screenshots/orcid-*.png.
  */
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import type { Page } from "playwright-core";

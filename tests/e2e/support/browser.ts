@@ -2,10 +2,9 @@
  * Debian's Chromium driven by playwright-core (never a downloaded browser). Screenshots go to
  * test-artifacts/screenshots/ (ignored by git) so people can look at them.
  */
-import { mkdirSync, mkdtempSync, rmSync } from "node:fs";
-import { tmpdir } from "node:os";
+import { mkdirSync } from "node:fs";
 import { join } from "node:path";
-import { chromium, type BrowserContext, type Page } from "playwright-core";
+import { chromium, type Browser, type BrowserContext, type Page } from "playwright-core";
 
 export const SCREENSHOT_DIR = join(process.cwd(), "test-artifacts", "screenshots");
 
@@ -15,23 +14,40 @@ export interface BrowserSession {
   close: () => Promise<void>;
 }
 
+/** The Chromium of this test file: started by the first session, closed when its last session closes. */
+let shared: { browser: Promise<Browser>; sessions: number } | undefined;
+
+/**
+ * A fresh browser session (its own cookies, storage and cache: a new browser context) with one page. The
+ * sessions of a test file share one Chromium process, so a file that needs several people at once, or a
+ * clean slate per test, does not start Chromium again for each.
+ */
 export async function openBrowser(viewport = { width: 1280, height: 900 }): Promise<BrowserSession> {
-  const profile = mkdtempSync(join(tmpdir(), "tb-chromium-"));
-  const context = await chromium.launchPersistentContext(profile, {
-    executablePath: process.env.CHROMIUM_PATH ?? "/usr/bin/chromium",
-    headless: true,
-    viewport,
-    acceptDownloads: true,
-    args: ["--headless", "--no-sandbox", "--disable-gpu", "--disable-quic", "--no-first-run",
-      "--disable-background-networking", "--disable-component-update", "--disable-sync"],
-  });
-  const page = context.pages()[0] ?? (await context.newPage());
+  shared ??= {
+    browser: chromium.launch({
+      executablePath: process.env.CHROMIUM_PATH ?? "/usr/bin/chromium",
+      headless: true,
+      args: ["--no-sandbox", "--disable-gpu", "--disable-quic", "--no-first-run", "--disable-background-networking", "--disable-component-update", "--disable-sync"],
+    }),
+    sessions: 0,
+  };
+  const mine = shared;
+  mine.sessions++;
+  const browser = await mine.browser;
+  const context = await browser.newContext({ viewport, acceptDownloads: true });
+  const page = await context.newPage();
+  let closed = false;
   return {
     context,
     page,
     close: async () => {
+      if (closed) return;
+      closed = true;
       await context.close();
-      rmSync(profile, { recursive: true, force: true });
+      if (--mine.sessions === 0) {
+        if (shared === mine) shared = undefined;
+        await browser.close();
+      }
     },
   };
 }
