@@ -18,6 +18,8 @@ export interface RateLimiterOptions {
   key?: (req: Request) => string;
   /** Count only failed requests (status >= 400), e.g. for sign-in. */
   skipSuccessfulRequests?: boolean;
+  /** Who is counted, for the message (default "from this address"). */
+  whom?: string;
 }
 
 const stores: MemoryStore[] = [];
@@ -39,15 +41,31 @@ export function createRateLimiter(opts: RateLimiterOptions): RequestHandler {
       const minutes = Math.max(1, Math.round(windowMs / 60000));
       res.status(o.statusCode).json({
         code: "rate_limited",
-        message: `Too many ${opts.what} from this address. Wait up to ${minutes} minute${minutes === 1 ? "" : "s"} and try again.`,
+        message: `Too many ${opts.what} ${opts.whom ?? "from this address"}. Wait up to ${minutes} minute${minutes === 1 ? "" : "s"} and try again.`,
       });
     },
   };
   return rateLimit(options);
 }
 
-/** Sign-in attempts per IP: only failed attempts count (`TB_AUTH_RATE_LIMIT` per 15 minutes). */
-export const signInRateLimit = createRateLimiter({ what: "failed sign-in attempts", limit: () => config().authRateLimit, skipSuccessfulRequests: true });
+/**
+ * Failed sign-ins are counted per account AND address together (`TB_AUTH_RATE_LIMIT` per 15 minutes), so
+ * guessing one person's password is stopped without locking out everyone else behind the same address (a
+ * campus NAT); a ceiling of ten times that per address bounds guessing across many accounts.
+ */
+export const signInRateLimit: RequestHandler[] = [
+  createRateLimiter({
+    what: "failed sign-in attempts",
+    whom: "for this account from this address",
+    limit: () => config().authRateLimit,
+    skipSuccessfulRequests: true,
+    key: (req) => {
+      const email = (req.body as { email?: unknown } | undefined)?.email;
+      return `${ipKeyGenerator(req.ip ?? "unknown")}|${typeof email === "string" ? email.trim().toLowerCase() : ""}`;
+    },
+  }),
+  createRateLimiter({ what: "failed sign-in attempts", limit: () => 10 * config().authRateLimit, skipSuccessfulRequests: true }),
+];
 /** Sign-ups per IP (`TB_AUTH_RATE_LIMIT` per 15 minutes). */
 export const signUpRateLimit = createRateLimiter({ what: "sign-ups", limit: () => config().authRateLimit });
 /** Requests that send an e-mail (password reset, new verification link) per IP. */

@@ -19,7 +19,7 @@ afterAll(async () => {
   await shutdownServerResources();
 });
 
-describe("rate limits on sign-in and sign-up (TB_AUTH_RATE_LIMIT=3 per IP)", () => {
+describe("rate limits on sign-in (TB_AUTH_RATE_LIMIT=3 per account and IP, 30 per IP) and sign-up (3 per IP)", () => {
   it("answers 429 after repeated failed sign-ins, with draft-8 headers, even for the right password", async () => {
     await resetRateLimits();
     const u = await createUser();
@@ -40,6 +40,26 @@ describe("rate limits on sign-in and sign-up (TB_AUTH_RATE_LIMIT=3 per IP)", () 
     expect(blocked.body.message).toMatch(/Too many failed sign-in attempts/);
     expect(blocked.headers["ratelimit"]).toMatch(/r=0/);
     expect(blocked.headers["retry-after"]).toBeDefined();
+    expect(blocked.body.message).toMatch(/for this account from this address/);
+    // Counted per account and address together: someone else behind the same address still signs in.
+    const other = await createUser();
+    const ok = await agent.post("/api/v1/auth/sign-in").set("x-csrf-token", c).send({ email: other.email.toUpperCase(), password: TEST_PASSWORD });
+    expect(ok.status).toBe(200);
+    // …and the same account in other letter case is the same account
+    const again = await agent.post("/api/v1/auth/sign-in").set("x-csrf-token", ok.body.csrfToken).send({ email: ` ${u.email.toUpperCase()}`, password: TEST_PASSWORD });
+    expect(again.status).toBe(429);
+  });
+
+  it("bounds guessing across many accounts from one address at ten times the limit", async () => {
+    await resetRateLimits();
+    const { agent, csrf } = await agentFor(app);
+    const statuses: number[] = [];
+    for (let i = 0; i < 31; i++) {
+      const r = await agent.post("/api/v1/auth/sign-in").set("x-csrf-token", csrf).send({ email: `nobody${i}@example.test`, password: "wrong-guess-00" });
+      statuses.push(r.status);
+    }
+    expect(statuses.slice(0, 30).every((s) => s === 401)).toBe(true);
+    expect(statuses[30]).toBe(429);
   });
 
   it("answers 429 after the sign-up limit", async () => {
