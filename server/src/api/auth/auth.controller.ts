@@ -64,5 +64,7 @@ export async function requestPasswordReset(req: Request, res: Response) {
 export async function confirmPasswordReset(req: Request, res: Response) {
   const { token, password } = v.validateResetConfirm(req.body);
   const user = await service.resetPassword(token, password);
-  res.json({ user: { email: user.email }, message: "Your new password is set. Sign in with it." });
+  const n = user.revokedTokens ?? 0;
+  const tokens = n ? ` Your ${n === 1 ? "personal API token was" : `${n} personal API tokens were`} revoked, since whoever knew the old password could have made ${n === 1 ? "it" : "them"}: create new ones on your account page.` : "";
+  res.json({ user: { email: user.email }, revokedTokens: n, message: `Your new password is set. Sign in with it.${tokens}` });
 }

@@ -9,7 +9,7 @@
 import { createHash, randomBytes } from "node:crypto";
 import { Op, QueryTypes, type Transaction, where, fn, col } from "sequelize";
 import { sequelize } from "../../db/sequelize";
-import { User, UserToken } from "../../models";
+import { ApiToken, User, UserToken } from "../../models";
 import type { UserTokenPurpose } from "../../models/user-token.model";
 import { ApiError } from "../../lib/api-error";
 import { hashPassword, verifyPassword } from "../../lib/passwords";
@@ -128,9 +128,10 @@ export async function requestPasswordReset(email: string): Promise<void> {
 
 /**
  * Sets the new password, uses up this link and every other open reset link of the account, confirms the
- * address (the person just proved they read its mail) and ends all the account's sessions.
+ * address (the person just proved they read its mail), ends all the account's sessions and revokes its
+ * personal API tokens (whoever knew the old password may have made one); says how many were revoked.
  */
-export async function resetPassword(raw: string, password: string): Promise<User> {
+export async function resetPassword(raw: string, password: string): Promise<User & { revokedTokens?: number }> {
   const passwordHash = await hashPassword(password);
   return sequelize().transaction(async (t) => {
     const token = await takeLinkToken(raw, "reset-password", t);
@@ -143,7 +144,8 @@ export async function resetPassword(raw: string, password: string): Promise<User
     await user.save({ transaction: t });
     await audit({ actorId: user.id, action: "user.password_reset", entityType: "user", entityId: user.id }, t);
     await endSessions(user.id, undefined, t);
-    return user;
+    const [revoked] = await ApiToken.update({ revokedAt: now }, { where: { userId: user.id, revokedAt: { [Op.is]: null } }, transaction: t });
+    return Object.assign(user, { revokedTokens: revoked });
   });
 }
 

@@ -216,8 +216,16 @@ describe("password reset", () => {
     const weak = await agent.post("/api/v1/auth/password-reset/confirm").set("x-csrf-token", csrf).send({ token, password: "short" });
     expect(weak.status).toBe(422);
 
+    const made = await other.agent.post("/api/v1/tokens").set("x-csrf-token", other.csrf).send({ name: "script" });
+    expect(made.status).toBe(201);
+    const bearer = { Authorization: `Bearer ${made.body.secret as string}` };
+    expect((await request(app).get("/api/v1/account").set(bearer)).status).toBe(200);
     const ok = await agent.post("/api/v1/auth/password-reset/confirm").set("x-csrf-token", csrf).send({ token, password: "new-heathland-pass-7" });
     expect(ok.status).toBe(200);
+    // The account's API tokens are revoked too, and the answer says so.
+    expect(ok.body.revokedTokens).toBe(1);
+    expect(ok.body.message).toMatch(/personal API token was revoked/);
+    expect((await request(app).get("/api/v1/account").set(bearer)).status).toBe(401);
     const fresh = await User.findByPk(u.id);
     expect(await verifyPassword("new-heathland-pass-7", fresh!.passwordHash)).toBe(true);
     expect(fresh!.emailVerifiedAt).not.toBeNull();
