@@ -3,13 +3,19 @@ import { defineConfig } from "vitest/config";
 
 /**
  * Three projects: `unit` (pure code: engine, shared, client utils), `server` (integration tests against
- * the real PostgreSQL started by scripts/test.sh; files run one at a time on one database) and `e2e`
- * (Chromium via playwright-core against the built client).
+ * the real PostgreSQL started by scripts/test.sh) and `e2e` (Chromium via playwright-core against the
+ * built client). Files run in `maxWorkers` workers, one file per worker at a time, each worker on a
+ * database of its own (tests/setup/workers.ts). One worker unless TB_TEST_WORKERS asks for more (2 lets a
+ * 2-core machine run a file while another waits on its server, PostgreSQL or Chromium; see BENCHMARKS.md,
+ * "npm test"). All projects need the same `maxWorkers` to share one group of workers.
  */
+const maxWorkers = Number(process.env.TB_TEST_WORKERS) || 1;
+
 export default defineConfig({
   // `@shared/…` is shared/, as in tsconfig.json "paths" and vite.config.ts; each project extends this.
   resolve: { alias: [{ find: /^@shared\//, replacement: fileURLToPath(new URL("./shared/", import.meta.url)) }] },
   test: {
+    maxWorkers,
     projects: [
       {
         extends: true,
@@ -17,6 +23,7 @@ export default defineConfig({
           name: "unit",
           include: ["tests/shared/**/*.test.ts", "tests/client/**/*.test.ts", "tests/scripts/**/*.test.ts"],
           environment: "node",
+          maxWorkers,
           testTimeout: 60_000,
         },
       },
@@ -27,7 +34,8 @@ export default defineConfig({
           include: ["tests/server/**/*.test.ts"],
           environment: "node",
           globalSetup: ["tests/setup/global-db.ts"],
-          fileParallelism: false,
+          setupFiles: ["tests/setup/worker-db.ts"],
+          maxWorkers,
           testTimeout: 60_000,
           hookTimeout: 60_000,
         },
@@ -39,7 +47,8 @@ export default defineConfig({
           include: ["tests/e2e/**/*.test.ts"],
           environment: "node",
           globalSetup: ["tests/setup/global-db.ts"],
-          fileParallelism: false,
+          setupFiles: ["tests/setup/worker-db.ts"],
+          maxWorkers,
           testTimeout: 120_000,
           hookTimeout: 120_000,
           // expect.poll waits like a locator does (15 s), not vitest's 1 s default: an upload is parsed in a
