@@ -313,6 +313,15 @@ describe("bundle contents", () => {
     expect(big2.body.code).toBe("bundle_too_large");
   });
 
+  it("refuses unknown filter keys by name (400) instead of selecting the whole catalogue", async () => {
+    const est = await request(app).post("/api/v1/bundles/estimate").send({ filter: { contry: "NO" } });
+    expect(est.status).toBe(400);
+    expect(est.body.details).toEqual([expect.objectContaining({ path: "contry", message: expect.stringMatching(/Unknown parameter "contry"/) })]);
+    const get = await request(app).get("/api/v1/bundles").query({ interactiontype: "pollination" });
+    expect(get.status).toBe(400);
+    expect(get.body.details[0].path).toBe("interactiontype");
+  });
+
   it("estimates count and size before download", async () => {
     const agent = request.agent(app);
     const s = await agent.get("/api/v1/auth/session");
