@@ -12,6 +12,24 @@
 
 export type CsvDelimiter = "," | "\t" | ";";
 
+/**
+ * Text that spreadsheet programs may read as a formula when a CSV file is opened in them: it begins with
+ * "=", "+", "-" or "@", or with a tab or carriage return before one of those (OWASP, "CSV Injection").
+ * Tanglebank keeps labels exactly as deposited; the parser warns about such labels and the network CSV
+ * can be downloaded in a spreadsheet-safe form (`spreadsheetSafe`).
+ */
+export function looksLikeFormula(s: string): boolean {
+  return /^[\t\r]*[=+\-@]/.test(s);
+}
+
+/**
+ * A label as written in a spreadsheet-safe CSV file: formula-like text gets a leading apostrophe, which
+ * spreadsheet programs read as "this cell is text" and do not show. Any other text is unchanged.
+ */
+export function spreadsheetSafe(s: string): string {
+  return looksLikeFormula(s) ? `'${s}` : s;
+}
+
 export interface CsvTextOptions {
   delimiter?: CsvDelimiter;
   /** Line ending (default "\n"; spreadsheet-facing files use "\r\n"). Every line ends with it, the last too. */

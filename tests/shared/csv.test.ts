@@ -5,7 +5,8 @@
  */
 import { describe, expect, it } from "vitest";
 import { parse } from "csv-parse/sync";
-import { csvCell, csvLine, csvText, needsQuotes, quoteField, type CsvDelimiter } from "@shared/csv";
+import { csvCell, csvLine, csvText, looksLikeFormula, needsQuotes, quoteField, spreadsheetSafe, type CsvDelimiter } from "@shared/csv";
+import { networkToEdgeListCsv, networkToMatrixCsv, parseNetworkText } from "@shared/network/index";
 
 const PIECES = ["a", "Bombus", ",", '"', "\n", "\r", " ", "\t", "\v", "\f", "\u00a0", "\u1680", "\u2003", "\u2028", "\u2029", "\u202f", "\u205f", "\u3000", "\ufeff", "\u0085", "\u200b", "é", "鳥", ";", "'"];
 
@@ -50,5 +51,32 @@ describe("shared/csv", () => {
         expect(back).toEqual(rows);
       }
     }
+  });
+});
+
+describe("formula-like labels (OWASP 'CSV Injection': cells beginning with =, +, -, @, or tab/CR before them)", () => {
+  const FORMULAS = ["=cmd|' /C calc'!A0", "@SUM(A1:A2)", "+Bombus", "-Andrena", "\t=1+1", "\r@x"];
+  const PLAIN = ["Bombus", "a=b", "x@y", "'=quoted", " =leading space", "", "Ändern"];
+
+  it("are recognised, and only they", () => {
+    for (const s of FORMULAS) expect(looksLikeFormula(s), JSON.stringify(s)).toBe(true);
+    for (const s of PLAIN) expect(looksLikeFormula(s), JSON.stringify(s)).toBe(false);
+  });
+
+  it("are kept exact by the parser (with a warning) and by the default writers, and get a leading apostrophe only in the spreadsheet-safe form", () => {
+    const text = ["node,=cmd|' /C calc'!A0,Apis", "@SUM(A1:A2),1,0", "Bombus,0,2", "-Andrena,1,1"].join("\n") + "\n";
+    const { network, warnings } = parseNetworkText(text, { fileName: "f.csv", kind: "bipartite" });
+    const w = warnings.find((x) => x.code === "formula-like-labels");
+    expect(w?.count).toBe(3);
+    expect(w?.labels?.sort()).toEqual(["-Andrena", "=cmd|' /C calc'!A0", "@SUM(A1:A2)"]);
+    expect(parse(networkToMatrixCsv(network))).toEqual(parse(text));
+    const safe = parse(networkToMatrixCsv(network, { spreadsheetSafe: true })) as string[][];
+    expect(safe[0]).toEqual(["node", "'=cmd|' /C calc'!A0", "Apis"]);
+    expect(safe.map((r) => r[0])).toEqual(["node", "'@SUM(A1:A2)", "Bombus", "'-Andrena"]);
+    // the cells are those of the exact file
+    expect(safe.slice(1).map((r) => r.slice(1))).toEqual((parse(text) as string[][]).slice(1).map((r) => r.slice(1)));
+    const edges = parse(networkToEdgeListCsv(network, { spreadsheetSafe: true })) as string[][];
+    expect(edges.flat().filter((c) => looksLikeFormula(c))).toEqual([]);
+    expect(spreadsheetSafe("Bombus")).toBe("Bombus");
   });
 });

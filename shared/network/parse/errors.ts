@@ -94,6 +94,8 @@ export type ParseWarningCode =
   | "missing-values"
   /** A one-mode edge list whose sources and targets are two disjoint sets of names. */
   | "two-mode"
+  /** Labels beginning like a spreadsheet formula ("=", "+", "-", "@"); kept exactly as written. */
+  | "formula-like-labels"
   /** The file's content is of another type than its name says (e.g. a workbook named .csv). */
   | "file-type";
 

@@ -55,6 +55,7 @@ import type { Network, NetworkKind } from "../types";
 import { NetworkParseError, listLabels, type ParseWarning } from "./errors";
 import { decodeUtf8, delimiterName, detectDelimiter, parseCellNumber, utf8Length } from "./text";
 import { detectSignature, signatureAdvice, zipDeclaredSize } from "./signature";
+import { looksLikeFormula } from "../../csv";
 
 export type NetworkFileFormat = "matrix" | "edgelist";
 
@@ -831,7 +832,17 @@ class RecordSink {
     });
   }
 
+  private warnFormulaLike(labels: string[]): void {
+    const found = labels.filter(looksLikeFormula);
+    if (found.length === 0) return;
+    this.warnings.push({
+      code: "formula-like-labels", file: this.file, row: null, column: null, count: found.length, labels: found,
+      message: `${found.length} label(s) begin like a spreadsheet formula ("=", "+", "-" or "@"): ${listLabels(found)}. They are kept exactly as written; a spreadsheet program may run them as formulas when a CSV file is opened in it, so the network's CSV download offers a spreadsheet-safe form (a leading apostrophe)`,
+    });
+  }
+
   private makeNetwork(rowPtr: Uint32Array, colIdx: Uint32Array, weights: Float64Array, colLabels: string[]): Network {
+    this.warnFormulaLike(this.kind === "bipartite" ? [...this.rowLabels, ...colLabels] : this.rowLabels);
     let weighted = false;
     for (let p = 0; p < weights.length; p++) if (weights[p] !== 1) { weighted = true; break; }
     return {

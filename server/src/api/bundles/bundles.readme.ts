@@ -111,6 +111,10 @@ MATRIX CSV (the same in this bundle and in the API's data.csv)
   are in each network (e.g. plants and pollinators, hosts and parasitoids) is in networks.csv, columns
   row_nodes and column_nodes. One-mode networks (food webs): a square matrix with the same nodes as rows
   and columns, a link going from the row node to the column node; an undirected network is symmetric.
+  Labels are exactly as deposited. A label that begins like a spreadsheet formula (=, +, -, @) may be run
+  as one if a CSV file is opened in a spreadsheet program: import the files as text (or read them with a
+  script), or download a network's CSV with spreadsheetSafe=true, which writes such labels with a leading
+  apostrophe and leaves everything else unchanged.
 ${
   r.compression === "fast"
     ? `

@@ -6,7 +6,7 @@
  * |-------------------------------------------------|--------------------|---------------------------------|
  * | GET /                                           | anyone             | catalogue page (see /catalogue) |
  * | GET /:accession/:version/:position              | anyone (published) | NetworkJson (`?format=csv` CSV; `?include=data` labels and links) |
- * | GET /:accession/:version/:position/data.csv     | anyone (published) | CSV (`?layout=matrix|edgelist`) |
+ * | GET /:accession/:version/:position/data.csv     | anyone (published) | CSV (`?layout=matrix|edgelist`, `&spreadsheetSafe=true`) |
  * | GET /:accession/:version/:position/data.json    | anyone (published) | NetworkJson with data           |
  * | GET /:accession/:version/:position/metrics      | anyone (published) | `{ ref, metrics }`              |
  * Unpublished versions: owner and curators only (404 for others); withdrawn → 410.
@@ -34,9 +34,17 @@ function layoutOf(req: Request): "matrix" | "edgelist" {
   throw ApiError.badRequest(`layout must be matrix or edgelist, got "${String(l)}".`, [{ path: "layout", message: "must be matrix or edgelist" }]);
 }
 
+/** `spreadsheetSafe=true`: formula-like labels get a leading apostrophe (the data are otherwise exact). */
+function spreadsheetSafeOf(req: Request): boolean {
+  const v = req.query.spreadsheetSafe;
+  if (v === undefined || v === "false") return false;
+  if (v === "true") return true;
+  throw ApiError.badRequest(`spreadsheetSafe must be true or false, got "${String(v)}".`, [{ path: "spreadsheetSafe", message: "must be true or false" }]);
+}
+
 async function sendCsv(req: Request, res: Response) {
   // the network is checked and its size computed before anything is sent (a damaged one is an error answer)
-  const { ref, bytes, pieces } = await getNetworkCsv(req.params as unknown as NetworkRefParams, req.user, layoutOf(req));
+  const { ref, bytes, pieces } = await getNetworkCsv(req.params as unknown as NetworkRefParams, req.user, layoutOf(req), spreadsheetSafeOf(req));
   res.type("text/csv; charset=utf-8");
   res.set("Content-Disposition", `inline; filename="${ref.replace(/\//g, "_")}.csv"`);
   res.set("Content-Length", String(bytes));

@@ -4,7 +4,7 @@
  * everywhere: published for everyone, withdrawn → 410, unpublished only for the owner and curators.
  */
 import type { NetworkMetadata, NetworkMetricsSummary } from "@shared/types/dataset";
-import { deserializeNetwork, networkToEdgeListCsv } from "@shared/network";
+import { deserializeNetwork, networkToEdgeListCsv, networkToMatrixCsv } from "@shared/network";
 import { MatrixCsvError, matrixCsvPieces } from "../../lib/matrix-csv";
 import { logger } from "../../lib/logger";
 import { publicLocality } from "../../lib/public-locality";
@@ -106,11 +106,18 @@ export async function getNetworkJson(p: NetworkRefParams, user: AuthUser | undef
  * A network as CSV, in pieces: the edge list (as long as the links) at once, the matrix (rows × columns
  * cells, 800 MB for a 20,000-node network) row by row, the same bytes as the engine's networkToMatrixCsv.
  */
-export async function getNetworkCsv(p: NetworkRefParams, user: AuthUser | undefined, layout: "matrix" | "edgelist"): Promise<{ ref: string; bytes: number; pieces: Iterable<Buffer> }> {
+export async function getNetworkCsv(
+  p: NetworkRefParams,
+  user: AuthUser | undefined,
+  layout: "matrix" | "edgelist",
+  spreadsheetSafe = false,
+): Promise<{ ref: string; bytes: number; pieces: Iterable<Buffer> }> {
   const { network, ref } = await findNetwork(p, user, true);
   try {
-    if (layout === "edgelist") {
-      const csv = Buffer.from(networkToEdgeListCsv(deserializeNetwork(network.canonical)), "utf8");
+    if (layout === "edgelist" || spreadsheetSafe) {
+      // the spreadsheet-safe form changes labels, so it is written afresh (not the stored exact bytes)
+      const net = deserializeNetwork(network.canonical);
+      const csv = Buffer.from(layout === "edgelist" ? networkToEdgeListCsv(net, { spreadsheetSafe }) : networkToMatrixCsv(net, { spreadsheetSafe }), "utf8");
       return { ref, bytes: csv.length, pieces: [csv] };
     }
     return { ref, ...matrixCsvPieces(network.canonical) };

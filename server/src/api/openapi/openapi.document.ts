@@ -332,7 +332,13 @@ export function openapiDocument(): Json {
           tags: ["Networks"],
           operationId: "getNetworkCsv",
           summary: "The network as CSV: a matrix (header's first cell 'node', then the column nodes; one line per row node) or an edge list",
-          parameters: [...NETWORK_REF_PARAMS, queryParam("layout", "matrix (default, keeps isolated nodes) or edgelist", { type: "string", enum: ["matrix", "edgelist"] })],
+          description:
+            "Labels are exactly as deposited. A label that begins like a spreadsheet formula (=, +, -, @) may be run as one when the file is opened in a spreadsheet program; `spreadsheetSafe=true` writes such labels with a leading apostrophe (read as text by spreadsheet programs), everything else unchanged. Scripts should read the exact form.",
+          parameters: [
+            ...NETWORK_REF_PARAMS,
+            queryParam("layout", "matrix (default, keeps isolated nodes) or edgelist", { type: "string", enum: ["matrix", "edgelist"] }),
+            queryParam("spreadsheetSafe", "true: formula-like labels get a leading apostrophe for spreadsheet programs (default false: exact labels)", { type: "string", enum: ["true", "false"] }),
+          ],
           responses: { 200: { description: "CSV", content: { "text/csv": { schema: { type: "string" } } } }, 404: error("Not found"), 410: error("Withdrawn") },
         },
       },

@@ -29,6 +29,23 @@ beforeAll(async () => {
 afterAll(shutdownServerResources);
 
 describe("network by reference", () => {
+  it("keeps formula-like labels exact, and writes them with a leading apostrophe when asked for the spreadsheet-safe form", async () => {
+    const fx = await publishDataset({ networks: [{ seed: 21, rows: 3, cols: 4, rowLabels: ["=HYPERLINK(1)", "@SUM(A1)", "Bombus"] }] });
+    const exact = await request(app).get(`/api/v1/networks/${fx.accession}/v1/1/data.csv`);
+    expect(exact.text.split("\n").slice(1, 3).map((l) => l.split(",")[0])).toEqual(["=HYPERLINK(1)", "@SUM(A1)"]);
+    const safe = await request(app).get(`/api/v1/networks/${fx.accession}/v1/1/data.csv`).query({ spreadsheetSafe: "true" });
+    expect(safe.status).toBe(200);
+    const safeRows = safe.text.split("\n").slice(1, 4).map((l) => l.split(","));
+    expect(safeRows.map((r) => r[0])).toEqual(["'=HYPERLINK(1)", "'@SUM(A1)", "Bombus"]);
+    // only the labels change: the cells are those of the exact file
+    expect(safeRows.map((r) => r.slice(1))).toEqual(exact.text.split("\n").slice(1, 4).map((l) => l.split(",").slice(1)));
+    const edges = await request(app).get(`/api/v1/networks/${fx.accession}/v1/1/data.csv`).query({ layout: "edgelist", spreadsheetSafe: "true" });
+    expect(edges.text).not.toMatch(/(^|\n)[=@]/);
+    const bad = await request(app).get(`/api/v1/networks/${fx.accession}/v1/1/data.csv`).query({ spreadsheetSafe: "yes" });
+    expect(bad.status).toBe(400);
+    expect(bad.body.details[0]).toMatchObject({ path: "spreadsheetSafe" });
+  });
+
   it("answers JSON with public coordinates, counts and current metrics; ?include=data adds the links", async () => {
     const res = await request(app).get(`/api/v1/networks/${pub.accession}/v1/1`);
     expect(res.status).toBe(200);
