@@ -5,11 +5,12 @@ import { defineConfig } from "vitest/config";
  * Three projects: `unit` (pure code: engine, shared, client utils), `server` (integration tests against
  * the real PostgreSQL started by scripts/test.sh) and `e2e` (Chromium via playwright-core against the
  * built client). Files run in `maxWorkers` workers, one file per worker at a time, each worker on a
- * database of its own (tests/setup/workers.ts). One worker unless TB_TEST_WORKERS asks for more (2 lets a
- * 2-core machine run a file while another waits on its server, PostgreSQL or Chromium; see BENCHMARKS.md,
- * "npm test"). All projects need the same `maxWorkers` to share one group of workers.
+ * database of its own (tests/setup/workers.ts). Two workers unless TB_TEST_WORKERS says otherwise: on this
+ * 2-core machine a file runs while another waits on its server, PostgreSQL or Chromium (BENCHMARKS.md,
+ * "npm test": a quiet full run passed with 2 and with 3 workers). All projects need the same `maxWorkers`
+ * to share one group of workers.
  */
-const maxWorkers = Number(process.env.TB_TEST_WORKERS) || 1;
+const maxWorkers = Number(process.env.TB_TEST_WORKERS) || 2;
 
 export default defineConfig({
   // `@shared/…` is shared/, as in tsconfig.json "paths" and vite.config.ts; each project extends this.
