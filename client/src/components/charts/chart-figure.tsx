@@ -22,10 +22,10 @@ export interface DataTableSpec {
 function ImageDownloads({ body, caption, name, title, svgOf }: { body: React.RefObject<HTMLDivElement | null>; caption: React.RefObject<HTMLElement | null>; name: string; title: string; svgOf?: () => SvgFile | null }) {
   const [error, setError] = useState<string | null>(null);
   const file = (): SvgFile | null => {
-    const own = svgOf?.();
+    // a canvas chart gives its own SVG (null while it is still being drawn); never another SVG of the figure
     const el = body.current;
-    const svg = (el?.querySelector("svg[role='img']") ?? el?.querySelector("svg")) as SVGSVGElement | null;
-    const chart = own ?? (svg ? { text: serializeSvg(svg), ...svgSize(svg) } : null);
+    const svg = svgOf ? null : ((el?.querySelector("svg[role='img']") ?? el?.querySelector("svg")) as SVGSVGElement | null);
+    const chart = svgOf ? svgOf() : svg ? { text: serializeSvg(svg), ...svgSize(svg) } : null;
     return chart ? figureSvg(chart, title, caption.current?.textContent ?? "") : null;
   };
   const png = async () => {
