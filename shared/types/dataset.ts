@@ -3,6 +3,8 @@
  * Field names of the metadata follow the JSON Schemas in /schemas (study.schema.json, network.schema.json),
  * which say for each property which open-standard term it follows (DataCite, Darwin Core, schema.org).
  */
+import type { NullSummary } from "../network/significance";
+
 export type VersionState = "draft" | "submitted" | "changes_requested" | "published" | "declined" | "withdrawn";
 export type Licence = "CC0-1.0" | "CC-BY-4.0";
 export type InteractionType = "pollination" | "seed-dispersal" | "host-parasitoid" | "predator-prey" | "herbivory" | "other";
@@ -79,28 +81,16 @@ export interface MissingValuesRecord {
 
 export type MetricsStatus = "none" | "queued" | "running" | "succeeded" | "failed";
 
-/** The significance figures of one null model (every z, Q_rel, ΔQ and p travels with its model's name). */
-export interface NullFigureSummary {
+/**
+ * The significance figures of one null model (every z, Q_rel, ΔQ and p travels with its model's name): the
+ * engine's summary of the null replicates (n, mean, sd, z and its Monte Carlo error, Q_rel, ΔQ, p and its
+ * error, whether p is at its floor 1/(n + 1), instability) with the model and the NODF of the same nulls.
+ */
+export interface NullFigureSummary extends NullSummary {
   /** Engine name of the null model (shared/network/null-models: NULL_MODEL_INFO has its title and what it keeps). */
   model: string;
   /** The primary null of the network's kind (the figure shown first). */
   primary: boolean;
-  /** Null replicates behind the figures. */
-  n: number;
-  mean: number | null;
-  sd: number | null;
-  z: number | null;
-  /** Monte Carlo standard error of z. */
-  zSe: number | null;
-  qRel: number | null;
-  deltaQ: number | null;
-  p: number | null;
-  /** Monte Carlo standard error of p. */
-  pSe: number | null;
-  /** No null reached Q: p is the floor 1/(n + 1) and reads "p ≤". */
-  pAtFloor: boolean;
-  unstable: boolean;
-  unstableReason?: string;
   /** NODF of the same null networks: their mean, the observed NODF's z and p (nulls at least as nested). */
   nodfMean: number | null;
   nodfZ: number | null;

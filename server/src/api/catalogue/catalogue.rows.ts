@@ -8,22 +8,13 @@
 import { QueryTypes, type Transaction } from "sequelize";
 import { sequelize } from "../../db/sequelize";
 import { publicCoordinates } from "./catalogue.coordinates";
+import type { NullFigureSummary } from "@shared/types/dataset";
 import { NOT_RECORDED, notRecordedList, notRecordedText, type NotRecordedField } from "@shared/validation/not-recorded";
 import { getPipelineSettings, settingsHash } from "../../pipeline/settings";
 import { readNullFigures } from "../../pipeline/null-figures";
 
-/** One null model's figures of a catalogue network. */
-export interface CatalogueNullFigures {
-  n: number;
-  mean: number | null;
-  sd: number | null;
-  z: number | null;
-  zSe: number | null;
-  qRel: number | null;
-  deltaQ: number | null;
-  p: number | null;
-  pAtFloor: boolean;
-}
+/** One null model's figures of a catalogue network: the part of the dataset page's figures a row carries. */
+export type CatalogueNullFigures = Pick<NullFigureSummary, "n" | "mean" | "sd" | "z" | "zSe" | "qRel" | "deltaQ" | "p" | "pAtFloor">;
 
 export interface CatalogueEntry {
   networkId: number;
