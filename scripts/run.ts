@@ -12,7 +12,7 @@ import { config, resetConfig } from "../server/src/config/env";
 import { resetMailer } from "../server/src/emails/mailer";
 import { migrateUp } from "../server/src/db/migrator";
 import { waitForDatabase } from "../server/src/db/sequelize";
-import { isDatabaseUnavailable } from "../server/src/lib/db-errors";
+import { runUntilSignalled } from "../server/src/lib/process-run";
 import { installProcessGuards } from "../server/src/lib/process-guards";
 import { initModels } from "../server/src/models";
 import { DEMO_ACCOUNTS, seedDemoAccounts } from "../server/src/db/seeders/demo-accounts";
@@ -26,7 +26,6 @@ import { OrcidStandIn } from "../server/src/lib/orcid/stand-in";
 import { CALLBACK_PATH as ORCID_CALLBACK_PATH } from "../server/src/api/auth/orcid.service";
 
 const say = (msg: string) => console.log(`\x1b[1;32m[tanglebank]\x1b[0m ${msg}`);
-const EXIT_CANNOT_RESTART = 78;
 
 async function main(): Promise<() => Promise<void>> {
   const cfg = config();
@@ -94,22 +93,6 @@ ${DEMO_ACCOUNTS.map((a) => `    ${a.role.padEnd(10)} ${a.email.padEnd(32)} ${a.d
   };
 }
 
-let stopping = false;
-let shutdown: (() => Promise<void>) | undefined;
-async function stop(signal: string) {
-  if (stopping) return;
-  stopping = true;
-  say(`${signal}: stopping…`);
-  await shutdown?.();
-  process.exit(0);
-}
-process.on("SIGINT", () => void stop("SIGINT"));
-process.on("SIGTERM", () => void stop("SIGTERM"));
-
-try {
-  shutdown = await main();
-} catch (err) {
-  const unreachable = isDatabaseUnavailable(err);
-  console.error(`\x1b[1;31m[tanglebank]\x1b[0m The server could not start: ${err instanceof Error ? err.message : String(err)}`);
-  process.exit(unreachable ? 1 : EXIT_CANNOT_RESTART);
-}
+await runUntilSignalled(main, say, (err) =>
+  console.error(`\x1b[1;31m[tanglebank]\x1b[0m The server could not start: ${err instanceof Error ? err.message : String(err)}`),
+);

@@ -9,8 +9,8 @@
  * again); 78 for a failure a restart cannot cure (a bad setting, a port in use, a failed migration).
  */
 import { config } from "./config/env";
+import { EXIT_CANNOT_RESTART, runUntilSignalled } from "./lib/process-run";
 
-const EXIT_CANNOT_RESTART = 78;
 const say = (msg: string) => console.log(`[tanglebank] ${msg}`);
 const fail = (err: unknown) => `The server could not start: ${err instanceof Error ? err.message : String(err)}`;
 
@@ -21,8 +21,6 @@ try {
   console.error(`[tanglebank] ${fail(err)}`);
   process.exit(EXIT_CANNOT_RESTART);
 }
-
-const { isDatabaseUnavailable } = await import("./lib/db-errors");
 
 async function main(): Promise<() => Promise<void>> {
   const { installProcessGuards } = await import("./lib/process-guards");
@@ -48,21 +46,4 @@ async function main(): Promise<() => Promise<void>> {
   };
 }
 
-let stopping = false;
-let shutdown: (() => Promise<void>) | undefined;
-async function stop(signal: string) {
-  if (stopping) return;
-  stopping = true;
-  say(`${signal}: stopping…`);
-  await shutdown?.();
-  process.exit(0);
-}
-process.on("SIGINT", () => void stop("SIGINT"));
-process.on("SIGTERM", () => void stop("SIGTERM"));
-
-try {
-  shutdown = await main();
-} catch (err) {
-  console.error(`[tanglebank] ${fail(err)}`);
-  process.exit(isDatabaseUnavailable(err) ? 1 : EXIT_CANNOT_RESTART);
-}
+await runUntilSignalled(main, say, (err) => console.error(`[tanglebank] ${fail(err)}`));
