@@ -10,7 +10,8 @@
  * - Problems answer with the project's one error shape, every field named in `details` (query and
  *   parameters by name, the body by JSON pointer): 400 by default (`bodyStatus` may say 422 for a body
  *   whose fields are refused); a path parameter that cannot be an id answers 404 "No such <title>."
- *   (there is no such thing to find), as a missing record would.
+ *   (there is no such thing to find), as a missing record would, saying what a good one looks like when
+ *   the parameter's schema has a `form`.
  */
 import type { RequestHandler } from "express";
 import { Ajv2020 } from "ajv/dist/2020.js";
@@ -22,6 +23,8 @@ export interface FieldSchema {
   /** What the field is, for people (the OpenAPI description; a path parameter's `title` names the thing in a 404). */
   description?: string;
   title?: string;
+  /** A path parameter's form in words, for its 404 ("accessions look like TB-000042"): "No such dataset "x": accessions look like TB-000042." */
+  form?: string;
   enum?: readonly unknown[];
   minimum?: number;
   maximum?: number;
@@ -126,8 +129,11 @@ export function validate(schema: RequestSchema): RequestHandler {
       const p: Record<string, unknown> = { ...req.params };
       if (!params(p)) {
         const field = (params.errors ?? []).map((e) => e.instancePath.split("/")[1]).find(Boolean);
-        const what = (field && schema.params.properties[field]?.title) || field || "resource";
-        throw ApiError.notFound(`No such ${what}.`);
+        const s = field ? schema.params.properties[field] : undefined;
+        const what = s?.title || field || "resource";
+        const raw = field ? String(req.params[field] ?? "") : "";
+        const quoted = `"${raw.length > 40 ? `${raw.slice(0, 40)}…` : raw}"`;
+        throw ApiError.notFound(s?.form ? `No such ${what} ${quoted}: ${s.form}${/[.…]$/.test(s.form) ? "" : "."}` : `No such ${what}.`);
       }
       Object.defineProperty(req, "params", { value: p, writable: true, configurable: true, enumerable: true });
     }

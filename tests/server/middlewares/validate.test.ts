@@ -10,12 +10,16 @@ import { validate } from "../../../server/src/middlewares/validate";
 import { errorHandler } from "../../../server/src/middlewares/error-handler";
 import { userListSchema } from "../../../server/src/api/users/users.schemas";
 import { createTokenSchema, revokeTokenSchema } from "../../../server/src/api/tokens/tokens.schemas";
+import { datasetSchema, networkFileSchema, withdrawSchema } from "../../../server/src/api/datasets/datasets.schemas";
 
 const app = express();
 app.use(express.json());
 app.get("/users", validate(userListSchema), (req, res) => void res.json({ query: req.query }));
 app.post("/tokens", validate(createTokenSchema), (req, res) => void res.json({ body: req.body }));
 app.delete("/tokens/:id", validate(revokeTokenSchema), (req, res) => void res.json({ params: req.params }));
+app.get("/datasets/:accession", validate(datasetSchema), (req, res) => void res.json({ params: req.params, query: req.query }));
+app.get("/datasets/:accession/versions/:n/networks/:pos/file", validate(networkFileSchema), (req, res) => void res.json({ params: req.params }));
+app.post("/datasets/:accession/withdraw", validate(withdrawSchema), (req, res) => void res.json({ body: req.body }));
 app.use(errorHandler);
 
 describe("validate(schema)", () => {
@@ -62,5 +66,34 @@ describe("validate(schema)", () => {
     }
     const res = await request(app).delete("/tokens/12");
     expect(res.body.params).toEqual({ id: 12 });
+  });
+
+  it("answers a malformed address with a 404 that quotes it and says what a good one looks like", async () => {
+    const acc = await request(app).get("/datasets/TB-42");
+    expect(acc.status).toBe(404);
+    expect(acc.body).toEqual({ code: "not_found", message: 'No such dataset "TB-42": accessions look like TB-000042.' });
+    const pos = await request(app).get("/datasets/TB-000042/versions/1/networks/0/file");
+    expect(pos.body.message).toBe('No such network "0": networks are numbered 1, 2, …');
+    const ver = await request(app).get("/datasets/TB-000042/versions/v1/networks/1/file");
+    expect(ver.body.message).toBe('No such version "v1": versions are numbered 1, 2, …');
+    const ok = await request(app).get("/datasets/TB-000042/versions/2/networks/3/file");
+    expect(ok.body.params).toEqual({ accession: "TB-000042", n: 2, pos: 3 });
+  });
+
+  it("refuses a query version that is not a version number with a 400 naming it, and passes a good one as a number", async () => {
+    const bad = await request(app).get("/datasets/TB-000042").query({ version: "latest" });
+    expect(bad.status).toBe(400);
+    expect(bad.body.details).toEqual([{ path: "version", message: "version must be a whole number from 1 to 999999." }]);
+    const ok = await request(app).get("/datasets/TB-000042").query({ version: "2" });
+    expect(ok.body.query).toEqual({ version: 2 });
+  });
+
+  it("refuses a withdrawal without a reason (422, the field named)", async () => {
+    for (const body of [{}, { reason: "  " }, { reason: 3 }]) {
+      const res = await request(app).post("/datasets/TB-000042/withdraw").send(body);
+      expect(res.status, JSON.stringify(body)).toBe(422);
+      expect(res.body.message).toBe("A reason is required to withdraw a dataset: say why; it is shown on the tombstone page.");
+      expect(res.body.details[0].path).toBe("/reason");
+    }
   });
 });

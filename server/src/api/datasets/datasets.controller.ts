@@ -7,12 +7,6 @@ import { withdrawDataset } from "./datasets.withdrawal";
 import { originalFileType } from "../../lib/file-type";
 import { sendPublicAnswer } from "../../lib/public-answers";
 
-function positiveInt(raw: unknown, what: string): number {
-  const n = Number(raw);
-  if (!Number.isInteger(n) || n < 1) throw ApiError.notFound(`No ${what} ${String(raw)}.`);
-  return n;
-}
-
 /** The answer depends on who asks (owner and curators see exact coordinates and the contact e-mail): no shared caches. */
 function perViewer(res: Response): void {
   res.setHeader("Cache-Control", "private, no-cache");
@@ -22,8 +16,7 @@ function perViewer(res: Response): void {
 
 export async function show(req: Request, res: Response) {
   perViewer(res);
-  const v = req.query.version;
-  const number = v === undefined ? undefined : positiveInt(v, "version");
+  const number = req.query.version as unknown as number | undefined; // checked by datasetSchema
   const accession = String(req.params.accession);
   await sendPublicAnswer(req, res, accession, `dataset/${number ?? "latest"}`, () => getPublishedDetail(accession, number, req.user));
 }
@@ -31,12 +24,13 @@ export async function show(req: Request, res: Response) {
 export async function showVersion(req: Request, res: Response) {
   perViewer(res);
   const accession = String(req.params.accession);
-  const number = positiveInt(req.params.n, "version");
+  const number = req.params.n as unknown as number;
   await sendPublicAnswer(req, res, accession, `dataset/${number}`, () => getPublishedDetail(accession, number, req.user));
 }
 
 export async function networkFile(req: Request, res: Response) {
-  const f = await getPublishedNetworkFile(String(req.params.accession), positiveInt(req.params.n, "version"), positiveInt(req.params.pos, "network"));
+  const p = req.params as unknown as { accession: string; n: number; pos: number };
+  const f = await getPublishedNetworkFile(p.accession, p.n, p.pos);
   res.setHeader("Digest", `sha-256=${Buffer.from(f.sha256, "hex").toString("base64")}`);
   res.attachment(f.name).type(originalFileType(f.name, f.bytes)).send(f.bytes);
 }
@@ -47,5 +41,5 @@ export async function newVersion(req: Request, res: Response) {
 
 export async function withdraw(req: Request, res: Response) {
   if (!hasRole(req.user, "curator")) throw ApiError.forbidden("Only curators and admins withdraw datasets.");
-  res.json(await withdrawDataset(String(req.params.accession), req.user!, (req.body as { reason?: unknown } | undefined)?.reason));
+  res.json(await withdrawDataset(String(req.params.accession), req.user!, (req.body as { reason: string }).reason));
 }

@@ -13,10 +13,9 @@ import { notifyCatalogueChanged } from "../catalogue/catalogue.events";
 import { mailDepositor } from "../reviews/reviews.service";
 import type { Viewer } from "./datasets.service";
 
-/** Withdraws every published version of a dataset (curator or admin; reason required). */
-export async function withdrawDataset(accession: string, viewer: Viewer, reasonRaw: unknown): Promise<{ accession: string; reason: string; withdrawnAt: string }> {
-  const reason = typeof reasonRaw === "string" ? reasonRaw.trim() : "";
-  if (!reason) throw ApiError.unprocessable("A reason is required to withdraw a dataset.", [{ path: "/reason", message: "Say why the dataset is withdrawn; it is shown on the tombstone page." }]);
+/** Withdraws every published version of a dataset (curator or admin; the reason, checked by the route, is not blank). */
+export async function withdrawDataset(accession: string, viewer: Viewer, reasonText: string): Promise<{ accession: string; reason: string; withdrawnAt: string }> {
+  const reason = reasonText.trim();
   const result = await sequelize().transaction(async (t) => {
     const dataset = await Dataset.findOne({ where: { accession }, transaction: t, lock: t.LOCK.UPDATE });
     if (!dataset) throw ApiError.notFound(`No dataset ${accession}.`);

@@ -7,7 +7,7 @@ import type { FieldSchema, ObjectSchema, RequestSchema } from "../../middlewares
 type Json = Record<string, unknown>;
 
 function parameter(name: string, where: "path" | "query", s: FieldSchema, required: boolean): Json {
-  const { description, example, title: _title, ...schema } = s;
+  const { description, example, title: _title, form: _form, ...schema } = s;
   return { name, in: where, required, ...(description ? { description } : {}), schema, ...(example !== undefined ? { example } : {}) };
 }
 

@@ -13,6 +13,7 @@ import { CATALOGUE_PARAMS, MAX_PAGE_SIZE } from "../catalogue/catalogue.validati
 import { BUNDLE_LIMIT } from "../bundles/bundles.selection";
 import { BUNDLE_PARTS, DEFAULT_PARTS } from "../bundles/bundles.parts";
 import { createTokenSchema, revokeTokenSchema } from "../tokens/tokens.schemas";
+import { datasetSchema, datasetVersionSchema, networkFileSchema, newVersionSchema, withdrawSchema } from "../datasets/datasets.schemas";
 import { operationInput } from "./from-schemas";
 
 /** Resources used only by the web client (accounts, deposits, review, administration): not part of the public API. */
@@ -388,19 +389,19 @@ export function openapiDocument(): Json {
         get: { tags: ["Networks"], operationId: "getPartitionJson", summary: "The best partition as JSON", parameters: NETWORK_REF_PARAMS, responses: { 200: json({ type: "object" }), 404: error("Not found") } },
       },
       "/datasets/{accession}": {
-        get: { tags: ["Datasets"], operationId: "getDataset", summary: "A dataset: its latest published version (or ?version=N), networks and metrics", parameters: [pathParam("accession", "Accession", "TB-000001"), queryParam("version", "Version number", { type: "integer" })], responses: { 200: json({ type: "object", description: "DatasetDetail" }), 404: error("Not found"), 410: error("Withdrawn: the tombstone") } },
+        get: { tags: ["Datasets"], operationId: "getDataset", summary: "A dataset: its latest published version (or ?version=N), networks and metrics", ...operationInput(datasetSchema), responses: { 200: json({ type: "object", description: "DatasetDetail" }), 400: error("A parameter is not valid (details name it)"), 404: error("Not found"), 410: error("Withdrawn: the tombstone") } },
       },
       "/datasets/{accession}/versions/{n}": {
-        get: { tags: ["Datasets"], operationId: "getDatasetVersion", summary: "One version of a dataset", parameters: [pathParam("accession", "Accession", "TB-000001"), pathParam("n", "Version number", "1")], responses: { 200: json({ type: "object", description: "DatasetDetail" }), 404: error("Not found"), 410: error("Withdrawn") } },
+        get: { tags: ["Datasets"], operationId: "getDatasetVersion", summary: "One version of a dataset", ...operationInput(datasetVersionSchema), responses: { 200: json({ type: "object", description: "DatasetDetail" }), 404: error("Not found"), 410: error("Withdrawn") } },
       },
       "/datasets/{accession}/versions/{n}/networks/{pos}/file": {
-        get: { tags: ["Datasets"], operationId: "getOriginalFile", summary: "The network's file exactly as deposited", parameters: [pathParam("accession", "Accession", "TB-000001"), pathParam("n", "Version number", "1"), pathParam("pos", "Network number", "1")], responses: { 200: { description: "The original bytes" }, 404: error("Not found"), 410: error("Withdrawn") } },
+        get: { tags: ["Datasets"], operationId: "getOriginalFile", summary: "The network's file exactly as deposited", ...operationInput(networkFileSchema), responses: { 200: { description: "The original bytes" }, 404: error("Not found"), 410: error("Withdrawn") } },
       },
       "/datasets/{accession}/versions": {
-        post: { tags: ["Datasets"], operationId: "startNewVersion", summary: "Start a new version (owner): a draft copied from the latest", security: [{ session: [] }, { bearerToken: [] }], parameters: [pathParam("accession", "Accession", "TB-000001")], responses: { 201: json({ type: "object" }), 401: error("Sign in"), 403: error("Not the owner") } },
+        post: { tags: ["Datasets"], operationId: "startNewVersion", summary: "Start a new version (owner): a draft copied from the latest", security: [{ session: [] }, { bearerToken: [] }], ...operationInput(newVersionSchema), responses: { 201: json({ type: "object" }), 401: error("Sign in"), 403: error("Not the owner") } },
       },
       "/datasets/{accession}/withdraw": {
-        post: { tags: ["Datasets"], operationId: "withdrawDataset", summary: "Withdraw a published version (curators), with a reason", security: [{ session: [] }, { bearerToken: [] }], parameters: [pathParam("accession", "Accession", "TB-000001")], requestBody: { content: { "application/json": { schema: { type: "object", properties: { reason: { type: "string" } }, required: ["reason"] } } } }, responses: { 200: json({ type: "object" }), 403: error("Curators only") } },
+        post: { tags: ["Datasets"], operationId: "withdrawDataset", summary: "Withdraw a published version (curators), with a reason", security: [{ session: [] }, { bearerToken: [] }], ...operationInput(withdrawSchema), responses: { 200: json({ type: "object" }), 403: error("Curators only"), 409: error("No published version to withdraw"), 422: error("No reason given") } },
       },
       "/bundles/estimate": {
         post: {
