@@ -31,7 +31,7 @@
  * Pure: no I/O. `nullQs` lets a caller that computed the replicates elsewhere (worker threads calling
  * nullReplicateQ) pass them in; the result is then identical to computing them here.
  */
-import { basicMetrics } from "./metrics/basic";
+import { basicMetrics, type BasicMetrics } from "./metrics/basic";
 import { nodf } from "./nestedness/nodf";
 import { NetworkEngineError } from "./errors";
 import {
@@ -40,7 +40,7 @@ import {
 } from "./null-models/index";
 import { optimizeModularity, type AnnealingMode, type Convergence, DEFAULT_RESTARTS, DEFAULT_SEED } from "./optimizer/optimize";
 import type { OptimizerObjective } from "./optimizer/quality-graph";
-import { nodeRoles, ROLE_THRESHOLDS, type NodeRoleName } from "./roles/roles";
+import { nodeRoles, ROLE_THRESHOLDS, type NodeRole, type NodeRoleName } from "./roles/roles";
 import { nullReplicateStats, summarizeNodf, summarizeNulls, type NodfNullSummary, type NullReplicate, type NullSummary } from "./significance";
 import type { Network } from "./types";
 import { ENGINE_VERSION } from "./version";
@@ -143,28 +143,14 @@ export function primaryNull(figures: NullFigures[]): (NullSummary & { model: Nul
   return rest;
 }
 
-export interface AnalysisRole {
-  label: string;
-  level: "row" | "col" | null;
-  module: number;
-  degree: number;
-  z: number | null;
-  participation: number | null;
-  role: NodeRoleName | null;
-}
+/** A node's role as the analysis reports it: the role without the engine's node number. */
+export type AnalysisRole = Omit<NodeRole, "node">;
 
-export interface AnalysisResult {
+/** The figures of one network: its basic counts (metrics/basic.ts) with modularity, significance, NODF and roles. */
+export interface AnalysisResult extends BasicMetrics {
   kind: Network["kind"];
   directed: boolean;
   weighted: boolean;
-  nodes: number;
-  rows: number | null;
-  cols: number | null;
-  links: number;
-  totalWeight: number;
-  connectance: number | null;
-  isolated: number;
-  selfLoops: number;
   modularity: {
     objective: OptimizerObjective;
     Q: number | null;
