@@ -24,6 +24,7 @@
  */
 import type { Rng } from "../random";
 import type { Network } from "../types";
+import { binaryNetwork } from "./structure";
 
 export interface CurveballOptions {
   /** Number of trades in the chain (default max(1000, 5 × rows)). */
@@ -98,16 +99,7 @@ export function curveballNull(net: Network, rng: Rng, options: CurveballOptions 
     }
   }
   for (let i = 0; i < I; i++) slots.subarray(rowPtr[i], rowPtr[i + 1]).sort();
-  return {
-    kind: net.kind,
-    directed: net.directed,
-    weighted: false,
-    rowLabels: net.rowLabels,
-    colLabels: net.colLabels,
-    rowPtr,
-    colIdx: slots,
-    weights: new Float64Array(slots.length).fill(1),
-  };
+  return binaryNetwork(net, rowPtr, slots);
 }
 
 function maxRowDegree(rowPtr: Uint32Array, I: number): number {

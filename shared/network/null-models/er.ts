@@ -20,6 +20,7 @@ import { NetworkEngineError } from "../errors";
 import type { Rng } from "../random";
 import type { Network } from "../types";
 import { basicMetrics } from "../metrics/basic";
+import { binaryNetworkFromCells } from "./structure";
 
 export function erdosRenyiNull(net: Network, rng: Rng): Network {
   const I = net.rowLabels.length;
@@ -27,13 +28,13 @@ export function erdosRenyiNull(net: Network, rng: Rng): Network {
     const J = net.colLabels.length;
     const L = net.rowPtr[I];
     const cells = sampleCells(I, J, L, () => rng.nextInt(I) * J + rng.nextInt(J), null);
-    return cellsToNetwork(net, I, J, cells);
+    return binaryNetworkFromCells(net, I, J, cells);
   }
   const S = I;
   if (net.directed) {
     const L = net.rowPtr[S];
     const cells = sampleCells(S, S, L, () => rng.nextInt(S) * S + rng.nextInt(S), null);
-    return cellsToNetwork(net, S, S, cells);
+    return binaryNetworkFromCells(net, S, S, cells);
   }
   const m = basicMetrics(net);
   const loops = m.selfLoops;
@@ -59,7 +60,7 @@ export function erdosRenyiNull(net: Network, rng: Rng): Network {
   }
   for (const k of loopCells) all.push(k);
   const sorted = Float64Array.from(all).sort();
-  return cellsToNetwork(net, S, S, sorted);
+  return binaryNetworkFromCells(net, S, S, sorted);
 }
 
 /**
@@ -124,26 +125,4 @@ function sampleCells(
     out[n++] = k;
   }
   return out;
-}
-
-function cellsToNetwork(net: Network, rows: number, cols: number, cells: Float64Array): Network {
-  const rowPtr = new Uint32Array(rows + 1);
-  const colIdx = new Uint32Array(cells.length);
-  for (let p = 0; p < cells.length; p++) {
-    const k = cells[p];
-    const i = Math.floor(k / cols);
-    colIdx[p] = k - i * cols;
-    rowPtr[i + 1]++;
-  }
-  for (let i = 0; i < rows; i++) rowPtr[i + 1] += rowPtr[i];
-  return {
-    kind: net.kind,
-    directed: net.directed,
-    weighted: false,
-    rowLabels: net.rowLabels,
-    colLabels: net.colLabels,
-    rowPtr,
-    colIdx,
-    weights: new Float64Array(cells.length).fill(1),
-  };
 }

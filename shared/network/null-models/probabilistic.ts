@@ -31,6 +31,7 @@ import type { Rng } from "../random";
 import type { Network } from "../types";
 import { marginalTotals } from "../graph";
 import { withShuffledWeights } from "./weights";
+import { binaryNetworkFromCells } from "./structure";
 
 export interface ProbabilisticOptions {
   /** Number of proposed moves (default max(1000, 30 × L)). */
@@ -133,25 +134,7 @@ export function probabilisticNull(net: Network, rng: Rng, options: Probabilistic
   }
   for (const key of loops) all.push(key);
   const sorted = Float64Array.from(all).sort();
-  const rowPtr = new Uint32Array(I + 1);
-  const colIdx = new Uint32Array(sorted.length);
-  for (let p = 0; p < sorted.length; p++) {
-    const i = Math.floor(sorted[p] / J);
-    colIdx[p] = sorted[p] - i * J;
-    rowPtr[i + 1]++;
-  }
-  for (let i = 0; i < I; i++) rowPtr[i + 1] += rowPtr[i];
-  const structure: Network = {
-    kind: net.kind,
-    directed: net.directed,
-    weighted: false,
-    rowLabels: net.rowLabels,
-    colLabels: net.colLabels,
-    rowPtr,
-    colIdx,
-    weights: new Float64Array(sorted.length).fill(1),
-  };
-  return withShuffledWeights(structure, net, rng);
+  return withShuffledWeights(binaryNetworkFromCells(net, I, J, sorted), net, rng);
 }
 
 interface KeySet {
