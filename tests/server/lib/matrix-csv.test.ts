@@ -12,7 +12,7 @@ import { createRng, deserializeNetwork, MATRIX_CORNER, networkToMatrixCsv, parse
 import { networkFromTriples } from "@shared/network/graph";
 import { csvHeaderLabels, matrixCsvPieces, matrixCsvFromCanonical } from "../../../server/src/lib/matrix-csv";
 import { useNativeCrc32 } from "../../../server/src/api/bundles/bundles.crc";
-import { numberFieldsOfCsv } from "../../../server/src/api/bundles/bundles.stream";
+import { numberFieldsOfCsv } from "../../../server/src/api/bundles/bundles.datapackage";
 import { bundleMatrixCsv, MATRIX_CSV_FORMAT } from "../../../server/src/api/bundles/bundles.stored-csv";
 import zlib from "node:zlib";
 
