@@ -8,12 +8,13 @@
 import { Router } from "express";
 import { apiRateLimit } from "../../middlewares/api-rate-limit";
 import { requireRole } from "../../middlewares/require-role";
-import { parseAccession } from "../datasets/datasets.validation";
+import { validate } from "../../middlewares/validate";
 import { getHistory } from "./dataset-history.service";
+import { historySchema } from "./dataset-history.schemas";
 
 export const datasetHistoryRouter = Router();
 datasetHistoryRouter.use(apiRateLimit); // the read API's limit, per token or IP
 
-datasetHistoryRouter.get("/:accession", requireRole("curator"), async (req, res) => {
-  res.json({ data: await getHistory(parseAccession(req.params.accession as string)) });
+datasetHistoryRouter.get("/:accession", requireRole("curator"), validate(historySchema), async (req, res) => {
+  res.json({ data: await getHistory(req.params.accession as string) });
 });

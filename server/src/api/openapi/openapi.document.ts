@@ -13,6 +13,7 @@ import { CATALOGUE_PARAMS, MAX_PAGE_SIZE } from "../catalogue/catalogue.validati
 import { BUNDLE_LIMIT } from "../bundles/bundles.selection";
 import { BUNDLE_PARTS, DEFAULT_PARTS } from "../bundles/bundles.parts";
 import { createTokenSchema, revokeTokenSchema } from "../tokens/tokens.schemas";
+import { networkViewSchema } from "../network-views/network-views.schemas";
 import { datasetSchema, datasetVersionSchema, networkFileSchema, newVersionSchema, withdrawSchema } from "../datasets/datasets.schemas";
 import { operationInput } from "./from-schemas";
 
@@ -380,13 +381,13 @@ export function openapiDocument(): Json {
         },
       },
       "/network-views/{accession}/{version}/{position}": {
-        get: { tags: ["Networks"], operationId: "getNetworkView", summary: "Everything the network page plots: matrix order, partition, null distribution, roles", parameters: NETWORK_REF_PARAMS, responses: { 200: json({ type: "object" }), 404: error("Not found"), 410: error("Withdrawn") } },
+        get: { tags: ["Networks"], operationId: "getNetworkView", summary: "Everything the network page plots: matrix order, partition, null distribution, roles", ...operationInput(networkViewSchema), responses: { 200: json({ type: "object" }), 404: error("Not found"), 410: error("Withdrawn") } },
       },
       "/network-views/{accession}/{version}/{position}/partition.csv": {
-        get: { tags: ["Networks"], operationId: "getPartitionCsv", summary: "The best partition: node, level, module (CSV)", parameters: NETWORK_REF_PARAMS, responses: { 200: { description: "CSV", content: { "text/csv": { schema: { type: "string" } } } }, 404: error("Not found") } },
+        get: { tags: ["Networks"], operationId: "getPartitionCsv", summary: "The best partition: node, level, module (CSV)", ...operationInput(networkViewSchema), responses: { 200: { description: "CSV", content: { "text/csv": { schema: { type: "string" } } } }, 404: error("Not found") } },
       },
       "/network-views/{accession}/{version}/{position}/partition.json": {
-        get: { tags: ["Networks"], operationId: "getPartitionJson", summary: "The best partition as JSON", parameters: NETWORK_REF_PARAMS, responses: { 200: json({ type: "object" }), 404: error("Not found") } },
+        get: { tags: ["Networks"], operationId: "getPartitionJson", summary: "The best partition as JSON", ...operationInput(networkViewSchema), responses: { 200: json({ type: "object" }), 404: error("Not found") } },
       },
       "/datasets/{accession}": {
         get: { tags: ["Datasets"], operationId: "getDataset", summary: "A dataset: its latest published version (or ?version=N), networks and metrics", ...operationInput(datasetSchema), responses: { 200: json({ type: "object", description: "DatasetDetail" }), 400: error("A parameter is not valid (details name it)"), 404: error("Not found"), 410: error("Withdrawn: the tombstone") } },

@@ -89,6 +89,12 @@ describe("GET /api/v1/network-views/:accession/:version/:position", () => {
     const bad = await request(app).get("/api/v1/network-views/XX-1/v1/1");
     expect(bad.status).toBe(404);
     expect(bad.body.message).toMatch(/TB-000042/);
+    const version = await request(app).get("/api/v1/network-views/TB-000001/v0/1/partition.csv");
+    expect(version.status).toBe(404);
+    expect(version.body.message).toBe('No such version "v0": versions are written v1, v2, …');
+    const position = await request(app).get("/api/v1/network-views/TB-000001/v1/first");
+    expect(position.status).toBe(404);
+    expect(position.body.message).toBe('No such network "first": networks are numbered 1, 2, …');
   });
 
   it("answers 410 with the tombstone for a withdrawn version", async () => {
@@ -213,5 +219,8 @@ describe("GET /api/v1/network-views/history/:accession", () => {
     expect(res.status).toBe(200);
     expect(res.body.data.length).toBeGreaterThanOrEqual(1);
     expect(res.body.data[0]).toMatchObject({ action: "version.submitted", actor: { displayName: "Rowan Hale" } });
+    const bad = await (await signedIn(curatorEmail)).get("/api/v1/network-views/history/TB-1");
+    expect(bad.status).toBe(404);
+    expect(bad.body.message).toBe('No such dataset "TB-1": accessions look like TB-000042.');
   });
 });
