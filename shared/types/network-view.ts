@@ -93,19 +93,11 @@ export interface RunHistoryRow {
 export const MAX_COMPARE = 60;
 
 /** One light row per network for the compare view: `GET /api/v1/network-views/summaries?refs=…`. */
-export interface NetworkCompareRow {
+export interface NetworkCompareRow extends Omit<NetworkShape, "totalWeight"> {
   ref: string;
   datasetTitle: string;
   name: string;
   interactionType: string;
-  kind: "bipartite" | "unipartite";
-  directed: boolean;
-  weighted: boolean;
-  nNodes: number;
-  nRows: number | null;
-  nCols: number | null;
-  nLinks: number;
-  connectance: number | null;
   metrics: NetworkMetricsSummary;
 }
 
