@@ -9,42 +9,32 @@
  * | GET /:accession/:version/:position/data.csv     | anyone (published) | CSV (`?layout=matrix|edgelist`, `&spreadsheetSafe=true`) |
  * | GET /:accession/:version/:position/data.json    | anyone (published) | NetworkJson with data           |
  * | GET /:accession/:version/:position/metrics      | anyone (published) | `{ ref, metrics }`              |
- * Unpublished versions: owner and curators only (404 for others); withdrawn → 410.
+ * Unpublished versions: owner and curators only (404 for others); withdrawn → 410. Addresses and query
+ * parameters are checked by networks.schemas.ts (a malformed address is a 404, a bad parameter a 400).
  */
 import { Readable } from "node:stream";
 import { pipeline } from "node:stream/promises";
 import { Router, type Request, type Response } from "express";
-import { ApiError } from "../../lib/api-error";
 import { logger } from "../../lib/logger";
 import { sendPublicAnswer } from "../../lib/public-answers";
 import { apiRateLimit } from "../../middlewares/api-rate-limit";
+import { validate } from "../../middlewares/validate";
 import { config } from "../../config/env";
 import { listCatalogue } from "../catalogue/catalogue.routes";
-import { getNetworkCsv, getNetworkJson, getNetworkMetrics, type NetworkRefParams } from "./networks.service";
+import { networkRefOf } from "../common.schemas";
+import { getNetworkCsv, getNetworkJson, getNetworkMetrics } from "./networks.service";
+import { networkCsvSchema, networkRefSchema, networkSchema } from "./networks.schemas";
 
 export const networksRouter = Router();
 networksRouter.use(apiRateLimit);
 
 const baseUrl = () => `${config().publicUrl}/api/v1/networks`;
 
-function layoutOf(req: Request): "matrix" | "edgelist" {
-  const l = req.query.layout;
-  if (l === undefined || l === "matrix") return "matrix";
-  if (l === "edgelist") return "edgelist";
-  throw ApiError.badRequest(`layout must be matrix or edgelist, got "${String(l)}".`, [{ path: "layout", message: "must be matrix or edgelist" }]);
-}
-
-/** `spreadsheetSafe=true`: formula-like labels get a leading apostrophe (the data are otherwise exact). */
-function spreadsheetSafeOf(req: Request): boolean {
-  const v = req.query.spreadsheetSafe;
-  if (v === undefined || v === "false") return false;
-  if (v === "true") return true;
-  throw ApiError.badRequest(`spreadsheetSafe must be true or false, got "${String(v)}".`, [{ path: "spreadsheetSafe", message: "must be true or false" }]);
-}
-
+/** The CSV answer; `layout` and `spreadsheetSafe` (formula-like labels get a leading apostrophe) as validate() left them. */
 async function sendCsv(req: Request, res: Response) {
+  const q = req.query as unknown as { layout: "matrix" | "edgelist"; spreadsheetSafe: boolean };
   // the network is checked and its size computed before anything is sent (a damaged one is an error answer)
-  const { ref, bytes, pieces } = await getNetworkCsv(req.params as unknown as NetworkRefParams, req.user, layoutOf(req), spreadsheetSafeOf(req));
+  const { ref, bytes, pieces } = await getNetworkCsv(networkRefOf(req.params), req.user, q.layout, q.spreadsheetSafe);
   res.type("text/csv; charset=utf-8");
   res.set("Content-Disposition", `inline; filename="${ref.replace(/\//g, "_")}.csv"`);
   res.set("Content-Length", String(bytes));
@@ -57,20 +47,19 @@ async function sendCsv(req: Request, res: Response) {
 
 networksRouter.get("/", listCatalogue);
 
-networksRouter.get("/:accession/:version/:position", async (req, res) => {
-  const format = req.query.format ?? "json";
-  if (format === "csv") return sendCsv(req, res);
-  if (format !== "json") throw ApiError.badRequest(`format must be json or csv, got "${String(format)}".`, [{ path: "format", message: "must be json or csv" }]);
-  res.json(await getNetworkJson(req.params as unknown as NetworkRefParams, req.user, req.query.include === "data", baseUrl()));
+networksRouter.get("/:accession/:version/:position", validate(networkSchema), async (req, res) => {
+  const q = req.query as unknown as { format: "json" | "csv"; include?: "data" };
+  if (q.format === "csv") return sendCsv(req, res);
+  res.json(await getNetworkJson(networkRefOf(req.params), req.user, q.include === "data", baseUrl()));
 });
 
-networksRouter.get("/:accession/:version/:position/data.csv", sendCsv);
+networksRouter.get("/:accession/:version/:position/data.csv", validate(networkCsvSchema), sendCsv);
 
-networksRouter.get("/:accession/:version/:position/data.json", async (req, res) => {
-  res.json(await getNetworkJson(req.params as unknown as NetworkRefParams, req.user, true, baseUrl()));
+networksRouter.get("/:accession/:version/:position/data.json", validate(networkRefSchema), async (req, res) => {
+  res.json(await getNetworkJson(networkRefOf(req.params), req.user, true, baseUrl()));
 });
 
-networksRouter.get("/:accession/:version/:position/metrics", async (req, res) => {
-  const p = req.params as unknown as NetworkRefParams;
+networksRouter.get("/:accession/:version/:position/metrics", validate(networkRefSchema), async (req, res) => {
+  const p = networkRefOf(req.params);
   await sendPublicAnswer(req, res, p.accession, `metrics/${p.version}/${p.position}`, () => getNetworkMetrics(p, req.user));
 });

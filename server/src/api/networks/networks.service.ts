@@ -12,20 +12,13 @@ import { getCurrentMetrics } from "../../pipeline/metrics-read";
 import { ApiError } from "../../lib/api-error";
 import { Network, StoredFile } from "../../models";
 import type { AuthUser } from "../../types";
-import { parseVersionParam, resolveVersion } from "../datasets/datasets.access";
+import { resolveVersion } from "../datasets/datasets.access";
+import type { NetworkRef } from "../common.schemas";
 
-export interface NetworkRefParams {
-  accession: string;
-  version: string;
-  position: string;
-}
-
-async function findNetwork(p: NetworkRefParams, user: AuthUser | undefined, withCanonical: boolean) {
-  const versionNumber = parseVersionParam(p.version);
-  if (!/^\d{1,5}$/.test(p.position) || Number(p.position) < 1) throw ApiError.notFound(`No network "${p.position}": networks are numbered 1, 2, …`);
-  const { dataset, version, latestPublishedVersion } = await resolveVersion(p.accession, versionNumber, user);
+async function findNetwork(p: NetworkRef, user: AuthUser | undefined, withCanonical: boolean) {
+  const { dataset, version, latestPublishedVersion } = await resolveVersion(p.accession, p.version, user);
   const network = await Network.findOne({
-    where: { versionId: version.id, position: Number(p.position) },
+    where: { versionId: version.id, position: p.position },
     attributes: withCanonical ? { include: ["canonical"] } : undefined,
   });
   if (!network) throw ApiError.notFound(`${p.accession} v${version.number} has no network ${p.position}.`);
@@ -57,7 +50,7 @@ export interface NetworkJson {
   data?: { rowLabels: string[]; colLabels: string[] | null; links: Array<[string, string, number]> };
 }
 
-export async function getNetworkJson(p: NetworkRefParams, user: AuthUser | undefined, includeData: boolean, baseUrl: string): Promise<NetworkJson> {
+export async function getNetworkJson(p: NetworkRef, user: AuthUser | undefined, includeData: boolean, baseUrl: string): Promise<NetworkJson> {
   const { dataset, version, network, latestPublishedVersion, ref } = await findNetwork(p, user, includeData);
   const file = await StoredFile.findByPk(network.fileId, { attributes: ["id", "sha256"] });
   const metrics = (await getCurrentMetrics([network.id])).get(network.id) ?? null;
@@ -107,7 +100,7 @@ export async function getNetworkJson(p: NetworkRefParams, user: AuthUser | undef
  * cells, 800 MB for a 20,000-node network) row by row, the same bytes as the engine's networkToMatrixCsv.
  */
 export async function getNetworkCsv(
-  p: NetworkRefParams,
+  p: NetworkRef,
   user: AuthUser | undefined,
   layout: "matrix" | "edgelist",
   spreadsheetSafe = false,
@@ -136,7 +129,7 @@ function storedNetworkDamaged(ref: string, err: Error): ApiError {
   return new ApiError(500, "network_damaged", `The stored data of network ${ref} are damaged and cannot be written as CSV. This is a fault on our side and has been logged.`);
 }
 
-export async function getNetworkMetrics(p: NetworkRefParams, user: AuthUser | undefined): Promise<{ ref: string; metrics: NetworkMetricsSummary | null }> {
+export async function getNetworkMetrics(p: NetworkRef, user: AuthUser | undefined): Promise<{ ref: string; metrics: NetworkMetricsSummary | null }> {
   const { network, ref } = await findNetwork(p, user, false);
   return { ref, metrics: (await getCurrentMetrics([network.id])).get(network.id) ?? null };
 }

@@ -13,6 +13,7 @@ import { CATALOGUE_PARAMS, MAX_PAGE_SIZE } from "../catalogue/catalogue.validati
 import { BUNDLE_LIMIT } from "../bundles/bundles.selection";
 import { BUNDLE_PARTS, DEFAULT_PARTS } from "../bundles/bundles.parts";
 import { createTokenSchema, revokeTokenSchema } from "../tokens/tokens.schemas";
+import { networkCsvSchema, networkRefSchema, networkSchema } from "../networks/networks.schemas";
 import { networkViewSchema } from "../network-views/network-views.schemas";
 import { datasetSchema, datasetVersionSchema, networkFileSchema, newVersionSchema, withdrawSchema } from "../datasets/datasets.schemas";
 import { operationInput } from "./from-schemas";
@@ -325,8 +326,8 @@ export function openapiDocument(): Json {
           tags: ["Networks"],
           operationId: "getNetwork",
           summary: "One network: metadata, counts and current metrics (JSON), or its data as CSV with ?format=csv",
-          parameters: [...NETWORK_REF_PARAMS, queryParam("format", "json (default) or csv", { type: "string", enum: ["json", "csv"] }), queryParam("include", "data: add node labels and links", { type: "string", enum: ["data"] })],
-          responses: { 200: { description: "The network", content: { "application/json": { schema: ref("Network") }, "text/csv": { schema: { type: "string" } } } }, 404: error("No such published network"), 410: error("Withdrawn (the answer carries the reason)") },
+          ...operationInput(networkSchema),
+          responses: { 200: { description: "The network", content: { "application/json": { schema: ref("Network") }, "text/csv": { schema: { type: "string" } } } }, 400: error("A parameter is not valid (details name it)"), 404: error("No such published network"), 410: error("Withdrawn (the answer carries the reason)") },
         },
       },
       "/networks/{accession}/{version}/{position}/data.csv": {
@@ -336,12 +337,8 @@ export function openapiDocument(): Json {
           summary: "The network as CSV: a matrix (header's first cell 'node', then the column nodes; one line per row node) or an edge list",
           description:
             "Labels are exactly as deposited. A label that begins like a spreadsheet formula (=, +, -, @) may be run as one when the file is opened in a spreadsheet program; `spreadsheetSafe=true` writes such labels with a leading apostrophe (read as text by spreadsheet programs), everything else unchanged. Scripts should read the exact form.",
-          parameters: [
-            ...NETWORK_REF_PARAMS,
-            queryParam("layout", "matrix (default, keeps isolated nodes) or edgelist", { type: "string", enum: ["matrix", "edgelist"] }),
-            queryParam("spreadsheetSafe", "true: formula-like labels get a leading apostrophe for spreadsheet programs (default false: exact labels)", { type: "string", enum: ["true", "false"] }),
-          ],
-          responses: { 200: { description: "CSV", content: { "text/csv": { schema: { type: "string" } } } }, 404: error("Not found"), 410: error("Withdrawn") },
+          ...operationInput(networkCsvSchema),
+          responses: { 200: { description: "CSV", content: { "text/csv": { schema: { type: "string" } } } }, 400: error("A parameter is not valid (details name it)"), 404: error("Not found"), 410: error("Withdrawn") },
         },
       },
       "/previews/{accession}/{version}.png": {
@@ -363,10 +360,10 @@ export function openapiDocument(): Json {
         },
       },
       "/networks/{accession}/{version}/{position}/data.json": {
-        get: { tags: ["Networks"], operationId: "getNetworkJsonData", summary: "The network with its data (labels and links) as JSON", parameters: NETWORK_REF_PARAMS, responses: { 200: json(ref("Network")), 404: error("Not found"), 410: error("Withdrawn") } },
+        get: { tags: ["Networks"], operationId: "getNetworkJsonData", summary: "The network with its data (labels and links) as JSON", ...operationInput(networkRefSchema), responses: { 200: json(ref("Network")), 404: error("Not found"), 410: error("Withdrawn") } },
       },
       "/networks/{accession}/{version}/{position}/metrics": {
-        get: { tags: ["Networks"], operationId: "getNetworkMetrics", summary: "Current metrics of one network", parameters: NETWORK_REF_PARAMS, responses: { 200: json({ type: "object", properties: { ref: { type: "string" }, metrics: ref("Metrics") } }), 404: error("Not found"), 410: error("Withdrawn") } },
+        get: { tags: ["Networks"], operationId: "getNetworkMetrics", summary: "Current metrics of one network", ...operationInput(networkRefSchema), responses: { 200: json({ type: "object", properties: { ref: { type: "string" }, metrics: ref("Metrics") } }), 404: error("Not found"), 410: error("Withdrawn") } },
       },
       "/network-views/summaries": {
         get: { tags: ["Networks"], operationId: "getNetworkSummaries", summary: "Compact summaries of several networks (for comparisons)", description: "Rows in the order asked (at most 60). References that cannot be plotted do not fail the request: meta.unavailable lists each with its reason (malformed, unknown, withdrawn with the tombstone).", parameters: [queryParam("refs", "Comma-separated network references", { type: "string" }, "TB-000001/v1/1,TB-000001/v1/2")], responses: { 200: json({ type: "object" }) } },

@@ -73,6 +73,13 @@ describe("network by reference", () => {
     expect(edges.text.split("\n")[0]).toBe("source,target,weight");
     const bad = await request(app).get(`/api/v1/networks/${pub.accession}/v1/1/data.csv`).query({ layout: "spiral" });
     expect(bad.status).toBe(400);
+    expect(bad.body.details).toEqual([{ path: "layout", message: "layout must be one of matrix, edgelist." }]);
+    const format = await request(app).get(`/api/v1/networks/${pub.accession}/v1/1`).query({ format: "xml" });
+    expect(format.status).toBe(400);
+    expect(format.body.message).toBe("format must be one of json, csv.");
+    const address = await request(app).get(`/api/v1/networks/${pub.accession}/version-1/1/metrics`);
+    expect(address.status).toBe(404);
+    expect(address.body.message).toBe('No such version "version-1": versions are written v1, v2, …');
   });
 
   it("streams a large matrix in pieces: the engine's bytes exactly", async () => {
