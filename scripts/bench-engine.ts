@@ -12,7 +12,12 @@
  *   modules;
  * - LFR-style one-mode graphs (Lancichinetti, Fortunato & Radicchi 2008: power-law degrees 5–50 with
  *   exponent 2.5, power-law module sizes with exponent 1.5) with mixing μ = 0.3 and 0.5 at 1,000, 10,000
- *   and 100,000 nodes, and a random one-mode graph of 20,000 nodes with no modules (the slowest to converge).
+ *   and 100,000 nodes, and a random one-mode graph of 20,000 nodes with no modules (the slowest to converge);
+ * - weighted networks: an LFR-style graph (μ = 0.4, 5,000 nodes) and a degree-corrected planted bipartite
+ *   network (1000 × 1500), both with heavy-tailed integer weights correlated with the degrees (counts such as
+ *   visit frequencies; graphology gets the same weights);
+ * - nested bipartite networks (100 × 150 and 400 × 600, a share 0.2 of the cells filled under a hyperbolic
+ *   edge, 5 % of the links moved at random): no modules planted, modularity weak.
  *
  * Each network runs in a child process of its own, so its peak memory is its own (process maximum RSS).
  * Per network (after two untimed warm-up runs of ours and of graphology's on networks of at most 20,000
@@ -43,7 +48,14 @@ import { createRng, deriveSeed } from "@shared/network/random";
 import { nullReplicateQ } from "@shared/network/significance";
 import type { Network } from "@shared/network/types";
 import { ENGINE_VERSION } from "@shared/network/version";
-import { lfrGraph, plantedBipartiteDC, type PlantedNetwork } from "./lib/hard-networks";
+import {
+  lfrGraph,
+  nestedBipartite,
+  plantedBipartiteDC,
+  weightedBipartiteDC,
+  weightedLfrGraph,
+  type PlantedNetwork,
+} from "./lib/hard-networks";
 
 interface Spec {
   name: string;
@@ -69,6 +81,13 @@ const SPECS: Spec[] = [
     restarts: 5,
     nulls: 0,
   },
+  // Weighted: heavy-tailed integer weights correlated with the degrees (visit counts), on an LFR-style graph
+  // and on a degree-corrected planted bipartite network.
+  { name: "weighted LFR μ=0.4, 5,000", build: () => weightedLfrGraph({ nodes: 5000, mu: 0.4, seed: 121 }), restarts: DEFAULT_RESTARTS, nulls: 1 },
+  { name: "weighted bipartite 1000 × 1500", build: () => weightedBipartiteDC({ rows: 1000, cols: 1500, modules: 20, seed: 122 }), restarts: DEFAULT_RESTARTS, nulls: 1 },
+  // Nested with noise (5 % of the links moved at random), no modules planted: modularity is weak.
+  { name: "nested bipartite 100 × 150", build: () => nestedBipartite({ rows: 100, cols: 150, seed: 123 }), restarts: DEFAULT_RESTARTS, nulls: 5 },
+  { name: "nested bipartite 400 × 600", build: () => nestedBipartite({ rows: 400, cols: 600, seed: 124 }), restarts: DEFAULT_RESTARTS, nulls: 2 },
   { name: "LFR μ=0.3, 100,000", build: () => lfrGraph({ nodes: 100000, mu: 0.3, seed: 115 }), restarts: 5, nulls: 0 },
   { name: "LFR μ=0.5, 100,000", build: () => lfrGraph({ nodes: 100000, mu: 0.5, seed: 116 }), restarts: 5, nulls: 0 },
 ];
@@ -88,6 +107,8 @@ interface Result {
   links: number;
   modules: number;
   mixing: number;
+  weighted: boolean;
+  totalWeight: number;
   objective: string;
   restarts: number;
   annealed: boolean;
@@ -100,7 +121,8 @@ interface Result {
   louvainBest: number;
   louvainMedian: number;
   louvainRun: Timing;
-  planted: number;
+  /** Q of the planted partition (null when no modules were planted). */
+  planted: number | null;
   nullModel: string;
   nullsTimed: number;
   nullsPerSecWall: number | null;
@@ -138,6 +160,7 @@ function timed(runs: number, fn: (r: number) => void): Timing {
   return { wallMs: median(wall), cpuMs: median(cpu) };
 }
 
+/** The network as a graphology graph; weighted networks carry their weights in the `weight` attribute. */
 function graphologyGraph(net: Network): Graph {
   const g = new Graph({ type: "undirected" });
   const R = net.rowLabels.length;
@@ -147,7 +170,7 @@ function graphologyGraph(net: Network): Graph {
   for (let i = 0; i < R; i++)
     for (let e = net.rowPtr[i]; e < net.rowPtr[i + 1]; e++) {
       const j = bip ? R + net.colIdx[e] : net.colIdx[e];
-      if (bip || i < j) g.addUndirectedEdge(String(i), String(j));
+      if (bip || i < j) g.addUndirectedEdge(String(i), String(j), net.weighted ? { weight: net.weights[e] } : {});
     }
   return g;
 }
@@ -262,6 +285,12 @@ function runChild(spec: Spec): Result {
     links: oneMode ? net.rowPtr[R] / 2 : net.rowPtr[R],
     modules,
     mixing,
+    weighted: net.weighted,
+    totalWeight: (() => {
+      let t = 0;
+      for (let e = 0; e < net.rowPtr[R]; e++) t += net.weights[e];
+      return oneMode ? t / 2 : t;
+    })(),
     objective: res.objective,
     restarts,
     annealed: res.algorithm.parameters.annealed,
@@ -274,7 +303,7 @@ function runChild(spec: Spec): Result {
     louvainBest: Math.max(...lqs),
     louvainMedian: median(lqs),
     louvainRun,
-    planted: modularity(net, planted, res.objective),
+    planted: modules > 1 ? modularity(net, planted, res.objective) : null,
     nullModel,
     nullsTimed: spec.nulls,
     nullsPerSecWall,
@@ -304,10 +333,10 @@ function catchUp(r: Result): string {
 
 function print(r: Result): void {
   const lines = [
-    `${r.name}: ${r.nodes.toLocaleString("en")} nodes, ${r.links.toLocaleString("en")} links, ${r.modules > 1 ? `${r.modules} planted modules, ${f(100 * r.mixing, 0)} % of links between them` : "no modules planted"} (objective ${r.objective})`,
+    `${r.name}: ${r.nodes.toLocaleString("en")} nodes, ${r.links.toLocaleString("en")} links${r.weighted ? ` (weighted, total weight ${r.totalWeight.toLocaleString("en")})` : ""}, ${r.modules > 1 ? `${r.modules} planted modules, ${f(100 * r.mixing, 0)} % of ${r.weighted ? "the link weight" : "links"} between them` : "no modules planted"} (objective ${r.objective})`,
     `  ours (${r.restarts} restarts${r.annealed ? ", then annealing" : ""}): best Q ${f(r.ourBest, 5)}, median ${f(r.ourMedian, 5)}; per restart ${ms(r.ourRestart)}; passes median ${r.passesMedian}, max ${r.passesMax}${r.converged ? ", all converged" : ", A SAFETY CAP WAS REACHED"}`,
     `  graphology-communities-louvain (${r.restarts} runs, re-scored): best Q ${f(r.louvainBest, 5)}, median ${f(r.louvainMedian, 5)}; per run ${ms(r.louvainRun)}`,
-    `  time ratio ours / graphology: ${f(r.ourRestart.wallMs / r.louvainRun.wallMs, 2)} wall, ${f(r.ourRestart.cpuMs / r.louvainRun.cpuMs, 2)} CPU; planted partition Q ${f(r.planted, 5)}`,
+    `  time ratio ours / graphology: ${f(r.ourRestart.wallMs / r.louvainRun.wallMs, 2)} wall, ${f(r.ourRestart.cpuMs / r.louvainRun.cpuMs, 2)} CPU; planted partition Q ${r.planted === null ? "— (none planted)" : f(r.planted, 5)}`,
     r.nullsPerSecCpu === null
       ? `  null replicates (${r.nullModel}): not timed (one replicate ≈ ${r.restarts === DEFAULT_RESTARTS ? "" : `${DEFAULT_RESTARTS} restarts × `}the time per restart, or more: null networks converge slower)`
       : `  null replicates (${r.nullModel}, ${r.restarts} restarts${r.annealed ? " + annealing" : ""}, ${r.nullsTimed} timed): ${f(r.nullsPerSecCpu, 2)} per CPU second, ${f(r.nullsPerSecWall!, 2)} per wall second`,
@@ -322,7 +351,12 @@ function parentMain(): void {
   const args = process.argv.slice(2);
   // Parts are separated by commas, or by semicolons when a part holds a comma ("μ=0.5, 10,000;μ=0.3, 1,000").
   const onlyArg = args.includes("--only") ? args[args.indexOf("--only") + 1] : null;
-  const only = onlyArg ? onlyArg.split(onlyArg.includes(";") ? ";" : ",").map((s) => s.trim().toLowerCase()) : null;
+  const only = onlyArg
+    ? onlyArg
+        .split(onlyArg.includes(";") ? ";" : ",")
+        .map((s) => s.trim().toLowerCase())
+        .filter((s) => s.length > 0)
+    : null;
   const specs = SPECS.filter((s) => !only || only.some((o) => s.name.toLowerCase().includes(o)));
   const t0 = performance.now();
   console.log(`Tanglebank engine benchmark — ${ENGINE_VERSION}, Node ${process.version}, seed 1`);
@@ -347,7 +381,8 @@ function parentMain(): void {
   const find = (s: string) => rows.find((r) => r.name === s);
   const targets: Array<[string, boolean]> = [];
   for (const r of rows) targets.push([`best Q ≥ graphology's best on ${r.name} (${f(r.ourBest)} vs ${f(r.louvainBest)})`, r.ourBest >= r.louvainBest - 1e-9]);
-  for (const r of rows.filter((x) => x.oneMode && x.name.startsWith("LFR"))) {
+  // One-mode networks with planted modules (LFR-style, binary and weighted); the random graph has none.
+  for (const r of rows.filter((x) => x.oneMode && x.modules > 1)) {
     targets.push([
       `median time per restart ≤ 2 × graphology's on ${r.name} (CPU ${f(r.ourRestart.cpuMs, 0)} vs ${f(r.louvainRun.cpuMs, 0)} ms: ${f(r.ourRestart.cpuMs / r.louvainRun.cpuMs, 2)}×)`,
       r.ourRestart.cpuMs <= 2 * r.louvainRun.cpuMs,

@@ -14,6 +14,10 @@
  *   and column propensities all power-law distributed; each link of a row goes to a column of the row's
  *   module with probability `pIn` (else to any column), the column drawn in proportion to its propensity.
  *   With `modules: 1` it is a random bipartite network with heavy-tailed degrees and no modules.
+ * - `weightedLfrGraph`, `weightedBipartiteDC`: the same networks with heavy-tailed integer weights that grow
+ *   with the degrees of both ends (`withHeavyTailedWeights`), like visit counts.
+ * - `nestedBipartite`: a nested matrix (hyperbolic edge, a set share of the cells filled) with a share of
+ *   its links moved at random; no modules planted.
  */
 import { createRng, type Rng } from "@shared/network/random";
 import type { Network } from "@shared/network/types";
@@ -285,4 +289,160 @@ export function plantedBipartiteDC(o: PlantedBipartiteOptions): PlantedNetwork {
   planted.set(rowModule, 0);
   planted.set(colModule, R);
   return { net, planted, modules: K, mixing: links > 0 ? between / links : 0 };
+}
+
+/**
+ * Heavy-tailed weights on the links of `net` (a new network with the same links): the weight of link
+ * (i, j) is ⌈X · √(k_i k_j) / k̄⌉ with X a power law from 1 with exponent `tau` (k the node degrees with
+ * rows and columns told apart on bipartite networks, k̄ their mean), so strong nodes carry strong links
+ * and a few links carry much of the weight, as visit counts do. Integer counts (`integer`, the default)
+ * or reals. Undirected one-mode networks get the same weight on both stored directions of a link.
+ */
+export function withHeavyTailedWeights(net: Network, seed: number, o: { tau?: number; integer?: boolean } = {}): Network {
+  const rng = createRng(seed);
+  const tau = o.tau ?? 2.2;
+  const integer = o.integer ?? true;
+  const R = net.rowLabels.length;
+  const bip = net.kind === "bipartite";
+  const C = bip ? net.colLabels.length : R;
+  const rowDeg = new Float64Array(R);
+  const colDeg = new Float64Array(C);
+  for (let i = 0; i < R; i++)
+    for (let e = net.rowPtr[i]; e < net.rowPtr[i + 1]; e++) {
+      rowDeg[i]++;
+      colDeg[net.colIdx[e]]++;
+    }
+  const nnz = net.rowPtr[R];
+  const meanDeg = (2 * nnz) / (R + C);
+  const weights = new Float64Array(nnz);
+  // One draw per undirected link (i ≤ j); the mirror entry copies it.
+  const drawn = new Map<number, number>();
+  for (let i = 0; i < R; i++)
+    for (let e = net.rowPtr[i]; e < net.rowPtr[i + 1]; e++) {
+      const j = net.colIdx[e];
+      if (!bip && j < i) {
+        weights[e] = drawn.get(j * R + i)!;
+        continue;
+      }
+      const u = 1 - rng.next(); // (0, 1]
+      const x = Math.pow(u, -1 / (tau - 1));
+      const raw = (x * Math.sqrt(rowDeg[i] * colDeg[j])) / meanDeg;
+      const w = integer ? Math.max(1, Math.ceil(raw)) : Math.max(1e-3, raw);
+      weights[e] = w;
+      if (!bip) drawn.set(i * R + j, w);
+    }
+  let weighted = false;
+  for (let e = 0; e < nnz; e++) if (weights[e] !== 1) weighted = true;
+  return { ...net, weighted, weights };
+}
+
+/** A weighted LFR-style one-mode graph: lfrGraph's links with heavy-tailed weights (withHeavyTailedWeights). */
+export function weightedLfrGraph(o: LfrOptions & { weightTau?: number; integer?: boolean }): PlantedNetwork {
+  const base = lfrGraph(o);
+  const net = withHeavyTailedWeights(base.net, o.seed + 0x5eed, { tau: o.weightTau, integer: o.integer });
+  return { ...base, net, mixing: weightedMixing(net, base.planted) };
+}
+
+/** A degree-corrected planted bipartite network with heavy-tailed counts on its links (visit frequencies). */
+export function weightedBipartiteDC(o: PlantedBipartiteOptions & { weightTau?: number }): PlantedNetwork {
+  const base = plantedBipartiteDC(o);
+  const net = withHeavyTailedWeights(base.net, o.seed + 0x5eed, { tau: o.weightTau, integer: true });
+  return { ...base, net, mixing: weightedMixing(net, base.planted) };
+}
+
+/** Share of the link weight between planted modules. */
+function weightedMixing(net: Network, planted: Int32Array): number {
+  const R = net.rowLabels.length;
+  const off = net.kind === "bipartite" ? R : 0;
+  let total = 0;
+  let between = 0;
+  for (let i = 0; i < R; i++)
+    for (let e = net.rowPtr[i]; e < net.rowPtr[i + 1]; e++) {
+      total += net.weights[e];
+      if (planted[i] !== planted[net.colIdx[e] + off]) between += net.weights[e];
+    }
+  return total > 0 ? between / total : 0;
+}
+
+export interface NestedOptions {
+  rows: number;
+  cols: number;
+  seed: number;
+  /** Share of the cells filled (default 0.2). */
+  fill?: number;
+  /** Share of the links moved to random empty cells (default 0.05): 0 gives a perfectly nested matrix. */
+  noise?: number;
+}
+
+/**
+ * A nested bipartite network with noise: row i (0-based) and column j get ranks x_i = (i + ½)/R and
+ * y_j = (j + ½)/C, and cell (i, j) is a link when x_i · y_j ≤ t, the threshold t chosen so that a share
+ * `fill` of the cells are links. Every row's columns then contain those of the rows below it (a perfectly
+ * nested matrix, with a hyperbolic edge as in many pollination webs); a share `noise` of the links is then
+ * moved to empty cells drawn at random. Rows or columns left without links get one (to column 0 or row 0,
+ * the generalists). No modules are planted: modularity is weak, and every module found is the optimizer's.
+ */
+export function nestedBipartite(o: NestedOptions): PlantedNetwork {
+  const rng = createRng(o.seed);
+  const { rows: R, cols: C } = o;
+  const fill = o.fill ?? 0.2;
+  const noise = o.noise ?? 0.05;
+  const x = (i: number) => (i + 0.5) / R;
+  const y = (j: number) => (j + 0.5) / C;
+  // Threshold by bisection on the filled share (monotone in t).
+  const filled = (t: number) => {
+    let s = 0;
+    for (let i = 0; i < R; i++) s += Math.min(C, Math.max(0, Math.floor((t / x(i)) * C - 0.5) + 1));
+    return s / (R * C);
+  };
+  let lo = 0;
+  let hi = 1;
+  for (let it = 0; it < 60; it++) {
+    const mid = (lo + hi) / 2;
+    if (filled(mid) < fill) lo = mid;
+    else hi = mid;
+  }
+  const t = hi;
+  const cell = new Uint8Array(R * C);
+  const links: number[] = [];
+  for (let i = 0; i < R; i++)
+    for (let j = 0; j < C; j++)
+      if (x(i) * y(j) <= t) {
+        cell[i * C + j] = 1;
+        links.push(i * C + j);
+      }
+  const moves = Math.round(noise * links.length);
+  shuffleInPlace(rng, links);
+  for (let m = 0; m < moves; m++) {
+    let target: number;
+    do target = rng.nextInt(R * C);
+    while (cell[target]);
+    cell[links[m]] = 0;
+    cell[target] = 1;
+  }
+  for (let i = 0; i < R; i++) {
+    let any = false;
+    for (let j = 0; j < C && !any; j++) any = cell[i * C + j] === 1;
+    if (!any) cell[i * C] = 1;
+  }
+  for (let j = 0; j < C; j++) {
+    let any = false;
+    for (let i = 0; i < R && !any; i++) any = cell[i * C + j] === 1;
+    if (!any) cell[j] = 1;
+  }
+  const rowsOut: number[][] = [];
+  for (let i = 0; i < R; i++) {
+    const r: number[] = [];
+    for (let j = 0; j < C; j++) if (cell[i * C + j]) r.push(j);
+    rowsOut.push(r);
+  }
+  const net: Network = {
+    kind: "bipartite",
+    directed: false,
+    weighted: false,
+    rowLabels: Array.from({ length: R }, (_, i) => `r${i}`),
+    colLabels: Array.from({ length: C }, (_, j) => `c${j}`),
+    ...csrFromRows(rowsOut),
+  };
+  return { net, planted: new Int32Array(R + C), modules: 1, mixing: 0 };
 }
