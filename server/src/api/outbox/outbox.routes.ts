@@ -5,16 +5,15 @@
  */
 import { Router, type Request, type Response } from "express";
 import { requireBrowserSession, requireRole } from "../../middlewares/require-role";
-import { ApiError } from "../../lib/api-error";
+import { validate } from "../../middlewares/validate";
 import * as service from "./outbox.service";
+import { outboxListSchema, outboxMessageSchema } from "./outbox.schemas";
 
 export const outboxRouter = Router();
 
-outboxRouter.get("/", requireRole("admin"), requireBrowserSession, (req: Request, res: Response) => {
-  res.json(service.listMessages({ to: typeof req.query.to === "string" ? req.query.to : undefined }));
+outboxRouter.get("/", requireRole("admin"), requireBrowserSession, validate(outboxListSchema), (req: Request, res: Response) => {
+  res.json(service.listMessages(req.query as { to?: string }));
 });
-outboxRouter.get("/:id", requireRole("admin"), requireBrowserSession, (req: Request, res: Response) => {
-  const id = Number(req.params.id);
-  if (!Number.isInteger(id) || id < 1) throw ApiError.notFound("No such message.");
-  res.json(service.getMessage(id));
+outboxRouter.get("/:id", requireRole("admin"), requireBrowserSession, validate(outboxMessageSchema), (req: Request, res: Response) => {
+  res.json(service.getMessage(req.params.id as unknown as number));
 });

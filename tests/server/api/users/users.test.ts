@@ -102,6 +102,15 @@ describe("admin: outbox", () => {
     expect(one.status).toBe(200);
     expect(one.body.text).toContain("Choose a new password");
     expect((await a.agent.get("/api/v1/outbox/424242")).status).toBe(404);
+    const notAnId = await a.agent.get("/api/v1/outbox/latest");
+    expect(notAnId.status).toBe(404);
+    expect(notAnId.body.message).toBe("No such message.");
+    const mine = await a.agent.get("/api/v1/outbox").query({ to: admin.email.toUpperCase() });
+    expect(mine.body.data.length).toBeGreaterThanOrEqual(1);
+    expect(mine.body.data.every((m: { to: string[] }) => m.to.includes(admin.email))).toBe(true);
+    const tooLong = await a.agent.get("/api/v1/outbox").query({ to: "x".repeat(255) });
+    expect(tooLong.status).toBe(400);
+    expect(tooLong.body.details).toEqual([{ path: "to", message: "to must be text of at most 254 characters." }]);
 
     setCurrentMailCatcher(undefined);
     const none = await a.agent.get("/api/v1/outbox");
