@@ -67,6 +67,35 @@ export const networkRefParams: ObjectSchema = {
   required: ["accession", "version", "position"],
 };
 
+/** Path parameters of a dataset version's address: /:accession/:version (v2 or 2). */
+export const versionRefParams: ObjectSchema = {
+  type: "object",
+  properties: { accession, version: versionRef },
+  required: ["accession", "version"],
+};
+
+/** A network reference, accession/version/network: TB-000042/v2/3. */
+export const NETWORK_REF_PATTERN = "^TB-[0-9]{6}/v[0-9]{1,6}/[0-9]{1,6}$";
+
+/** A network reference as an item of a list (its title names the items in a list's rule). */
+export const networkRefItem: FieldSchema = {
+  type: "string",
+  pattern: NETWORK_REF_PATTERN,
+  title: "network references such as TB-000042/v2/3",
+  description: "A network reference: accession/version/network",
+  example: "TB-000001/v1/1",
+};
+
+/** A collection's code, `TBC-` and six digits. */
+export const collectionCode: FieldSchema = {
+  type: "string",
+  pattern: "^TBC-[0-9]{6}$",
+  title: "collection",
+  form: "collection codes look like TBC-000001",
+  description: "Collection code",
+  example: "TBC-000001",
+};
+
 /** Path parameters: one accession. */
 export const accessionParams: ObjectSchema = { type: "object", properties: { accession }, required: ["accession"] };
 

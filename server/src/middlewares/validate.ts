@@ -5,13 +5,21 @@
  * checks and their description cannot drift apart.
  *
  * - Path parameters and the query are read as text and coerced to the schema's types (ajv coerceTypes);
- *   an empty query value counts as absent; defaults are filled in. The handler reads the coerced values
- *   from `req.params` and `req.query`.
+ *   a query value is trimmed and an empty one counts as absent; a repeated parameter counts once (its last
+ *   value) unless the field is a list (`type: "array"`): a list is given comma-separated or repeated, or
+ *   both (`kind=bipartite,unipartite`, `kind=bipartite&kind=unipartite`), and `kind=` is an empty list.
+ *   true/false may be written 1/0; `"x-case": "upper"` upper-cases the text first; defaults are filled
+ *   in. The handler reads the coerced values from `req.params` and `req.query`.
+ * - Rules across fields that JSON Schema cannot say (a range's minimum above its maximum) are the
+ *   schema's `queryRules`: their problems are reported with the schema's, in the same shape.
  * - Problems answer with the project's one error shape, every field named in `details` (query and
  *   parameters by name, the body by JSON pointer): 400 by default (`bodyStatus` may say 422 for a body
  *   whose fields are refused); a path parameter that cannot be an id answers 404 "No such <title>."
  *   (there is no such thing to find), as a missing record would, saying what a good one looks like when
- *   the parameter's schema has a `form`.
+ *   the parameter's schema has a `form`. A field's `x-rule` replaces the generic wording of its rule; a
+ *   refused item of a list is quoted.
+ * - readQuery() applies the same reading to query-like objects that arrive some other way (a catalogue
+ *   filter inside a JSON body), so they are checked by the same schema.
  */
 import type { RequestHandler } from "express";
 import { Ajv2020 } from "ajv/dist/2020.js";
@@ -33,8 +41,20 @@ export interface FieldSchema {
   pattern?: string;
   default?: unknown;
   example?: unknown;
+  /** Lists (`type: "array"`): the items' schema (or each position's, `prefixItems`) and how many. */
+  items?: FieldSchema;
+  prefixItems?: FieldSchema[];
+  minItems?: number;
+  maxItems?: number;
+  /** Query text only: "upper" upper-cases the value (each item of a list) before it is checked. */
+  "x-case"?: "upper";
+  /** The rule as a sentence's end, when the generic wording (describeRule) would not say it well. */
+  "x-rule"?: string;
   [key: string]: unknown;
 }
+
+/** Rules across query fields that JSON Schema cannot say; `failed` holds the fields already refused. */
+export type QueryRules = (query: Record<string, unknown>, failed: ReadonlySet<string>) => ErrorDetail[];
 
 export interface ObjectSchema {
   type: "object";
@@ -47,6 +67,7 @@ export interface ObjectSchema {
 export interface RequestSchema {
   params?: ObjectSchema;
   query?: ObjectSchema;
+  queryRules?: QueryRules;
   body?: ObjectSchema;
   /** Status of a refused body (default 400). */
   bodyStatus?: 400 | 422;
@@ -63,7 +84,8 @@ function words(list: readonly unknown[]): string {
 }
 
 /** The rule of one field as a sentence's end ("must be a whole number from 1 to 100."). */
-export function describeRule(s: FieldSchema): string {
+export function describeRule(s: FieldSchema, inText = false): string {
+  if (s["x-rule"]) return s["x-rule"];
   if (Array.isArray(s.type)) {
     const nullable = s.type.includes("null");
     const one = describeRule({ ...s, type: s.type.find((t) => t !== "null") as FieldSchema["type"] });
@@ -78,6 +100,12 @@ export function describeRule(s: FieldSchema): string {
       return `must be a number${range}.`;
     case "boolean":
       return "must be true or false.";
+    case "array": {
+      const n = s.minItems !== undefined && s.minItems === s.maxItems ? `of ${s.minItems} ` : s.minItems && s.maxItems ? `of ${s.minItems} to ${s.maxItems} ` : s.maxItems ? `of at most ${s.maxItems} ` : s.minItems ? `of at least ${s.minItems} ` : "";
+      const it = s.items ?? {};
+      const what = it.enum ? `values from ${words(it.enum)}` : (it.title ?? (it.type === "integer" ? "whole numbers" : it.type === "number" ? "numbers" : it.type === "boolean" ? "true or false values" : "values"));
+      return `must be a list ${n}${what}${inText ? " (comma-separated or repeated)" : ""}.`;
+    }
     case "string": {
       const len = s.minLength && s.maxLength ? ` of ${s.minLength} to ${s.maxLength} characters` : s.maxLength ? ` of at most ${s.maxLength} characters` : s.minLength ? ` of at least ${s.minLength} character${s.minLength === 1 ? "" : "s"}` : "";
       return `must be text${len}${s.pattern === "\\S" ? ", not only spaces" : ""}.`;
@@ -87,26 +115,59 @@ export function describeRule(s: FieldSchema): string {
   }
 }
 
-function detailsOf(errors: ErrorObject[], schema: ObjectSchema, where: "params" | "query" | "body"): ErrorDetail[] {
+function detailsOf(errors: ErrorObject[], schema: ObjectSchema, where: "params" | "query" | "body", data: Record<string, unknown>): ErrorDetail[] {
   const out = new Map<string, ErrorDetail>();
+  const inText = where !== "body";
   for (const e of errors) {
     let field: string;
     let message: string;
     if (e.keyword === "required") {
       field = (e.params as { missingProperty: string }).missingProperty;
-      message = `${field} is required: it ${describeRule(schema.properties[field] ?? {})}`;
+      message = `${field} is required: it ${describeRule(schema.properties[field] ?? {}, inText)}`;
     } else if (e.keyword === "additionalProperties") {
       field = (e.params as { additionalProperty: string }).additionalProperty;
-      message = `${field} is not a field of this request (fields: ${words(Object.keys(schema.properties))}).`;
+      const known = words(Object.keys(schema.properties));
+      message = where === "body" ? `${field} is not a field of this request (fields: ${known}).` : `Unknown parameter "${field}". Known: ${known}.`;
     } else {
-      field = e.instancePath.split("/")[1] ?? "";
+      const [, name = "", index] = e.instancePath.split("/");
+      field = name;
       const s = schema.properties[field];
-      message = s ? `${field} ${describeRule(s)}` : `${field || "The request"}: ${e.message ?? "not valid"}.`;
+      const item = s?.type === "array" && index !== undefined && !s["x-rule"] ? (s.items ?? s.prefixItems?.[Number(index)]) : undefined;
+      const value = item && Array.isArray(data[field]) ? (data[field] as unknown[])[Number(index)] : undefined;
+      message = item ? `${field}: ${JSON.stringify(value)} ${describeRule(item, inText)}` : s ? `${field} ${describeRule(s, inText)}` : `${field || "The request"}: ${e.message ?? "not valid"}.`;
     }
     const path = where === "body" ? `/${field}` : field;
     if (!out.has(path)) out.set(path, { path, message });
   }
   return [...out.values()];
+}
+
+function cased(s: FieldSchema | undefined, x: unknown): unknown {
+  if (typeof x !== "string" || !s) return x;
+  if (s["x-case"] === "upper") return x.toUpperCase();
+  if (s.type === "boolean" && (x === "1" || x === "0")) return x === "1";
+  return x;
+}
+
+/** Query text as the schema reads it: trimmed, empty = absent, lists split on commas, a repeated scalar's last value. */
+function fromText(schema: ObjectSchema, raw: Record<string, unknown>): Record<string, unknown> {
+  const out: Record<string, unknown> = {};
+  for (const [k, v] of Object.entries(raw)) {
+    const s = schema.properties[k];
+    if (s?.type === "array") {
+      const list = (Array.isArray(v) ? v : [v])
+        .flatMap((x) => (x === undefined || x === null ? [] : typeof x === "string" ? x.split(",") : [x]))
+        .map((x) => (typeof x === "string" ? x.trim() : x))
+        .filter((x) => x !== "");
+      out[k] = list.map((x, i) => cased(s.items ?? s.prefixItems?.[i], x));
+      continue;
+    }
+    const x = Array.isArray(v) && s && v.length ? v[v.length - 1] : v;
+    const t = typeof x === "string" ? x.trim() : x;
+    if (t === "" || t === undefined) continue;
+    out[k] = cased(s, t);
+  }
+  return out;
 }
 
 const compiled = new WeakMap<ObjectSchema, ValidateFunction>();
@@ -119,10 +180,22 @@ function compile(ajv: Ajv2020, s: ObjectSchema): ValidateFunction {
   return v;
 }
 
+/**
+ * A query-like object read and checked as validate() reads `req.query` (coerced values, defaults filled
+ * in), or a 400 naming every refused field.
+ */
+export function readQuery(schema: ObjectSchema, raw: Record<string, unknown>, rules?: QueryRules): Record<string, unknown> {
+  const check = compile(textAjv, schema);
+  const q = fromText(schema, raw);
+  const d = check(q) ? [] : detailsOf(check.errors ?? [], schema, "query", q);
+  if (rules) d.push(...rules(q, new Set(d.map((x) => x.path ?? ""))));
+  if (d.length) throw ApiError.badRequest(d.length === 1 ? d[0].message : "Some query parameters are not valid.", d);
+  return q;
+}
+
 /** The middleware: checks (and coerces) params, query and body against `schema` before the handler runs. */
 export function validate(schema: RequestSchema): RequestHandler {
   const params = schema.params && compile(textAjv, schema.params);
-  const query = schema.query && compile(textAjv, schema.query);
   const body = schema.body && compile(bodyAjv, schema.body);
   const mw: RequestHandler = (req, _res, next) => {
     if (params && schema.params) {
@@ -137,20 +210,15 @@ export function validate(schema: RequestSchema): RequestHandler {
       }
       Object.defineProperty(req, "params", { value: p, writable: true, configurable: true, enumerable: true });
     }
-    if (query && schema.query) {
-      const q: Record<string, unknown> = {};
-      for (const [k, v] of Object.entries(req.query as Record<string, unknown>)) if (v !== "") q[k] = v;
-      if (!query(q)) {
-        const d = detailsOf(query.errors ?? [], schema.query, "query");
-        throw ApiError.badRequest(d.length === 1 ? d[0].message : "Some query parameters are not valid.", d);
-      }
+    if (schema.query) {
+      const q = readQuery(schema.query, req.query as Record<string, unknown>, schema.queryRules);
       Object.defineProperty(req, "query", { value: q, writable: true, configurable: true, enumerable: true });
     }
     if (body && schema.body) {
       const b: unknown = req.body ?? {};
       if (!b || typeof b !== "object" || Array.isArray(b)) throw ApiError.badRequest("The request body must be a JSON object.", [{ path: "/", message: "The request body must be a JSON object." }]);
       if (!body(b)) {
-        const d = detailsOf(body.errors ?? [], schema.body, "body");
+        const d = detailsOf(body.errors ?? [], schema.body, "body", b as Record<string, unknown>);
         const message = schema.bodyMessage ?? (d.length === 1 ? d[0].message : "Some fields need attention.");
         throw new ApiError(schema.bodyStatus ?? 400, schema.bodyStatus === 422 ? "validation_failed" : "bad_request", message, d);
       }

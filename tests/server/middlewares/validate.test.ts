@@ -6,7 +6,7 @@
 import express from "express";
 import request from "supertest";
 import { describe, expect, it } from "vitest";
-import { validate } from "../../../server/src/middlewares/validate";
+import { readQuery, validate, type ObjectSchema } from "../../../server/src/middlewares/validate";
 import { errorHandler } from "../../../server/src/middlewares/error-handler";
 import { userListSchema } from "../../../server/src/api/users/users.schemas";
 import { createTokenSchema, revokeTokenSchema } from "../../../server/src/api/tokens/tokens.schemas";
@@ -20,6 +20,20 @@ app.delete("/tokens/:id", validate(revokeTokenSchema), (req, res) => void res.js
 app.get("/datasets/:accession", validate(datasetSchema), (req, res) => void res.json({ params: req.params, query: req.query }));
 app.get("/datasets/:accession/versions/:n/networks/:pos/file", validate(networkFileSchema), (req, res) => void res.json({ params: req.params }));
 app.post("/datasets/:accession/withdraw", validate(withdrawSchema), (req, res) => void res.json({ body: req.body }));
+const listSchema: ObjectSchema = {
+  type: "object",
+  properties: {
+    kind: { type: "array", items: { type: "string", enum: ["bipartite", "unipartite"] } },
+    weighted: { type: "array", items: { type: "boolean" } },
+    code: { type: "array", items: { type: "string", "x-case": "upper" }, maxItems: 2 },
+    min: { type: "number" },
+    max: { type: "number" },
+  },
+  additionalProperties: false,
+};
+const inOrder = (q: Record<string, unknown>, failed: ReadonlySet<string>) =>
+  typeof q.min === "number" && typeof q.max === "number" && !failed.has("min") && q.min > q.max ? [{ path: "min", message: "min is above max." }] : [];
+app.get("/lists", validate({ query: listSchema, queryRules: inOrder }), (req, res) => void res.json({ query: req.query }));
 app.use(errorHandler);
 
 describe("validate(schema)", () => {
@@ -95,5 +109,26 @@ describe("validate(schema)", () => {
       expect(res.body.message).toBe("A reason is required to withdraw a dataset: say why; it is shown on the tombstone page.");
       expect(res.body.details[0].path).toBe("/reason");
     }
+  });
+
+  it("reads lists comma-separated or repeated, true/false as 1/0, an empty list as empty, and upper-cases on request", async () => {
+    const res = await request(app).get("/lists?kind=bipartite,%20unipartite&weighted=1&weighted=false&code=no,fi&min=2");
+    expect(res.body.query).toEqual({ kind: ["bipartite", "unipartite"], weighted: [true, false], code: ["NO", "FI"], min: 2 });
+    expect((await request(app).get("/lists?kind=")).body.query).toEqual({ kind: [] });
+  });
+
+  it("quotes a refused item of a list, names an unknown parameter and runs the rules across fields", async () => {
+    const res = await request(app).get("/lists?kind=bipartite,tree&weighted=maybe&colour=red&code=a,b,c&min=5&max=1");
+    expect(res.status).toBe(400);
+    expect(res.body.details).toEqual([
+      { path: "colour", message: 'Unknown parameter "colour". Known: kind, weighted, code, min, max.' },
+      { path: "kind", message: 'kind: "tree" must be one of bipartite, unipartite.' },
+      { path: "weighted", message: 'weighted: "maybe" must be true or false.' },
+      { path: "code", message: "code must be a list of at most 2 values (comma-separated or repeated)." },
+      { path: "min", message: "min is above max." },
+    ]);
+    // the same reading for a query-like object that arrives in a body
+    expect(readQuery(listSchema, { kind: ["unipartite"], min: 1, max: "3" }, inOrder)).toEqual({ kind: ["unipartite"], min: 1, max: 3 });
+    expect(() => readQuery(listSchema, { min: 4, max: 3 }, inOrder)).toThrow("min is above max.");
   });
 });

@@ -8,12 +8,13 @@
  */
 import { Router } from "express";
 import { apiRateLimit } from "../../middlewares/api-rate-limit";
+import { validate } from "../../middlewares/validate";
 import { getCompareRows } from "./compare.service";
-import { parseRefs } from "./compare.validation";
+import { compareSchema } from "./compare.schemas";
 
 export const compareRouter = Router();
 compareRouter.use(apiRateLimit); // public reads: the read API's limit, per token or IP
 
-compareRouter.get("/", async (req, res) => {
-  res.json(await getCompareRows(parseRefs(req.query.refs), req.user));
+compareRouter.get("/", validate(compareSchema), async (req, res) => {
+  res.json(await getCompareRows([...new Set(req.query.refs as unknown as string[])], req.user));
 });

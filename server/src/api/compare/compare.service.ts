@@ -2,7 +2,7 @@
  * The compare view's rows: a light summary of each network asked for, with its current metrics.
  */
 import type { NetworkMetadata, StudyMetadata } from "@shared/types/dataset";
-import { MAX_COMPARE, type CompareRowsResponse, type CompareUnavailable, type NetworkCompareRow } from "@shared/types/network-view";
+import { type CompareRowsResponse, type CompareUnavailable, type NetworkCompareRow } from "@shared/types/network-view";
 import { getCurrentMetrics } from "../../pipeline/metrics-read";
 import { ApiError } from "../../lib/api-error";
 import { hasRole } from "../../middlewares/require-role";
@@ -16,9 +16,9 @@ const REF_RE = /^(TB-\d{6})\/v(\d{1,6})\/(\d{1,6})$/;
  * Light rows for the compare view, in the order asked. A reference that cannot be plotted (malformed,
  * unknown, a draft the reader may not see, withdrawn) does not fail the others: it is listed in
  * `unavailable` with the reason (a withdrawn one with its tombstone), so a shared link keeps working.
+ * How many may be asked for at once is the route's schema (compare.schemas.ts).
  */
 export async function getCompareRows(refs: string[], user: AuthUser | undefined): Promise<CompareRowsResponse> {
-  if (refs.length > MAX_COMPARE) throw ApiError.badRequest(`At most ${MAX_COMPARE} networks can be compared at once; got ${refs.length}.`, [{ path: "refs", message: "too many" }]);
   const found: Array<{ ref: string; net: Network; title: string }> = [];
   const unavailable: CompareUnavailable[] = [];
   for (const ref of refs) {

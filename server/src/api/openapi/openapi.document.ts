@@ -16,6 +16,8 @@ import { createTokenSchema, revokeTokenSchema } from "../tokens/tokens.schemas";
 import { networkCsvSchema, networkRefSchema, networkSchema } from "../networks/networks.schemas";
 import { networkViewSchema } from "../network-views/network-views.schemas";
 import { datasetSchema, datasetVersionSchema, networkFileSchema, newVersionSchema, withdrawSchema } from "../datasets/datasets.schemas";
+import { datasetPreviewSchema, networkPreviewSchema } from "../previews/previews.schemas";
+import { compareSchema } from "../compare/compare.schemas";
 import { operationInput } from "./from-schemas";
 
 /** Resources used only by the web client (accounts, deposits, review, administration): not part of the public API. */
@@ -346,7 +348,7 @@ export function openapiDocument(): Json {
           tags: ["Networks"],
           operationId: "getDatasetPreview",
           summary: "Link-preview image of a dataset version (1200 × 630 PNG): its first three networks' matrices ordered by module, each with a strip of its modules' sizes",
-          parameters: [pathParam("accession", "Dataset accession", "TB-000001"), pathParam("version", "Version, written v1, v2, …", "v1")],
+          ...operationInput(datasetPreviewSchema),
           responses: { 200: { description: "PNG (cached; ETag)", content: { "image/png": { schema: { type: "string", contentEncoding: "binary" } } } }, 404: error("Not found"), 410: error("Withdrawn") },
         },
       },
@@ -355,7 +357,7 @@ export function openapiDocument(): Json {
           tags: ["Networks"],
           operationId: "getNetworkPreview",
           summary: "Link-preview image of a network (1200 × 630 PNG): its matrix ordered by module, with a strip of its modules' sizes",
-          parameters: NETWORK_REF_PARAMS,
+          ...operationInput(networkPreviewSchema),
           responses: { 200: { description: "PNG (cached; ETag)", content: { "image/png": { schema: { type: "string", contentEncoding: "binary" } } } }, 404: error("Not found"), 410: error("Withdrawn") },
         },
       },
@@ -366,7 +368,7 @@ export function openapiDocument(): Json {
         get: { tags: ["Networks"], operationId: "getNetworkMetrics", summary: "Current metrics of one network", ...operationInput(networkRefSchema), responses: { 200: json({ type: "object", properties: { ref: { type: "string" }, metrics: ref("Metrics") } }), 404: error("Not found"), 410: error("Withdrawn") } },
       },
       "/network-views/summaries": {
-        get: { tags: ["Networks"], operationId: "getNetworkSummaries", summary: "Compact summaries of several networks (for comparisons)", description: "Rows in the order asked (at most 60). References that cannot be plotted do not fail the request: meta.unavailable lists each with its reason (malformed, unknown, withdrawn with the tombstone).", parameters: [queryParam("refs", "Comma-separated network references", { type: "string" }, "TB-000001/v1/1,TB-000001/v1/2")], responses: { 200: json({ type: "object" }) } },
+        get: { tags: ["Networks"], operationId: "getNetworkSummaries", summary: "Compact summaries of several networks (for comparisons)", description: "Rows in the order asked (at most 60). References that cannot be plotted do not fail the request: meta.unavailable lists each with its reason (malformed, unknown, withdrawn with the tombstone).", ...operationInput(compareSchema), responses: { 200: json({ type: "object" }), 400: error("No references, or too many (details name refs)") } },
       },
       "/network-views/map": {
         get: {

@@ -10,7 +10,9 @@
  */
 import { Router, type Response } from "express";
 import { apiRateLimit } from "../../middlewares/api-rate-limit";
+import { validate } from "../../middlewares/validate";
 import { datasetPreview, networkPreview, type Preview } from "./previews.service";
+import { datasetPreviewSchema, networkPreviewSchema } from "./previews.schemas";
 
 export const previewsRouter = Router();
 previewsRouter.use(apiRateLimit);
@@ -22,10 +24,12 @@ function send(res: Response, p: Preview) {
   res.send(p.png);
 }
 
-previewsRouter.get("/:accession/:version.png", async (req, res) => {
-  send(res, await datasetPreview(req.params.accession, req.params.version, req.user));
+previewsRouter.get("/:accession/:version.png", validate(datasetPreviewSchema), async (req, res) => {
+  const { accession, version } = req.params as Record<string, string>;
+  send(res, await datasetPreview(accession, version, req.user));
 });
 
-previewsRouter.get("/:accession/:version/:position.png", async (req, res) => {
-  send(res, await networkPreview(req.params.accession, req.params.version, req.params.position, req.user));
+previewsRouter.get("/:accession/:version/:position.png", validate(networkPreviewSchema), async (req, res) => {
+  const { accession, version, position } = req.params as unknown as { accession: string; version: string; position: number };
+  send(res, await networkPreview(accession, version, position, req.user));
 });

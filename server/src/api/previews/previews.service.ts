@@ -66,9 +66,8 @@ export function datasetPreview(accession: string, version: string, user: AuthUse
 }
 
 /** The card of one network. */
-export function networkPreview(accession: string, version: string, position: string, user: AuthUser | undefined): Promise<Preview> {
-  if (!/^\d{1,5}$/.test(position) || Number(position) < 1) throw ApiError.notFound(`No network "${position}": networks are numbered 1, 2, …`);
-  return render(accession, version, Number(position), user);
+export function networkPreview(accession: string, version: string, position: number, user: AuthUser | undefined): Promise<Preview> {
+  return render(accession, version, position, user);
 }
 
 /** Forgets every card (tests). */

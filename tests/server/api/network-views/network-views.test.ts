@@ -189,9 +189,13 @@ describe("GET /api/v1/network-views/summaries", () => {
     expect(none.body.data).toEqual([]);
     expect(none.body.meta.unavailable).toHaveLength(1);
     // no refs at all, or too many, is still a bad request
-    expect((await request(app).get("/api/v1/network-views/summaries")).status).toBe(400);
+    const missing = await request(app).get("/api/v1/network-views/summaries");
+    expect(missing.status).toBe(400);
+    expect(missing.body.details).toEqual([{ path: "refs", message: "refs is required: it must be a list of 1 to 60 network references such as TB-000042/v2/3 (comma-separated or repeated)." }]);
     const many = Array.from({ length: 61 }, (_, i) => `TB-000001/v1/${i + 1}`).join(",");
-    expect((await request(app).get("/api/v1/network-views/summaries").query({ refs: many })).status).toBe(400);
+    const tooMany = await request(app).get("/api/v1/network-views/summaries").query({ refs: many });
+    expect(tooMany.status).toBe(400);
+    expect(tooMany.body.details).toEqual([{ path: "refs", message: "refs must be a list of 1 to 60 network references such as TB-000042/v2/3 (comma-separated or repeated)." }]);
   });
 });
 

@@ -78,7 +78,12 @@ describe("preview images", () => {
     expect((await request(app).get("/api/v1/previews/TB-000004/v1.png")).status).toBe(404);
     expect((await request(app).get("/api/v1/previews/TB-000099/v1.png")).status).toBe(404);
     expect((await request(app).get("/api/v1/previews/TB-000001/v1/9.png")).status).toBe(404);
-    expect((await request(app).get("/api/v1/previews/TB-000001/vx/1.png")).status).toBe(404);
+    const badVersion = await request(app).get("/api/v1/previews/TB-000001/vx/1.png");
+    expect(badVersion.status).toBe(404);
+    expect(badVersion.body.message).toBe('No such version "vx": versions are written v1, v2, …');
+    const badPosition = await request(app).get("/api/v1/previews/TB-000001/v1/0.png");
+    expect(badPosition.body).toEqual({ code: "not_found", message: 'No such network "0": networks are numbered 1, 2, …' });
+    expect((await request(app).get("/api/v1/previews/TB-1/v1.png")).body.message).toBe('No such dataset "TB-1": accessions look like TB-000042.');
     const a = await agentFor(app, owner.email, FIXTURE_PASSWORD);
     const own = await a.agent.get("/api/v1/previews/TB-000004/v1.png").buffer(true);
     expect(own.status).toBe(200);
