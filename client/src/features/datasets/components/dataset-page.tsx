@@ -8,7 +8,12 @@ import { useDatasetHistory } from "../api/get-dataset-history";
 import { CitationBlock } from "./citation-block";
 import { WithdrawSection } from "./withdraw-section";
 import { DoiLine } from "../../../components/ui/doi";
-import { HistorySection, LocalitySection, NetworksSection, StudySection, TombstoneView, VersionsSection } from "./dataset-sections";
+import { HistorySection } from "./history-section";
+import { LocalitySection } from "./locality-section";
+import { NetworksSection } from "./networks-section";
+import { StudySection } from "./study-section";
+import { TombstoneView } from "./tombstone-view";
+import { VersionsSection } from "./versions-section";
 
 export function DatasetPage({ accession, version, isCurator }: { accession: string; version: number | null; isCurator: boolean }) {
   const q = useDataset(accession, version);
