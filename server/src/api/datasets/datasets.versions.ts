@@ -7,7 +7,7 @@ import { ApiError } from "../../lib/api-error";
 import { audit } from "../../lib/audit";
 import { hasRole } from "../../middlewares/require-role";
 import { Dataset, DatasetVersion } from "../../models";
-import { depositDetail, type DepositDetail } from "../deposits/deposits.service";
+import { depositDetail, type DepositDetail } from "../deposits/deposits.detail";
 import type { Viewer } from "./datasets.service";
 
 /** Owner starts v(n+1) as a draft copied from the latest published version (files shared). */

@@ -24,7 +24,7 @@ import { sendMail } from "../../emails/mailer";
 import { submissionCommentEmail } from "../../emails/templates/submission-comment";
 import type { ThreadEntry, ThreadResponse } from "@shared/types/review";
 import type { Viewer } from "../datasets/datasets.service";
-import { loadVisibleVersion } from "./deposits.service";
+import { loadVisibleVersion } from "./deposits.access";
 
 export const MAX_COMMENT_CHARS = 10_000;
 

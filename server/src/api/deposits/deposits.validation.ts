@@ -4,7 +4,7 @@ import { streamUpload } from "../../lib/upload-storage";
 import { checkBodyValue } from "../../middlewares/body";
 import { notANetworkFile } from "./deposits.upload";
 import { ApiError } from "../../lib/api-error";
-import type { UploadOptions } from "./deposits.service";
+import type { UploadOptions } from "./deposits.files";
 import type { NetworkReadOptions } from "../../models/network.model";
 
 const MEANINGS = ["no-interaction", "not-observed"];

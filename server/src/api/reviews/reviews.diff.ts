@@ -17,7 +17,7 @@ import { sequelize } from "../../db/sequelize";
 import type { CanonicalNetworkJson } from "@shared/network/parse/serialize";
 import type { CellChange, CellDiff, FieldChange, NetworkChange, NetworkSide, SubmissionDiff, SubmissionDiffResponse } from "@shared/types/review";
 import type { Viewer } from "../datasets/datasets.service";
-import { loadVisibleVersion } from "../deposits/deposits.service";
+import { loadVisibleVersion } from "../deposits/deposits.access";
 
 /** A network as a snapshot records it. */
 export interface SnapshotNetwork {

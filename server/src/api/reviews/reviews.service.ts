@@ -27,7 +27,10 @@ import { doisOfDataset, requestDoiSync, reserveDois } from "../../dois/dois";
 import { sendMail } from "../../emails/mailer";
 import { reviewDecisionEmail, type DecisionKind } from "../../emails/templates/review-decision";
 import type { Viewer } from "../datasets/datasets.service";
-import { depositDetail, loadCuratorEditable, loadVisibleVersion, submissionProblems, updateNetwork } from "../deposits/deposits.service";
+import { loadCuratorEditable, loadVisibleVersion } from "../deposits/deposits.access";
+import { depositDetail } from "../deposits/deposits.detail";
+import { updateNetwork } from "../deposits/deposits.networks";
+import { submissionProblems } from "../deposits/deposits.submission";
 
 export type Decision = "publish" | "request_changes" | "decline";
 

@@ -13,7 +13,9 @@
 import { createRng, type Rng } from "@shared/network/random";
 import type { StudyMetadata } from "@shared/types/dataset";
 import { Dataset, User } from "../../models";
-import { addNetworks, createDeposit, submitDeposit, updateNetwork, updateStudyMetadata } from "../../api/deposits/deposits.service";
+import { createDeposit, updateStudyMetadata } from "../../api/deposits/deposits.service";
+import { addNetworks, updateNetwork } from "../../api/deposits/deposits.networks";
+import { submitDeposit } from "../../api/deposits/deposits.submission";
 import { decide } from "../../api/reviews/reviews.service";
 import { startNewVersion } from "../../api/datasets/datasets.versions";
 import { withdrawDataset } from "../../api/datasets/datasets.withdrawal";

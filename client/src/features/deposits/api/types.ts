@@ -1,4 +1,4 @@
-/** Response shapes of /api/v1/deposits (server/src/api/deposits/deposits.service.ts). */
+/** Response shapes of /api/v1/deposits (server/src/api/deposits/deposits.detail.ts and beside it). */
 import type { VersionState } from "@shared/types/dataset";
 
 export type { DepositDetail, DepositListItem } from "@shared/types/deposit";
