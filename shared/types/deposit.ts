@@ -30,3 +30,13 @@ export interface DepositListItem {
   /** A published version whose dataset has no open draft: a new version may be started from it. */
   canStartNewVersion: boolean;
 }
+
+/** A value problem of an uploaded metadata sheet, by its cell (PUT /deposits/:id/metadata-sheet answers a list). */
+export interface SheetCellProblem {
+  row: number;
+  column: number | null;
+  columnName: string;
+  field: string;
+  network: number;
+  message: string;
+}

@@ -4,6 +4,7 @@
  * sampling) to every other network. Values are saved as drafts are; their problems are answered per cell.
  */
 import { Op } from "sequelize";
+import type { SheetCellProblem } from "@shared/types/deposit";
 import { ApiError } from "../../lib/api-error";
 import { audit } from "../../lib/audit";
 import { Network } from "../../models";
@@ -19,15 +20,6 @@ export async function getMetadataSheet(versionId: number, viewer: Viewer): Promi
   const networks = await Network.findAll({ where: { versionId: version.id }, order: [["position", "ASC"]] });
   const stem = dataset.accession ? `${dataset.accession}-v${version.number}` : `deposit-${version.id}`;
   return { name: `${stem}-network-metadata.csv`, csv: writeSheet(networks.map((n) => ({ position: n.position, originalName: n.originalName, metadata: n.metadata ?? {} }))) };
-}
-
-export interface SheetCellProblem {
-  row: number;
-  column: number | null;
-  columnName: string;
-  field: string;
-  network: number;
-  message: string;
 }
 
 /**

@@ -6,6 +6,7 @@
  */
 import { useMutation, useQueryClient } from "@tanstack/react-query";
 import { apiFetch } from "../../../lib/api-client";
+import type { SheetCellProblem } from "@shared/types/deposit";
 import { depositKeys, type DepositDetail } from "./types";
 
 export const createDeposit = (metadata: unknown) => apiFetch<DepositDetail>("/deposits", { method: "POST", json: { metadata } });
@@ -27,14 +28,6 @@ export const uploadNetworks = (id: number, files: File[], opts: { kind: string; 
 };
 export const updateNetwork = (id: number, networkId: number, changes: { metadata?: unknown; kind?: string; directed?: boolean } & FileReadOptions) =>
   apiFetch<DepositDetail>(`/deposits/${id}/networks/${networkId}`, { method: "PATCH", json: changes });
-export interface SheetCellProblem {
-  row: number;
-  column: number | null;
-  columnName: string;
-  field: string;
-  network: number;
-  message: string;
-}
 export const uploadMetadataSheet = (id: number, csv: string) => apiFetch<{ deposit: DepositDetail; cells: SheetCellProblem[]; rows: number }>(`/deposits/${id}/metadata-sheet`, { method: "PUT", json: { csv } });
 export type BlockName = "locality" | "habitat" | "dates" | "sampling";
 export const applyBlocks = (id: number, from: number, blocks: BlockName[]) => apiFetch<DepositDetail>(`/deposits/${id}/networks/apply`, { method: "POST", json: { from, blocks } });

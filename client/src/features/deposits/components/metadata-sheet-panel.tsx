@@ -6,7 +6,8 @@
 import { useState } from "react";
 import { ApiClientError } from "../../../lib/api-client";
 import { Alert, Button } from "../../../components/ui/form";
-import { uploadMetadataSheet, useDepositMutation, type SheetCellProblem } from "../api/mutations";
+import type { SheetCellProblem } from "@shared/types/deposit";
+import { uploadMetadataSheet, useDepositMutation } from "../api/mutations";
 import type { DepositDetail } from "../api/types";
 
 export function networkStatus(d: DepositDetail, networkId: number): { problems: number; label: string } {
