@@ -17,7 +17,8 @@
  *   whose fields are refused); a path parameter that cannot be an id answers 404 "No such <title>."
  *   (there is no such thing to find), as a missing record would, saying what a good one looks like when
  *   the parameter's schema has a `form`. A field's `x-rule` replaces the generic wording of its rule; a
- *   refused item of a list is quoted.
+ *   refused item of a list is quoted; a nested field of a body is named by its whole path
+ *   (`/settings/nulls`, "settings.nulls must be …").
  * - readQuery() applies the same reading to query-like objects that arrive some other way (a catalogue
  *   filter inside a JSON body), so they are checked by the same schema.
  */
@@ -91,6 +92,9 @@ export function describeRule(s: FieldSchema, inText = false): string {
     const one = describeRule({ ...s, type: s.type.find((t) => t !== "null") as FieldSchema["type"] });
     return nullable ? `${one.slice(0, -1)} (or null).` : one;
   }
+  const alternatives = (s.anyOf ?? s.oneOf) as FieldSchema[] | undefined;
+  if (alternatives) return `must be ${alternatives.map((x) => describeRule(x, inText).replace(/^must be /, "").replace(/\.$/, "")).join(" or ")}.`;
+  if (s.const !== undefined) return `must be ${JSON.stringify(s.const)}.`;
   if (s.enum) return `must be one of ${words(s.enum)}.`;
   const range = s.minimum !== undefined && s.maximum !== undefined ? ` from ${s.minimum} to ${s.maximum}` : s.minimum !== undefined ? ` of at least ${s.minimum}` : s.maximum !== undefined ? ` of at most ${s.maximum}` : "";
   switch (s.type) {
@@ -104,39 +108,71 @@ export function describeRule(s: FieldSchema, inText = false): string {
       const n = s.minItems !== undefined && s.minItems === s.maxItems ? `of ${s.minItems} ` : s.minItems && s.maxItems ? `of ${s.minItems} to ${s.maxItems} ` : s.maxItems ? `of at most ${s.maxItems} ` : s.minItems ? `of at least ${s.minItems} ` : "";
       const it = s.items ?? {};
       const what = it.enum ? `values from ${words(it.enum)}` : (it.title ?? (it.type === "integer" ? "whole numbers" : it.type === "number" ? "numbers" : it.type === "boolean" ? "true or false values" : "values"));
-      return `must be a list ${n}${what}${inText ? " (comma-separated or repeated)" : ""}.`;
+      return `must be a list ${n}${s.uniqueItems ? "different " : ""}${what}${inText ? " (comma-separated or repeated)" : ""}.`;
     }
     case "string": {
       const len = s.minLength && s.maxLength ? ` of ${s.minLength} to ${s.maxLength} characters` : s.maxLength ? ` of at most ${s.maxLength} characters` : s.minLength ? ` of at least ${s.minLength} character${s.minLength === 1 ? "" : "s"}` : "";
       return `must be text${len}${s.pattern === "\\S" ? ", not only spaces" : ""}.`;
     }
+    case "object":
+      return s.properties ? `must be an object with the fields ${words(Object.keys(s.properties as object))}.` : "must be an object.";
     default:
       return `must be ${s.type ?? "given"}.`;
   }
+}
+
+const propsOf = (s: FieldSchema | ObjectSchema | undefined) => (s?.properties ?? {}) as Record<string, FieldSchema>;
+
+/**
+ * The field an error is about: the instance path walked down through the schema's properties as far as
+ * they go (a nested field of a body is named by its whole path; an error inside one of several
+ * alternatives is about the whole field).
+ */
+function fieldAt(root: ObjectSchema, pointer: string): { segs: string[]; schema?: FieldSchema } {
+  const segs: string[] = [];
+  let cur: FieldSchema | ObjectSchema = root;
+  for (const seg of pointer.split("/").slice(1)) {
+    const next: FieldSchema | undefined = propsOf(cur)[seg];
+    if (!next) break;
+    segs.push(seg);
+    cur = next;
+  }
+  return { segs, schema: segs.length ? (cur as FieldSchema) : undefined };
+}
+
+function valueAt(data: Record<string, unknown>, segs: string[]): unknown {
+  let cur: unknown = data;
+  for (const seg of segs) cur = cur && typeof cur === "object" ? (cur as Record<string, unknown>)[seg] : undefined;
+  return cur;
 }
 
 function detailsOf(errors: ErrorObject[], schema: ObjectSchema, where: "params" | "query" | "body", data: Record<string, unknown>): ErrorDetail[] {
   const out = new Map<string, ErrorDetail>();
   const inText = where !== "body";
   for (const e of errors) {
-    let field: string;
+    const at = fieldAt(schema, e.instancePath);
+    const parent: FieldSchema | ObjectSchema = at.schema ?? schema;
+    let segs: string[];
     let message: string;
     if (e.keyword === "required") {
-      field = (e.params as { missingProperty: string }).missingProperty;
-      message = `${field} is required: it ${describeRule(schema.properties[field] ?? {}, inText)}`;
+      segs = [...at.segs, (e.params as { missingProperty: string }).missingProperty];
+      message = `${segs.join(".")} is required: it ${describeRule(propsOf(parent)[segs[segs.length - 1]] ?? {}, inText)}`;
     } else if (e.keyword === "additionalProperties") {
-      field = (e.params as { additionalProperty: string }).additionalProperty;
-      const known = words(Object.keys(schema.properties));
-      message = where === "body" ? `${field} is not a field of this request (fields: ${known}).` : `Unknown parameter "${field}". Known: ${known}.`;
+      segs = [...at.segs, (e.params as { additionalProperty: string }).additionalProperty];
+      const known = words(Object.keys(propsOf(parent)));
+      const field = segs.join(".");
+      message = at.segs.length ? `${field} is not a field of ${at.segs.join(".")} (fields: ${known}).` : where === "body" ? `${field} is not a field of this request (fields: ${known}).` : `Unknown parameter "${field}". Known: ${known}.`;
     } else {
-      const [, name = "", index] = e.instancePath.split("/");
-      field = name;
-      const s = schema.properties[field];
+      segs = at.segs;
+      const field = segs.join(".");
+      const s = at.schema;
+      const index = e.instancePath.split("/")[segs.length + 1];
       const item = s?.type === "array" && index !== undefined && !s["x-rule"] ? (s.items ?? s.prefixItems?.[Number(index)]) : undefined;
-      const value = item && Array.isArray(data[field]) ? (data[field] as unknown[])[Number(index)] : undefined;
+      const list = item ? valueAt(data, segs) : undefined;
+      const value = Array.isArray(list) ? list[Number(index)] : undefined;
       message = item ? `${field}: ${JSON.stringify(value)} ${describeRule(item, inText)}` : s ? `${field} ${describeRule(s, inText)}` : `${field || "The request"}: ${e.message ?? "not valid"}.`;
     }
-    const path = where === "body" ? `/${field}` : field;
+    const path = where === "body" ? `/${segs.join("/")}` : segs.join(".");
     if (!out.has(path)) out.set(path, { path, message });
   }
   return [...out.values()];

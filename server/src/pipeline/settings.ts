@@ -28,8 +28,8 @@ export const DEFAULT_PIPELINE_SETTINGS: PipelineSettings = Object.freeze({
   annealing: "auto",
 }) as PipelineSettings;
 
-const OBJECTIVES = ["auto", "newman", "newman-directed", "barber"] as const;
-const ANNEALING = ["auto", "on", "off"] as const;
+export const OBJECTIVES = ["auto", "newman", "newman-directed", "barber"] as const;
+export const ANNEALING = ["auto", "on", "off"] as const;
 
 function canonicalJson(v: unknown): string {
   if (Array.isArray(v)) return `[${v.map(canonicalJson).join(",")}]`;

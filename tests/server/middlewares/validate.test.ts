@@ -10,6 +10,7 @@ import { readQuery, validate, type ObjectSchema } from "../../../server/src/midd
 import { errorHandler } from "../../../server/src/middlewares/error-handler";
 import { userListSchema } from "../../../server/src/api/users/users.schemas";
 import { createTokenSchema, revokeTokenSchema } from "../../../server/src/api/tokens/tokens.schemas";
+import { batchStartSchema, settingsSchema } from "../../../server/src/api/pipeline/pipeline.schemas";
 import { datasetSchema, networkFileSchema, withdrawSchema } from "../../../server/src/api/datasets/datasets.schemas";
 
 const app = express();
@@ -34,6 +35,8 @@ const listSchema: ObjectSchema = {
 const inOrder = (q: Record<string, unknown>, failed: ReadonlySet<string>) =>
   typeof q.min === "number" && typeof q.max === "number" && !failed.has("min") && q.min > q.max ? [{ path: "min", message: "min is above max." }] : [];
 app.get("/lists", validate({ query: listSchema, queryRules: inOrder }), (req, res) => void res.json({ query: req.query }));
+app.put("/settings", validate(settingsSchema), (req, res) => void res.json({ body: req.body }));
+app.post("/batches", validate(batchStartSchema), (req, res) => void res.json({ body: req.body }));
 app.use(errorHandler);
 
 describe("validate(schema)", () => {
@@ -130,5 +133,28 @@ describe("validate(schema)", () => {
     // the same reading for a query-like object that arrives in a body
     expect(readQuery(listSchema, { kind: ["unipartite"], min: 1, max: "3" }, inOrder)).toEqual({ kind: ["unipartite"], min: 1, max: 3 });
     expect(() => readQuery(listSchema, { min: 4, max: 3 }, inOrder)).toThrow("min is above max.");
+  });
+
+  it("names each refused pipeline setting with its rule, nested ones by their whole pointer", async () => {
+    const bad = await request(app).put("/settings").send({ restarts: 0, nullModels: ["curveball", "curveball"], colour: "red" });
+    expect(bad.status).toBe(400);
+    expect(bad.body.message).toBe("Some pipeline settings are not valid.");
+    const models = "curveball, probabilistic, er, totals-connectance, patefield, weight-shuffle";
+    expect(bad.body.details).toEqual([
+      { path: "/colour", message: `colour is not a field of this request (fields: objective, restarts, nullModels, nullModel, nulls, seed, annealing).` },
+      { path: "/restarts", message: "restarts must be a whole number from 1 to 1000." },
+      { path: "/nullModels", message: `nullModels must be "standard" or a list of 1 to 6 different values from ${models}.` },
+    ]);
+    const ok = await request(app).put("/settings").send({ nullModels: ["er", "curveball"], seed: 7 });
+    expect(ok.status).toBe(200);
+    const batch = await request(app).post("/batches").send({ settings: { nulls: -1, shade: 1 }, force: "yes" });
+    expect(batch.body.message).toBe("The batch request is not valid.");
+    expect(batch.body.details).toEqual([
+      { path: "/settings/shade", message: "settings.shade is not a field of settings (fields: objective, restarts, nullModels, nullModel, nulls, seed, annealing)." },
+      { path: "/settings/nulls", message: "settings.nulls must be a whole number from 0 to 10000." },
+      { path: "/force", message: "force must be true or false." },
+    ]);
+    const none = await request(app).post("/batches").send({});
+    expect(none.body.body).toEqual({ force: false });
   });
 });

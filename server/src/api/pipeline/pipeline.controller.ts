@@ -1,18 +1,27 @@
 import type { Request, Response } from "express";
-import { getPipelineSettings } from "../../pipeline/settings";
+import type { PipelineSettings } from "@shared/types/pipeline";
+import { getPipelineSettings, validateSettings } from "../../pipeline/settings";
 import * as service from "./pipeline.service";
-import * as v from "./pipeline.validation";
 
-/** Ids, pages and filters are checked and coerced by validate() in pipeline.routes.ts. */
+/** Ids, pages, filters and bodies are checked (and coerced) by validate() in pipeline.routes.ts. */
 const idOf = (req: Request): number => (req.params as unknown as { id: number }).id;
+
+/** Settings a body changes (checked by settingsSchema), merged over the current ones. */
+async function withChanges(changes: Record<string, unknown> | undefined): Promise<PipelineSettings> {
+  const current = await getPipelineSettings();
+  if (!changes) return current;
+  const { settings, errors } = validateSettings(changes, current);
+  // the route's schema and the pipeline's reader accept the same settings: a difference is a defect
+  if (!settings) throw new Error(`settings accepted by the route but refused by the pipeline: ${JSON.stringify(errors)}`);
+  return settings;
+}
 
 export async function getSettings(_req: Request, res: Response) {
   res.json(await service.readSettings());
 }
 
 export async function putSettings(req: Request, res: Response) {
-  const settings = v.parseSettings(req.body, await getPipelineSettings());
-  res.json(await service.updateSettings(req.user!.id, settings));
+  res.json(await service.updateSettings(req.user!.id, await withChanges(req.body as Record<string, unknown>)));
 }
 
 export async function listBatches(req: Request, res: Response) {
@@ -24,14 +33,16 @@ export async function currentBatch(_req: Request, res: Response) {
   res.json({ batch: await service.currentBatch() });
 }
 
+type BatchStart = { settings?: Record<string, unknown>; force: boolean };
+
 export async function startBatch(req: Request, res: Response) {
-  const { settings, force } = v.parseBatchStart(req.body, await getPipelineSettings());
-  res.status(201).json(await service.startBatch(req.user!.id, settings, force));
+  const { settings, force } = req.body as BatchStart;
+  res.status(201).json(await service.startBatch(req.user!.id, await withChanges(settings), force));
 }
 
 export async function previewBatch(req: Request, res: Response) {
-  const { settings, force } = v.parseBatchStart(req.body, await getPipelineSettings());
-  res.json(await service.previewBatch(settings, force));
+  const { settings, force } = req.body as BatchStart;
+  res.json(await service.previewBatch(await withChanges(settings), force));
 }
 
 export async function getBatch(req: Request, res: Response) {

@@ -3,17 +3,17 @@ import { Router } from "express";
 import { requireRole } from "../../middlewares/require-role";
 import { validate } from "../../middlewares/validate";
 import * as c from "./pipeline.controller";
-import { batchListSchema, batchSchema, networkSchema, runListSchema } from "./pipeline.schemas";
+import { batchListSchema, batchSchema, batchStartSchema, networkSchema, runListSchema, settingsSchema } from "./pipeline.schemas";
 
 export const pipelineRouter = Router();
 const admin = requireRole("admin");
 
 pipelineRouter.get("/settings", admin, c.getSettings);
-pipelineRouter.put("/settings", admin, c.putSettings);
+pipelineRouter.put("/settings", admin, validate(settingsSchema), c.putSettings);
 pipelineRouter.get("/queue", admin, c.queueProgress);
 pipelineRouter.get("/batches", admin, validate(batchListSchema), c.listBatches);
-pipelineRouter.post("/batches", admin, c.startBatch);
-pipelineRouter.post("/batches/preview", admin, c.previewBatch);
+pipelineRouter.post("/batches", admin, validate(batchStartSchema), c.startBatch);
+pipelineRouter.post("/batches/preview", admin, validate(batchStartSchema), c.previewBatch);
 pipelineRouter.get("/batches/current", admin, c.currentBatch);
 pipelineRouter.get("/batches/:id", admin, validate(batchSchema), c.getBatch);
 pipelineRouter.get("/batches/:id/failures", admin, validate(batchSchema), c.batchFailures);
