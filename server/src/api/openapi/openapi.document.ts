@@ -33,12 +33,6 @@ const error = (description: string) => json(ref("Error"), description);
 const pathParam = (name: string, description: string, example: string) => ({ name, in: "path", required: true, description, schema: { type: "string" }, example });
 const queryParam = (name: string, description: string, schema: Json = { type: "string" }, example?: unknown) => ({ name, in: "query", required: false, description, schema, ...(example !== undefined ? { example } : {}) });
 
-const NETWORK_REF_PARAMS = [
-  pathParam("accession", "Dataset accession", "TB-000001"),
-  pathParam("version", "Version, written v1, v2, …", "v1"),
-  pathParam("position", "Network number within the version (1, 2, …)", "1"),
-];
-
 const CATALOGUE_PARAM_DOCS: Record<(typeof CATALOGUE_PARAMS)[number], [string, Json, unknown?]> = {
   q: ["Full-text search over titles, descriptions, keywords, creators, localities and node names (every word must match: as whole words when some networks have them all, else as word beginnings; `meta.searchMatch` says which).", { type: "string", maxLength: 200 }, "Verrin"],
   interactionType: ["Interaction type(s): pollination, seed-dispersal, host-parasitoid, predator-prey, herbivory, other. Repeat or comma-separate.", { type: "string" }, "pollination"],
