@@ -27,13 +27,23 @@
  * Determinism: all randomness comes from the injected generator; ties keep the current module or the
  * first candidate in CSR order; sums run in a fixed order. Math.exp is used only to weigh the random
  * choice in refinement, where a last-bit difference between JavaScript engines could change the outcome
- * only if a uniform draw fell within ~1e-16 of a boundary.
+ * only if a uniform draw fell within ~1e-16 of a boundary; clear choices skip it (CLEAR_CHOICE).
  */
 import type { Rng } from "../random";
 import { graphQuality, renumber, type QualityGraph } from "./quality-graph";
 
 /** Randomness of the refinement step (θ of the paper; 0.01 is the authors' default). */
 export const REFINEMENT_THETA = 0.01;
+/**
+ * Refinement's weighted draw picks the best candidate C* for certain, without computing its exponentials,
+ * when staying alone and every other candidate weigh at most e^−60 against C*'s 1 (gains at least 60·θ·w̄
+ * below C*'s, and C*'s gain at least 60·θ·w̄) and the uniform draw u is not 0. Proof that the draw would
+ * give the same: with fewer than 2^26 candidates, the sum of the small weights stays below 2^−54, so the
+ * floating-point total is exactly 1 (adding less than half an ulp of 1 leaves 1); r = u − stay is then
+ * positive for u ≥ 2^−32 (draws are multiples of 2^−32), stays positive while the small weights are taken
+ * off, and falls below 0 at C* since r ≤ u < 1. Same draws, same choices, for every seed.
+ */
+const CLEAR_CHOICE = 60;
 /**
  * Safety caps. A run repeats whole passes until one no longer raises Q (convergence); each accepted pass
  * raises Q by more than a relative 1e-12, so a run always ends, and these caps only guard against a
@@ -348,6 +358,9 @@ export function refinePartition(
     // Candidates: well-connected sub-modules with non-negative gain; staying alone has gain 0.
     let nc = 0;
     let maxGain = 0;
+    // The best candidate (when its gain is positive) and the second-largest gain, for the shortcut below.
+    let arg = -1;
+    let second = -Infinity;
     for (let t = 0; t < nt; t++) {
       const c = touched[t];
       const need = gamma * (modA[c] * (SB[S] - modB[c]) + modB[c] * (SA[S] - modA[c]));
@@ -356,25 +369,36 @@ export function refinePartition(
       if (gain < 0) continue;
       cand[nc] = c;
       candW[nc++] = gain;
-      if (gain > maxGain) maxGain = gain;
+      if (gain > maxGain) {
+        if (arg >= 0) second = maxGain;
+        maxGain = gain;
+        arg = c;
+      } else if (gain > second) second = gain;
     }
     if (nc === 0) continue;
-    const stay = Math.exp(-maxGain / scale); // staying alone
-    let total = stay;
-    for (let t = 0; t < nc; t++) {
-      const d = candW[t] - maxGain;
-      const w = d === 0 ? 1 : Math.exp(d / scale);
-      candW[t] = w;
-      total += w;
-    }
-    let r = rng.next() * total - stay;
-    if (r < 0) continue; // stays a singleton
-    let chosen = cand[nc - 1];
-    for (let t = 0; t < nc; t++) {
-      r -= candW[t];
-      if (r < 0) {
-        chosen = cand[t];
-        break;
+    const u = rng.next();
+    let chosen: number;
+    if (u !== 0 && arg >= 0 && -maxGain / scale <= -CLEAR_CHOICE && (second - maxGain) / scale <= -CLEAR_CHOICE) {
+      // A clear choice: the weighted draw below would pick `arg` (see CLEAR_CHOICE), without its exponentials.
+      chosen = arg;
+    } else {
+      const stay = Math.exp(-maxGain / scale); // staying alone
+      let total = stay;
+      for (let t = 0; t < nc; t++) {
+        const d = candW[t] - maxGain;
+        const w = d === 0 ? 1 : Math.exp(d / scale);
+        candW[t] = w;
+        total += w;
+      }
+      let r = u * total - stay;
+      if (r < 0) continue; // stays a singleton
+      chosen = cand[nc - 1];
+      for (let t = 0; t < nc; t++) {
+        r -= candW[t];
+        if (r < 0) {
+          chosen = cand[t];
+          break;
+        }
       }
     }
     // Merge v into `chosen`: the cut of the union is cut(C) + cut(v) − 2 E(v, C).

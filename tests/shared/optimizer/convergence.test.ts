@@ -6,7 +6,7 @@
  */
 import { createHash } from "node:crypto";
 import { describe, expect, it } from "vitest";
-import { lfrGraph, plantedBipartiteDC } from "../../../scripts/lib/hard-networks";
+import { lfrGraph, nestedBipartite, plantedBipartiteDC, weightedBipartiteDC, weightedLfrGraph } from "../../../scripts/lib/hard-networks";
 import { modularity } from "@shared/network/modularity/quality";
 import { leiden, type LeidenTrace } from "@shared/network/optimizer/leiden";
 import { optimizeModularity } from "@shared/network/optimizer/optimize";
@@ -196,6 +196,34 @@ describe("same seed, same results as before the speed work", () => {
         0.31727447045309287, 0.3264429287218018, 0.3268686670033835,
       ],
       "c3f7fb3dfb55ba47",
+    ],
+    // Weighted and nested networks, recorded before refinement skipped the exponentials of clear choices.
+    [
+      "weighted LFR-style 400, μ = 0.4, real weights",
+      () => weightedLfrGraph({ nodes: 400, mu: 0.4, seed: 36, integer: false }).net,
+      [
+        0.6251324925106113, 0.6267189205554242, 0.6280161000826392, 0.6258437731801614, 0.6272477994449457,
+        0.6272190795259102, 0.6260178714375879, 0.6268291894297363,
+      ],
+      "0ed2cc8eaa1b4ffd",
+    ],
+    [
+      "weighted bipartite 80 × 120 with heavy-tailed counts (annealed)",
+      () => weightedBipartiteDC({ rows: 80, cols: 120, modules: 5, seed: 37 }).net,
+      [
+        0.5720821825941168, 0.5716446273433928, 0.5721871056241427, 0.5716446273433928, 0.5711786617893614,
+        0.5706847126962353, 0.5714616674287457, 0.571795031245237,
+      ],
+      "a048eb95fb20e3a5",
+    ],
+    [
+      "nested bipartite 60 × 90 (annealed)",
+      () => nestedBipartite({ rows: 60, cols: 90, seed: 38 }).net,
+      [
+        0.32164266117969825, 0.32164266117969825, 0.3290209190672153, 0.3290903635116598, 0.32164266117969825,
+        0.32862568587105623, 0.32164266117969825, 0.3290903635116598,
+      ],
+      "0eea21194325bd42",
     ],
   ];
   for (const [name, build, qs, partitionHash] of cases) {
