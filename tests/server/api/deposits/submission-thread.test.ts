@@ -5,28 +5,24 @@
  */
 import request from "supertest";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { createApp } from "../../../../server/src/app";
-import { shutdownServerResources } from "../../../../server/src/index";
-import { resetRateLimits } from "../../../../server/src/middlewares/rate-limit";
 import { AuditLog, SubmissionComment } from "../../../../server/src/models";
 import { mailSettled } from "../../../../server/src/emails/mailer";
 import type { MailCatcher } from "../../../../server/src/lib/mail-catcher";
 import type { ThreadEntry, ThreadResponse } from "@shared/types/review";
-import { resetDatabase } from "../../../setup/db";
-import { agentFor, createUser, type SignedInAgent } from "../../support/accounts";
-import { startMailCatcher } from "../../support/stack";
+import type { SignedInAgent } from "../../support/accounts";
+import { CURATION_URL as PUBLIC_URL, startCuration, type Curation } from "../../support/curation";
 import { decide, makeDraft, submit } from "../../support/deposit-helpers";
 
-const PUBLIC_URL = "http://tanglebank.test:3000";
 const TITLE = "Flower visitors of the Verrin Hills heath";
-let app: ReturnType<typeof createApp>;
+let curation: Curation;
+let app: Curation["app"];
 let catcher: MailCatcher;
 let owner: SignedInAgent;
 let other: SignedInAgent;
 let curatorA: SignedInAgent;
 let curatorB: SignedInAgent;
 let visitor: SignedInAgent;
-const email: Record<string, string> = {};
+let email: Record<"owner" | "other" | "a" | "b", string>;
 
 async function post(who: SignedInAgent, versionId: number, body: unknown) {
   return who.agent.post(`/api/v1/deposits/${versionId}/comments`).set("x-csrf-token", who.csrf).send({ body });
@@ -41,25 +37,13 @@ const mailsTo = (addr: string, since: number) => catcher.messages.slice(since).f
 const settle = () => mailSettled();
 
 beforeAll(async () => {
-  process.env.PUBLIC_URL = PUBLIC_URL;
-  await resetDatabase();
-  await resetRateLimits();
-  catcher = await startMailCatcher();
-  app = createApp();
-  for (const [k, role, name] of [["owner", "depositor", "Rowan Hale"], ["other", "depositor", "Ilse Marrow"], ["a", "curator", "Tomas Brand"], ["b", "curator", "Maren Ilves"]] as const) {
-    email[k] = (await createUser({ role, displayName: name })).email;
-  }
-  owner = await agentFor(app, email.owner);
-  other = await agentFor(app, email.other);
-  curatorA = await agentFor(app, email.a);
-  curatorB = await agentFor(app, email.b);
-  visitor = await agentFor(app);
+  curation = await startCuration();
+  ({ app, catcher } = curation);
+  ({ owner, other, curatorA, curatorB, visitor } = curation.agents);
+  const { users } = curation;
+  email = { owner: users.owner.email, other: users.other.email, a: users.curatorA.email, b: users.curatorB.email };
 });
-afterAll(async () => {
-  delete process.env.PUBLIC_URL;
-  await catcher.close();
-  await shutdownServerResources();
-});
+afterAll(() => curation.stop());
 
 describe("a submission's thread", () => {
   let id = 0;

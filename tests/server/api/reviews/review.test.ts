@@ -4,20 +4,16 @@
  * publishing, metadata corrections, versions, withdrawal with its tombstone, and the public read API.
  */
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { createApp } from "../../../../server/src/app";
-import { shutdownServerResources } from "../../../../server/src/index";
-import { resetRateLimits } from "../../../../server/src/middlewares/rate-limit";
 import { QueryTypes } from "sequelize";
 import { sequelize } from "../../../../server/src/db/sequelize";
 import { bundleMatrixCsv, MATRIX_CSV_FORMAT } from "../../../../server/src/api/bundles/bundles.stored-csv";
 import { AuditLog, Dataset, DatasetVersion, Network, Review } from "../../../../server/src/models";
 import type { MailCatcher } from "../../../../server/src/lib/mail-catcher";
-import { resetDatabase } from "../../../setup/db";
-import { agentFor, createUser, type SignedInAgent } from "../../support/accounts";
-import { startMailCatcher } from "../../support/stack";
+import type { SignedInAgent } from "../../support/accounts";
+import { CURATION_URL as PUBLIC_URL, startCuration, type Curation } from "../../support/curation";
 import { davisCsv, decide, makeDraft, networkMeta, SMALL_MATRIX, studyMeta, submit } from "../../support/deposit-helpers";
 
-let app: ReturnType<typeof createApp>;
+let curation: Curation;
 let catcher: MailCatcher;
 let owner: SignedInAgent;
 let other: SignedInAgent;
@@ -27,7 +23,6 @@ let admin: SignedInAgent;
 let visitor: SignedInAgent;
 let ownerEmail: string;
 let curatorAId: number;
-const PUBLIC_URL = "http://tanglebank.test:3000";
 
 async function submitted(files?: Array<[string, Buffer | string]>): Promise<number> {
   const { versionId } = await makeDraft(owner, files);
@@ -44,30 +39,13 @@ async function published(files?: Array<[string, Buffer | string]>): Promise<{ ve
 }
 
 beforeAll(async () => {
-  process.env.PUBLIC_URL = PUBLIC_URL;
-  await resetDatabase();
-  await resetRateLimits();
-  catcher = await startMailCatcher();
-  app = createApp();
-  const o = await createUser({ displayName: "Rowan Hale" });
-  ownerEmail = o.email;
-  const x = await createUser();
-  const a = await createUser({ role: "curator", displayName: "Tomas Brand" });
-  curatorAId = a.id;
-  const b = await createUser({ role: "curator", displayName: "Maren Ilves" });
-  const ad = await createUser({ role: "admin" });
-  owner = await agentFor(app, o.email);
-  other = await agentFor(app, x.email);
-  curatorA = await agentFor(app, a.email);
-  curatorB = await agentFor(app, b.email);
-  admin = await agentFor(app, ad.email);
-  visitor = await agentFor(app);
+  curation = await startCuration();
+  ({ catcher } = curation);
+  ({ owner, other, curatorA, curatorB, admin, visitor } = curation.agents);
+  ownerEmail = curation.users.owner.email;
+  curatorAId = curation.users.curatorA.id;
 });
-afterAll(async () => {
-  delete process.env.PUBLIC_URL;
-  await catcher.close();
-  await shutdownServerResources();
-});
+afterAll(() => curation.stop());
 
 describe("review queue", () => {
   it("lists submissions oldest first, to curators only", async () => {
