@@ -7,7 +7,7 @@ import { QueryTypes } from "sequelize";
 import { sequelize } from "../../db/sequelize";
 import { ApiError, type ErrorDetail } from "../../lib/api-error";
 import { matchCatalogue } from "../catalogue/catalogue.service";
-import { parseCatalogueQuery, type CatalogueQuery } from "../catalogue/catalogue.validation";
+import { readCatalogueFilter, type CatalogueQuery } from "../catalogue/catalogue.schemas";
 import { DEFAULT_PARTS, type BundlePart } from "./bundles.parts";
 
 export const BUNDLE_LIMIT = 5000;
@@ -31,7 +31,7 @@ export function parseSelection(input: Record<string, unknown>): Selection {
   }
   const f = filter && typeof filter === "object" ? (filter as Record<string, unknown>) : rest;
   const { page: _p, pageSize: _s, ...filterOnly } = f;
-  return { kind: "filter", query: { ...parseCatalogueQuery(filterOnly), page: 1, pageSize: BUNDLE_LIMIT } };
+  return { kind: "filter", query: { ...readCatalogueFilter(filterOnly), page: 1, pageSize: BUNDLE_LIMIT } };
 }
 
 function tooMany(n: number, path: "refs" | "filter"): ApiError {

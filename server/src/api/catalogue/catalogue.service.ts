@@ -6,7 +6,7 @@
 import { searchIndex, type SearchMode } from "./catalogue.search-index";
 import type { CatalogueEntry } from "./catalogue.rows";
 import { catalogueStore } from "./catalogue.store";
-import { DEFAULT_CATALOGUE_NULL_MODEL, type CatalogueQuery, type Range, type SortKey } from "./catalogue.validation";
+import { DEFAULT_CATALOGUE_NULL_MODEL, type CatalogueQuery, type Range, type SortKey } from "./catalogue.schemas";
 import { NULL_MODELS } from "@shared/network/null-models/index";
 import { CONTINENT_NAMES, continentOf } from "../../lib/continents";
 

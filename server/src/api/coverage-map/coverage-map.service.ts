@@ -1,7 +1,7 @@
 /** The coverage map's points: where the catalogue's networks were sampled. */
 import type { MapPointRow } from "@shared/types/network-view";
 import { matchCatalogue } from "../catalogue/catalogue.service";
-import { parseCatalogueQuery } from "../catalogue/catalogue.validation";
+import { parseCatalogueQuery } from "../catalogue/catalogue.schemas";
 
 /**
  * Every catalogue network matching the catalogue's own filters (the same parser and matcher as

@@ -9,7 +9,7 @@ import { NULL_MODELS } from "@shared/network/null-models/index";
 import { FIGURE_CAUTION_SHORT } from "@shared/figures/cautions";
 import { ENGINE_VERSION } from "@shared/network/version";
 import { config } from "../../config/env";
-import { CATALOGUE_PARAMS, MAX_PAGE_SIZE } from "../catalogue/catalogue.validation";
+import { CATALOGUE_FILTER_FIELDS, catalogueSchema } from "../catalogue/catalogue.schemas";
 import { BUNDLE_LIMIT } from "../bundles/bundles.selection";
 import { BUNDLE_PARTS, DEFAULT_PARTS } from "../bundles/bundles.parts";
 import { createTokenSchema, revokeTokenSchema } from "../tokens/tokens.schemas";
@@ -18,7 +18,7 @@ import { networkViewSchema } from "../network-views/network-views.schemas";
 import { datasetSchema, datasetVersionSchema, networkFileSchema, newVersionSchema, withdrawSchema } from "../datasets/datasets.schemas";
 import { datasetPreviewSchema, networkPreviewSchema } from "../previews/previews.schemas";
 import { compareSchema } from "../compare/compare.schemas";
-import { operationInput } from "./from-schemas";
+import { operationInput, parametersOf } from "./from-schemas";
 
 /** Resources used only by the web client (accounts, deposits, review, administration): not part of the public API. */
 export const INTERNAL_PREFIXES = ["/auth/", "/account", "/users", "/outbox", "/deposits", "/reviews", "/admin", "/pipeline", "/metrics-admin", "/network-views/history"];
@@ -33,48 +33,15 @@ const error = (description: string) => json(ref("Error"), description);
 const pathParam = (name: string, description: string, example: string) => ({ name, in: "path", required: true, description, schema: { type: "string" }, example });
 const queryParam = (name: string, description: string, schema: Json = { type: "string" }, example?: unknown) => ({ name, in: "query", required: false, description, schema, ...(example !== undefined ? { example } : {}) });
 
-const CATALOGUE_PARAM_DOCS: Record<(typeof CATALOGUE_PARAMS)[number], [string, Json, unknown?]> = {
-  q: ["Full-text search over titles, descriptions, keywords, creators, localities and node names (every word must match: as whole words when some networks have them all, else as word beginnings; `meta.searchMatch` says which).", { type: "string", maxLength: 200 }, "Verrin"],
-  interactionType: ["Interaction type(s): pollination, seed-dispersal, host-parasitoid, predator-prey, herbivory, other. Repeat or comma-separate.", { type: "string" }, "pollination"],
-  kind: ["bipartite or unipartite", { type: "string", enum: ["bipartite", "unipartite"] }],
-  weighted: ["true or false", { type: "boolean" }],
-  habitat: ["Habitat(s), as written in the metadata", { type: "string" }],
-  country: ["Country code(s), ISO 3166-1 alpha-2", { type: "string" }, "NO"],
-  licence: ["Licence(s): CC0-1.0, CC-BY-4.0", { type: "string" }],
-  continent: ["Continent code(s) AF, AN, AS, EU, NA, OC, SA, derived from the country code (countries-list: one continent per country)", { type: "string" }, "EU"],
-  latitudeMin: ["Public (generalised) latitude at least, degrees (south negative); networks without coordinates are left out", { type: "number", minimum: -90, maximum: 90 }, 50],
-  latitudeMax: ["Public latitude at most, degrees", { type: "number", minimum: -90, maximum: 90 }, 70],
-  elevationMin: ["Elevation at least, metres", { type: "number" }],
-  elevationMax: ["Elevation at most, metres", { type: "number" }],
-  bbox: ["An area: west,south,east,north in degrees on the public (generalised) coordinates, edges included; west greater than east crosses the antimeridian", { type: "string" }, "-10,50,30,70"],
-  yearMin: ["Sampling years overlap [yearMin, yearMax]", { type: "integer" }, 2019],
-  yearMax: ["See yearMin", { type: "integer" }],
-  nodesMin: ["At least this many nodes (S)", { type: "integer", minimum: 0 }],
-  nodesMax: ["At most this many nodes (S)", { type: "integer", minimum: 0 }],
-  connectanceMin: ["Connectance at least", { type: "number", minimum: 0, maximum: 1 }],
-  connectanceMax: ["Connectance at most", { type: "number", minimum: 0, maximum: 1 }],
-  qMin: ["Modularity Q at least (networks without metrics are left out)", { type: "number" }],
-  qMax: ["Modularity Q at most", { type: "number" }],
-  zMin: ["z against the null model in nullModel at least (networks without that model's z are left out)", { type: "number" }],
-  zMax: ["z at most (against nullModel)", { type: "number" }],
-  pMin: ["p against the null model in nullModel at least", { type: "number", minimum: 0, maximum: 1 }],
-  pMax: ["p against the null model in nullModel at most (e.g. 0.05)", { type: "number", minimum: 0, maximum: 1 }],
-  nullModel: ["The null model of the z, Q_rel and p columns and of the z/p filters and z sort: one model for all rows, never a mix. Default curveball (fixed degrees), the primary null of every kind of data.", { type: "string", enum: [...NULL_MODELS], default: "curveball" }],
-  sort: ["Sort key (z: against nullModel)", { type: "string", enum: ["accession", "title", "type", "S", "C", "Q", "z", "year", "relevance"] }],
-  order: ["asc or desc (missing values always last)", { type: "string", enum: ["asc", "desc"] }],
-  page: ["Page number, from 1", { type: "integer", minimum: 1, default: 1 }],
-  pageSize: [`Rows per page (at most ${MAX_PAGE_SIZE})`, { type: "integer", minimum: 1, maximum: MAX_PAGE_SIZE, default: 25 }],
-};
-
-const catalogueParameters = CATALOGUE_PARAMS.map((p) => queryParam(p, CATALOGUE_PARAM_DOCS[p][0], CATALOGUE_PARAM_DOCS[p][1], CATALOGUE_PARAM_DOCS[p][2]));
-const filterParameters = catalogueParameters.filter((p) => !["page", "pageSize", "sort", "order"].includes(p.name));
+/** The catalogue's filters without sorting and paging (the coverage map's query). */
+const filterParameters = parametersOf({ type: "object", properties: CATALOGUE_FILTER_FIELDS }, "query");
 
 const catalogueGet = (summary: string) => ({
   tags: ["Catalogue"],
   summary,
   description:
     "One row per published network (the latest published version of each dataset; withdrawn networks never). `meta.facets` counts, for each filter value, the networks that value would give with every other filter applied; range facets give the minimum and maximum among the matching networks. Every row's z, Q_rel, ΔQ and p are against the one null model named in `nullModel` (and in `meta.facets.nullModel`). " + FIGURE_CAUTION_SHORT,
-  parameters: catalogueParameters,
+  ...operationInput(catalogueSchema),
   responses: { 200: json(ref("CataloguePage")), 400: error("A parameter is not valid (details name it)"), 429: error("Rate limit exceeded") },
 });
 

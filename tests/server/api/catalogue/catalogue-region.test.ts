@@ -143,6 +143,9 @@ describe("region filters against independent SQL counts", () => {
     const flipped = await request(app).get("/api/v1/catalogue").query({ bbox: "0,60,10,50" });
     expect(flipped.status).toBe(400);
     expect(flipped.body.details[0].message).toMatch(/south \(60\) is north of its north \(50\)/);
-    expect((await request(app).get("/api/v1/catalogue").query({ bbox: "-200,0,10,10" })).status).toBe(400);
+    const outside = await request(app).get("/api/v1/catalogue").query({ bbox: "-200,0,10,10" });
+    expect(outside.status).toBe(400);
+    expect(outside.body.details).toEqual([{ path: "bbox", message: "bbox must be four numbers west,south,east,north in degrees (longitudes −180…180, latitudes −90…90)." }]);
+    expect((res.body.details as Array<{ path: string; message: string }>).find((d) => d.path === "continent")?.message).toBe('continent: "ATLANTIS" must be one of AF, AN, AS, EU, NA, OC, SA.');
   });
 });

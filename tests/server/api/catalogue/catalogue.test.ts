@@ -211,6 +211,17 @@ describe("sorting and pagination", () => {
     expect(res.status).toBe(400);
     const paths = (res.body.details as Array<{ path: string }>).map((d) => d.path).sort();
     expect(paths).toEqual(["connectanceMax", "frobnicate", "nodesMin", "sort"]);
+    const message = (path: string) => (res.body.details as Array<{ path: string; message: string }>).find((d) => d.path === path)?.message;
+    expect(message("nodesMin")).toBe("nodesMin must be a whole number of at least 0.");
+    expect(message("connectanceMax")).toBe("connectanceMax must be a number from 0 to 1.");
+    expect(message("sort")).toBe("sort must be one of accession, title, type, S, C, Q, z, year, relevance.");
+    expect(message("frobnicate")).toMatch(/^Unknown parameter "frobnicate"\. Known: q, interactionType, kind, /);
+    // lists: comma-separated or repeated, each refused item quoted
+    const list = await request(app).get("/api/v1/catalogue?kind=bipartite&kind=tree&weighted=true,maybe");
+    expect(list.body.details).toEqual([
+      { path: "kind", message: 'kind: "tree" must be one of bipartite, unipartite.' },
+      { path: "weighted", message: 'weighted: "maybe" must be true or false.' },
+    ]);
   });
 
   it("refuses an inverted range instead of answering 0 rows, naming the parameter", async () => {

@@ -10,7 +10,7 @@ export interface RangeFilter {
   min: string;
   max: string;
   step: string;
-  /** Whole numbers only, and the bounds the API accepts (as catalogue.validation.ts on the server). */
+  /** Whole numbers only, and the bounds the API accepts (as catalogue.schemas.ts on the server). */
   integer?: boolean;
   lo?: number;
   hi?: number;
