@@ -26,6 +26,7 @@ import type { RequestHandler } from "express";
 import { Ajv2020 } from "ajv/dist/2020.js";
 import type { ErrorObject, ValidateFunction } from "ajv";
 import { ApiError, type ErrorDetail } from "../lib/api-error";
+import { checkBodyValue } from "./body";
 
 export interface FieldSchema {
   type?: "string" | "integer" | "number" | "boolean" | "object" | "array" | Array<string>;
@@ -62,6 +63,8 @@ export interface ObjectSchema {
   properties: Record<string, FieldSchema>;
   required?: string[];
   additionalProperties?: boolean;
+  /** At least this many fields (a change that changes nothing is refused, naming the fields). */
+  minProperties?: number;
   description?: string;
 }
 
@@ -74,6 +77,15 @@ export interface RequestSchema {
   bodyStatus?: 400 | 422;
   /** The message of a refused body (default: the first problem's). */
   bodyMessage?: string;
+  /**
+   * The text fields of a multipart body, checked where the route mounts validate() after the upload
+   * middleware: read from text like the query (trimmed, empty = absent, true/false as 1/0; a field with
+   * `"x-json": true` is JSON text, parsed first), refused like a body (JSON pointers, `bodyStatus`,
+   * `bodyMessage`).
+   */
+  fields?: ObjectSchema;
+  /** Rules across the fields of a body (or of `fields`) that JSON Schema cannot say well, reported with the schema's problems. */
+  bodyRules?: QueryRules;
 }
 
 // Its own instance: coercion and defaults rewrite the data, which the metadata validators (lib/schemas.ts) must never do.
@@ -132,7 +144,8 @@ function fieldAt(root: ObjectSchema, pointer: string): { segs: string[]; schema?
   const segs: string[] = [];
   let cur: FieldSchema | ObjectSchema = root;
   for (const seg of pointer.split("/").slice(1)) {
-    const next: FieldSchema | undefined = propsOf(cur)[seg];
+    const extra: unknown = (cur as FieldSchema).additionalProperties;
+    const next: FieldSchema | undefined = propsOf(cur)[seg] ?? (extra && typeof extra === "object" ? (extra as FieldSchema) : undefined);
     if (!next) break;
     segs.push(seg);
     cur = next;
@@ -146,9 +159,10 @@ function valueAt(data: Record<string, unknown>, segs: string[]): unknown {
   return cur;
 }
 
-function detailsOf(errors: ErrorObject[], schema: ObjectSchema, where: "params" | "query" | "body", data: Record<string, unknown>): ErrorDetail[] {
+function detailsOf(errors: ErrorObject[], schema: ObjectSchema, where: "params" | "query" | "body" | "fields", data: Record<string, unknown>): ErrorDetail[] {
   const out = new Map<string, ErrorDetail>();
-  const inText = where !== "body";
+  const inText = where === "params" || where === "query";
+  const pointer = !inText;
   for (const e of errors) {
     const at = fieldAt(schema, e.instancePath);
     const parent: FieldSchema | ObjectSchema = at.schema ?? schema;
@@ -161,7 +175,10 @@ function detailsOf(errors: ErrorObject[], schema: ObjectSchema, where: "params" 
       segs = [...at.segs, (e.params as { additionalProperty: string }).additionalProperty];
       const known = words(Object.keys(propsOf(parent)));
       const field = segs.join(".");
-      message = at.segs.length ? `${field} is not a field of ${at.segs.join(".")} (fields: ${known}).` : where === "body" ? `${field} is not a field of this request (fields: ${known}).` : `Unknown parameter "${field}". Known: ${known}.`;
+      message = at.segs.length ? `${field} is not a field of ${at.segs.join(".")} (fields: ${known}).` : pointer ? `${field} is not a field of this request (fields: ${known}).` : `Unknown parameter "${field}". Known: ${known}.`;
+    } else if (e.keyword === "minProperties" && !at.segs.length) {
+      segs = [];
+      message = `Send at least one of the fields ${words(Object.keys(schema.properties))}.`;
     } else {
       segs = at.segs;
       const field = segs.join(".");
@@ -172,7 +189,7 @@ function detailsOf(errors: ErrorObject[], schema: ObjectSchema, where: "params" 
       const value = Array.isArray(list) ? list[Number(index)] : undefined;
       message = item ? `${field}: ${JSON.stringify(value)} ${describeRule(item, inText)}` : s ? `${field} ${describeRule(s, inText)}` : `${field || "The request"}: ${e.message ?? "not valid"}.`;
     }
-    const path = where === "body" ? `/${segs.join("/")}` : segs.join(".");
+    const path = pointer ? `/${segs.join("/")}` : segs.join(".");
     if (!out.has(path)) out.set(path, { path, message });
   }
   return [...out.values()];
@@ -229,6 +246,32 @@ export function readQuery(schema: ObjectSchema, raw: Record<string, unknown>, ru
   return q;
 }
 
+/** Multipart text fields as `schema.fields` reads them (see RequestSchema.fields), or the refusal. */
+function readFields(schema: RequestSchema, fields: ObjectSchema, raw: Record<string, unknown>): Record<string, unknown> {
+  const f = fromText(fields, raw);
+  for (const [k, v] of Object.entries(f)) {
+    if (fields.properties[k]?.["x-json"] !== true || typeof v !== "string") continue;
+    try {
+      f[k] = JSON.parse(v) as unknown;
+    } catch {
+      continue; // left as text: refused as not the schema's type
+    }
+    checkBodyValue(f[k]); // depth, prototype keys, NUL characters: as in a JSON body
+  }
+  const check = compile(textAjv, fields);
+  const d = check(f) ? [] : detailsOf(check.errors ?? [], fields, "fields", f);
+  refuseBody(schema, f, d);
+  return f;
+}
+
+/** Adds the body rules' problems to `d` and throws the refusal when there are any. */
+function refuseBody(schema: RequestSchema, data: Record<string, unknown>, d: ErrorDetail[]): void {
+  if (schema.bodyRules) d.push(...schema.bodyRules(data, new Set(d.map((x) => x.path ?? ""))));
+  if (!d.length) return;
+  const message = schema.bodyMessage ?? (d.length === 1 ? d[0].message : "Some fields need attention.");
+  throw new ApiError(schema.bodyStatus ?? 400, schema.bodyStatus === 422 ? "validation_failed" : "bad_request", message, d);
+}
+
 /** The middleware: checks (and coerces) params, query and body against `schema` before the handler runs. */
 export function validate(schema: RequestSchema): RequestHandler {
   const params = schema.params && compile(textAjv, schema.params);
@@ -250,14 +293,11 @@ export function validate(schema: RequestSchema): RequestHandler {
       const q = readQuery(schema.query, req.query as Record<string, unknown>, schema.queryRules);
       Object.defineProperty(req, "query", { value: q, writable: true, configurable: true, enumerable: true });
     }
+    if (schema.fields) req.body = readFields(schema, schema.fields, (req.body ?? {}) as Record<string, unknown>);
     if (body && schema.body) {
       const b: unknown = req.body ?? {};
       if (!b || typeof b !== "object" || Array.isArray(b)) throw ApiError.badRequest("The request body must be a JSON object.", [{ path: "/", message: "The request body must be a JSON object." }]);
-      if (!body(b)) {
-        const d = detailsOf(body.errors ?? [], schema.body, "body", b as Record<string, unknown>);
-        const message = schema.bodyMessage ?? (d.length === 1 ? d[0].message : "Some fields need attention.");
-        throw new ApiError(schema.bodyStatus ?? 400, schema.bodyStatus === 422 ? "validation_failed" : "bad_request", message, d);
-      }
+      refuseBody(schema, b as Record<string, unknown>, body(b) ? [] : detailsOf(body.errors ?? [], schema.body, "body", b as Record<string, unknown>));
       req.body = b;
     }
     next();

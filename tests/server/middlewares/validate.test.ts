@@ -10,6 +10,7 @@ import { readQuery, validate, type ObjectSchema } from "../../../server/src/midd
 import { errorHandler } from "../../../server/src/middlewares/error-handler";
 import { userListSchema } from "../../../server/src/api/users/users.schemas";
 import { createTokenSchema, revokeTokenSchema } from "../../../server/src/api/tokens/tokens.schemas";
+import { applyBlocksSchema, networkChangesSchema, uploadFieldsSchema } from "../../../server/src/api/deposits/deposits.schemas";
 import { batchStartSchema, settingsSchema } from "../../../server/src/api/pipeline/pipeline.schemas";
 import { datasetSchema, networkFileSchema, withdrawSchema } from "../../../server/src/api/datasets/datasets.schemas";
 
@@ -37,6 +38,10 @@ const inOrder = (q: Record<string, unknown>, failed: ReadonlySet<string>) =>
 app.get("/lists", validate({ query: listSchema, queryRules: inOrder }), (req, res) => void res.json({ query: req.query }));
 app.put("/settings", validate(settingsSchema), (req, res) => void res.json({ body: req.body }));
 app.post("/batches", validate(batchStartSchema), (req, res) => void res.json({ body: req.body }));
+// multipart text fields arrive as text (as multer leaves them); sent here as a JSON object of strings
+app.post("/fields", validate(uploadFieldsSchema), (req, res) => void res.json({ body: req.body }));
+app.patch("/deposits/:id/networks/:networkId", validate(networkChangesSchema), (req, res) => void res.json({ body: req.body }));
+app.post("/deposits/:id/networks/apply", validate(applyBlocksSchema), (req, res) => void res.json({ body: req.body }));
 app.use(errorHandler);
 
 describe("validate(schema)", () => {
@@ -156,5 +161,28 @@ describe("validate(schema)", () => {
     ]);
     const none = await request(app).post("/batches").send({});
     expect(none.body.body).toEqual({ force: false });
+  });
+
+  it("reads an upload's text fields like a query and refuses them like a body, JSON fields parsed and named to the leaf", async () => {
+    const ok = await request(app).post("/fields").send({ kind: "unipartite", directed: "1", fileOptions: '{"web.xlsx": {"sheet": "Lowland"}}' });
+    expect(ok.body.body).toEqual({ kind: "unipartite", directed: true, format: "auto", fileOptions: { "web.xlsx": { sheet: "Lowland" } } });
+    expect((await request(app).post("/fields").send({})).body.body).toEqual({ kind: "bipartite", directed: false, format: "auto" });
+    const leaf = await request(app).post("/fields").send({ fileOptions: '{"web.xlsx": {"missing": "maybe"}}' });
+    expect(leaf.status).toBe(400);
+    expect(leaf.body.details).toEqual([{ path: "/fileOptions/web.xlsx/missing", message: "fileOptions.web.xlsx.missing must be one of no-interaction, not-observed." }]);
+    const notJson = await request(app).post("/fields").send({ fileOptions: "sheet=Lowland" });
+    expect(notJson.body.message).toBe('fileOptions must be a JSON object keyed by file name, e.g. {"web.xlsx": {"sheet": "Lowland", "missing": "not-observed"}}.');
+    const proto = await request(app).post("/fields").send({ fileOptions: '{"__proto__": {"sheet": "x"}}' });
+    expect(proto.body.message).toMatch(/"__proto__" is not accepted/);
+    const bipartite = await request(app).post("/fields").send({ directed: "true" });
+    expect(bipartite.body.details).toEqual([{ path: "/directed", message: 'A bipartite network cannot be directed: only one-mode networks (kind "unipartite") can be.' }]);
+  });
+
+  it("refuses a change that changes nothing, and names a block that does not exist", async () => {
+    const nothing = await request(app).patch("/deposits/4/networks/9").send({});
+    expect(nothing.status).toBe(400);
+    expect(nothing.body.message).toBe("Send at least one of the fields metadata, kind, directed, format, sheet, missing, blank.");
+    const blocks = await request(app).post("/deposits/4/networks/apply").send({ from: 9, blocks: ["weather"] });
+    expect(blocks.body.details).toEqual([{ path: "/blocks", message: 'blocks: "weather" must be one of locality, habitat, dates, sampling.' }]);
   });
 });

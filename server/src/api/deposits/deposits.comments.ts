@@ -28,13 +28,9 @@ import { loadVisibleVersion } from "./deposits.access";
 
 export const MAX_COMMENT_CHARS = 10_000;
 
-/** A comment's text, trimmed: 422 when empty or too long, 400 when not text. */
-export function commentBody(raw: unknown, path = "/body"): string {
-  if (typeof raw !== "string") throw ApiError.badRequest("The comment must be text.", [{ path, message: "Text." }]);
-  const body = raw.replace(/\r\n/g, "\n").trim();
-  if (!body) throw ApiError.unprocessable("Write something before sending.", [{ path, message: "The comment is empty." }]);
-  if (body.length > MAX_COMMENT_CHARS) throw ApiError.unprocessable(`The comment is too long (${body.length} characters).`, [{ path, message: `At most ${MAX_COMMENT_CHARS} characters.` }]);
-  return body;
+/** A comment's text as stored: line ends as \n, trimmed (the route's schema has checked it is text with something in it, within MAX_COMMENT_CHARS). */
+export function commentText(text: string): string {
+  return text.replace(/\r\n/g, "\n").trim();
 }
 
 function sideOf(dataset: Dataset, viewer: Viewer): "depositor" | "curator" {
@@ -73,8 +69,8 @@ export async function listThread(versionId: number, viewer: Viewer): Promise<Thr
 }
 
 /** Adds a comment to a version's thread and e-mails the other side. */
-export async function addComment(versionId: number, viewer: Viewer, raw: unknown, via: Request["authVia"]): Promise<ThreadResponse> {
-  const body = commentBody(raw);
+export async function addComment(versionId: number, viewer: Viewer, text: string, via: Request["authVia"]): Promise<ThreadResponse> {
+  const body = commentText(text);
   const { dataset, version, comment } = await sequelize().transaction(async (t) => {
     const r = await loadVisibleVersion(versionId, viewer, t, true);
     const side = sideOf(r.dataset, viewer);

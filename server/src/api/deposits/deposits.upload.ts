@@ -15,6 +15,8 @@ import yauzl from "yauzl";
 import { detectSignature } from "@shared/network/parse/signature";
 import type { ErrorDetail } from "../../lib/api-error";
 import { ApiError } from "../../lib/api-error";
+import type { RequestHandler } from "express";
+import { streamUpload } from "../../lib/upload-storage";
 
 /** A network file of an upload: its bytes (from a zip, or a stored original), or its temporary file. */
 export interface UploadedFile {
@@ -188,3 +190,12 @@ export async function expandUpload(files: Array<{ originalname: string; path: st
   if (bad.length) throw ApiError.unprocessable("Only network files (.csv, .tsv, .txt, .xlsx) or one zip may be uploaded.", bad.map(({ f, head }) => ({ file: f.originalname, message: notANetworkFile(f.originalname, head) })));
   return files.map((f) => ({ name: f.originalname, path: f.path }));
 }
+
+/**
+ * Multipart upload (field "files") streamed to temporary files with the per-file, per-request and count
+ * limits (lib/upload-storage.ts). Nothing touches the database until every byte arrived and every file
+ * parsed, so an interrupted request leaves nothing behind; the temporary files go when the request ends.
+ */
+export const uploadFiles: RequestHandler = streamUpload("files", (name, head) =>
+  ApiError.unprocessable("Only network files (.csv, .tsv, .txt, .xlsx) or one zip may be uploaded.", [{ file: name, message: notANetworkFile(name, head) }]),
+);

@@ -119,7 +119,7 @@ describe("a submission's thread", () => {
     // a reply must be text within the limit; nothing is submitted otherwise
     const bad = await owner.agent.post(`/api/v1/deposits/${id}/submit`).set("x-csrf-token", owner.csrf).send({ reply: 42 });
     expect(bad.status).toBe(400);
-    expect(bad.body.details).toEqual([{ path: "/reply", message: "Text." }]);
+    expect(bad.body.details).toEqual([{ path: "/reply", message: "reply must be text of at most 10000 characters (or null)." }]);
   });
 
   it("after the decision the conversation goes on (a published submission), now to both curators who took part", async () => {
@@ -140,11 +140,13 @@ describe("a submission's thread", () => {
     expect((await curatorA.agent.get(`/api/v1/deposits/999999/comments`)).status).toBe(404);
     const empty = await post(owner, id, "   \n ");
     expect(empty.status).toBe(422);
-    expect(empty.body.details).toEqual([{ path: "/body", message: "The comment is empty." }]);
-    expect((await post(owner, id, { text: "x" })).status).toBe(400);
+    expect(empty.body.details).toEqual([{ path: "/body", message: "body must be text of 1 to 10000 characters, not only spaces." }]);
+    const notText = await post(owner, id, { text: "x" });
+    expect(notText.status).toBe(422);
+    expect(notText.body.details).toEqual([{ path: "/body", message: "body must be text of 1 to 10000 characters, not only spaces." }]);
     const long = await post(owner, id, "x".repeat(10_001));
     expect(long.status).toBe(422);
-    expect(long.body.details[0].message).toBe("At most 10000 characters.");
+    expect(long.body.details[0]).toEqual({ path: "/body", message: "body must be text of 1 to 10000 characters, not only spaces." });
     expect(await SubmissionComment.count({ where: { body: "Hello" } })).toBe(0);
   });
 
