@@ -39,7 +39,7 @@ import { NULL_MODEL_INFO, NULL_MODELS, nullModelLabel, type NullModelName } from
 import type { AnnealingMode } from "@shared/network/optimizer/optimize";
 import type { OptimizerObjective } from "@shared/network/optimizer/quality-graph";
 import { NetworkParseError, parseNetworkFile, type ParseResult } from "@shared/network/parse/index";
-import type { CellMeaning } from "@shared/network/parse/parse";
+import type { CellMeaning } from "@shared/network/parse/options";
 
 const CELL_MEANINGS: readonly CellMeaning[] = ["no-interaction", "not-observed"];
 import type { NetworkKind } from "@shared/network/types";

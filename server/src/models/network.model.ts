@@ -1,4 +1,4 @@
-import type { CellMeaning } from "@shared/network/parse/parse";
+import type { CellMeaning } from "@shared/network/parse/options";
 import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes, type Sequelize } from "sequelize";
 
 export interface NetworkReadOptions {

@@ -1,5 +1,9 @@
 export * from "./errors";
+export { DEFAULT_MAX_BYTES, DEFAULT_MAX_CELLS, type CellMeaning, type MissingCells, type NetworkFileFormat, type ParseOptions, type ParseResult } from "./options";
 export * from "./parse";
+export * from "./workbook";
+export { MISSING_MARKERS, isMissingMarker } from "./cells";
+export { MAX_LABEL_CHARS, labelProblem } from "./headers";
 export * from "./serialize";
 export * from "./write";
 export { detectDelimiter, decodeUtf8 } from "./text";
