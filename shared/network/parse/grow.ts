@@ -1,6 +1,8 @@
 /**
  * Growable typed arrays: the readers stream rows straight into them (CSR rows, column indices, weights,
- * line numbers), doubling their capacity when full, so no array of all cells is ever built.
+ * line numbers), doubling their capacity when full, so no array of all cells is ever built. Two classes
+ * rather than one over both array types: each `push` then sees one array type and stays fast in the
+ * readers' per-cell loops.
  */
 export class GrowU32 {
   a: Uint32Array;
