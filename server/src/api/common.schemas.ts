@@ -84,6 +84,7 @@ export const networkRefItem: FieldSchema = {
   title: "network references such as TB-000042/v2/3",
   description: "A network reference: accession/version/network",
   example: "TB-000001/v1/1",
+  "x-rule": "must be a network reference such as TB-000042/v2/3.",
 };
 
 /** A collection's code, `TBC-` and six digits. */

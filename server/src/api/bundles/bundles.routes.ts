@@ -18,7 +18,14 @@ import { BUNDLE_LIMIT, estimateBytes, parseSelection, resolveSelection, type Sel
 import { BUNDLE_COMPRESSIONS, writeBundle, type BundleCompression } from "./bundles.stream";
 import { ApiError } from "../../lib/api-error";
 import { takeParts } from "./bundles.parts";
-import { collectionRefs, parseRevision } from "../collections/collections.service";
+import { collectionRefs } from "../collections/collections.service";
+
+function parseRevision(raw: unknown): number | undefined {
+  if (raw === undefined || raw === "") return undefined;
+  const n = Number(raw);
+  if (!Number.isInteger(n) || n < 1) throw ApiError.badRequest("revision is a whole number from 1.", [{ path: "revision", message: `"${String(raw)}" is not a revision` }]);
+  return n;
+}
 
 export const bundlesRouter = Router();
 bundlesRouter.use(apiRateLimit);

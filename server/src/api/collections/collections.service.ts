@@ -15,7 +15,7 @@
 import { QueryTypes, type Transaction } from "sequelize";
 import type { CollectionDetail, CollectionInput, CollectionMemberView, CollectionSummary, CollectionVisibility } from "@shared/types/collection";
 import { sequelize } from "../../db/sequelize";
-import { ApiError, type ErrorDetail } from "../../lib/api-error";
+import { ApiError } from "../../lib/api-error";
 import { audit } from "../../lib/audit";
 import { Collection, CollectionMember, User } from "../../models";
 import type { AuthUser } from "../../types";
@@ -23,7 +23,6 @@ import { BUNDLE_LIMIT, parseSelection, resolveSelection, type UnavailableRef } f
 
 /** At most this many networks in a collection (as in one bundle). */
 export const COLLECTION_LIMIT = BUNDLE_LIMIT;
-export const CODE_RE = /^TBC-\d{6}$/;
 
 function notFound(code: string): ApiError {
   return ApiError.notFound(`No collection ${code}.`);
@@ -31,7 +30,6 @@ function notFound(code: string): ApiError {
 
 /** The collection, if the user may see it (public, or their own); else 404. */
 async function visible(code: string, user: AuthUser | undefined): Promise<Collection> {
-  if (!CODE_RE.test(code)) throw ApiError.notFound(`"${code}" is not a collection code (TBC-000001).`);
   const c = await Collection.findOne({ where: { code } });
   if (!c || (c.visibility === "private" && c.ownerId !== user?.id)) throw notFound(code);
   return c;
@@ -62,46 +60,25 @@ async function resolveMembers(input: { refs?: string[]; filter?: Record<string, 
   return nets.map((n) => ({ networkId: n.networkId, ref: n.ref }));
 }
 
-function checkText(input: Partial<CollectionInput>, creating: boolean): { name?: string; description?: string; visibility?: CollectionVisibility } {
-  const errors: ErrorDetail[] = [];
-  const out: { name?: string; description?: string; visibility?: CollectionVisibility } = {};
-  if (input.name !== undefined || creating) {
-    const name = typeof input.name === "string" ? input.name.replace(/\s+/g, " ").trim() : "";
-    if (!name) errors.push({ path: "name", message: "Give the collection a name." });
-    else if (name.length > 200) errors.push({ path: "name", message: `The name is ${name.length} characters long; at most 200.` });
-    out.name = name;
-  }
-  if (input.description !== undefined) {
-    if (typeof input.description !== "string") errors.push({ path: "description", message: "The description must be text." });
-    else if (input.description.length > 5000) errors.push({ path: "description", message: `The description is ${input.description.length} characters long; at most 5000.` });
-    else out.description = input.description.trim();
-  }
-  if (input.visibility !== undefined) {
-    if (input.visibility !== "public" && input.visibility !== "private") errors.push({ path: "visibility", message: 'Visibility is "public" or "private".' });
-    else out.visibility = input.visibility;
-  }
-  if (errors.length) throw ApiError.badRequest("The collection has problems.", errors);
-  return out;
+/** A collection's text as stored: the name on one line, the description trimmed (the schema checked both). */
+function textOf(input: CollectionBody): { name?: string; description?: string; visibility?: CollectionVisibility } {
+  return {
+    ...(input.name !== undefined ? { name: input.name.replace(/\s+/g, " ").trim() } : {}),
+    ...(input.description !== undefined ? { description: input.description.trim() } : {}),
+    ...(input.visibility !== undefined ? { visibility: input.visibility } : {}),
+  };
 }
 
-function refsOf(body: unknown): string[] {
-  const refs = (body as { refs?: unknown } | null)?.refs;
-  if (!Array.isArray(refs) || !refs.length || !refs.every((r) => typeof r === "string")) {
-    throw ApiError.badRequest("Send the networks as refs: a list of references such as TB-000001/v1/1.", [{ path: "refs", message: "a non-empty list of references" }]);
-  }
-  return refs as string[];
-}
+/** A create or update body as collections.schemas.ts let it through. */
+export type CollectionBody = Partial<CollectionInput>;
 
-export async function createCollection(user: AuthUser, body: unknown): Promise<CollectionDetail> {
-  const input = (body && typeof body === "object" ? body : {}) as Partial<CollectionInput>;
-  const text = checkText(input, true);
+export async function createCollection(user: AuthUser, input: CollectionBody): Promise<CollectionDetail> {
+  const text = textOf(input);
   if ((input.refs === undefined) === (input.filter === undefined)) {
-    throw ApiError.badRequest("Save either refs (the selected networks) or filter (everything matching a catalogue filter).", [{ path: "refs", message: "give refs or filter" }]);
+    const message = "Save either refs (the selected networks) or filter (everything matching a catalogue filter).";
+    throw ApiError.badRequest(message, [{ path: "/refs", message }]);
   }
-  if (input.filter !== undefined && (typeof input.filter !== "object" || input.filter === null || Array.isArray(input.filter))) {
-    throw ApiError.badRequest("filter holds catalogue parameters, e.g. { \"interactionType\": \"pollination\" }.", [{ path: "filter", message: "an object" }]);
-  }
-  const members = await resolveMembers({ refs: input.refs !== undefined ? refsOf(input) : undefined, filter: input.filter });
+  const members = await resolveMembers({ refs: input.refs, filter: input.filter as Record<string, unknown> | undefined });
   if (!members.length) throw ApiError.unprocessable("There are no networks to save: select some, or change the filter.", [{ path: input.refs ? "refs" : "filter", message: "no networks" }]);
   if (members.length > COLLECTION_LIMIT) {
     throw ApiError.unprocessable(`A collection holds at most ${COLLECTION_LIMIT.toLocaleString("en")} networks; this one would hold ${members.length.toLocaleString("en")}.`, [{ path: "refs", message: "too many" }]);
@@ -129,8 +106,8 @@ export async function createCollection(user: AuthUser, body: unknown): Promise<C
   return getCollection(code, user);
 }
 
-export async function updateCollection(code: string, user: AuthUser, body: unknown): Promise<CollectionDetail> {
-  const text = checkText((body && typeof body === "object" ? body : {}) as Partial<CollectionInput>, false);
+export async function updateCollection(code: string, user: AuthUser, input: CollectionBody): Promise<CollectionDetail> {
+  const text = textOf(input);
   const c = await owned(code, user);
   await c.update(text);
   await audit({ actorId: user.id, action: "collection.update", entityType: "collection", entityId: code, details: text });
@@ -146,8 +123,7 @@ export async function deleteCollection(code: string, user: AuthUser): Promise<vo
 }
 
 /** Adds published networks (those already members are passed over); a new revision when any is added. */
-export async function addMembers(code: string, user: AuthUser, body: unknown): Promise<CollectionDetail> {
-  const refs = refsOf(body);
+export async function addMembers(code: string, user: AuthUser, refs: string[]): Promise<CollectionDetail> {
   await owned(code, user);
   const members = await resolveMembers({ refs });
   await sequelize().transaction(async (transaction) => {
@@ -265,13 +241,6 @@ async function summaryOf(c: Collection, members: CollectionMemberView[] | null):
     memberCount: list.length,
     withdrawnCount: list.filter((m) => m.state === "withdrawn").length,
   };
-}
-
-export function parseRevision(raw: unknown): number | undefined {
-  if (raw === undefined || raw === "") return undefined;
-  const n = Number(raw);
-  if (!Number.isInteger(n) || n < 1) throw ApiError.badRequest("revision is a whole number from 1.", [{ path: "revision", message: `"${String(raw)}" is not a revision` }]);
-  return n;
 }
 
 /** A collection with its members (of `revision`, default the current one). */

@@ -18,6 +18,7 @@ import { networkViewSchema } from "../network-views/network-views.schemas";
 import { datasetSchema, datasetVersionSchema, networkFileSchema, newVersionSchema, withdrawSchema } from "../datasets/datasets.schemas";
 import { datasetPreviewSchema, networkPreviewSchema } from "../previews/previews.schemas";
 import { compareSchema } from "../compare/compare.schemas";
+import { addMembersSchema, collectionSchema, createCollectionSchema, deleteCollectionSchema, removeMemberSchema, updateCollectionSchema } from "../collections/collections.schemas";
 import { operationInput, parametersOf } from "./from-schemas";
 
 /** Resources used only by the web client (accounts, deposits, review, administration): not part of the public API. */
@@ -30,7 +31,6 @@ type Json = Record<string, unknown>;
 const ref = (name: string) => ({ $ref: `#/components/schemas/${name}` });
 const json = (schema: Json, description = "OK") => ({ description, content: { "application/json": { schema } } });
 const error = (description: string) => json(ref("Error"), description);
-const pathParam = (name: string, description: string, example: string) => ({ name, in: "path", required: true, description, schema: { type: "string" }, example });
 const queryParam = (name: string, description: string, schema: Json = { type: "string" }, example?: unknown) => ({ name, in: "query", required: false, description, schema, ...(example !== undefined ? { example } : {}) });
 
 /** The catalogue's filters without sorting and paging (the coverage map's query). */
@@ -254,11 +254,6 @@ export function openapiDocument(): Json {
             },
           },
         },
-        CollectionInput: {
-          type: "object",
-          required: ["name"],
-          properties: { name: { type: "string", maxLength: 200 }, description: { type: "string", maxLength: 5000 }, visibility: { type: "string", enum: ["public", "private"], default: "private" }, refs: { type: "array", items: { type: "string" } }, filter: { type: "object", additionalProperties: true } },
-        },
         Collection: {
           type: "object",
           description: "A saved set of networks of exact versions; revision rises with every change of its members",
@@ -415,7 +410,7 @@ export function openapiDocument(): Json {
           operationId: "createCollection",
           summary: "Save networks as a collection: explicit references, or every network matching a catalogue filter (frozen to their versions)",
           security: [{ session: [] }, { bearerToken: [] }],
-          requestBody: { content: { "application/json": { schema: ref("CollectionInput") } } },
+          ...operationInput(createCollectionSchema),
           responses: { 201: json(ref("Collection")), 400: error("Missing name, or neither refs nor filter"), 401: error("Sign in"), 422: error("Some references are not published networks") },
         },
       },
@@ -424,17 +419,17 @@ export function openapiDocument(): Json {
           tags: ["Collections"],
           operationId: "getCollection",
           summary: "A collection with its members (exact versions; withdrawn members with their tombstone). Private: owner only (404 otherwise)",
-          parameters: [pathParam("code", "Collection code", "TBC-000001"), queryParam("revision", "Members of an earlier revision", { type: "integer", minimum: 1 }, 1)],
+          ...operationInput(collectionSchema),
           responses: { 200: json(ref("Collection")), 404: error("No such collection, or a private one") },
         },
-        patch: { tags: ["Collections"], operationId: "updateCollection", summary: "Rename, describe, make public or private (owner)", security: [{ session: [] }, { bearerToken: [] }], parameters: [pathParam("code", "Collection code", "TBC-000001")], requestBody: { content: { "application/json": { schema: { type: "object", properties: { name: { type: "string" }, description: { type: "string" }, visibility: { type: "string", enum: ["public", "private"] } } } } } }, responses: { 200: json(ref("Collection")), 403: error("Not the owner") } },
-        delete: { tags: ["Collections"], operationId: "deleteCollection", summary: "Delete a collection (owner)", security: [{ session: [] }, { bearerToken: [] }], parameters: [pathParam("code", "Collection code", "TBC-000001")], responses: { 204: { description: "Deleted" }, 403: error("Not the owner") } },
+        patch: { tags: ["Collections"], operationId: "updateCollection", summary: "Rename, describe, make public or private (owner)", security: [{ session: [] }, { bearerToken: [] }], ...operationInput(updateCollectionSchema), responses: { 200: json(ref("Collection")), 403: error("Not the owner") } },
+        delete: { tags: ["Collections"], operationId: "deleteCollection", summary: "Delete a collection (owner)", security: [{ session: [] }, { bearerToken: [] }], ...operationInput(deleteCollectionSchema), responses: { 204: { description: "Deleted" }, 403: error("Not the owner") } },
       },
       "/collections/{code}/members": {
-        post: { tags: ["Collections"], operationId: "addCollectionMembers", summary: "Add published networks (owner): a new revision", security: [{ session: [] }, { bearerToken: [] }], parameters: [pathParam("code", "Collection code", "TBC-000001")], requestBody: { content: { "application/json": { schema: { type: "object", required: ["refs"], properties: { refs: { type: "array", items: { type: "string" } } } } } } }, responses: { 200: json(ref("Collection")), 403: error("Not the owner"), 422: error("Some references are not published networks") } },
+        post: { tags: ["Collections"], operationId: "addCollectionMembers", summary: "Add published networks (owner): a new revision", security: [{ session: [] }, { bearerToken: [] }], ...operationInput(addMembersSchema), responses: { 200: json(ref("Collection")), 403: error("Not the owner"), 422: error("Some references are not published networks") } },
       },
       "/collections/{code}/members/{accession}/{version}/{position}": {
-        delete: { tags: ["Collections"], operationId: "removeCollectionMember", summary: "Remove a member (owner): a new revision", security: [{ session: [] }, { bearerToken: [] }], parameters: [pathParam("code", "Collection code", "TBC-000001"), pathParam("accession", "Accession", "TB-000001"), pathParam("version", "Version (v1, v2, …)", "v1"), pathParam("position", "Network number", "1")], responses: { 200: json(ref("Collection")), 403: error("Not the owner"), 404: error("Not a member") } },
+        delete: { tags: ["Collections"], operationId: "removeCollectionMember", summary: "Remove a member (owner): a new revision", security: [{ session: [] }, { bearerToken: [] }], ...operationInput(removeMemberSchema), responses: { 200: json(ref("Collection")), 403: error("Not the owner"), 404: error("Not a member") } },
       },
       "/tokens": {
         get: { tags: ["Tokens"], operationId: "listTokens", summary: "Your API tokens (prefix, name, created, last used, revoked)", security: [{ session: [] }, { bearerToken: [] }], responses: { 200: json({ type: "object", properties: { data: { type: "array", items: ref("ApiToken") } } }), 401: error("Sign in") } },

@@ -65,11 +65,20 @@ describe("collections", () => {
   it("refuses a collection without a name, without networks, or with networks that are not published", async () => {
     const noName = await create({ name: " ", refs: [ref(heath, 1)] });
     expect(noName.status).toBe(400);
-    expect(noName.body.details).toEqual([{ path: "name", message: "Give the collection a name." }]);
+    expect(noName.body.message).toBe("The collection has problems.");
+    expect(noName.body.details).toEqual([{ path: "/name", message: "name must be text of 1 to 200 characters, not only spaces." }]);
+    const badRef = await create({ name: "x", refs: [ref(heath, 1), "TB-1/v1"] });
+    expect(badRef.status).toBe(400);
+    expect(badRef.body.details).toEqual([{ path: "/refs", message: 'refs: "TB-1/v1" must be a network reference such as TB-000042/v2/3.' }]);
     const unknown = await create({ name: "x", refs: [ref(heath, 1), "TB-999999/v1/1"] });
     expect(unknown.status).toBe(422);
     expect(unknown.body.details).toEqual([{ path: "refs", message: "TB-999999/v1/1 is not a published network." }]);
-    expect((await create({ name: "x" })).status).toBe(400);
+    const neither = await create({ name: "x" });
+    expect(neither.status).toBe(400);
+    expect(neither.body.message).toBe("Save either refs (the selected networks) or filter (everything matching a catalogue filter).");
+    const badFilter = await create({ name: "x", filter: { contry: "NO" } });
+    expect(badFilter.status).toBe(400);
+    expect(badFilter.body.details[0]).toMatchObject({ path: "contry", message: expect.stringMatching(/^Unknown parameter "contry"/) });
     const visitor = await agentFor(app);
     expect((await visitor.agent.post("/api/v1/collections").set("x-csrf-token", visitor.csrf).send({ name: "x", refs: [ref(heath, 1)] })).status).toBe(401);
   });
@@ -92,6 +101,10 @@ describe("collections", () => {
     const r2 = await request(app).get(`/api/v1/collections/${code}`).query({ revision: 2 });
     expect(r2.body.members).toHaveLength(2);
     expect((await request(app).get(`/api/v1/collections/${code}`).query({ revision: 9 })).status).toBe(404);
+    const badRevision = await request(app).get(`/api/v1/collections/${code}`).query({ revision: "first" });
+    expect(badRevision.status).toBe(400);
+    expect(badRevision.body.details).toEqual([{ path: "revision", message: "revision must be a whole number from 1 to 2147483647." }]);
+    expect((await request(app).get("/api/v1/collections/TBC-12")).body).toEqual({ code: "not_found", message: 'No such collection "TBC-12": collection codes look like TBC-000001.' });
     // others cannot change it
     expect((await other.agent.patch(`/api/v1/collections/${code}`).set("x-csrf-token", other.csrf).send({ name: "Mine now" })).status).toBe(403);
     expect((await other.agent.post(`/api/v1/collections/${code}/members`).set("x-csrf-token", other.csrf).send({ refs: [ref(heath, 2)] })).status).toBe(403);
