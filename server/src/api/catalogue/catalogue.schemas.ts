@@ -1,8 +1,8 @@
 /**
  * The catalogue's query (GET /api/v1/catalogue, also /networks): its filters, sorting and paging as one
  * JSON Schema, mounted by the routes (validate) and described by the OpenAPI document. The same filter
- * fields are read from a bundle's or a collection's `filter` and by the coverage map (readCatalogueFilter,
- * parseCatalogueQuery), so every way into the catalogue checks the same rules.
+ * fields are read from a bundle's or a collection's `filter` (readCatalogueFilter) and mounted by the
+ * coverage map (coverage-map.schemas.ts), so every way into the catalogue checks the same rules.
  *
  * Lists (interactionType, kind, …) are given comma-separated or repeated; `weighted` takes true/false (or
  * 1/0); country and continent codes are read in any case. A range whose minimum is above its maximum, and
@@ -187,11 +187,6 @@ export function toCatalogueQuery(v: Record<string, unknown>): CatalogueQuery {
     page: (v.page as number | undefined) ?? 1,
     pageSize: (v.pageSize as number | undefined) ?? 25,
   };
-}
-
-/** A whole catalogue query that arrives outside a route's validate() (the coverage map), checked by the same schema. */
-export function parseCatalogueQuery(raw: Record<string, unknown>): CatalogueQuery {
-  return toCatalogueQuery(readQuery(catalogueSchema.query!, raw, catalogueRules));
 }
 
 /** A bundle's or a collection's filter (query parameters or a JSON object), checked by the same schema. */

@@ -20,6 +20,7 @@ import { datasetPreviewSchema, networkPreviewSchema } from "../previews/previews
 import { compareSchema } from "../compare/compare.schemas";
 import { addMembersSchema, collectionSchema, createCollectionSchema, deleteCollectionSchema, removeMemberSchema, updateCollectionSchema } from "../collections/collections.schemas";
 import { operationInput, parametersOf } from "./from-schemas";
+import { mapSchema } from "../coverage-map/coverage-map.schemas";
 
 /** Resources used only by the web client (accounts, deposits, review, administration): not part of the public API. */
 export const INTERNAL_PREFIXES = ["/auth/", "/account", "/users", "/outbox", "/deposits", "/reviews", "/admin", "/pipeline", "/metrics-admin", "/network-views/history"];
@@ -331,7 +332,7 @@ export function openapiDocument(): Json {
           tags: ["Catalogue"],
           operationId: "getCoverageMap",
           summary: "Every catalogue network matching the filters with its public (generalised) coordinates, for maps",
-          parameters: filterParameters,
+          ...operationInput(mapSchema),
           responses: { 200: json({ type: "object" }), 400: error("A parameter is not valid") },
         },
       },

@@ -212,6 +212,12 @@ describe("GET /api/v1/network-views/map", () => {
     expect(none.body.data).toEqual([]);
     const bad = await request(app).get("/api/v1/network-views/map").query({ colour: "red" });
     expect(bad.status).toBe(400);
+    expect(bad.body.details[0]).toMatchObject({ path: "colour", message: expect.stringMatching(/^Unknown parameter "colour"\. Known: q, interactionType, /) });
+    const ranges = await request(app).get("/api/v1/network-views/map").query({ yearMin: 2020, yearMax: 2010 });
+    expect(ranges.status).toBe(400);
+    expect(ranges.body.details).toEqual([{ path: "yearMin", message: "yearMin (2020) is greater than yearMax (2010): no network could match. Swap them or change one." }]);
+    const norway = await request(app).get("/api/v1/network-views/map").query({ country: "no" });
+    expect(norway.body.data.map((r: { countryCode: string }) => r.countryCode)).toContain("NO");
   });
 });
 
