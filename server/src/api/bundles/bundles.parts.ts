@@ -33,7 +33,8 @@ export const DEFAULT_PARTS: readonly BundlePart[] = ["partitions", "roles", "nul
 export type FieldType = "string" | "integer" | "number" | "boolean" | "date";
 export type TableField = [name: string, type: FieldType, description: string];
 
-const REF_FIELD: TableField = ["network_ref", "string", "Network reference: accession/version/network, e.g. TB-000042/v2/3 (joins every table of the bundle)"];
+/** The first column of every table about networks (metrics.csv, networks.csv and the part tables). */
+export const REF_FIELD: TableField = ["network_ref", "string", "Network reference: accession/version/network, e.g. TB-000042/v2/3 (joins every table of the bundle)"];
 const SIDE = "row (a row node), column (a column node), or node (one-mode network: rows and columns are the same nodes)";
 
 export const PART_TABLES: Record<Exclude<BundlePart, "originals">, { path: string; name: string; title: string; fields: TableField[] }> = {

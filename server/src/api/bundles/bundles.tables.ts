@@ -12,12 +12,12 @@ import type { Readable } from "node:stream";
 import { NULL_MODEL_INFO, NULL_MODELS, type NullModelName } from "@shared/network/null-models/index";
 import type { CatalogueEntry } from "../catalogue/catalogue.rows";
 import { fileNameOf } from "./bundles.selection";
-import { PART_TABLES, type BundlePart, type FieldType } from "./bundles.parts";
+import { PART_TABLES, REF_FIELD as REF_COLUMN, type BundlePart, type FieldType } from "./bundles.parts";
 
 /** A column of metrics.csv or networks.csv: name, Table Schema type, description, and its value for a network. */
 export type EntryField = [name: string, type: FieldType, description: string, value: (e: CatalogueEntry) => unknown];
 
-const REF_FIELD: EntryField = ["network_ref", "string", "Network reference: accession/version/network, e.g. TB-000042/v2/3 (joins every table of the bundle)", (e) => e.ref];
+const REF_FIELD: EntryField = [...REF_COLUMN, (e) => e.ref];
 
 /**
  * One explicit column set per null model (metrics.csv never mixes models in a column): the model name
