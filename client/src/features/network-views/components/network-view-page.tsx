@@ -1,6 +1,7 @@
 /** /datasets/:accession/v/:n/networks/:pos — one network: metrics with formulas, matrix, null distribution, roles, modules, downloads. */
 import { DoiLine } from "../../../components/ui/doi";
 import { looksLikeFormula } from "@shared/csv";
+import { FormulaLikeNote } from "./formula-like-note";
 import { Link, useParams } from "react-router-dom";
 import { startTransition, useEffect, useState } from "react";
 import { paths } from "../../../config/paths";
@@ -51,7 +52,7 @@ export function NetworkViewPage() {
   }
   const api = `/api/v1`;
   const ref = view.ref;
-  const formulaLike = (view.kind === "bipartite" ? [...view.rowLabels, ...view.colLabels] : view.rowLabels).filter(looksLikeFormula).length;
+  const formulaLike = (view.kind === "bipartite" ? [...view.rowLabels, ...view.colLabels] : view.rowLabels).filter(looksLikeFormula);
   return (
     <div className="space-y-6">
       <nav aria-label="Breadcrumb" className="text-sm">
@@ -135,16 +136,7 @@ export function NetworkViewPage() {
             </>
           )}
         </div>
-        {formulaLike > 0 && (
-          <p className="mt-2 text-sm text-stone-800" data-testid="formula-like-note">
-            {formulaLike} label{formulaLike === 1 ? " begins" : "s begin"} like a spreadsheet formula (=, +, -, @). The CSV files keep labels exactly; a
-            spreadsheet program may run such a label as a formula when it opens the file. For spreadsheets, take the{" "}
-            <a className="font-semibold text-moss-700 underline" href={`${api}/networks/${ref}/data.csv?spreadsheetSafe=true`} download>
-              spreadsheet-safe matrix
-            </a>{" "}
-            (those labels start with an apostrophe).
-          </p>
-        )}
+        <FormulaLikeNote labels={formulaLike} csvHref={`${api}/networks/${ref}/data.csv`} />
         <p className="mt-2 text-xs text-stone-600">
           Original file SHA-256 <span className="break-all font-mono">{view.provenance.file.sha256}</span>. Licence {view.licence}.
         </p>
