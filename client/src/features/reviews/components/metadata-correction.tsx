@@ -3,9 +3,12 @@ import type { ReactNode } from "react";
 import { Alert, Button } from "../../../components/ui/form";
 import type { ReviewDetail } from "../api/types";
 
-/** Curators correct metadata while a version is under review and after it is published. */
-export function canCorrect(r: ReviewDetail): boolean {
-  return r.version.state === "submitted" || r.version.state === "changes_requested" || r.version.state === "published";
+/**
+ * Curators correct metadata while a version is under review; a published version's study metadata too (its
+ * networks' metadata stay as published, as the API answers: a new version changes them).
+ */
+export function canCorrect(r: ReviewDetail, what: "study" | "network"): boolean {
+  return r.version.state === "submitted" || r.version.state === "changes_requested" || (what === "study" && r.version.state === "published");
 }
 
 export function Field({ label, children }: { label: string; children: ReactNode }) {

@@ -103,7 +103,7 @@ export function NetworkBlock({ r, n }: { r: ReviewDetail; n: NetworkSummary }) {
             )}
             <Field label="Taxonomic resolution">{m.taxonomicResolution}</Field>
           </dl>
-          {canCorrect(r) && !editing && <CorrectButton onClick={() => setEditing(true)}>Correct the metadata of network {n.position}</CorrectButton>}
+          {canCorrect(r, "network") && !editing && <CorrectButton onClick={() => setEditing(true)}>Correct the metadata of network {n.position}</CorrectButton>}
         </div>
       </div>
       <ReviewMatrix versionId={r.versionId} n={n} initiallyOpen={r.networks.length <= FULL_MATRICES_OPEN} />

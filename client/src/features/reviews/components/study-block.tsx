@@ -29,7 +29,7 @@ export function StudyBlock({ r }: { r: ReviewDetail }) {
             <Field label="Funding">{m.funding}</Field>
             <Field label="Contact (curators only)">{m.contactEmail}</Field>
           </dl>
-          {canCorrect(r) && <CorrectButton onClick={() => setEditing(true)}>Correct the study metadata</CorrectButton>}
+          {canCorrect(r, "study") && <CorrectButton onClick={() => setEditing(true)}>Correct the study metadata</CorrectButton>}
         </>
       ) : (
         <form
