@@ -1,8 +1,8 @@
 /**
  * The Catalogue in Chromium: filter by a facet (the URL keeps it), select networks on two pages (the
  * selection survives paging), download the selection as a bundle (Playwright download event), open the
- * zip with yauzl and check its entries; the API docs page and the tokens panel render. Axe reports no
- * serious or critical violation on the catalogue. Invented data (tests/server/support/catalogue-fixtures.ts).
+ * zip with yauzl and check its entries; a search by a word's beginning says it matched beginnings; the API
+ * docs page and the tokens panel render. Axe reports no serious or critical violation on the catalogue. Invented data (tests/server/support/catalogue-fixtures.ts).
  */
 import { readFileSync } from "node:fs";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
@@ -128,7 +128,18 @@ describe("catalogue page", () => {
     expect(await page.getByRole("checkbox", { name: /^Select TB-/ }).count()).toBe(1);
     await page.getByText("Plot 4").waitFor();
     await page.getByText("Meadow survey 3").waitFor();
+    expect(await page.getByTestId("search-prefix-note").count()).toBe(0);
     await screenshot(page, "catalogue-search");
+
+    // a word's beginning: no whole word "tanglew" exists, so the same network is found by prefix, and the page says so
+    await page.getByRole("searchbox").fill("tanglew");
+    await page.getByRole("button", { name: "Search", exact: true }).click();
+    await page.waitForURL(/q=tanglew(&|$)/);
+    const note = page.getByRole("note").filter({ hasText: "No network has the whole word “tanglew”" });
+    await note.waitFor();
+    expect(await note.getAttribute("data-testid")).toBe("search-prefix-note");
+    await page.getByRole("heading", { name: "1 network", exact: true }).waitFor();
+    await screenshot(page, "catalogue-search-prefix");
   });
 
   it("renders the API documentation with examples, and the tokens panel creates a token", async () => {
