@@ -2,7 +2,8 @@
  * The optimizer's working graph (one quality formula for all objectives) against modularity() of
  * quality.ts, an independent implementation of the published formulas: Q of random partitions, the move
  * gain g(v, c) of formula (2) against the change of modularity() when v actually moves, and aggregation
- * keeping Q (invariant listed in ../shared/conventions.md, "Science tests").
+ * keeping Q (the invariant in shared/network/README.md, "One quality, three objectives"; aggregation in
+ * Traag, Waltman & van Eck 2019, docs/science.md).
  */
 import { describe, expect, it } from "vitest";
 import { modularity, type Objective } from "@shared/network/modularity/quality";

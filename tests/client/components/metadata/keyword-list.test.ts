@@ -1,7 +1,7 @@
 import { createElement } from "react";
 import { renderToStaticMarkup } from "react-dom/server";
 import { describe, expect, it } from "vitest";
-import { KeywordList } from "../../client/src/components/metadata/keyword-list";
+import { KeywordList } from "../../../../client/src/components/metadata/keyword-list";
 
 describe("KeywordList", () => {
   it("isolates each keyword, so an unclosed right-to-left override stays inside its own keyword", () => {
