@@ -33,7 +33,7 @@ export async function getProfile(userId: number): Promise<AccountProfile> {
 export async function updateProfile(userId: number, patch: { displayName?: string; affiliation?: string | null; orcid?: string | null }): Promise<AccountProfile> {
   const u = await load(userId);
   if (patch.orcid !== undefined && u.orcidVerifiedAt && (patch.orcid ?? "").toUpperCase() !== (u.orcid ?? "").toUpperCase()) {
-    throw ApiError.conflict("Your ORCID iD was verified through ORCID: unlink it first to type another one.", [{ path: "orcid", message: "Unlink the verified iD first." }]);
+    throw ApiError.conflict("Your ORCID iD was verified through ORCID: unlink it first to type another one.", [{ path: "/orcid", message: "Unlink the verified iD first." }]);
   }
   await u.update(patch);
   return toProfile(u);
@@ -43,7 +43,7 @@ export async function updateProfile(userId: number, patch: { displayName?: strin
 export async function changePassword(userId: number, currentPassword: string, newPassword: string, keepSid: string | undefined): Promise<void> {
   const u = await load(userId);
   if (!(await verifyPassword(currentPassword, u.passwordHash))) {
-    throw ApiError.unprocessable("Your current password is not correct.", [{ path: "currentPassword", message: "This is not your current password." }]);
+    throw ApiError.unprocessable("Your current password is not correct.", [{ path: "/currentPassword", message: "This is not your current password." }]);
   }
   const passwordHash = await hashPassword(newPassword);
   await sequelize().transaction(async (t) => {

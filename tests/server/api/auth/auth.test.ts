@@ -294,11 +294,25 @@ describe("account profile and password", () => {
 
     const badCheck = await me.agent.patch("/api/v1/account").set("x-csrf-token", me.csrf).send({ orcid: "0000-0002-1825-0098" });
     expect(badCheck.status).toBe(422);
-    expect(badCheck.body.details[0]).toMatchObject({ path: "orcid", message: expect.stringMatching(/check digit/) });
+    expect(badCheck.body.details).toEqual([{ path: "/orcid", message: "This ORCID iD's check digit is wrong: check for a typing error." }]);
+    const notAnId = await me.agent.patch("/api/v1/account").set("x-csrf-token", me.csrf).send({ orcid: "0000-0002-1825", displayName: " ", colour: "red" });
+    expect(notAnId.status).toBe(422);
+    expect(notAnId.body.details).toEqual([
+      { path: "/colour", message: "colour is not a field of this request (fields: displayName, affiliation, orcid)." },
+      { path: "/displayName", message: "displayName must be your name: 1 to 100 characters, not only spaces." },
+      { path: "/orcid", message: "orcid must be an ORCID iD such as 0000-0002-1825-0097 (four groups of four digits; the last may be X), or its https://orcid.org/ address; empty or null removes it." },
+    ]);
+    const cleared = await me.agent.patch("/api/v1/account").set("x-csrf-token", me.csrf).send({ affiliation: "  ", orcid: "" });
+    expect(cleared.body).toMatchObject({ affiliation: null, orcid: null });
+    const weak = await me.agent.put("/api/v1/account/password").set("x-csrf-token", me.csrf).send({ currentPassword: TEST_PASSWORD, newPassword: "short1" });
+    expect(weak.status).toBe(422);
+    expect(weak.body).toMatchObject({ message: "Password must be at least 10 characters long.", details: [{ path: "/newPassword", message: "Password must be at least 10 characters long.", rule: "password_policy" }] });
+    const same = await me.agent.put("/api/v1/account/password").set("x-csrf-token", me.csrf).send({ currentPassword: TEST_PASSWORD, newPassword: TEST_PASSWORD });
+    expect(same.body.message).toBe("The new password must differ from the current one.");
 
     const wrongCurrent = await me.agent.put("/api/v1/account/password").set("x-csrf-token", me.csrf).send({ currentPassword: "nope-nope-123", newPassword: "brand-new-pass-21" });
     expect(wrongCurrent.status).toBe(422);
-    expect(wrongCurrent.body.details[0].path).toBe("currentPassword");
+    expect(wrongCurrent.body.details[0].path).toBe("/currentPassword");
 
     const changed = await me.agent.put("/api/v1/account/password").set("x-csrf-token", me.csrf).send({ currentPassword: TEST_PASSWORD, newPassword: "brand-new-pass-21" });
     expect(changed.status).toBe(204);
