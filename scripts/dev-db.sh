@@ -2,7 +2,7 @@
 # For developers running single test files while working: ensures a long-lived development test cluster
 # (.pg-devtest, port 54349) and a database of the given name, then prints its DATABASE_URL.
 #   export DATABASE_URL=$(bash scripts/dev-db.sh tanglebank_test_mine)
-#   npx vitest run --project server tests/server/my.test.ts
+#   npx vitest run --project server tests/server/api/users/users.test.ts
 source "$(dirname "$0")/lib.sh"
 name="${1:-tanglebank_test_dev}"
 case "$name" in tanglebank_test*) ;; *) die "database name must start with tanglebank_test";; esac
