@@ -44,66 +44,90 @@ export function deriveSeed(seed: number, ...path: number[]): number {
 }
 
 export function createRng(seed: number): Rng {
-  let st = seed >>> 0;
-  let a: number, b: number, c: number, d: number;
-  [st, a] = splitmix32(st);
-  [st, b] = splitmix32(st);
-  [st, c] = splitmix32(st);
-  [, d] = splitmix32(st);
-  if ((a | b | c | d) === 0) a = 1;
+  const [s1, a] = splitmix32(seed >>> 0);
+  const [s2, b] = splitmix32(s1);
+  const [s3, c] = splitmix32(s2);
+  const [, d] = splitmix32(s3);
+  return new Xoshiro128((a | b | c | d) === 0 ? 1 : a, b, c, d);
+}
 
-  const nextUint32 = (): number => {
+/**
+ * xoshiro128** with its state in an Int32Array. One class for every generator, so that hot loops calling
+ * rng.next() or rng.nextInt() see one call target whatever the generator (a closure per generator made
+ * the optimizing compiler discard such loops' code at each new restart), and the state is written in place
+ * (no boxed numbers per draw). The state words are used as 32-bit integers only, so the draws are those of
+ * the same algorithm on plain numbers.
+ */
+class Xoshiro128 implements Rng {
+  private readonly s: Int32Array;
+
+  constructor(a: number, b: number, c: number, d: number) {
+    this.s = Int32Array.of(a, b, c, d);
+  }
+
+  nextUint32(): number {
+    const s = this.s;
+    const a = s[0];
+    const b = s[1];
     const result = Math.imul(rotl(Math.imul(b, 5), 7), 9) >>> 0;
     const t = b << 9;
-    c ^= a;
-    d ^= b;
-    b ^= c;
-    a ^= d;
-    c ^= t;
-    d = rotl(d, 11);
+    const c = s[2] ^ a;
+    const d = s[3] ^ b;
+    s[0] = a ^ d;
+    s[1] = b ^ c;
+    s[2] = c ^ t;
+    s[3] = rotl(d, 11);
     return result;
-  };
+  }
 
-  return {
-    nextUint32,
-    fill(out: Uint32Array): void {
-      let s0 = a;
-      let s1 = b;
-      let s2 = c;
-      let s3 = d;
-      for (let i = 0; i < out.length; i++) {
-        out[i] = Math.imul(rotl(Math.imul(s1, 5), 7), 9);
-        const t = s1 << 9;
-        s2 ^= s0;
-        s3 ^= s1;
-        s1 ^= s2;
-        s0 ^= s3;
-        s2 ^= t;
-        s3 = rotl(s3, 11);
-      }
-      a = s0;
-      b = s1;
-      c = s2;
-      d = s3;
-    },
-    save: () => [a, b, c, d],
-    restore(state: readonly number[]): void {
-      [a, b, c, d] = state;
-    },
-    next: () => nextUint32() / 4294967296,
-    nextInt(n: number): number {
-      if (!(n >= 1) || n > 4294967296) throw new RangeError(`nextInt: n must be in [1, 2^32], got ${n}`);
-      // Rejection sampling removes modulo bias: draws at or above limit = 2^32 − (2^32 mod n) are
-      // redrawn, and the result is x mod n. limit = n·⌊2^32/n⌋ is the start of the first block
-      // [qn, qn + n) that does not fit below 2^32, so x ≥ limit exactly when x's own block x − r … x − r + n
-      // ends beyond 2^32: one division per draw instead of two (same draws, same results).
-      for (;;) {
-        const x = nextUint32();
-        const r = mod(x, n);
-        if (x - r + n <= 4294967296) return r;
-      }
-    },
-  };
+  fill(out: Uint32Array): void {
+    const s = this.s;
+    let s0 = s[0];
+    let s1 = s[1];
+    let s2 = s[2];
+    let s3 = s[3];
+    for (let i = 0; i < out.length; i++) {
+      out[i] = Math.imul(rotl(Math.imul(s1, 5), 7), 9);
+      const t = s1 << 9;
+      s2 ^= s0;
+      s3 ^= s1;
+      s1 ^= s2;
+      s0 ^= s3;
+      s2 ^= t;
+      s3 = rotl(s3, 11);
+    }
+    s[0] = s0;
+    s[1] = s1;
+    s[2] = s2;
+    s[3] = s3;
+  }
+
+  save(): number[] {
+    const s = this.s;
+    return [s[0], s[1], s[2], s[3]];
+  }
+
+  restore(state: readonly number[]): void {
+    const s = this.s;
+    for (let i = 0; i < 4; i++) s[i] = state[i];
+  }
+
+  next(): number {
+    return this.nextUint32() / 4294967296;
+  }
+
+  nextInt(n: number): number {
+    if (!(n >= 1) || n > 4294967296) throw new RangeError(`nextInt: n must be in [1, 2^32], got ${n}`);
+    // Rejection sampling removes modulo bias: draws at or above limit = 2^32 − (2^32 mod n) are
+    // redrawn, and the result is x mod n. limit = n·⌊2^32/n⌋ is the start of the first block
+    // [qn, qn + n) that does not fit below 2^32, so x ≥ limit exactly when x's own block x − r … x − r + n
+    // ends beyond 2^32: one division per draw instead of two (same draws, same results).
+    for (;;) {
+      const x = this.nextUint32();
+      const r = mod(x, n);
+      if (x - r + n <= 4294967296) return r;
+    }
+  }
 }
 
 /**
