@@ -1,15 +1,6 @@
-/** What the study and network blocks of the review page share: a metadata line, and saving or cancelling a correction. */
+/** What the study and network blocks of the review page share: a metadata line, and saving or cancelling a correction (who may correct what: utils/corrections.ts). */
 import type { ReactNode } from "react";
 import { Alert, Button } from "../../../components/ui/form";
-import type { ReviewDetail } from "../api/types";
-
-/**
- * Curators correct metadata while a version is under review; a published version's study metadata too (its
- * networks' metadata stay as published, as the API answers: a new version changes them).
- */
-export function canCorrect(r: ReviewDetail, what: "study" | "network"): boolean {
-  return r.version.state === "submitted" || r.version.state === "changes_requested" || (what === "study" && r.version.state === "published");
-}
 
 export function Field({ label, children }: { label: string; children: ReactNode }) {
   return (

@@ -13,7 +13,8 @@ import { Alert } from "../../../components/ui/form";
 import { useReviewCanonical } from "../api/get-review";
 import { correctNetwork, useReviewMutation } from "../api/mutations";
 import type { ReviewDetail } from "../api/types";
-import { CorrectButton, CorrectionActions, Field, canCorrect } from "./metadata-correction";
+import { CorrectButton, CorrectionActions, Field } from "./metadata-correction";
+import { canCorrect } from "../utils/corrections";
 import { ReviewMatrix } from "./review-matrix";
 
 /** Deposits with up to this many networks show every whole matrix at once; larger ones open them one by one. */

@@ -4,7 +4,8 @@ import { StudyForm, type StudyDraft } from "../../../components/metadata/study-f
 import { prune, studyErrors } from "../../../components/metadata/validate";
 import { correctStudy, useReviewMutation } from "../api/mutations";
 import type { ReviewDetail } from "../api/types";
-import { CorrectButton, CorrectionActions, Field, canCorrect } from "./metadata-correction";
+import { CorrectButton, CorrectionActions, Field } from "./metadata-correction";
+import { canCorrect } from "../utils/corrections";
 
 export function StudyBlock({ r }: { r: ReviewDetail }) {
   const [editing, setEditing] = useState(false);
