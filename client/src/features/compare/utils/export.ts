@@ -7,7 +7,7 @@ export const COMPARE_COLUMNS = ["ref", "dataset", "network", "interaction_type",
 /**
  * The table as CSV: every significance column is against `nullModel` (named in the null_model column of
  * every row; empty figures when a network has no figures of that model, never another model's).
- * `adjusted` holds the size- and connectance-adjusted value of `adjustedMeasure` per network (utils/adjust.ts).
+ * `adjusted` holds the size- and connectance-adjusted value of `adjusted.measure` per network (utils/adjust.ts).
  */
 export function compareCsv(rows: NetworkCompareRow[], nullModel: string, adjusted?: { measure: string; values: Map<string, number> } | null): string {
   const table: unknown[][] = [[...COMPARE_COLUMNS]];
