@@ -52,6 +52,12 @@ export interface FieldSchema {
   "x-case"?: "upper";
   /** The rule as a sentence's end, when the generic wording (describeRule) would not say it well. */
   "x-rule"?: string;
+  /**
+   * Whole messages in the user's words, for forms that show them beside the field: `x-message` when the
+   * value is refused, `x-required` when it is missing or blank text (instead of "<field> must be …").
+   */
+  "x-message"?: string;
+  "x-required"?: string;
   [key: string]: unknown;
 }
 
@@ -77,6 +83,8 @@ export interface RequestSchema {
   bodyStatus?: 400 | 422;
   /** The message of a refused body (default: the first problem's). */
   bodyMessage?: string;
+  /** The code of a refused body (default bad_request, or validation_failed with 422). */
+  bodyCode?: string;
   /**
    * The text fields of a multipart body, checked where the route mounts validate() after the upload
    * middleware: read from text like the query (trimmed, empty = absent, true/false as 1/0; a field with
@@ -170,7 +178,8 @@ function detailsOf(errors: ErrorObject[], schema: ObjectSchema, where: "params" 
     let message: string;
     if (e.keyword === "required") {
       segs = [...at.segs, (e.params as { missingProperty: string }).missingProperty];
-      message = `${segs.join(".")} is required: it ${describeRule(propsOf(parent)[segs[segs.length - 1]] ?? {}, inText)}`;
+      const s = propsOf(parent)[segs[segs.length - 1]] ?? {};
+      message = s["x-required"] ?? `${segs.join(".")} is required: it ${describeRule(s, inText)}`;
     } else if (e.keyword === "additionalProperties") {
       segs = [...at.segs, (e.params as { additionalProperty: string }).additionalProperty];
       const known = words(Object.keys(propsOf(parent)));
@@ -187,7 +196,8 @@ function detailsOf(errors: ErrorObject[], schema: ObjectSchema, where: "params" 
       const item = s?.type === "array" && index !== undefined && !s["x-rule"] ? (s.items ?? s.prefixItems?.[Number(index)]) : undefined;
       const list = item ? valueAt(data, segs) : undefined;
       const value = Array.isArray(list) ? list[Number(index)] : undefined;
-      message = item ? `${field}: ${JSON.stringify(value)} ${describeRule(item, inText)}` : s ? `${field} ${describeRule(s, inText)}` : `${field || "The request"}: ${e.message ?? "not valid"}.`;
+      const blank = s?.["x-required"] !== undefined && typeof valueAt(data, segs) === "string" && !(valueAt(data, segs) as string).trim();
+      message = (blank ? s?.["x-required"] : s?.["x-message"]) ?? (item ? `${field}: ${JSON.stringify(value)} ${describeRule(item, inText)}` : s ? `${field} ${describeRule(s, inText)}` : `${field || "The request"}: ${e.message ?? "not valid"}.`);
     }
     const path = pointer ? `/${segs.join("/")}` : segs.join(".");
     if (!out.has(path)) out.set(path, { path, message });
@@ -269,7 +279,7 @@ function refuseBody(schema: RequestSchema, data: Record<string, unknown>, d: Err
   if (schema.bodyRules) d.push(...schema.bodyRules(data, new Set(d.map((x) => x.path ?? ""))));
   if (!d.length) return;
   const message = schema.bodyMessage ?? (d.length === 1 ? d[0].message : "Some fields need attention.");
-  throw new ApiError(schema.bodyStatus ?? 400, schema.bodyStatus === 422 ? "validation_failed" : "bad_request", message, d);
+  throw new ApiError(schema.bodyStatus ?? 400, schema.bodyCode ?? (schema.bodyStatus === 422 ? "validation_failed" : "bad_request"), message, d);
 }
 
 /** The middleware: checks (and coerces) params, query and body against `schema` before the handler runs. */

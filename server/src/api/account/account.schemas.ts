@@ -3,9 +3,8 @@
  * routes through validate(); refused fields answer 422 with one detail per field, shown beside it.
  * The normalized forms (names with single spaces, a bare upper-case ORCID iD) are made by the controller.
  */
-import type { ErrorDetail } from "@shared/types/api";
 import type { RequestSchema } from "../../middlewares/validate";
-import { passwordProblem } from "../../lib/passwords";
+import { displayNameField, passwordRule } from "../auth/auth.schemas";
 
 /** ORCID iD check digit: ISO 7064 MOD 11-2 over the first 15 digits, as ORCID documents for its identifiers ("X" stands for 10). */
 export function orcidChecksumOk(id: string): boolean {
@@ -20,25 +19,6 @@ export function orcidChecksumOk(id: string): boolean {
 /** Accepts a bare iD or its https://orcid.org/ URL; returns the bare iD. */
 export function normalizeOrcid(value: string): string {
   return value.trim().replace(/^https?:\/\/(www\.)?orcid\.org\//i, "").toUpperCase();
-}
-
-/** A person's name as shown on their deposits (also at sign-up). */
-export const displayNameField = {
-  type: "string",
-  minLength: 1,
-  maxLength: 100,
-  pattern: "\\S",
-  "x-rule": "must be your name: 1 to 100 characters, not only spaces.",
-  description: "Your name as shown on your deposits",
-} as const;
-
-/** A new password's policy (lib/passwords.ts), as a rule over a body field. */
-export function passwordRule(field: string) {
-  return (b: Record<string, unknown>, failed: ReadonlySet<string>): ErrorDetail[] => {
-    if (failed.has(`/${field}`)) return [];
-    const problem = passwordProblem(b[field]);
-    return problem ? [{ path: `/${field}`, message: problem, rule: "password_policy" }] : [];
-  };
 }
 
 export const profileSchema: RequestSchema = {

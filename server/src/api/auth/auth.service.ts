@@ -71,7 +71,7 @@ export async function signUp(input: { email: string; displayName: string; passwo
   const user = await sequelize().transaction(async (t) => {
     if (await findUserByEmail(input.email, t)) {
       throw ApiError.conflict("An account with this e-mail address already exists. Sign in, or reset your password if you forgot it.", [
-        { path: "email", message: "An account with this e-mail address already exists." },
+        { path: "/email", message: "An account with this e-mail address already exists." },
       ]);
     }
     const u = await User.create({ email: input.email, displayName: input.displayName, passwordHash }, { transaction: t });

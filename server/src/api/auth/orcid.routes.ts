@@ -6,14 +6,14 @@
  * | GET  /pending   | the session that just verified an iD with no account | `{ orcid, givenName, familyName }` (404 otherwise) |
  * | POST /sign-up   | that session (rate-limited) | `{ email, displayName }` → 201, signed in, confirmation e-mail sent |
  */
-import { Router, type Request, type Response } from "express";
+import { Router, type NextFunction, type Request, type Response } from "express";
 import { ApiError } from "../../lib/api-error";
 import { csrfToken } from "../../middlewares/csrf";
 import { toAuthUser } from "../../middlewares/authenticate";
 import { signUpRateLimit } from "../../middlewares/rate-limit";
 import { config } from "../../config/env";
-import { asBody, checkDisplayName, checkEmail, fail } from "./auth.validation";
-import type { ErrorDetail } from "../../lib/api-error";
+import { validate } from "../../middlewares/validate";
+import { orcidSignUpSchema, orcidStartSchema } from "./auth.schemas";
 import * as s from "./orcid.service";
 
 const regenerate = (req: Request) => new Promise<void>((resolve, reject) => req.session.regenerate((err) => (err ? reject(err) : resolve())));
@@ -21,11 +21,10 @@ const save = (req: Request) => new Promise<void>((resolve, reject) => req.sessio
 
 export const orcidRouter = Router();
 
-orcidRouter.post("/start", async (req, res) => {
+orcidRouter.post("/start", validate(orcidStartSchema), async (req, res) => {
   if (!req.session) throw ApiError.badRequest("ORCID sign-in needs a browser session, not an API token.");
-  const b = asBody(req.body);
-  const intent = b.intent === "link" ? "link" : b.intent === "sign-in" || b.intent === undefined ? "sign-in" : null;
-  if (!intent) throw ApiError.unprocessable('intent must be "sign-in" or "link".', [{ path: "intent", message: 'Use "sign-in" or "link".' }]);
+  const b = req.body as { intent: "sign-in" | "link"; next?: string };
+  const intent = b.intent;
   if (intent === "link" && !req.user) throw ApiError.unauthorized();
   const { url, flow } = await s.startFlow(intent, req.user?.id, s.safeNext(b.next));
   req.session.orcidFlow = flow;
@@ -73,14 +72,16 @@ orcidRouter.get("/pending", (req, res) => {
   res.json({ orcid: p.orcid, givenName: p.givenName, familyName: p.familyName });
 });
 
-orcidRouter.post("/sign-up", signUpRateLimit, async (req, res) => {
+/** Only while an ORCID iD waits for an account (checked before the body). */
+function requirePending(req: Request, _res: Response, next: NextFunction) {
+  pendingOf(req);
+  next();
+}
+
+orcidRouter.post("/sign-up", signUpRateLimit, requirePending, validate(orcidSignUpSchema), async (req, res) => {
   const p = pendingOf(req);
-  const b = asBody(req.body);
-  const d: ErrorDetail[] = [];
-  const email = checkEmail(b.email, d);
-  const displayName = checkDisplayName(b.displayName, d);
-  fail(d);
-  const user = await s.signUpWithOrcid(p, { email, displayName });
+  const b = req.body as { email: string; displayName: string };
+  const user = await s.signUpWithOrcid(p, { email: b.email.trim().toLowerCase(), displayName: b.displayName.trim().replace(/\s+/g, " ") });
   await regenerate(req);
   req.session.userId = user.id;
   const token = csrfToken(req);

@@ -135,7 +135,7 @@ export async function signUpWithOrcid(v: VerifiedOrcid, input: { email: string; 
   const user = await sequelize().transaction(async (t) => {
     if (await findUserByEmail(input.email, t)) {
       throw ApiError.conflict("An account with this e-mail address already exists. Sign in with it, then link your ORCID iD from the Account page.", [
-        { path: "email", message: "An account with this e-mail address already exists." },
+        { path: "/email", message: "An account with this e-mail address already exists." },
       ]);
     }
     const u = await User.create({ email: input.email, displayName: input.displayName, passwordHash: "!orcid-only", orcid: v.orcid, orcidVerifiedAt: new Date() }, { transaction: t });
