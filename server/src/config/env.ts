@@ -29,10 +29,10 @@ export interface Config {
   requestTimeoutSeconds: number;
   /** Seconds a connection may stay silent mid-request before it is answered 408 and closed (TB_IDLE_TIMEOUT_SECONDS; default 60). */
   idleTimeoutSeconds: number;
-  /** Reading one uploaded file in the parse thread: time limit (ms) and heap limit (MB). */
+  /** Reading one uploaded file in a parse process: time limit (ms) and heap limit of the process (MB). */
   parseTimeoutMs: number;
   parseMaxMemoryMb: number;
-  /** Worker threads that read uploaded files (at most this many files are parsed at once). */
+  /** Child processes that read uploaded files (at most this many files are parsed at once). */
   parseThreads: number;
   logLevel: LogLevel;
   /** The metrics and DOI background jobs (validated at start; read again on each use by jobSettings()). */

@@ -1,5 +1,5 @@
 /**
- * Reading a deposit's network files: every file is parsed in a parse thread (the engine's parser,
+ * Reading a deposit's network files: every file is parsed in a parse process (the engine's parser,
  * lib/parse/pool.ts), every file's problem (file, row, column) collected before an upload is refused.
  * A parsed file becomes a network's columns (format, kind, counts, canonical form, warnings, how it was
  * read) and its metadata's `missingValues`; the bytes are stored once per SHA-256.
@@ -35,7 +35,7 @@ export interface ParsedUpload {
 }
 
 /**
- * Parses every file in the parse threads (lib/parse/pool.ts: off the web server's thread, with time and
+ * Parses every file in the parse processes (lib/parse/pool.ts: off the web server's thread, with time and
  * memory limits); collects every file's problem (file, row, column) before refusing.
  */
 export async function parseUploads(files: UploadedFile[], opts: UploadOptions): Promise<ParsedUpload[]> {

@@ -5,7 +5,7 @@
  * - deposits.access.ts: who may read or change a version now (owner, curators; the editable states), and
  *   what every change shares (one transaction, the lock version, the metadata size check);
  * - deposits.detail.ts: the deposit page's answer (detail, findings, decisions);
- * - deposits.files.ts and deposits.upload.ts: reading uploaded files (parse threads) and storing them;
+ * - deposits.files.ts and deposits.upload.ts: reading uploaded files (parse processes) and storing them;
  * - deposits.networks.ts: adding, re-reading, reordering and deleting networks, their files for viewers;
  * - deposits.metadata.ts and deposits.sheet.ts: network metadata of the whole deposit (sheet, blocks);
  * - deposits.submission.ts: full validation, submission and its e-mails (deposits.snapshots.ts records it);

@@ -1,5 +1,5 @@
 /**
- * What a parse thread does with one uploaded file: read it (from its temporary file or from the bytes
+ * What a parse process does with one uploaded file: read it (from its temporary file or from the bytes
  * sent), parse it with the engine's parser, hash it, and build the canonical form and the basic counts,
  * so the web server's thread does none of this work. A parse problem comes back as data (structured
  * cloning would drop the fields of a NetworkParseError); anything else is thrown.

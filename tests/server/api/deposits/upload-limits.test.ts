@@ -1,7 +1,7 @@
 /**
  * Uploads under hostile or careless input: bytes stream to temporary files with per-file and per-request
  * limits, names are checked as each part starts, temporary files are removed whatever happens, files are
- * parsed in a parse thread with time and memory limits, and broken multipart bodies get a 400 that says
+ * parsed in a parse process with time and memory limits, and broken multipart bodies get a 400 that says
  * what is wrong. Every refusal names the file or the limit, and stores nothing.
  */
 import http from "node:http";
@@ -224,7 +224,7 @@ describe("names checked as each file starts", () => {
   });
 });
 
-describe("parsing in a parse thread, with limits", () => {
+describe("parsing in a parse process, with limits", () => {
   // An edge list of 40,000 lines (about 0.6 MB): far more than 10 ms of parsing.
   const edges = "source,target\n" + Array.from({ length: 40_000 }, (_, i) => `plant ${i % 997},visitor ${i % 1499}`).join("\n") + "\n";
 
