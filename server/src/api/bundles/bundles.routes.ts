@@ -9,30 +9,22 @@
  * At most 5,000 networks (413 beyond); refs that are not published → 422; withdrawn never included.
  * Both take `compression=fast|small` (query or body; default fast = files stored uncompressed, small =
  * deflated, about a seventh of the size at about three times the server's time) and `include` (the
- * optional parts, bundles.parts.ts; default partitions,roles,nulls; `include=` for none).
+ * optional parts, bundles.parts.ts; default partitions,roles,nulls; `include=` for none). Requests are
+ * checked by bundles.schemas.ts (400 naming every refused parameter or field).
  */
 import { Router, type Request, type Response } from "express";
 import { logger } from "../../lib/logger";
 import { apiRateLimit } from "../../middlewares/api-rate-limit";
+import { validate } from "../../middlewares/validate";
 import { BUNDLE_LIMIT, estimateBytes, parseSelection, resolveSelection, type Selection, type UnavailableRef } from "./bundles.selection";
-import { BUNDLE_COMPRESSIONS, writeBundle, type BundleCompression } from "./bundles.stream";
+import { writeBundle, type BundleCompression } from "./bundles.stream";
 import { ApiError } from "../../lib/api-error";
 import { takeParts } from "./bundles.parts";
 import { collectionRefs } from "../collections/collections.service";
-
-function parseRevision(raw: unknown): number | undefined {
-  if (raw === undefined || raw === "") return undefined;
-  const n = Number(raw);
-  if (!Number.isInteger(n) || n < 1) throw ApiError.badRequest("revision is a whole number from 1.", [{ path: "revision", message: `"${String(raw)}" is not a revision` }]);
-  return n;
-}
+import { bundleBodySchema, bundleQuerySchema } from "./bundles.schemas";
 
 export const bundlesRouter = Router();
 bundlesRouter.use(apiRateLimit);
-
-function bodyOf(req: Request): Record<string, unknown> {
-  return req.body && typeof req.body === "object" && !Array.isArray(req.body) ? (req.body as Record<string, unknown>) : {};
-}
 
 /**
  * `collection=TBC-000012` (and `revision=N`) selects a collection's members of that revision: its published
@@ -41,7 +33,7 @@ function bodyOf(req: Request): Record<string, unknown> {
 async function expandCollection(req: Request, input: Record<string, unknown>): Promise<{ input: Record<string, unknown>; title?: string }> {
   const { collection, revision, ...rest } = input;
   if (collection === undefined) return { input };
-  const c = await collectionRefs(String(collection), req.user, parseRevision(revision));
+  const c = await collectionRefs(String(collection), req.user, revision as number | undefined);
   if (!c.refs.length) {
     throw ApiError.unprocessable(`${String(collection)} has no published network to bundle${c.withdrawn.length ? ` (its ${c.withdrawn.length} members were withdrawn)` : ""}.`, [{ path: "collection", message: "no published members" }]);
   }
@@ -49,8 +41,8 @@ async function expandCollection(req: Request, input: Record<string, unknown>): P
   return { input: { ...rest, refs: c.refs }, title: `collection ${String(collection)} revision ${c.revision}, "${c.name}" (${c.refs.length} networks${left})` };
 }
 
-bundlesRouter.post("/estimate", async (req, res) => {
-  const { parts, rest } = takeParts(takeCompression((await expandCollection(req, bodyOf(req))).input).rest);
+bundlesRouter.post("/estimate", validate(bundleBodySchema), async (req, res) => {
+  const { parts, rest } = takeParts(takeCompression((await expandCollection(req, req.body as Record<string, unknown>)).input).rest);
   const sel = parseSelection(rest);
   // references that cannot be bundled are listed (the page offers to drop them), not an error here
   const unavailable: UnavailableRef[] = [];
@@ -61,9 +53,7 @@ bundlesRouter.post("/estimate", async (req, res) => {
 /** Takes `compression` out of the input (the rest is the selection); fast unless asked. */
 function takeCompression(input: Record<string, unknown>): { compression: BundleCompression; rest: Record<string, unknown> } {
   const { compression, ...rest } = input;
-  if (compression === undefined || compression === "") return { compression: "fast", rest };
-  if (typeof compression === "string" && (BUNDLE_COMPRESSIONS as readonly string[]).includes(compression)) return { compression: compression as BundleCompression, rest };
-  throw ApiError.badRequest(`compression must be ${BUNDLE_COMPRESSIONS.join(" or ")}.`, [{ path: "compression", message: `"${String(compression)}" is not ${BUNDLE_COMPRESSIONS.join(" or ")}` }]);
+  return { compression: (compression as BundleCompression | undefined) ?? "fast", rest };
 }
 
 async function stream(req: Request, res: Response, raw: Record<string, unknown>) {
@@ -94,10 +84,10 @@ async function stream(req: Request, res: Response, raw: Record<string, unknown>)
   }
 }
 
-bundlesRouter.get("/", async (req, res) => {
+bundlesRouter.get("/", validate(bundleQuerySchema), async (req, res) => {
   await stream(req, res, req.query as Record<string, unknown>);
 });
 
-bundlesRouter.post("/", async (req, res) => {
-  await stream(req, res, bodyOf(req));
+bundlesRouter.post("/", validate(bundleBodySchema), async (req, res) => {
+  await stream(req, res, req.body as Record<string, unknown>);
 });

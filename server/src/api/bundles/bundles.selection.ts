@@ -11,27 +11,21 @@ import { readCatalogueFilter, type CatalogueQuery } from "../catalogue/catalogue
 import { DEFAULT_PARTS, type BundlePart } from "./bundles.parts";
 
 export const BUNDLE_LIMIT = 5000;
-export const REF_RE = /^(TB-\d{6})\/v(\d{1,6})\/(\d{1,5})$/;
 
 export type Selection = { kind: "refs"; refs: string[] } | { kind: "filter"; query: CatalogueQuery };
 
-/** Reads a selection from query parameters (GET) or a JSON body (POST): `refs` or catalogue filters. */
+/**
+ * The selection of a checked request (bundles.schemas.ts, collections.schemas.ts): `refs` (repeats
+ * counted once), else the catalogue filters (`filter`, or the other fields), read by the catalogue's schema.
+ */
 export function parseSelection(input: Record<string, unknown>): Selection {
   const { refs, filter, ...rest } = input;
   if (refs !== undefined) {
-    const list = (Array.isArray(refs) ? refs : [refs]).flatMap((r) => String(r).split(",")).map((s) => s.trim()).filter(Boolean);
-    if (!list.length) throw ApiError.badRequest("refs is empty: list network references such as TB-000001/v1/1.", [{ path: "refs", message: "empty" }]);
-    const errors: ErrorDetail[] = [];
-    list.forEach((r, i) => {
-      if (!REF_RE.test(r)) errors.push({ path: `refs/${i}`, message: `"${r}" is not a network reference (TB-000001/v1/1).` });
-    });
-    if (errors.length) throw ApiError.badRequest("Some references are not valid.", errors.slice(0, 50));
-    if (new Set(list).size > BUNDLE_LIMIT) throw tooMany(new Set(list).size, "refs");
-    return { kind: "refs", refs: [...new Set(list)] };
+    const list = [...new Set(refs as string[])];
+    if (list.length > BUNDLE_LIMIT) throw tooMany(list.length, "refs");
+    return { kind: "refs", refs: list };
   }
-  const f = filter && typeof filter === "object" ? (filter as Record<string, unknown>) : rest;
-  const { page: _p, pageSize: _s, ...filterOnly } = f;
-  return { kind: "filter", query: { ...readCatalogueFilter(filterOnly), page: 1, pageSize: BUNDLE_LIMIT } };
+  return { kind: "filter", query: { ...readCatalogueFilter((filter as Record<string, unknown> | undefined) ?? rest), page: 1, pageSize: BUNDLE_LIMIT } };
 }
 
 function tooMany(n: number, path: "refs" | "filter"): ApiError {

@@ -9,9 +9,8 @@ import { NULL_MODELS } from "@shared/network/null-models/index";
 import { FIGURE_CAUTION_SHORT } from "@shared/figures/cautions";
 import { ENGINE_VERSION } from "@shared/network/version";
 import { config } from "../../config/env";
-import { CATALOGUE_FILTER_FIELDS, catalogueSchema } from "../catalogue/catalogue.schemas";
+import { catalogueSchema } from "../catalogue/catalogue.schemas";
 import { BUNDLE_LIMIT } from "../bundles/bundles.selection";
-import { BUNDLE_PARTS, DEFAULT_PARTS } from "../bundles/bundles.parts";
 import { createTokenSchema, revokeTokenSchema } from "../tokens/tokens.schemas";
 import { networkCsvSchema, networkRefSchema, networkSchema } from "../networks/networks.schemas";
 import { networkViewSchema } from "../network-views/network-views.schemas";
@@ -19,7 +18,8 @@ import { datasetSchema, datasetVersionSchema, networkFileSchema, newVersionSchem
 import { datasetPreviewSchema, networkPreviewSchema } from "../previews/previews.schemas";
 import { compareSchema } from "../compare/compare.schemas";
 import { addMembersSchema, collectionSchema, createCollectionSchema, deleteCollectionSchema, removeMemberSchema, updateCollectionSchema } from "../collections/collections.schemas";
-import { operationInput, parametersOf } from "./from-schemas";
+import { bundleBodySchema, bundleQuerySchema } from "../bundles/bundles.schemas";
+import { operationInput } from "./from-schemas";
 import { mapSchema } from "../coverage-map/coverage-map.schemas";
 
 /** Resources used only by the web client (accounts, deposits, review, administration): not part of the public API. */
@@ -32,10 +32,6 @@ type Json = Record<string, unknown>;
 const ref = (name: string) => ({ $ref: `#/components/schemas/${name}` });
 const json = (schema: Json, description = "OK") => ({ description, content: { "application/json": { schema } } });
 const error = (description: string) => json(ref("Error"), description);
-const queryParam = (name: string, description: string, schema: Json = { type: "string" }, example?: unknown) => ({ name, in: "query", required: false, description, schema, ...(example !== undefined ? { example } : {}) });
-
-/** The catalogue's filters without sorting and paging (the coverage map's query). */
-const filterParameters = parametersOf({ type: "object", properties: CATALOGUE_FILTER_FIELDS }, "query");
 
 const catalogueGet = (summary: string) => ({
   tags: ["Catalogue"],
@@ -241,20 +237,6 @@ export function openapiDocument(): Json {
             },
           },
         },
-        Selection: {
-          type: "object",
-          description: `Either refs (explicit networks, any published version) or filter (catalogue parameters; the latest published versions). At most ${BUNDLE_LIMIT} networks.`,
-          properties: {
-            refs: { type: "array", items: { type: "string", pattern: "^TB-[0-9]{6}/v[0-9]+/[0-9]+$" }, example: ["TB-000001/v1/1", "TB-000002/v1/3"] },
-            filter: { type: "object", description: "Catalogue filter parameters, e.g. { \"interactionType\": \"pollination\", \"country\": \"NO\" }", additionalProperties: true },
-            compression: { type: "string", enum: ["fast", "small"], default: "fast", description: "Bundles only. fast: files stored uncompressed (about seven times larger, sent about three times as fast); small: deflated" },
-            include: {
-              description: `Bundles only: the optional parts, a list or a comma-separated string of ${BUNDLE_PARTS.join(", ")}. Default (absent): ${DEFAULT_PARTS.join(", ")}; empty: none.`,
-              oneOf: [{ type: "string" }, { type: "array", items: { type: "string", enum: [...BUNDLE_PARTS] } }],
-              example: "partitions,roles,nulls,edges",
-            },
-          },
-        },
         Collection: {
           type: "object",
           description: "A saved set of networks of exact versions; revision rises with every change of its members",
@@ -365,7 +347,7 @@ export function openapiDocument(): Json {
           tags: ["Bundles"],
           operationId: "estimateBundle",
           summary: "How many networks a selection holds and the estimated (uncompressed) size of its bundle",
-          requestBody: { content: { "application/json": { schema: ref("Selection") } } },
+          ...operationInput(bundleBodySchema),
           responses: {
             200: json({
               type: "object",
@@ -388,19 +370,14 @@ export function openapiDocument(): Json {
           operationId: "downloadBundle",
           summary: "Download a bundle (zip) of a selection (refs) or of every network matching catalogue filters",
           description: `The zip holds datapackage.json (Frictionless Data Package with a Table Schema per CSV), networks/ACCESSION_vN_POS.csv (matrices: header's first cell "node", then the column nodes; one line per row node, as /networks/…/data.csv), metrics.csv, networks.csv (public coordinates), CITATIONS.bib (a @dataset entry per version and its source publication) and README.txt (how every metric was computed), plus the optional parts chosen with include: partitions.csv, roles.csv, null_distribution.csv, edges.csv, originals/. Every table about networks starts with network_ref (TB-000042/v2/3). At most ${BUNDLE_LIMIT} networks (413 beyond).`,
-          parameters: [
-            queryParam("include", `Optional parts, comma-separated: ${BUNDLE_PARTS.join(", ")}. Absent: ${DEFAULT_PARTS.join(", ")}; empty: none`, { type: "string" }, "partitions,roles,nulls,edges,originals"),
-            queryParam("refs", "Comma-separated network references; without it, the catalogue filters below select the networks", { type: "string" }, "TB-000001/v1/1,TB-000001/v1/2"),
-            queryParam("compression", "fast (default): files stored uncompressed, about seven times larger but sent about three times as fast; small: deflated (zlib level 6), for slow connections", { type: "string", enum: ["fast", "small"], default: "fast" }, "small"),
-            ...filterParameters,
-          ],
+          ...operationInput(bundleQuerySchema),
           responses: { 200: zip, 400: error("Bad selection"), 413: error(`More than ${BUNDLE_LIMIT} networks`), 422: error("Some references are not published networks") },
         },
         post: {
           tags: ["Bundles"],
           operationId: "downloadBundlePost",
           summary: "Download a bundle, the selection in a JSON body (for long lists of references)",
-          requestBody: { content: { "application/json": { schema: ref("Selection") } } },
+          ...operationInput(bundleBodySchema),
           responses: { 200: zip, 400: error("Bad selection"), 413: error(`More than ${BUNDLE_LIMIT} networks`), 422: error("Some references are not published networks") },
         },
       },
