@@ -5,7 +5,6 @@
  */
 import { Op } from "sequelize";
 import type { SheetCellProblem } from "@shared/types/deposit";
-import { ApiError } from "../../lib/api-error";
 import { audit } from "../../lib/audit";
 import { Network } from "../../models";
 import type { Viewer } from "../datasets/datasets.service";
@@ -26,8 +25,7 @@ export async function getMetadataSheet(versionId: number, viewer: Viewer): Promi
  * Fills every network's metadata from an uploaded sheet in one transaction. Structural problems (unknown
  * column or network) refuse it whole; value problems are saved, as drafts are, and returned per cell.
  */
-export async function applyMetadataSheet(versionId: number, viewer: Viewer, text: unknown): Promise<{ deposit: DepositDetail; cells: SheetCellProblem[]; rows: number }> {
-  if (typeof text !== "string" || !text.trim()) throw ApiError.badRequest("Send the sheet's CSV text as csv.", [{ path: "/csv", message: "The CSV text of the metadata sheet." }]);
+export async function applyMetadataSheet(versionId: number, viewer: Viewer, text: string): Promise<{ deposit: DepositDetail; cells: SheetCellProblem[]; rows: number }> {
   const { dataset, version, rows } = await tx(async (t) => {
     const r = await loadOwnEditable(versionId, viewer, t);
     const nets = await Network.findAll({ where: { versionId: r.version.id }, order: [["position", "ASC"]], transaction: t });

@@ -86,6 +86,12 @@ describe("metadata sheet", () => {
     ]);
     expect((await Network.findOne({ where: { versionId } }))!.metadata).toEqual(before);
     expect((await other.agent.put(`/api/v1/deposits/${versionId}/metadata-sheet`).set("x-csrf-token", other.csrf).send({ csv: "network\n1\n" })).status).toBe(404);
+    const none = await owner.agent.put(`/api/v1/deposits/${versionId}/metadata-sheet`).set("x-csrf-token", owner.csrf).send({ text: "network\n1\n" });
+    expect(none.status).toBe(400);
+    expect(none.body.details).toEqual([
+      { path: "/csv", message: "csv is required: it must be text of 1 to 5000000 characters, not only spaces." },
+      { path: "/text", message: "text is not a field of this request (fields: csv)." },
+    ]);
   });
 });
 
