@@ -245,14 +245,16 @@ function compile(ajv: Ajv2020, s: ObjectSchema): ValidateFunction {
 
 /**
  * A query-like object read and checked as validate() reads `req.query` (coerced values, defaults filled
- * in), or a 400 naming every refused field.
+ * in), or a 400 naming every refused field (by its JSON pointer under `pointer` when it came in a body).
  */
-export function readQuery(schema: ObjectSchema, raw: Record<string, unknown>, rules?: QueryRules): Record<string, unknown> {
+export function readQuery(schema: ObjectSchema, raw: Record<string, unknown>, rules?: QueryRules, pointer?: string): Record<string, unknown> {
   const check = compile(textAjv, schema);
   const q = fromText(schema, raw);
   const d = check(q) ? [] : detailsOf(check.errors ?? [], schema, "query", q);
   if (rules) d.push(...rules(q, new Set(d.map((x) => x.path ?? ""))));
-  if (d.length) throw ApiError.badRequest(d.length === 1 ? d[0].message : "Some query parameters are not valid.", d);
+  // inside a JSON body (`pointer`, e.g. /filter) each problem's path is its JSON pointer
+  const details = pointer ? d.map((x) => ({ ...x, path: `${pointer}/${x.path ?? ""}` })) : d;
+  if (d.length) throw ApiError.badRequest(d.length === 1 ? d[0].message : pointer ? "Some fields need attention." : "Some query parameters are not valid.", details);
   return q;
 }
 

@@ -25,7 +25,8 @@ export function parseSelection(input: Record<string, unknown>): Selection {
     if (list.length > BUNDLE_LIMIT) throw tooMany(list.length, "refs");
     return { kind: "refs", refs: list };
   }
-  return { kind: "filter", query: { ...readCatalogueFilter((filter as Record<string, unknown> | undefined) ?? rest), page: 1, pageSize: BUNDLE_LIMIT } };
+  const query = filter !== undefined ? readCatalogueFilter(filter as Record<string, unknown>, "/filter") : readCatalogueFilter(rest);
+  return { kind: "filter", query: { ...query, page: 1, pageSize: BUNDLE_LIMIT } };
 }
 
 function tooMany(n: number, path: "refs" | "filter"): ApiError {

@@ -189,7 +189,7 @@ export function toCatalogueQuery(v: Record<string, unknown>): CatalogueQuery {
   };
 }
 
-/** A bundle's or a collection's filter (query parameters or a JSON object), checked by the same schema. */
-export function readCatalogueFilter(raw: Record<string, unknown>): CatalogueQuery {
-  return toCatalogueQuery(readQuery(catalogueFilterQuery, raw, catalogueRules));
+/** A bundle's or a collection's filter (query parameters, or a JSON object at `pointer` in a body), checked by the same schema. */
+export function readCatalogueFilter(raw: Record<string, unknown>, pointer?: string): CatalogueQuery {
+  return toCatalogueQuery(readQuery(catalogueFilterQuery, raw, catalogueRules, pointer));
 }

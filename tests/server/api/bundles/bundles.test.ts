@@ -316,7 +316,7 @@ describe("bundle contents", () => {
   it("refuses unknown filter keys by name (400) instead of selecting the whole catalogue", async () => {
     const est = await request(app).post("/api/v1/bundles/estimate").send({ filter: { contry: "NO" } });
     expect(est.status).toBe(400);
-    expect(est.body.details).toEqual([expect.objectContaining({ path: "contry", message: expect.stringMatching(/Unknown parameter "contry"/) })]);
+    expect(est.body.details).toEqual([expect.objectContaining({ path: "/filter/contry", message: expect.stringMatching(/Unknown parameter "contry"/) })]);
     const get = await request(app).get("/api/v1/bundles").query({ interactiontype: "pollination" });
     expect(get.status).toBe(400);
     expect(get.body.details[0].path).toBe("interactiontype");
@@ -329,7 +329,7 @@ describe("bundle contents", () => {
     expect(body.status).toBe(400);
     expect(body.body.details).toEqual([{ path: "/include", message: "include must list parts of a bundle from partitions, roles, nulls, edges, originals (or none)." }]);
     const filter = await agent.post("/api/v1/bundles").set("x-csrf-token", s.body.csrfToken).send({ filter: { nodesMin: "x" } });
-    expect(filter.body.details).toEqual([{ path: "nodesMin", message: "nodesMin must be a whole number of at least 0." }]);
+    expect(filter.body.details).toEqual([{ path: "/filter/nodesMin", message: "nodesMin must be a whole number of at least 0." }]);
   });
 
   it("estimates count and size before download", async () => {

@@ -78,7 +78,7 @@ describe("collections", () => {
     expect(neither.body.message).toBe("Save either refs (the selected networks) or filter (everything matching a catalogue filter).");
     const badFilter = await create({ name: "x", filter: { contry: "NO" } });
     expect(badFilter.status).toBe(400);
-    expect(badFilter.body.details[0]).toMatchObject({ path: "contry", message: expect.stringMatching(/^Unknown parameter "contry"/) });
+    expect(badFilter.body.details[0]).toMatchObject({ path: "/filter/contry", message: expect.stringMatching(/^Unknown parameter "contry"/) });
     const visitor = await agentFor(app);
     expect((await visitor.agent.post("/api/v1/collections").set("x-csrf-token", visitor.csrf).send({ name: "x", refs: [ref(heath, 1)] })).status).toBe(401);
   });
