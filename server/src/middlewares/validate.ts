@@ -97,7 +97,8 @@ export interface RequestSchema {
 }
 
 // Its own instance: coercion and defaults rewrite the data, which the metadata validators (lib/schemas.ts) must never do.
-const textAjv = new Ajv2020({ allErrors: true, coerceTypes: true, useDefaults: true, strict: false });
+// strictNumbers: NaN is not a number (cased() reads text such as "Infinity" or "1e400" as NaN, so it is refused).
+const textAjv = new Ajv2020({ allErrors: true, coerceTypes: true, useDefaults: true, strict: false, strictNumbers: true });
 const bodyAjv = new Ajv2020({ allErrors: true, useDefaults: true, strict: false });
 
 function words(list: readonly unknown[]): string {
@@ -209,6 +210,8 @@ function cased(s: FieldSchema | undefined, x: unknown): unknown {
   if (typeof x !== "string" || !s) return x;
   if (s["x-case"] === "upper") return x.toUpperCase();
   if (s.type === "boolean" && (x === "1" || x === "0")) return x === "1";
+  // ajv would coerce "Infinity" (or "1e400") to Infinity and let it pass as a number, even a whole one
+  if ((s.type === "number" || s.type === "integer") && Math.abs(Number(x)) === Infinity) return NaN;
   return x;
 }
 

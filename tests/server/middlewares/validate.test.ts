@@ -13,6 +13,7 @@ import { createTokenSchema, revokeTokenSchema } from "../../../server/src/api/to
 import { applyBlocksSchema, networkChangesSchema, uploadFieldsSchema } from "../../../server/src/api/deposits/deposits.schemas";
 import { batchStartSchema, settingsSchema } from "../../../server/src/api/pipeline/pipeline.schemas";
 import { datasetSchema, networkFileSchema, withdrawSchema } from "../../../server/src/api/datasets/datasets.schemas";
+import { catalogueSchema } from "../../../server/src/api/catalogue/catalogue.schemas";
 
 const app = express();
 app.use(express.json());
@@ -176,6 +177,15 @@ describe("validate(schema)", () => {
     expect(proto.body.message).toMatch(/"__proto__" is not accepted/);
     const bipartite = await request(app).post("/fields").send({ directed: "true" });
     expect(bipartite.body.details).toEqual([{ path: "/directed", message: 'A bipartite network cannot be directed: only one-mode networks (kind "unipartite") can be.' }]);
+  });
+
+  it("refuses text that reads as an infinite number, for numbers and whole numbers alike", async () => {
+    const query = catalogueSchema.query!;
+    expect(() => readQuery(query, { page: "Infinity" })).toThrow("page must be a whole number of at least 1.");
+    expect(() => readQuery(query, { nodesMin: "Infinity" })).toThrow("nodesMin must be a whole number of at least 0.");
+    expect(() => readQuery(query, { qMin: "-Infinity" })).toThrow("qMin must be a number.");
+    expect(() => readQuery(query, { zMax: "1e400" })).toThrow("zMax must be a number.");
+    expect(readQuery(query, { page: "2", qMin: "-0.5", zMax: "1e3" })).toMatchObject({ page: 2, qMin: -0.5, zMax: 1000 });
   });
 
   it("refuses a change that changes nothing, and names a block that does not exist", async () => {
