@@ -267,6 +267,11 @@ async function canonicalBySha(sha: string, networkId: number): Promise<Canonical
 const cache = new Map<string, SubmissionDiffResponse>();
 const CACHE_MAX = 64;
 
+/** Forgets the kept diffs (tests: after the database was reset, ids start again). */
+export function clearSubmissionDiffCache(): void {
+  cache.clear();
+}
+
 /** The diff of a version's latest submission (curators). */
 export async function submissionDiff(versionId: number, viewer: Viewer): Promise<SubmissionDiffResponse> {
   const { dataset, version } = await loadVisibleVersion(versionId, viewer);
