@@ -3,7 +3,7 @@ import { Router, type Request, type Response } from "express";
 import type { ListResponse } from "@shared/types/api";
 import { requireRole } from "../../middlewares/require-role";
 import { validate } from "../../middlewares/validate";
-import { decisionSchema, networkCorrectionSchema, queueSchema, submissionSchema } from "./reviews.schemas";
+import { decisionSchema, networkCorrectionSchema, queueSchema, studyCorrectionSchema, submissionSchema } from "./reviews.schemas";
 import * as s from "./reviews.service";
 import { submissionDiff } from "./reviews.diff";
 
@@ -26,13 +26,13 @@ reviewsRouter.post("/:versionId/decision", validate(decisionSchema), async (req,
   const b = req.body as { decision: s.Decision; comment?: string | null; lockVersion?: number };
   res.json(await s.decide(versionIdOf(req), req.user!, { decision: b.decision, comment: b.comment ?? null, lockVersion: b.lockVersion }));
 });
-reviewsRouter.put("/:versionId/metadata", validate(submissionSchema), async (req, res) => {
-  const b = (req.body ?? {}) as { metadata?: unknown; lockVersion?: number };
+reviewsRouter.put("/:versionId/metadata", validate(studyCorrectionSchema), async (req, res) => {
+  const b = req.body as { metadata: Record<string, unknown>; lockVersion?: number };
   res.json(await s.correctStudyMetadata(versionIdOf(req), req.user!, b.metadata, b.lockVersion));
 });
 reviewsRouter.patch("/:versionId/networks/:networkId", validate(networkCorrectionSchema), async (req, res) => {
   const networkId = (req.params as unknown as { networkId: number }).networkId;
-  res.json(await s.correctNetworkMetadata(versionIdOf(req), networkId, req.user!, (req.body as { metadata?: unknown } | undefined)?.metadata));
+  res.json(await s.correctNetworkMetadata(versionIdOf(req), networkId, req.user!, (req.body as { metadata: Record<string, unknown> }).metadata));
 });
 reviewsRouter.get("/:versionId/diff", validate(submissionSchema), async (req, res) => {
   res.json(await submissionDiff(versionIdOf(req), req.user!));

@@ -24,12 +24,31 @@ export const decisionSchema: RequestSchema = {
     properties: {
       decision: { type: "string", enum: ["publish", "request_changes", "decline"], description: "Publish, request changes or decline" },
       comment: { type: ["string", "null"], maxLength: 20000, description: "To the depositor (e-mailed and shown in the conversation)" },
-      lockVersion: { type: "integer", description: "The version's lock number as read (a decision on a changed submission is refused)" },
+      lockVersion: { type: "integer", minimum: 0, description: "The version's lock number as read (a decision on a changed submission is refused)" },
     },
     required: ["decision"],
+    additionalProperties: false,
+  },
+};
+
+/** Metadata a curator's correction saves (checked against the metadata JSON Schema by the service). */
+const studyMetadata: FieldSchema = { type: "object", description: "The corrected study metadata, whole (checked against the metadata JSON Schema when published)" };
+const networkMetadata: FieldSchema = { type: "object", description: "The corrected network metadata, whole (checked against the network metadata JSON Schema when published)" };
+
+export const studyCorrectionSchema: RequestSchema = {
+  params: submission,
+  body: {
+    type: "object",
+    properties: {
+      metadata: studyMetadata,
+      lockVersion: { type: "integer", minimum: 0, description: "The version's lock number as read (a correction of a changed submission is refused)" },
+    },
+    required: ["metadata"],
+    additionalProperties: false,
   },
 };
 
 export const networkCorrectionSchema: RequestSchema = {
   params: { type: "object", properties: { versionId, networkId: { type: "integer", minimum: 1, maximum: 2147483647, title: "network", description: "The network's id" } }, required: ["versionId", "networkId"] },
+  body: { type: "object", properties: { metadata: networkMetadata }, required: ["metadata"], additionalProperties: false },
 };

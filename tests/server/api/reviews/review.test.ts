@@ -224,6 +224,33 @@ describe("decisions", () => {
     await decide(curatorA, id, { decision: "decline", comment: "Test cleanup." });
   });
 
+  it("corrections and decisions check their body: a lock number that is not a whole number, metadata that is not an object or an unknown field is refused (400) and nothing changes", async () => {
+    const id = await submitted();
+    const before = (await DatasetVersion.findByPk(id))!;
+    const put = (body: object) => curatorB.agent.put(`/api/v1/reviews/${id}/metadata`).set("x-csrf-token", curatorB.csrf).send(body);
+    const textLock = await put({ metadata: studyMeta({ title: "Never saved" }), lockVersion: String(before.lockVersion) });
+    expect(textLock.status).toBe(400);
+    expect(textLock.body.details.map((d: { path: string }) => d.path)).toEqual(["/lockVersion"]);
+    expect((await put({ metadata: studyMeta({ title: "Never saved" }), lockVersion: -1 })).status).toBe(400);
+    const noMeta = await put({ lockVersion: before.lockVersion });
+    expect(noMeta.status).toBe(400);
+    expect(noMeta.body.details.map((d: { path: string }) => d.path)).toEqual(["/metadata"]);
+    const nid = (await curatorB.agent.get(`/api/v1/reviews/${id}`)).body.networks[0].id;
+    const net = await curatorB.agent.patch(`/api/v1/reviews/${id}/networks/${nid}`).set("x-csrf-token", curatorB.csrf).send({ metadata: networkMeta({ habitat: "never saved" }), habitat: "never saved" });
+    expect(net.status).toBe(400);
+    expect(net.body.details.map((d: { path: string }) => d.path)).toEqual(["/habitat"]);
+    expect((await curatorB.agent.patch(`/api/v1/reviews/${id}/networks/${nid}`).set("x-csrf-token", curatorB.csrf).send({ metadata: "dry heath" })).status).toBe(400);
+    const extra = await decide(curatorA, id, { decision: "publish", note: "looks fine" });
+    expect(extra.status).toBe(400);
+    expect(extra.body.details.map((d: { path: string }) => d.path)).toEqual(["/note"]);
+    const after = (await DatasetVersion.findByPk(id))!;
+    expect(after.lockVersion).toBe(before.lockVersion);
+    expect(after.state).toBe(before.state);
+    expect(after.metadata.title).toBe(studyMeta().title);
+    expect((await Network.findByPk(nid))!.metadata.habitat).toBe(networkMeta().habitat);
+    await decide(curatorA, id, { decision: "decline", comment: "Test cleanup." });
+  });
+
   it("refuses to publish metadata that a correction made invalid, listing the problems; publishes once corrected", async () => {
     const id = await submitted();
     const before = (await curatorA.agent.get(`/api/v1/reviews/${id}`)).body;
