@@ -92,6 +92,11 @@ export interface RequestSchema {
    * `bodyMessage`).
    */
   fields?: ObjectSchema;
+  /**
+   * The file part of a multipart body, which the upload middleware before validate() reads (its field name
+   * and what it holds): not checked here, it describes the route's request body in the OpenAPI document.
+   */
+  filePart?: { name: string; description: string };
   /** Rules across the fields of a body (or of `fields`) that JSON Schema cannot say well, reported with the schema's problems. */
   bodyRules?: QueryRules;
 }

@@ -37,8 +37,12 @@ export const createSchema: RequestSchema = { body: { type: "object", properties:
 
 export const metadataSchema: RequestSchema = { params: deposit, body: { type: "object", properties: { metadata }, required: ["metadata"], additionalProperties: false } };
 
+/** The multipart field that carries the uploaded files. */
+export const UPLOAD_FILE_PART = "files";
+
 /** The text fields sent with the files (multipart), read after them. */
 export const uploadFieldsSchema: RequestSchema = {
+  filePart: { name: UPLOAD_FILE_PART, description: "Network files (.csv, .tsv, .txt, .xlsx), or one zip of them" },
   fields: {
     type: "object",
     properties: {

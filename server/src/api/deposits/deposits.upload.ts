@@ -17,6 +17,7 @@ import type { ErrorDetail } from "../../lib/api-error";
 import { ApiError } from "../../lib/api-error";
 import type { RequestHandler } from "express";
 import { streamUpload } from "../../lib/upload-storage";
+import { UPLOAD_FILE_PART } from "./deposits.schemas";
 
 /** A network file of an upload: its bytes (from a zip, or a stored original), or its temporary file. */
 export interface UploadedFile {
@@ -196,6 +197,6 @@ export async function expandUpload(files: Array<{ originalname: string; path: st
  * limits (lib/upload-storage.ts). Nothing touches the database until every byte arrived and every file
  * parsed, so an interrupted request leaves nothing behind; the temporary files go when the request ends.
  */
-export const uploadFiles: RequestHandler = streamUpload("files", (name, head) =>
+export const uploadFiles: RequestHandler = streamUpload(UPLOAD_FILE_PART, (name, head) =>
   ApiError.unprocessable("Only network files (.csv, .tsv, .txt, .xlsx) or one zip may be uploaded.", [{ file: name, message: notANetworkFile(name, head) }]),
 );

@@ -29,11 +29,33 @@ export function parametersOf(o: ObjectSchema | undefined, where: "path" | "query
   return Object.entries(o.properties).map(([name, s]) => parameter(name, where, s, where === "path" || (o.required ?? []).includes(name)));
 }
 
-/** `{ parameters, requestBody }` of an operation whose route mounts validate(schema). */
+/**
+ * The `multipart/form-data` body of an upload route: its file part (one or more files) and its text
+ * fields (`schema.fields`); a field that is JSON text (`x-json`) is said to be application/json.
+ */
+export function multipartBody(schema: RequestSchema): Json {
+  const properties: Json = {};
+  const required: string[] = [];
+  const encoding: Json = {};
+  if (schema.filePart) {
+    properties[schema.filePart.name] = { type: "array", items: { type: "string", contentMediaType: "application/octet-stream" }, minItems: 1, description: schema.filePart.description };
+    required.push(schema.filePart.name);
+  }
+  for (const [name, s] of Object.entries(schema.fields?.properties ?? {})) {
+    properties[name] = plain(s);
+    if (s["x-json"] === true) encoding[name] = { contentType: "application/json" };
+  }
+  required.push(...(schema.fields?.required ?? []));
+  const body: Json = { type: "object", properties, ...(required.length ? { required } : {}), ...(schema.fields?.additionalProperties === false ? { additionalProperties: false } : {}) };
+  return { schema: body, ...(Object.keys(encoding).length ? { encoding } : {}) };
+}
+
+/** `{ parameters, requestBody }` of an operation whose route mounts validate(schema) (an upload route's body is multipart). */
 export function operationInput(schema: RequestSchema): Json {
   const parameters = [...parametersOf(schema.params, "path"), ...parametersOf(schema.query, "query")];
+  const content = schema.body ? { "application/json": { schema: schema.body } } : schema.fields || schema.filePart ? { "multipart/form-data": multipartBody(schema) } : undefined;
   return {
     ...(parameters.length ? { parameters } : {}),
-    ...(schema.body ? { requestBody: { required: true, content: { "application/json": { schema: schema.body } } } } : {}),
+    ...(content ? { requestBody: { required: true, content } } : {}),
   };
 }

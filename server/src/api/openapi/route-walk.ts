@@ -4,7 +4,7 @@
  * OpenAPI test to check the document covers the routes and describes their checks.
  */
 import type { Router } from "express";
-import type { RequestSchema } from "../../middlewares/validate";
+import type { ObjectSchema, RequestSchema } from "../../middlewares/validate";
 
 interface LayerLike {
   rawPath?: string | string[];
@@ -15,7 +15,7 @@ interface LayerLike {
 export interface RegisteredRoute {
   method: string;
   path: string;
-  /** The request schema the route mounts with validate(), if any. */
+  /** The request schema the route mounts with validate(), if any (several validate() calls merged: mergeSchemas). */
   schema?: RequestSchema;
 }
 
@@ -25,7 +25,8 @@ export function listRoutes(router: Router, prefix = ""): RegisteredRoute[] {
     if (layer.route) {
       const paths = Array.isArray(layer.route.path) ? layer.route.path : [layer.route.path];
       for (const p of paths) {
-        const schema = layer.route.stack?.map((l) => l.handle?.requestSchema).find(Boolean);
+        const schemas = (layer.route.stack ?? []).flatMap((l) => (l.handle?.requestSchema ? [l.handle.requestSchema] : []));
+        const schema = schemas.length ? mergeSchemas(schemas) : undefined;
         for (const [m, on] of Object.entries(layer.route.methods)) {
           if (on && m !== "_all") out.push({ method: m, path: join(prefix, p), ...(schema ? { schema } : {}) });
         }
@@ -35,6 +36,37 @@ export function listRoutes(router: Router, prefix = ""): RegisteredRoute[] {
     }
   }
   return out;
+}
+
+/** Two object schemas that check the same part of a request, as one: every field, every required one. */
+function mergeObjects(a: ObjectSchema | undefined, b: ObjectSchema | undefined): ObjectSchema | undefined {
+  if (!a || !b) return a ?? b;
+  const required = [...new Set([...(a.required ?? []), ...(b.required ?? [])])];
+  const closed = a.additionalProperties === false || b.additionalProperties === false;
+  const minProperties = Math.max(a.minProperties ?? 0, b.minProperties ?? 0);
+  return {
+    ...a,
+    properties: { ...a.properties, ...b.properties },
+    ...(required.length ? { required } : {}),
+    ...(closed ? { additionalProperties: false } : {}),
+    ...(minProperties ? { minProperties } : {}),
+  };
+}
+
+/**
+ * The request schemas of a route that mounts validate() more than once (a link's token, then the new
+ * password; the deposit's id, then the upload's form fields) as one: what the route as a whole reads.
+ */
+export function mergeSchemas(schemas: RequestSchema[]): RequestSchema {
+  return schemas.reduce((a, b) => ({
+    ...b,
+    ...a,
+    params: mergeObjects(a.params, b.params),
+    query: mergeObjects(a.query, b.query),
+    body: mergeObjects(a.body, b.body),
+    fields: mergeObjects(a.fields, b.fields),
+    filePart: a.filePart ?? b.filePart,
+  }));
 }
 
 function join(a: string, b: string): string {

@@ -9,6 +9,7 @@ import { shutdownServerResources } from "../../../../server/src/index";
 import { apiRouter } from "../../../../server/src/api";
 import { isInternal, toOpenApiPath } from "../../../../server/src/api/openapi/openapi.document";
 import { listRoutes } from "../../../../server/src/api/openapi/route-walk";
+import { operationInput } from "../../../../server/src/api/openapi/from-schemas";
 
 const app = createApp();
 afterAll(shutdownServerResources);
@@ -63,6 +64,7 @@ describe("OpenAPI document", () => {
         }
       }
       if (r.schema.body) expect(op.requestBody?.content["application/json"].schema, `${r.method} ${r.path} body`).toEqual(r.schema.body);
+      if (r.schema.fields) expect(Object.keys((op.requestBody?.content["multipart/form-data"].schema as { properties: object }).properties), `${r.method} ${r.path} form`).toEqual(expect.arrayContaining(Object.keys(r.schema.fields.properties)));
       checked++;
     }
     expect(checked).toBeGreaterThanOrEqual(2);
@@ -70,5 +72,24 @@ describe("OpenAPI document", () => {
     for (const must of ["get /catalogue", "get /bundles", "post /bundles/estimate", "get /networks/{accession}/{version}/{position}/data.csv", "delete /tokens/{id}", "get /health", "get /auth/session"]) {
       expect(registeredSet.has(must), must).toBe(true);
     }
+  });
+
+  it("a route that validates twice is described by both schemas, and an upload route's body is multipart: its files and every form field", () => {
+    const registered = listRoutes(apiRouter());
+    const route = (method: string, path: string) => registered.find((r) => r.method === method && r.path === path)!.schema!;
+    const confirm = route("post", "/auth/password-reset/confirm");
+    expect(Object.keys(confirm.body!.properties).sort()).toEqual(["password", "token"]);
+    expect([...confirm.body!.required!].sort()).toEqual(["password", "token"]);
+    const upload = operationInput(route("post", "/deposits/:id/networks")) as {
+      parameters: Array<{ name: string; in: string }>;
+      requestBody: { content: Record<string, { schema: { properties: Record<string, { type: string; default?: unknown }>; required: string[] }; encoding?: Record<string, { contentType: string }> }> };
+    };
+    expect(upload.parameters.map((p) => `${p.in} ${p.name}`)).toEqual(["path id"]);
+    const form = upload.requestBody.content["multipart/form-data"];
+    expect(Object.keys(upload.requestBody.content)).toEqual(["multipart/form-data"]);
+    expect(form.schema.required).toEqual(["files"]);
+    expect(form.schema.properties.files.type).toBe("array");
+    expect(form.schema.properties).toMatchObject({ kind: { type: "string", default: "bipartite" }, directed: { type: "boolean", default: false }, format: { default: "auto" }, fileOptions: { type: "object" } });
+    expect(form.encoding).toEqual({ fileOptions: { contentType: "application/json" } });
   });
 });
