@@ -4,7 +4,7 @@
  * (catalogue.schemas.ts); "refs or filter, not both" is said by the service, which words it for people.
  */
 import type { ObjectSchema, RequestSchema } from "../../middlewares/validate";
-import { accession, collectionCode, networkRefItem, position, versionRef } from "../common.schemas";
+import { accession, collectionCode, idField, networkRefItem, position, versionRef } from "../common.schemas";
 
 const codeParams: ObjectSchema = { type: "object", properties: { code: collectionCode }, required: ["code"] };
 
@@ -32,7 +32,7 @@ export const createCollectionSchema: RequestSchema = {
 
 export const collectionSchema: RequestSchema = {
   params: codeParams,
-  query: { type: "object", properties: { revision: { type: "integer", minimum: 1, maximum: 2147483647, description: "Members of an earlier revision", example: 1 } }, additionalProperties: false },
+  query: { type: "object", properties: { revision: idField("revision", "Members of an earlier revision") }, additionalProperties: false },
 };
 
 export const updateCollectionSchema: RequestSchema = {

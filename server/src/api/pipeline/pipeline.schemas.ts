@@ -2,11 +2,11 @@
 import { NULL_MODELS } from "@shared/network/null-models/index";
 import type { FieldSchema, ObjectSchema, RequestSchema } from "../../middlewares/validate";
 import { ANNEALING, OBJECTIVES } from "../../pipeline/settings";
+import { idField, idParams } from "../common.schemas";
 
 const RUN_STATUSES = ["queued", "running", "succeeded", "failed", "superseded"] as const;
 
 const page: FieldSchema = { type: "integer", minimum: 1, maximum: 100000, default: 1, description: "Page number, from 1" };
-const idOf = (title: string): RequestSchema["params"] => ({ type: "object", properties: { id: { type: "integer", minimum: 1, maximum: 2147483647, title, description: `The ${title}'s id` } }, required: ["id"] });
 
 export const batchListSchema: RequestSchema = {
   query: { type: "object", properties: { page, pageSize: { type: "integer", minimum: 1, maximum: 100, default: 20, description: "Batches per page" } } },
@@ -19,13 +19,13 @@ export const runListSchema: RequestSchema = {
       page,
       pageSize: { type: "integer", minimum: 1, maximum: 200, default: 50, description: "Runs per page" },
       status: { type: "string", enum: [...RUN_STATUSES], description: "Only runs in this state" },
-      batchId: { type: "integer", minimum: 1, maximum: 2147483647, description: "Only runs of this batch" },
+      batchId: idField("batch", "Only runs of this batch"),
     },
   },
 };
 
-export const batchSchema: RequestSchema = { params: idOf("batch") };
-export const networkSchema: RequestSchema = { params: idOf("network") };
+export const batchSchema: RequestSchema = { params: idParams("batch") };
+export const networkSchema: RequestSchema = { params: idParams("network") };
 
 /**
  * The settings an admin may change, each optional (the rest keep their current values); the pipeline core

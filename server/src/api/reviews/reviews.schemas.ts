@@ -1,8 +1,9 @@
 /** Request schemas of /api/v1/reviews (curators): mounted by the routes through validate(). */
 import type { FieldSchema, ObjectSchema, RequestSchema } from "../../middlewares/validate";
 import { QUEUE_STATES } from "./reviews.service";
+import { idField } from "../common.schemas";
 
-const versionId: FieldSchema = { type: "integer", minimum: 1, maximum: 2147483647, title: "submission", description: "The submitted version's id" };
+const versionId = idField("submission", "The submitted version's id");
 const submission: ObjectSchema = { type: "object", properties: { versionId }, required: ["versionId"] };
 
 export const queueSchema: RequestSchema = {
@@ -49,6 +50,6 @@ export const studyCorrectionSchema: RequestSchema = {
 };
 
 export const networkCorrectionSchema: RequestSchema = {
-  params: { type: "object", properties: { versionId, networkId: { type: "integer", minimum: 1, maximum: 2147483647, title: "network", description: "The network's id" } }, required: ["versionId", "networkId"] },
+  params: { type: "object", properties: { versionId, networkId: idField("network") }, required: ["versionId", "networkId"] },
   body: { type: "object", properties: { metadata: networkMetadata }, required: ["metadata"], additionalProperties: false },
 };

@@ -1,6 +1,7 @@
 /** Request schemas of /api/v1/users (admin): mounted by the routes through validate(). */
 import type { RequestSchema } from "../../middlewares/validate";
 import { ROLES } from "../../models/user.model";
+import { idField } from "../common.schemas";
 
 export const userListSchema: RequestSchema = {
   query: {
@@ -15,7 +16,7 @@ export const userListSchema: RequestSchema = {
 };
 
 export const roleChangeSchema: RequestSchema = {
-  params: { type: "object", properties: { id: { type: "integer", minimum: 1, maximum: 2147483647, title: "user", description: "The account's id" } }, required: ["id"] },
+  params: { type: "object", properties: { id: idField("user", "The account's id") }, required: ["id"] },
   body: { type: "object", properties: { role: { type: "string", enum: [...ROLES], description: "The new role" } }, required: ["role"] },
   bodyStatus: 422,
 };
