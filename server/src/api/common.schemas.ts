@@ -74,8 +74,8 @@ export const versionRefParams: ObjectSchema = {
   required: ["accession", "version"],
 };
 
-/** A network reference, accession/version/network: TB-000042/v2/3. */
-export const NETWORK_REF_PATTERN = "^TB-[0-9]{6}/v[0-9]{1,6}/[0-9]{1,6}$";
+/** A network reference, accession/version/network: TB-000042/v2/3 (no version or network 0, as versionRef and position). */
+export const NETWORK_REF_PATTERN = "^TB-[0-9]{6}/v(?!0+/)[0-9]{1,6}/(?!0+$)[0-9]{1,6}$";
 
 /** A network reference as an item of a list (its title names the items in a list's rule). */
 export const networkRefItem: FieldSchema = {

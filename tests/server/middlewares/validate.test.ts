@@ -14,6 +14,7 @@ import { applyBlocksSchema, networkChangesSchema, uploadFieldsSchema } from "../
 import { batchStartSchema, settingsSchema } from "../../../server/src/api/pipeline/pipeline.schemas";
 import { datasetSchema, networkFileSchema, withdrawSchema } from "../../../server/src/api/datasets/datasets.schemas";
 import { catalogueSchema } from "../../../server/src/api/catalogue/catalogue.schemas";
+import { networkRefItem, networkRefParams } from "../../../server/src/api/common.schemas";
 
 const app = express();
 app.use(express.json());
@@ -22,6 +23,8 @@ app.post("/tokens", validate(createTokenSchema), (req, res) => void res.json({ b
 app.delete("/tokens/:id", validate(revokeTokenSchema), (req, res) => void res.json({ params: req.params }));
 app.get("/datasets/:accession", validate(datasetSchema), (req, res) => void res.json({ params: req.params, query: req.query }));
 app.get("/datasets/:accession/versions/:n/networks/:pos/file", validate(networkFileSchema), (req, res) => void res.json({ params: req.params }));
+app.get("/networks/:accession/:version/:position", validate({ params: networkRefParams }), (req, res) => void res.json({ params: req.params }));
+app.get("/refs", validate({ query: { type: "object", properties: { refs: { type: "array", items: networkRefItem } } } }), (req, res) => void res.json({ query: req.query }));
 app.post("/datasets/:accession/withdraw", validate(withdrawSchema), (req, res) => void res.json({ body: req.body }));
 const listSchema: ObjectSchema = {
   type: "object",
@@ -101,6 +104,17 @@ describe("validate(schema)", () => {
     expect(ver.body.message).toBe('No such version "v1": versions are numbered 1, 2, …');
     const ok = await request(app).get("/datasets/TB-000042/versions/2/networks/3/file");
     expect(ok.body.params).toEqual({ accession: "TB-000042", n: 2, pos: 3 });
+  });
+
+  it("a network reference in a list is refused exactly when its parts would be refused in a network's address (no version or network 0)", async () => {
+    for (const [version, position] of [["v1", "1"], ["v0", "1"], ["v00", "2"], ["v1", "0"], ["v1", "000"], ["v10", "20"], ["v01", "01"], ["v1234567", "1"]]) {
+      const address = await request(app).get(`/networks/TB-000042/${version}/${position}`);
+      const list = await request(app).get("/refs").query({ refs: `TB-000042/${version}/${position}` });
+      expect(list.status === 400, `${version}/${position}: address ${address.status}, list ${list.status}`).toBe(address.status === 404);
+      if (list.status === 400) expect(list.body.details).toEqual([{ path: "refs", message: `refs: "TB-000042/${version}/${position}" must be a network reference such as TB-000042/v2/3.` }]);
+    }
+    expect((await request(app).get("/refs").query({ refs: "TB-000042/v0/1" })).status).toBe(400);
+    expect((await request(app).get("/refs").query({ refs: "TB-000042/v2/3" })).body.query).toEqual({ refs: ["TB-000042/v2/3"] });
   });
 
   it("refuses a query version that is not a version number with a 400 naming it, and passes a good one as a number", async () => {
