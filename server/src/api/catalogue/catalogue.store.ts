@@ -15,6 +15,9 @@ import { sequelize } from "../../db/sequelize";
 import { searchIndex } from "./catalogue.search-index";
 import { catalogueFingerprint, loadCatalogueRows, type CatalogueEntry } from "./catalogue.rows";
 
+/** How often a request may look for changes made elsewhere (ms); tests change it on the store and reset() restores it. */
+const CHECK_INTERVAL_MS = 2000;
+
 export class CatalogueStore {
   private byId = new Map<number, CatalogueEntry>();
   private sorted: CatalogueEntry[] | null = null;
@@ -22,7 +25,7 @@ export class CatalogueStore {
   private watermark: { versions: string; runs: string } | null = null;
   private checkedAt = 0;
   private loading: Promise<void> | null = null;
-  checkIntervalMs = 2000;
+  checkIntervalMs = CHECK_INTERVAL_MS;
 
   /** All entries ordered by accession and position. */
   async entries(): Promise<CatalogueEntry[]> {
@@ -50,8 +53,9 @@ export class CatalogueStore {
     return this.entries();
   }
 
-  /** Empties the store (tests: after the database was reset). */
+  /** Empties the store and restores the check interval (tests: after the database was reset). */
   reset(): void {
+    this.checkIntervalMs = CHECK_INTERVAL_MS;
     this.byId.clear();
     this.sorted = null;
     this.fingerprint = null;

@@ -317,7 +317,6 @@ describe("keeping current", () => {
       found = (await get({ q: "Menyanthes_notified" })).meta.total;
     }
     expect(found).toBe(1);
-    catalogueStore.checkIntervalMs = 2000;
   });
 
   it("notices changes without any notification (lazy fingerprint check), including new metrics", async () => {
@@ -331,7 +330,6 @@ describe("keeping current", () => {
     expect(second.data[0].Q).toBe(0.444);
     await DatasetVersion.update({ state: "withdrawn", withdrawnAt: new Date() }, { where: { id: fx.versionId } });
     expect((await get({ q: "Sphagnum_silent" })).meta.total).toBe(0);
-    catalogueStore.checkIntervalMs = 2000;
   });
 });
 
