@@ -49,9 +49,11 @@ export default defineConfig({
         test: {
           name: "e2e",
           include: ["tests/e2e/**/*.test.ts"],
+          // As the server project: a worker imports the server and playwright once for all its files.
+          isolate: false,
           environment: "node",
           globalSetup: ["tests/setup/global-db.ts"],
-          setupFiles: ["tests/setup/worker-db.ts"],
+          setupFiles: ["tests/setup/worker-db.ts", "tests/setup/file-state.ts"],
           maxWorkers,
           testTimeout: 120_000,
           hookTimeout: 120_000,
