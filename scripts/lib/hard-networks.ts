@@ -31,6 +31,18 @@ function powerLawInt(rng: Rng, min: number, max: number, tau: number): number {
   }
 }
 
+/** A binary bipartite network of R rows r0… and C columns c0…; row i links the columns in rowsOut[i]. */
+function binaryBipartite(R: number, C: number, rowsOut: number[][]): Network {
+  return {
+    kind: "bipartite",
+    directed: false,
+    weighted: false,
+    rowLabels: Array.from({ length: R }, (_, i) => `r${i}`),
+    colLabels: Array.from({ length: C }, (_, j) => `c${j}`),
+    ...csrFromRows(rowsOut),
+  };
+}
+
 function csrFromRows(rows: number[][]): { rowPtr: Uint32Array; colIdx: Uint32Array; weights: Float64Array } {
   let nnz = 0;
   for (const r of rows) nnz += r.length;
@@ -277,14 +289,7 @@ export function plantedBipartiteDC(o: PlantedBipartiteOptions): PlantedNetwork {
     rowsOut[pool[rng.nextInt(pool.length)]].push(j);
     links++;
   }
-  const net: Network = {
-    kind: "bipartite",
-    directed: false,
-    weighted: false,
-    rowLabels: Array.from({ length: R }, (_, i) => `r${i}`),
-    colLabels: Array.from({ length: C }, (_, j) => `c${j}`),
-    ...csrFromRows(rowsOut),
-  };
+  const net = binaryBipartite(R, C, rowsOut);
   const planted = new Int32Array(R + C);
   planted.set(rowModule, 0);
   planted.set(colModule, R);
@@ -436,13 +441,6 @@ export function nestedBipartite(o: NestedOptions): PlantedNetwork {
     for (let j = 0; j < C; j++) if (cell[i * C + j]) r.push(j);
     rowsOut.push(r);
   }
-  const net: Network = {
-    kind: "bipartite",
-    directed: false,
-    weighted: false,
-    rowLabels: Array.from({ length: R }, (_, i) => `r${i}`),
-    colLabels: Array.from({ length: C }, (_, j) => `c${j}`),
-    ...csrFromRows(rowsOut),
-  };
+  const net = binaryBipartite(R, C, rowsOut);
   return { net, planted: new Int32Array(R + C), modules: 1, mixing: 0 };
 }
