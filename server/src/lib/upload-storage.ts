@@ -42,6 +42,11 @@ export interface TempFile {
 interface UploadState {
   dir: string;
   made: boolean;
+  /**
+   * The request's folder being made. Every part awaits this one promise, so the parts go on in the order they
+   * arrived (awaits of one promise resume in order), and the per-request count names the file that crossed it.
+   */
+  making?: Promise<void>;
   total: number;
   n: number;
 }
@@ -111,10 +116,10 @@ function tempFileStorage(onForeign: (name: string, head: Buffer) => Error): Stor
         return;
       }
       const go = async () => {
-        if (!st.made) {
-          await mkdir(st.dir, { recursive: true, mode: 0o700 });
+        st.making ??= mkdir(st.dir, { recursive: true, mode: 0o700 }).then(() => {
           st.made = true;
-        }
+        });
+        await st.making;
         const path = join(st.dir, `${st.n++}.part`);
         const out = createWriteStream(path, { flags: "wx", mode: 0o600 });
         let size = 0;
