@@ -13,6 +13,7 @@ import { Network, StoredFile } from "../../models";
 import type { NetworkReadOptions } from "../../models/network.model";
 import type { Viewer } from "../datasets/datasets.service";
 import { bytesOf, type UploadedFile } from "./deposits.upload";
+import { DIRECTED_NEEDS_ONE_MODE } from "./deposits.schemas";
 import { bump, checkMetadataObject, loadCuratorEditable, loadNetworkOf, loadOwnEditable, loadVisibleVersion, OWNER_EDITABLE, stateMessage, tx } from "./deposits.access";
 import { depositDetail, getDeposit, type DepositDetail } from "./deposits.detail";
 import { deleteOrphanFiles, networkColumns, parseUploads, storeFile, withMissingValues, withMissingValuesOf, type UploadOptions } from "./deposits.files";
@@ -83,8 +84,11 @@ export async function updateNetwork(
       const file = await StoredFile.unscoped().findByPk(net.fileId, { transaction: t });
       if (!file) throw ApiError.notFound("The stored file is missing.");
       const kind = changes.kind ?? net.kind;
+      // A one-mode network made bipartite loses its direction; asking a bipartite one for a direction is refused.
+      if (kind === "bipartite" && changes.directed === true) throw ApiError.badRequest(DIRECTED_NEEDS_ONE_MODE, [{ path: "/directed", message: DIRECTED_NEEDS_ONE_MODE }]);
+      const directed = kind === "bipartite" ? false : (changes.directed ?? net.directed);
       const read = { ...(net.readOptions ?? {}), ...changes.read };
-      const [p] = await parseUploads([{ name: net.originalName, bytes: file.bytes }], { kind, directed: changes.directed ?? net.directed, format: changes.format ?? net.format, read });
+      const [p] = await parseUploads([{ name: net.originalName, bytes: file.bytes }], { kind, directed, format: changes.format ?? net.format, read });
       Object.assign(update, networkColumns(p));
       update.metadata = withMissingValues((update.metadata as Record<string, unknown> | undefined) ?? net.metadata ?? {}, p);
     }

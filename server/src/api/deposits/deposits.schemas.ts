@@ -26,9 +26,12 @@ const kind: FieldSchema = { type: "string", enum: ["bipartite", "unipartite"], d
 const directed: FieldSchema = { type: "boolean", description: "One-mode networks only: links have a direction" };
 const format: FieldSchema = { type: "string", enum: ["auto", "matrix", "edgelist"], description: "How the table is laid out (auto: told from the file)" };
 
+/** Why a network cannot be directed when its kind is not one-mode. */
+export const DIRECTED_NEEDS_ONE_MODE = 'A bipartite network cannot be directed: only one-mode networks (kind "unipartite") can be.';
+
 /** A bipartite network has no direction. */
 const directedNeedsOneMode = (b: Record<string, unknown>): ErrorDetail[] =>
-  b.directed === true && b.kind !== "unipartite" ? [{ path: "/directed", message: 'A bipartite network cannot be directed: only one-mode networks (kind "unipartite") can be.' }] : [];
+  b.directed === true && b.kind !== "unipartite" ? [{ path: "/directed", message: DIRECTED_NEEDS_ONE_MODE }] : [];
 
 export const depositSchema: RequestSchema = { params: deposit };
 export const depositNetworkSchema: RequestSchema = { params: depositNetwork };
@@ -66,7 +69,8 @@ export const uploadFieldsSchema: RequestSchema = {
 export const networkChangesSchema: RequestSchema = {
   params: depositNetwork,
   body: { type: "object", properties: { metadata, kind, directed, format, ...readProperties }, additionalProperties: false, minProperties: 1 },
-  bodyRules: (b) => (b.directed === undefined ? [] : directedNeedsOneMode(b)),
+  // Without `kind` the stored kind decides, so the service judges `directed` then (deposits.networks.ts).
+  bodyRules: (b) => (b.directed === undefined || b.kind === undefined ? [] : directedNeedsOneMode(b)),
 };
 
 export const reorderSchema: RequestSchema = {

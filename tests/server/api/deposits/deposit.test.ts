@@ -147,11 +147,23 @@ describe("uploads", () => {
     // Zachary's karate club: 34 members, 78 links (tests/fixtures/README.md).
     expect(up.body.deposit.networks[0]).toMatchObject({ kind: "unipartite", directed: false, format: "edgelist", nNodes: 34, nLinks: 78 });
     const nid = up.body.networks[0].id;
-    const re = await owner.agent.patch(`/api/v1/deposits/${id}/networks/${nid}`).set("x-csrf-token", owner.csrf).send({ kind: "bipartite" });
+    const patch = (body: object) => owner.agent.patch(`/api/v1/deposits/${id}/networks/${nid}`).set("x-csrf-token", owner.csrf).send(body);
+    // Without `kind`, the stored kind decides whether a direction may be given: one-mode here, so it may.
+    const dir = await patch({ directed: true });
+    expect(dir.status).toBe(200);
+    expect(dir.body.networks[0]).toMatchObject({ kind: "unipartite", directed: true, nLinks: 78 });
+    // Made bipartite, the network loses its direction.
+    const re = await patch({ kind: "bipartite" });
     expect(re.status).toBe(200);
-    expect(re.body.networks[0]).toMatchObject({ kind: "bipartite", nLinks: 78 });
-    const bad = await owner.agent.patch(`/api/v1/deposits/${id}/networks/${nid}`).set("x-csrf-token", owner.csrf).send({ kind: "bipartite", directed: true });
+    expect(re.body.networks[0]).toMatchObject({ kind: "bipartite", directed: false, nLinks: 78 });
+    const bad = await patch({ kind: "bipartite", directed: true });
     expect(bad.status).toBe(400);
+    // A direction for the stored bipartite network is refused too, naming the field, and nothing changes.
+    const stored = await patch({ directed: true });
+    expect(stored.status).toBe(400);
+    expect(stored.body.details).toEqual([expect.objectContaining({ path: "/directed", message: expect.stringMatching(/bipartite network cannot be directed/) })]);
+    const after = await owner.agent.get(`/api/v1/deposits/${id}`);
+    expect(after.body.networks[0]).toMatchObject({ kind: "bipartite", directed: false, nLinks: 78 });
   });
 
   const BAD: Array<[string, string, string | Buffer, { code: string; row: number | null; column: number | null }]> = [
