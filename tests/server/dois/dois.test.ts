@@ -22,7 +22,7 @@ import { agentFor, createUser, type SignedInAgent } from "../support/accounts";
 import { startMailCatcher } from "../support/stack";
 import { decide, makeDraft, studyMeta, submit } from "../support/deposit-helpers";
 import { waitFor } from "../support/wait";
-import { unzip } from "../support/unzip";
+import { binaryParser, unzip } from "../support/unzip";
 import { datasetHtmlRenderer } from "../../../server/src/api/datasets/datasets.html";
 
 const PUBLIC_URL = "http://tanglebank.test:3000";
@@ -186,11 +186,7 @@ describe("registration after publishing", () => {
       .get("/api/v1/bundles")
       .query({ refs: `${accession}/v1/1` })
       .buffer(true)
-      .parse((res, cb) => {
-        const chunks: Buffer[] = [];
-        res.on("data", (c: Buffer) => chunks.push(c));
-        res.on("end", () => cb(null, Buffer.concat(chunks)));
-      });
+      .parse(binaryParser);
     expect(zip.status).toBe(200);
     const files = await unzip(zip.body as Buffer);
     expect(files.get("CITATIONS.bib")).toContain(`doi = {${v1Doi}}`);

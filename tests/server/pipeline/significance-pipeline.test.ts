@@ -18,7 +18,7 @@ import { MetricRun } from "../../../server/src/models";
 import { resetDatabase } from "../../setup/db";
 import request from "supertest";
 import { catalogueStore } from "../../../server/src/api/catalogue/catalogue.store";
-import { unzip } from "../support/unzip";
+import { binaryParser, unzip } from "../support/unzip";
 import { agentFor, createUser, type SignedInAgent } from "../support/accounts";
 import { clearQueue, publishMatrices, randomMatrix } from "../support/pipeline-fixtures";
 import { waitFor } from "../support/wait";
@@ -41,11 +41,6 @@ afterAll(async () => {
   await shutdownServerResources();
 });
 
-function binaryParser(res: request.Response, cb: (err: Error | null, body: Buffer) => void) {
-  const chunks: Buffer[] = [];
-  res.on("data", (c: Buffer) => chunks.push(c));
-  res.on("end", () => cb(null, Buffer.concat(chunks)));
-}
 
 describe("null-model settings in the pipeline", () => {
   let accession: string;

@@ -1,5 +1,16 @@
-/** Reads every entry of a zip (with yauzl) into a map of file name → bytes, or → UTF-8 text. */
+/**
+ * Reads every entry of a zip (with yauzl) into a map of file name → bytes, or → UTF-8 text; `binaryParser`
+ * makes supertest keep a download's body as bytes (`.buffer(true).parse(binaryParser)`).
+ */
+import type { Response } from "supertest";
 import yauzl from "yauzl";
+
+/** supertest body parser: the response's bytes, as they came. */
+export function binaryParser(res: Response, cb: (err: Error | null, body: Buffer) => void): void {
+  const chunks: Buffer[] = [];
+  res.on("data", (c: Buffer) => chunks.push(c));
+  res.on("end", () => cb(null, Buffer.concat(chunks)));
+}
 
 export function unzipBuffers(buf: Buffer): Promise<Map<string, Buffer>> {
   return new Promise((resolve, reject) => {

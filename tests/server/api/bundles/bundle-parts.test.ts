@@ -23,7 +23,7 @@ import { shutdownServerResources } from "../../../../server/src/index";
 import { sequelize } from "../../../../server/src/db/sequelize";
 import { catalogueStore } from "../../../../server/src/api/catalogue/catalogue.store";
 import { resetDatabase } from "../../../setup/db";
-import { unzipBuffers } from "../../support/unzip";
+import { binaryParser, unzipBuffers } from "../../support/unzip";
 import { createFixtureDataset, DAVIS_CSV, KARATE_CSV } from "../../support/published-fixture";
 
 const app = createApp();
@@ -36,11 +36,6 @@ const text = (name: string) => {
 };
 const table = (name: string) => parseCsv(text(name), { columns: true }) as Array<Record<string, string>>;
 
-function binaryParser(res: request.Response, cb: (err: Error | null, body: Buffer) => void) {
-  const chunks: Buffer[] = [];
-  res.on("data", (c: Buffer) => chunks.push(c));
-  res.on("end", () => cb(null, Buffer.concat(chunks)));
-}
 
 async function bundle(query: Record<string, string>): Promise<Map<string, Buffer>> {
   const res = await request(app).get("/api/v1/bundles").query(query).buffer(true).parse(binaryParser);

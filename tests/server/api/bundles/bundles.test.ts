@@ -15,7 +15,7 @@ import { sequelize } from "../../../../server/src/db/sequelize";
 import { catalogueStore } from "../../../../server/src/api/catalogue/catalogue.store";
 import { deserializeNetwork, parseNetworkText, serializeNetwork } from "@shared/network/index";
 import { resetDatabase } from "../../../setup/db";
-import { unzip } from "../../support/unzip";
+import { binaryParser, unzip } from "../../support/unzip";
 import { publishDataset, type PublishedFixture } from "../../support/catalogue-fixtures";
 import { Writable } from "node:stream";
 import { resolveSelection } from "../../../../server/src/api/bundles/bundles.selection";
@@ -47,11 +47,6 @@ beforeAll(async () => {
 });
 afterAll(shutdownServerResources);
 
-function binaryParser(res: request.Response, cb: (err: Error | null, body: Buffer) => void) {
-  const chunks: Buffer[] = [];
-  res.on("data", (c: Buffer) => chunks.push(c));
-  res.on("end", () => cb(null, Buffer.concat(chunks)));
-}
 
 
 /** CRC-32 (IEEE 802.3, reflected polynomial 0xEDB88320) bit by bit, straight from its definition. */

@@ -16,7 +16,7 @@ import { catalogueStore } from "../../../../server/src/api/catalogue/catalogue.s
 import { resetDatabase } from "../../../setup/db";
 import { agentFor, createUser, type SignedInAgent } from "../../support/accounts";
 import { publishDataset, type PublishedFixture } from "../../support/catalogue-fixtures";
-import { unzip } from "../../support/unzip";
+import { binaryParser, unzip } from "../../support/unzip";
 
 const app = createApp();
 let owner: SignedInAgent;
@@ -134,11 +134,7 @@ describe("collections", () => {
       .get("/api/v1/bundles")
       .query({ collection: code })
       .buffer(true)
-      .parse((res, cb) => {
-        const chunks: Buffer[] = [];
-        res.on("data", (c: Buffer) => chunks.push(c));
-        res.on("end", () => cb(null, Buffer.concat(chunks)));
-      });
+      .parse(binaryParser);
     expect(zip.status).toBe(200);
     const files = await unzip(zip.body as Buffer);
     const metrics = parseCsv(files.get("metrics.csv")!, { columns: true }) as Array<Record<string, string>>;

@@ -17,6 +17,7 @@ import { resetDatabase } from "../../../setup/db";
 import { agentFor, createUser, type SignedInAgent } from "../../support/accounts";
 import { startMailCatcher } from "../../support/stack";
 import { davisCsv, decide, makeDraft, networkMeta, SMALL_MATRIX, studyMeta, submit } from "../../support/deposit-helpers";
+import { binaryParser } from "../../support/unzip";
 
 let catcher: MailCatcher;
 let owner: SignedInAgent;
@@ -72,11 +73,7 @@ describe("submission diff", () => {
   });
 
   it("the curator downloads each deposited file byte for byte, with its SHA-256 in the Digest header", async () => {
-    const f = await curator.agent.get(`/api/v1/deposits/${versionId}/networks/${heathId}/file`).buffer(true).parse((res, cb) => {
-      const chunks: Buffer[] = [];
-      res.on("data", (c: Buffer) => chunks.push(c));
-      res.on("end", () => cb(null, Buffer.concat(chunks)));
-    });
+    const f = await curator.agent.get(`/api/v1/deposits/${versionId}/networks/${heathId}/file`).buffer(true).parse(binaryParser);
     expect(f.status).toBe(200);
     expect((f.body as Buffer).toString("utf8")).toBe(SMALL_MATRIX);
     expect(f.headers["content-disposition"]).toContain("heath.csv");
